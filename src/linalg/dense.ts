@@ -1,0 +1,92 @@
+/** Dense row-major Float64Array helpers. A matrix of n rows and m columns stores entry (i, j) at i*m + j. */
+
+export function identity(n: number): Float64Array {
+  const out = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) out[i * n + i] = 1;
+  return out;
+}
+
+/** I − A for a square n×n matrix. */
+export function identityMinus(a: Float64Array, n: number): Float64Array {
+  const out = new Float64Array(n * n);
+  for (let k = 0; k < n * n; k++) out[k] = -a[k]!;
+  for (let i = 0; i < n; i++) out[i * n + i] = out[i * n + i]! + 1;
+  return out;
+}
+
+/** y = A·v for A of n rows and m columns. */
+export function matVec(a: Float64Array, n: number, m: number, v: Float64Array): Float64Array {
+  const y = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    let s = 0;
+    const row = i * m;
+    for (let j = 0; j < m; j++) s += a[row + j]! * v[j]!;
+    y[i] = s;
+  }
+  return y;
+}
+
+/** y = v·A (row vector times matrix) for A of n rows and m columns. */
+export function vecMat(v: Float64Array, a: Float64Array, n: number, m: number): Float64Array {
+  const y = new Float64Array(m);
+  for (let i = 0; i < n; i++) {
+    const vi = v[i]!;
+    if (vi === 0) continue;
+    const row = i * m;
+    for (let j = 0; j < m; j++) y[j] = y[j]! + vi * a[row + j]!;
+  }
+  return y;
+}
+
+/** C = A·B with A n×k and B k×m. */
+export function matMul(a: Float64Array, b: Float64Array, n: number, k: number, m: number): Float64Array {
+  const c = new Float64Array(n * m);
+  for (let i = 0; i < n; i++) {
+    for (let p = 0; p < k; p++) {
+      const aip = a[i * k + p]!;
+      if (aip === 0) continue;
+      const brow = p * m;
+      const crow = i * m;
+      for (let j = 0; j < m; j++) c[crow + j] = c[crow + j]! + aip * b[brow + j]!;
+    }
+  }
+  return c;
+}
+
+/** Matrix 1-norm (maximum absolute column sum) of an n×n matrix. */
+export function norm1(a: Float64Array, n: number): number {
+  let best = 0;
+  for (let j = 0; j < n; j++) {
+    let s = 0;
+    for (let i = 0; i < n; i++) s += Math.abs(a[i * n + j]!);
+    if (s > best) best = s;
+  }
+  return best;
+}
+
+/** Matrix infinity-norm (maximum absolute row sum) of an n×n matrix. */
+export function normInf(a: Float64Array, n: number): number {
+  let best = 0;
+  for (let i = 0; i < n; i++) {
+    let s = 0;
+    for (let j = 0; j < n; j++) s += Math.abs(a[i * n + j]!);
+    if (s > best) best = s;
+  }
+  return best;
+}
+
+export function columnSums(a: Float64Array, n: number, m: number): Float64Array {
+  const s = new Float64Array(m);
+  for (let i = 0; i < n; i++) for (let j = 0; j < m; j++) s[j] = s[j]! + a[i * m + j]!;
+  return s;
+}
+
+export function rowSums(a: Float64Array, n: number, m: number): Float64Array {
+  const s = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    let t = 0;
+    for (let j = 0; j < m; j++) t += a[i * m + j]!;
+    s[i] = t;
+  }
+  return s;
+}

@@ -1,0 +1,2 @@
+export * from './dense.ts';
+export * from './lu.ts';

@@ -1,0 +1,64 @@
+/**
+ * Technical coefficients and per-unit-output coefficients (Miller & Blair, Input–Output Analysis, 2nd ed. 2009, §2.2):
+ * a_ij = z_ij / x_j; labour-income, other value-added, import and employment coefficients are the rows divided by x_j.
+ */
+import type { IOTable, LabelledVector } from '../table/types.ts';
+
+export interface Coefficients {
+  n: number;
+  sectors: string[];
+  /** Technical coefficients A = Z·diag(x)⁻¹, row-major n×n. */
+  A: Float64Array;
+  x: Float64Array;
+  /** Household (labour) income per unit of output, h_j (all labour-income rows summed). */
+  h: Float64Array;
+  /** Other value added per unit of output. */
+  otherVA: Float64Array;
+  /** Imports per unit of output. */
+  imports: Float64Array;
+  /** Jobs per unit of output, or null when the table has no employment row. */
+  e: Float64Array | null;
+  /** Household consumption from each sector (all household columns summed), money. */
+  householdConsumption: Float64Array;
+  /** Total household income x_h = Σ_j labour income_j (the household sector's "output" in the closed model). */
+  householdIncomeTotal: number;
+}
+
+export function sumVectors(vs: LabelledVector[], n: number): Float64Array {
+  const out = new Float64Array(n);
+  for (const v of vs) for (let i = 0; i < n; i++) out[i] = out[i]! + v.values[i]!;
+  return out;
+}
+
+function perUnit(v: Float64Array, x: Float64Array): Float64Array {
+  const out = new Float64Array(v.length);
+  for (let j = 0; j < v.length; j++) out[j] = x[j]! > 0 ? v[j]! / x[j]! : 0;
+  return out;
+}
+
+/** Coefficients of a validated table. Sectors with zero output get zero coefficients (the importer refuses such a sector that buys inputs). */
+export function coefficients(t: IOTable): Coefficients {
+  const { n, Z, x } = t;
+  const A = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      const xj = x[j]!;
+      A[i * n + j] = xj > 0 ? Z[i * n + j]! / xj : 0;
+    }
+  }
+  const labour = sumVectors(t.labourIncome, n);
+  let householdIncomeTotal = 0;
+  for (let j = 0; j < n; j++) householdIncomeTotal += labour[j]!;
+  return {
+    n,
+    sectors: t.sectors,
+    A,
+    x,
+    h: perUnit(labour, x),
+    otherVA: perUnit(sumVectors(t.otherValueAdded, n), x),
+    imports: perUnit(sumVectors(t.imports, n), x),
+    e: t.employment ? perUnit(t.employment, x) : null,
+    householdConsumption: sumVectors(t.householdConsumption, n),
+    householdIncomeTotal,
+  };
+}

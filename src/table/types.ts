@@ -1,0 +1,51 @@
+/**
+ * The imported table, after roles are assigned and numbers validated. Everything downstream
+ * (model, scenarios, regionalization, reports) works from this one shape.
+ *
+ * Convention: Z[i*n + j] is the flow from selling sector i (row) to buying sector j (column),
+ * in money per year; x[j] is total output of sector j.
+ */
+import type { Warning } from '../diagnostics/errors.ts';
+
+/** What a non-sector row of the source table means. */
+export type RowRole = 'labourIncome' | 'otherValueAdded' | 'imports' | 'employment' | 'totalInput' | 'ignore';
+/** What a non-sector column of the source table means. */
+export type ColumnRole = 'householdConsumption' | 'otherFinalDemand' | 'totalOutput' | 'ignore';
+
+/** Role map: label -> role for every non-sector row and column. Saved with the project; CLI `--map map.json`. */
+export interface RoleMap {
+  rows: Record<string, RowRole>;
+  columns: Record<string, ColumnRole>;
+}
+
+export type Layout = 'matrix' | 'long' | 'coefficients';
+
+export interface LabelledVector {
+  label: string;
+  values: Float64Array; // length n, sector order
+}
+
+export interface IOTable {
+  name: string;
+  /** Sector labels in order, length n. */
+  sectors: string[];
+  n: number;
+  /** Intermediate flows, n×n row-major. */
+  Z: Float64Array;
+  /** Total output per sector (given, or rows/columns summed when no total is given). */
+  x: Float64Array;
+  /** Rows of the value-added block, by role. Several rows may share a role; they are summed where needed. */
+  labourIncome: LabelledVector[];
+  otherValueAdded: LabelledVector[];
+  imports: LabelledVector[];
+  /** Jobs per sector (headcount or FTE, not money); null when the table has no employment row. */
+  employment: Float64Array | null;
+  /** Final-demand columns, by role. */
+  householdConsumption: LabelledVector[];
+  otherFinalDemand: LabelledVector[];
+  /** Units of money as stated by the user or the corner cell, e.g. "thousand dollars". */
+  moneyUnit: string;
+  layout: Layout;
+  roles: RoleMap;
+  warnings: Warning[];
+}
