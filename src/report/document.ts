@@ -1,0 +1,57 @@
+/**
+ * Report layout, shared by every report: each CSV is plain and rectangular (one header row with units in the
+ * header names, one row per sector, then a total row where totals make sense), so spreadsheets and papaparse
+ * read it back cleanly. What would break the rectangle — table name, model type, date, units, cautions — goes
+ * into a sidecar text file of the same base name: `multipliers.csv` + `multipliers.about.txt`.
+ */
+import { CAUTIONS } from './cautions.ts';
+import { toCsv, type Cell } from './csv.ts';
+
+export interface ReportMeta {
+  /** What the report is, e.g. "Multipliers by sector". */
+  title: string;
+  tableName: string;
+  sourceFile?: string;
+  /** Hex SHA-256 of the source file, when known. */
+  sourceHash?: string;
+  /** e.g. "open (Type I) and household-closed (Type II)". */
+  modelType: string;
+  /** ISO 8601 date-time of the run. */
+  date: string;
+  /** Money unit of the table, e.g. "thousand dollars". */
+  moneyUnit: string;
+  /** Extra notes (warnings, scenario description, aggregation-bias note...). */
+  notes?: string[];
+}
+
+export interface ReportFile {
+  /** File name without folder, e.g. "multipliers.csv". */
+  name: string;
+  content: string;
+}
+
+export function aboutText(meta: ReportMeta): string {
+  const lines = [
+    `Roundwise report: ${meta.title}`,
+    `Table: ${meta.tableName}`,
+    ...(meta.sourceFile ? [`Source file: ${meta.sourceFile}`] : []),
+    ...(meta.sourceHash ? [`Source SHA-256: ${meta.sourceHash}`] : []),
+    `Model: ${meta.modelType}`,
+    `Money unit: ${meta.moneyUnit}`,
+    `Produced: ${meta.date}`,
+    '',
+    ...(meta.notes?.length ? ['Notes:', ...meta.notes.map((n) => `- ${n}`), ''] : []),
+    'Cautions (input-output analysis):',
+    ...CAUTIONS.map((c) => `- ${c}`),
+    '',
+  ];
+  return lines.join('\r\n');
+}
+
+/** The CSV and its sidecar for one report. `base` is the file name without extension, e.g. "multipliers". */
+export function reportFiles(base: string, meta: ReportMeta, rows: readonly (readonly Cell[])[]): ReportFile[] {
+  return [
+    { name: `${base}.csv`, content: toCsv(rows) },
+    { name: `${base}.about.txt`, content: aboutText(meta) },
+  ];
+}
