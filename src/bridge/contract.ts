@@ -1,0 +1,65 @@
+/**
+ * The typed bridge between the UI (renderer/) and the desktop shell (main/). Types and pure validators only:
+ * main/preload.ts exposes an object of this shape as `window.roundwise` in Electron; renderer/bridge/browser.ts
+ * implements the same shape with file inputs, downloads and localStorage in browser mode. The renderer only
+ * ever talks to a RoundwiseBridge, never asks which one it has.
+ */
+
+export interface OpenedFile {
+  /** File name shown to the user (no folder in browser mode). */
+  name: string;
+  /** Full path in desktop mode, undefined in browser mode. */
+  path?: string;
+  /** Raw content as UTF-8 text (tables and projects are text). */
+  text: string;
+  /** Size in bytes, for the size limit and progress. */
+  size: number;
+}
+
+export interface SavedFile {
+  name: string;
+  path?: string;
+}
+
+export interface RecentEntry {
+  name: string;
+  /** Desktop: full path. Browser: a key of the local store. */
+  ref: string;
+  /** ISO date of the last open or save. */
+  when: string;
+}
+
+export type FileKind = 'table' | 'project';
+export type ExportKind = 'csv' | 'txt' | 'png' | 'json';
+
+/** Commands the native menu (desktop) or the in-window menu (browser) sends to the UI. */
+export type MenuCommand =
+  | 'open-table' | 'open-project' | 'save-project' | 'save-project-as'
+  | 'export-report' | 'undo' | 'redo' | 'about';
+
+export interface RoundwiseBridge {
+  readonly mode: 'desktop' | 'browser';
+  /** Ask the user for a file; null when cancelled. */
+  openFile(kind: FileKind): Promise<OpenedFile | null>;
+  /** Save a project: to `path` when given (desktop "Save"), else ask. Written atomically (temp file + rename). */
+  saveProject(suggestedName: string, content: string, path?: string): Promise<SavedFile | null>;
+  /** Export a report or chart: a save dialog in desktop mode, a download in browser mode. `content` is text or base64 for png. */
+  exportFile(suggestedName: string, kind: ExportKind, content: string): Promise<SavedFile | null>;
+  recentProjects(): Promise<RecentEntry[]>;
+  openRecent(ref: string): Promise<OpenedFile | null>;
+  /** Tell the shell whether there are unsaved changes, so closing the window can ask first. */
+  setDirty(dirty: boolean): void;
+  /** Subscribe to menu commands; returns an unsubscribe function. */
+  onMenu(handler: (cmd: MenuCommand) => void): () => void;
+}
+
+/** IPC channel names, one per bridge method that crosses the process boundary. */
+export const CHANNELS = {
+  openFile: 'roundwise:open-file',
+  saveProject: 'roundwise:save-project',
+  exportFile: 'roundwise:export-file',
+  recentProjects: 'roundwise:recent-projects',
+  openRecent: 'roundwise:open-recent',
+  setDirty: 'roundwise:set-dirty',
+  menu: 'roundwise:menu',
+} as const;
