@@ -10,6 +10,7 @@
  * test/bench).
  */
 import type { WasmGemm, WasmKernel } from './wasm-gemm.ts';
+import { splitGemm } from './parallel.ts';
 
 /** Depth of one B tile (rows of B, columns of A) for the JavaScript kernel. */
 export const TILE_K = 128;
@@ -80,7 +81,8 @@ function wasmTiled(
   const cBase = c.byteOffset + 8 * cOff;
   const aBase = a.byteOffset + 8 * aOff;
   const bBase = b.byteOffset + 8 * bOff;
-  for (let p0 = 0; p0 < k; p0 += WASM_TILE_K) {
+  const split = splitGemm(gemm, cBase, 8 * ldc, aBase, 8 * lda, bBase, 8 * ldb, m4, n4, k, WASM_TILE_K, WASM_TILE_N);
+  for (let p0 = 0; p0 < k && !split; p0 += WASM_TILE_K) {
     const kk = Math.min(WASM_TILE_K, k - p0);
     for (let j0 = 0; j0 < n4; j0 += WASM_TILE_N) {
       const nn = Math.min(WASM_TILE_N, n4 - j0);

@@ -9,11 +9,11 @@
  */
 
 /** The minimal slice of the WebAssembly JS API used here (src/ is type-checked without DOM or Node typings). */
-interface WasmMemory { readonly buffer: ArrayBuffer; grow(pages: number): number }
+export interface WasmMemory { readonly buffer: ArrayBuffer | SharedArrayBuffer; grow(pages: number): number }
 interface WasmApi {
   Module: new (bytes: Uint8Array) => object;
   Instance: new (module: object, imports: Record<string, Record<string, unknown>>) => { exports: Record<string, unknown> };
-  Memory: new (descriptor: { initial: number; maximum?: number }) => WasmMemory;
+  Memory: new (descriptor: { initial: number; maximum?: number; shared?: boolean }) => WasmMemory;
 }
 
 /** gemm(c, ldcBytes, a, ldaBytes, b, ldbBytes, m, n, k): C −= A·B for m and n multiples of 4 and k ≥ 1; byte addresses. */
@@ -126,10 +126,14 @@ function gemmBody(): number[] {
   return [...uleb(body.length), ...body];
 }
 
-/** The module: imports memory env.mem, exports gemm. */
-export function gemmModuleBytes(): Uint8Array {
+/** Maximum size of the shared memory used with helper threads (a shared Wasm memory must declare one): 2 GiB. */
+export const SHARED_MAX_PAGES = 32768;
+
+/** The module: imports memory env.mem (shared, for helper threads, or not), exports gemm. */
+export function gemmModuleBytes(shared = false): Uint8Array {
   const type = section(1, vec([[0x60, ...vec(new Array<number[]>(9).fill([I32])), ...vec([])]]));
-  const imports = section(2, vec([[...name('env'), ...name('mem'), 0x02, 0x00, ...uleb(1)]]));
+  const limits = shared ? [0x03, ...uleb(1), ...uleb(SHARED_MAX_PAGES)] : [0x00, ...uleb(1)];
+  const imports = section(2, vec([[...name('env'), ...name('mem'), 0x02, ...limits]]));
   const funcs = section(3, vec([uleb(0)]));
   const exports = section(7, vec([[...name('gemm'), 0x00, ...uleb(0)]]));
   const code = section(10, vec([gemmBody()]));
@@ -139,25 +143,38 @@ export function gemmModuleBytes(): Uint8Array {
 export interface WasmKernel {
   memory: WasmMemory;
   gemm: WasmGemm;
+  /** The compiled module, to instantiate the same kernel in helper threads over the same (shared) memory. */
+  module: object;
 }
 
-let compiled: object | null | undefined;
+const compiled: { plain?: object | null; shared?: object | null } = {};
 
 function wasmApi(): WasmApi | undefined {
   return (globalThis as unknown as { WebAssembly?: WasmApi }).WebAssembly;
 }
 
-/** A fresh instance over its own memory of at least `bytes` bytes, or null without Wasm SIMD. */
-export function instantiateGemm(bytes: number): WasmKernel | null {
+function compiledModule(api: WasmApi, shared: boolean): object | null {
+  const key = shared ? 'shared' : 'plain';
+  if (compiled[key] === undefined) {
+    try { compiled[key] = new api.Module(gemmModuleBytes(shared)); } catch { compiled[key] = null; }
+  }
+  return compiled[key] ?? null;
+}
+
+/**
+ * A fresh instance over its own memory of at least `bytes` bytes, or null without Wasm SIMD (or, when `shared`,
+ * without shared memory: a browser page that is not cross-origin isolated).
+ */
+export function instantiateGemm(bytes: number, shared = false): WasmKernel | null {
   const api = wasmApi();
   if (!api) return null;
-  if (compiled === undefined) {
-    try { compiled = new api.Module(gemmModuleBytes()); } catch { compiled = null; }
-  }
-  if (compiled === null) return null;
+  const module = compiledModule(api, shared);
+  if (module === null) return null;
   const pages = Math.max(1, Math.ceil(bytes / 65536));
   let memory: WasmMemory;
-  try { memory = new api.Memory({ initial: pages }); } catch { return null; }
-  const instance = new api.Instance(compiled, { env: { mem: memory } });
-  return { memory, gemm: instance.exports['gemm'] as WasmGemm };
+  try {
+    memory = new api.Memory(shared ? { initial: pages, maximum: SHARED_MAX_PAGES, shared: true } : { initial: pages });
+  } catch { return null; }
+  const instance = new api.Instance(module, { env: { mem: memory } });
+  return { memory, gemm: instance.exports['gemm'] as WasmGemm, module };
 }
