@@ -223,7 +223,7 @@ export function luSolveMany(f: LU, b: Float64Array, m: number): Float64Array {
 export function luInverse(f: LU): Float64Array {
   assertSolvable(f);
   const { n, piv } = f;
-  const x = withWorkspace([n * n, n * n], ([lu, w]) => {
+  return withWorkspace([n * n, n * n], ([lu, w]) => {
     lu!.set(f.lu);
     for (let c0 = 0; c0 < n; c0 += INVERSE_BLOCK) {
       const c1 = Math.min(n, c0 + INVERSE_BLOCK);
@@ -231,15 +231,14 @@ export function luInverse(f: LU): Float64Array {
       solveUnitLower(lu!, n, c0, n, w!, n, c0, c1 - c0);
     }
     solveUpper(lu!, n, 0, n, w!, n, 0, n);
-    return w!.slice();
+    // A⁻¹ = X·P: column piv[i] of the inverse is column i of X.
+    const out = new Float64Array(n * n);
+    for (let r = 0; r < n; r++) {
+      const row = r * n;
+      for (let i = 0; i < n; i++) out[row + piv[i]!] = w![row + i]!;
+    }
+    return out;
   });
-  // A⁻¹ = X·P: column piv[i] of the inverse is column i of X.
-  const out = new Float64Array(n * n);
-  for (let r = 0; r < n; r++) {
-    const row = r * n;
-    for (let i = 0; i < n; i++) out[row + piv[i]!] = x[row + i]!;
-  }
-  return out;
 }
 
 export function luDeterminant(f: LU): number {

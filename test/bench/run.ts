@@ -14,6 +14,7 @@ import { luFactorReference } from '../../src/linalg/lu-reference.ts';
 import { leontiefMatrix } from './matrices.ts';
 import { time, runsFor, type Timing } from './timing.ts';
 import { numpyAvailable, numpyInverse, type NumpyTiming } from './numpy.ts';
+import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../src/cli/parallel.ts';
 
 const args = process.argv.slice(2);
 const sizesArg = args[args.indexOf('--sizes') + 1];
@@ -21,6 +22,8 @@ const SIZES = args.includes('--sizes') && sizesArg ? sizesArg.split(',').map(Num
 const QUICK = args.includes('--quick');
 /** ml-matrix's inverse is skipped above n = 1000 when the n = 1000 time predicts more than this (O(n³) scaling). */
 const ML_INVERSE_BUDGET_MS = 40_000;
+/** Helper threads for the threaded runs: one per extra core. */
+const HELPERS = cpus().length - 1;
 
 const outDir = join(process.cwd(), 'bench-results');
 mkdirSync(outDir, { recursive: true });
@@ -34,7 +37,7 @@ function cpuModel(): string {
 
 interface Row {
   n: number;
-  luOurs: Timing; luOursJs: Timing; luReference: Timing | null; luMl: Timing | null;
+  luOurs: Timing; luOursJs: Timing; luThreads: Timing | null; invThreads: Timing | null; luReference: Timing | null; luMl: Timing | null;
   invOurs: Timing; invMl: Timing | null; invMlSkipped: string | null; invNumpy: NumpyTiming | null;
   residual: number; peakMB: number | null; baselineMB: number | null;
 }
@@ -59,6 +62,17 @@ for (const n of SIZES) {
   setKernelMode('js');
   const luOursJs = time(() => luFactor(m, n), runs);
   setKernelMode('auto');
+  let luThreads: Timing | null = null;
+  let invThreads: Timing | null = null;
+  if (HELPERS > 0) {
+    process.stderr.write(` ${HELPERS + 1} threads…`);
+    startParallelKernels(HELPERS);
+    if ((await parallelKernelsReady()) === HELPERS) {
+      luThreads = time(() => luFactor(m, n), runs);
+      invThreads = time(() => luInverse(luFactor(m, n)), runs);
+    }
+    await stopParallelKernels();
+  }
   process.stderr.write(' reference…');
   const luReference = n <= 2000 ? time(() => luFactorReference(m, n), n >= 1000 ? 1 : runs, n >= 1000 ? 0 : 1) : null;
   process.stderr.write(' ml-matrix…');
@@ -80,14 +94,16 @@ for (const n of SIZES) {
   const child = spawnSync(process.execPath, ['--import', 'tsx', join('test', 'bench', 'memory-child.ts'), 'inverse', String(n)], { encoding: 'utf8' });
   const mem = child.status === 0 ? (JSON.parse(child.stdout) as { baselineMB: number; peakMB: number }) : null;
   process.stderr.write(' done\n');
-  rows.push({ n, luOurs, luOursJs, luReference, luMl, invOurs, invMl, invMlSkipped, invNumpy, residual, peakMB: mem?.peakMB ?? null, baselineMB: mem?.baselineMB ?? null });
+  rows.push({ n, luOurs, luOursJs, luThreads, invThreads, luReference, luMl, invOurs, invMl, invMlSkipped, invNumpy, residual, peakMB: mem?.peakMB ?? null, baselineMB: mem?.baselineMB ?? null });
 }
 
-const header = ['n', 'LU ours', 'LU ours (JS kernel)', 'LU unblocked', 'LU ml-matrix', 'inverse ours', 'inverse ml-matrix', 'inverse numpy', 'ours/numpy', 'ml-matrix/ours', 'residual', 'peak RSS'];
+const T = HELPERS + 1;
+const best = (r: Row): number => Math.min(r.invOurs.medianMs, r.invThreads?.medianMs ?? Infinity);
+const header = ['n', 'LU', `LU ${T} thr`, 'LU JS kernel', 'LU unblocked', 'LU ml-matrix', 'inverse', `inverse ${T} thr`, 'inverse ml-matrix', 'inverse numpy', 'ours/numpy', 'ml-matrix/ours', 'residual', 'peak RSS'];
 const table = rows.map((r) => [
-  String(r.n), fmt(r.luOurs.medianMs), fmt(r.luOursJs.medianMs), fmt(r.luReference?.medianMs), fmt(r.luMl?.medianMs),
-  fmt(r.invOurs.medianMs), r.invMl ? fmt(r.invMl.medianMs) : 'skipped', fmt(r.invNumpy?.medianMs),
-  ratio(r.invOurs.medianMs, r.invNumpy?.medianMs), ratio(r.invMl?.medianMs, r.invOurs.medianMs),
+  String(r.n), fmt(r.luOurs.medianMs), fmt(r.luThreads?.medianMs), fmt(r.luOursJs.medianMs), fmt(r.luReference?.medianMs), fmt(r.luMl?.medianMs),
+  fmt(r.invOurs.medianMs), fmt(r.invThreads?.medianMs), r.invMl ? fmt(r.invMl.medianMs) : 'skipped', fmt(r.invNumpy?.medianMs),
+  ratio(best(r), r.invNumpy?.medianMs), ratio(r.invMl?.medianMs, best(r)),
   r.residual.toFixed(2), r.peakMB == null ? '—' : `${r.peakMB.toFixed(0)} MB`,
 ]);
 const widths = header.map((h, c) => Math.max(h.length, ...table.map((row) => row[c]!.length)));
@@ -99,7 +115,7 @@ console.log(`load average before ${loadBefore.map((x) => x.toFixed(2)).join(' ')
 console.log(line(header));
 console.log('|' + widths.map((w) => '-'.repeat(w + 2)).join('|') + '|');
 for (const row of table) console.log(line(row));
-console.log('LU = factorisation with partial pivoting; inverse = factorisation + explicit inverse; residual = ‖M·X − I‖₁/(‖M‖₁‖X‖₁nε) of our inverse (LAPACK threshold 30); peak RSS = factorisation + inverse in a fresh Node process.');
+console.log(`LU = factorisation with partial pivoting; inverse = factorisation + explicit inverse (ours: Wasm SIMD kernel, 1 thread unless marked; ${T} thr = with ${HELPERS} helper thread(s)); ours/numpy and ml-matrix/ours use our faster column; residual = ‖M·X − I‖₁/(‖M‖₁‖X‖₁nε) of our inverse (LAPACK threshold 30); peak RSS = factorisation + inverse in a fresh Node process (1 thread).`);
 for (const r of rows) if (r.invMlSkipped) console.log(`ml-matrix inverse at n=${r.n} ${r.invMlSkipped}.`);
 if (!numpyVersion) console.log('numpy columns empty: `python3 -c "import numpy"` failed on this machine.');
 
