@@ -7,6 +7,7 @@
 import type { ExportKind, FileKind, MenuCommand, OpenedFile, RecentEntry, RoundwiseBridge, SavedFile } from '../../src/bridge/contract.ts';
 import { EXPORT_TYPES, MAX_OPEN_BYTES, OPEN_EXTENSIONS, PROJECT_EXTENSION, formatBytes, withExtension } from '../../src/bridge/files.ts';
 import { commandForKey, isTextEditing } from '../../src/bridge/shortcuts.ts';
+import { addRecent, parseRecentList, sanitizeFileName } from '../../src/bridge/validate.ts';
 import { InputError } from '../../src/diagnostics/errors.ts';
 
 /** localStorage keys; project copies are stored under PROJECT_PREFIX + file name. */
@@ -16,8 +17,6 @@ export const STORAGE_KEYS = {
   projectPrefix: 'roundwise:project:',
 } as const;
 
-/** At most this many recent projects are listed (and kept in the store). */
-export const MAX_RECENT = 10;
 /** Project copies larger than this are downloaded but not kept in localStorage (its quota is a few MB). */
 export const MAX_STORED_PROJECT_CHARS = 1_500_000;
 
@@ -92,11 +91,7 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
   }
 
   function loadRecent(): RecentEntry[] {
-    const list = readJson<unknown>(STORAGE_KEYS.recent);
-    if (!Array.isArray(list)) return [];
-    return list.filter((e): e is RecentEntry =>
-      typeof e === 'object' && e !== null && typeof e.name === 'string' && typeof e.ref === 'string' && typeof e.when === 'string'
-      && e.ref.startsWith(STORAGE_KEYS.projectPrefix)).slice(0, MAX_RECENT);
+    return parseRecentList(readJson<unknown>(STORAGE_KEYS.recent)).filter((e) => e.ref.startsWith(STORAGE_KEYS.projectPrefix));
   }
 
   /** Keep a copy of a project so "recent projects" can reopen it without a file dialog. */
@@ -104,9 +99,10 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
     if (text.length > MAX_STORED_PROJECT_CHARS) return;
     const ref = STORAGE_KEYS.projectPrefix + name;
     if (!writeItem(ref, text)) return;
-    const list = [{ name, ref, when: env.now().toISOString() }, ...loadRecent().filter((e) => e.ref !== ref)];
-    for (const dropped of list.slice(MAX_RECENT)) storage?.removeItem(dropped.ref);
-    writeItem(STORAGE_KEYS.recent, JSON.stringify(list.slice(0, MAX_RECENT)));
+    const before = loadRecent();
+    const list = addRecent(before, { name, ref, when: env.now().toISOString() });
+    for (const dropped of before) if (!list.some((e) => e.ref === dropped.ref)) storage?.removeItem(dropped.ref);
+    writeItem(STORAGE_KEYS.recent, JSON.stringify(list));
   }
 
   function download(name: string, blob: Blob): void {
@@ -156,7 +152,7 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
   }
 
   async function saveProject(suggestedName: string, content: string): Promise<SavedFile | null> {
-    const name = withExtension(suggestedName, PROJECT_EXTENSION);
+    const name = withExtension(sanitizeFileName(suggestedName), PROJECT_EXTENSION);
     download(name, new Blob([content], { type: 'application/json' }));
     remember(name, content);
     return { name };
@@ -164,7 +160,7 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
 
   async function exportFile(suggestedName: string, kind: ExportKind, content: string): Promise<SavedFile | null> {
     const type = EXPORT_TYPES[kind];
-    const name = withExtension(suggestedName, type.extension);
+    const name = withExtension(sanitizeFileName(suggestedName), type.extension);
     const body: BlobPart = kind === 'png' ? (base64ToBytes(content) as Uint8Array<ArrayBuffer>) : content;
     download(name, new Blob([body], { type: type.mime }));
     return { name };
