@@ -9,7 +9,7 @@ import type { IOTable } from '../table/types.ts';
 import { identityMinus, luInverse, norm1 } from '../linalg/index.ts';
 import { conditionEstimate1, scaledResidual, solveResidual, RESIDUAL_THRESHOLD } from '../linalg/checks.ts';
 import { coefficients } from './coefficients.ts';
-import { prepareModel, type PreparedModel } from './prepared.ts';
+import { closedBorder, prepareModel, type PreparedModel } from './prepared.ts';
 import { sectorBlocks } from './graph.ts';
 import { perronRoot, type PerronOptions } from './perron.ts';
 import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
@@ -200,7 +200,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     const pc = perronRoot(abar, closed.m, opts.perron);
     perronRootClosed = pc.root;
     perronRootClosedBounds = [pc.lower, pc.upper];
-    const s = pm.border?.s ?? 0;
+    const s = closedBorder(pm)?.s ?? 0;
     closedProductive = productive && s > 0 && (negativeFlows || pc.upper < 1);
     if (!productive) closedWhy = 'the open model is not productive';
     else if (!closedProductive) {

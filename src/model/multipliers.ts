@@ -106,7 +106,7 @@ export function computeMultipliers(pm: PreparedModel, avail: Availability): Mult
   const outputI = open ? toValues(solveOpenTransposed(pm, ones), n) : all('output.typeI', openWhy);
   const outputII = closed ? toValues(firstN(solveClosedTransposed(pm, extend(ones, n, 0)), n), n) : all('output.typeII', closedWhy);
 
-  const incomeSimple = open ? toValues(pm.border ? pm.border.w : solveOpenTransposed(pm, h), n) : all('income.simple', openWhy);
+  const incomeSimple = open ? toValues(solveOpenTransposed(pm, h), n) : all('income.simple', openWhy);
   const incomeI = open ? ratio(incomeSimple, h, 'income.typeI', 'labour income per unit of output (h_j)', notes) : all('income.typeI', openWhy);
   const unitHousehold = new Float64Array(n + 1);
   unitHousehold[n] = 1;

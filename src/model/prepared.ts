@@ -6,7 +6,8 @@
  * bordered by the household column −c and the household row −hᵀ:
  *     I − Ā = [ B  −c ]      B = I − A,
  *             [ −hᵀ 1 ]
- * With u = B⁻¹c, w = B⁻ᵀh (one solve each, once per table) and the Schur complement s = 1 − hᵀB⁻¹c = 1 − h·u,
+ * (the corner is 1 − ā_hh when households buy from themselves, as in some published closures; our closure has ā_hh = 0).
+ * With u = B⁻¹c, w = B⁻ᵀh (one solve each, once per table) and the Schur complement s = 1 − ā_hh − h·u,
  * block elimination gives (Golub & Van Loan, Matrix Computations, 4th ed. 2013, §3.2.11; Miller & Blair 2009, §6.2):
  *     (I − Ā) [x; y] = [f; g]      ⇒  y = (g + w·f)/s,  x = B⁻¹f + u·y
  *     [x; y]ᵀ (I − Ā) = [c̄; d]     ⇒  y = (d + c̄·u)/s,  x = B⁻ᵀc̄ + w·y
@@ -20,11 +21,14 @@ import { identityMinus, luFactor, luSolve, luSolveTransposed, type LU } from '..
 
 /** The bordering of I − Ā on the open factorisation (see the file comment). */
 export interface ClosedBorder {
+  /** The closed coefficients and open factorisation this bordering was computed from. */
+  closed: ClosedCoefficients;
+  openLU: LU;
   /** u = (I − A)⁻¹ c: the output needed to meet one unit of household spending. */
   u: Float64Array;
   /** w = h (I − A)⁻¹: household income generated per unit of final demand (open model), i.e. the simple income multipliers. */
   w: Float64Array;
-  /** Schur complement s = 1 − h·u; det(I − Ā) = det(I − A)·s. */
+  /** Schur complement s = 1 − ā_hh − h·u; det(I − Ā) = det(I − A)·s. */
   s: number;
 }
 
@@ -35,8 +39,13 @@ export interface PreparedModel {
   closed: ClosedCoefficients | null;
   /** LU of I − A. */
   openLU: LU;
-  /** Bordering data for the closed model, or null when there is no closure or the open system is singular. */
+  /**
+   * Bordering data for the closed model, or null when there is no closure or the open system is singular. Read it
+   * through `closedBorder(pm)`, which recomputes it if `closed` or `openLU` was replaced (hand-assembled models).
+   */
   border: ClosedBorder | null;
+  /** Not used: closed solves border the open factorisation. Kept optional so models assembled with it still type-check. */
+  closedLU?: LU | null;
 }
 
 function dot(p: Float64Array, q: Float64Array, n: number): number {
@@ -50,13 +59,24 @@ export function prepareModel(table: IOTable, coef: Coefficients = coefficients(t
   const closed = closeHouseholds(coef);
   const n = coef.n;
   const openLU = luFactor(identityMinus(coef.A, n), n);
-  let border: ClosedBorder | null = null;
-  if (closed && !openLU.singular) {
-    const u = luSolve(openLU, closed.hc);
-    const w = luSolveTransposed(openLU, closed.hr);
-    border = { u, w, s: 1 - dot(closed.hr, u, n) };
-  }
-  return { table, coef, closed, openLU, border };
+  return { table, coef, closed, openLU, border: closed ? makeBorder(closed, openLU) : null };
+}
+
+function makeBorder(closed: ClosedCoefficients, openLU: LU): ClosedBorder | null {
+  if (openLU.singular) return null;
+  const n = openLU.n;
+  const u = luSolve(openLU, closed.hc);
+  const w = luSolveTransposed(openLU, closed.hr);
+  const corner = closed.Abar[n * closed.m + n] ?? 0;
+  return { closed, openLU, u, w, s: 1 - corner - dot(closed.hr, u, n) };
+}
+
+/** The bordering for pm's current closure and factorisation (null without closure or when I − A is singular). */
+export function closedBorder(pm: PreparedModel): ClosedBorder | null {
+  if (!pm.closed) return null;
+  if (pm.border && pm.border.closed === pm.closed && pm.border.openLU === pm.openLU) return pm.border;
+  pm.border = makeBorder(pm.closed, pm.openLU);
+  return pm.border;
 }
 
 /** x = (I − A)⁻¹ f. Throws when I − A is singular. */
@@ -69,16 +89,16 @@ export function solveOpenTransposed(pm: PreparedModel, c: Float64Array): Float64
   return luSolveTransposed(pm.openLU, c);
 }
 
-function closedBorder(pm: PreparedModel): ClosedBorder {
+function solvableBorder(pm: PreparedModel): ClosedBorder {
   if (!pm.closed) throw new Error('the table has no household closure');
-  if (!pm.border) throw new Error('matrix is singular: no unique solution');
-  if (pm.border.s === 0) throw new Error('matrix is singular: no unique solution');
-  return pm.border;
+  const b = closedBorder(pm);
+  if (!b || b.s === 0) throw new Error('matrix is singular: no unique solution');
+  return b;
 }
 
 /** x̄ = (I − Ā)⁻¹ f̄ for f̄ of length n+1 (the last entry is exogenous household income). Throws when not closed or singular. */
 export function solveClosed(pm: PreparedModel, fbar: Float64Array): Float64Array {
-  const { u, w, s } = closedBorder(pm);
+  const { u, w, s } = solvableBorder(pm);
   const n = pm.coef.n;
   const f = fbar.subarray(0, n);
   const x0 = luSolve(pm.openLU, f);
@@ -91,7 +111,7 @@ export function solveClosed(pm: PreparedModel, fbar: Float64Array): Float64Array
 
 /** ȳ = c̄ (I − Ā)⁻¹ for a row vector c̄ of length n+1. Throws when not closed or singular. */
 export function solveClosedTransposed(pm: PreparedModel, cbar: Float64Array): Float64Array {
-  const { u, w, s } = closedBorder(pm);
+  const { u, w, s } = solvableBorder(pm);
   const n = pm.coef.n;
   const c = cbar.subarray(0, n);
   const x0 = luSolveTransposed(pm.openLU, c);

@@ -2,7 +2,7 @@
 import { describe, it, expect } from 'vitest';
 import { inv } from 'mathjs';
 import { identityMinus, luFactor, luSolve, luSolveTransposed } from '../../../src/linalg/index.ts';
-import { prepareModel, solveClosed, solveClosedTransposed, solveOpen } from '../../../src/model/prepared.ts';
+import { closedBorder, prepareModel, solveClosed, solveClosedTransposed, solveOpen } from '../../../src/model/prepared.ts';
 import { randomEconomy, seeded, tableFromA, toRows } from './tables.ts';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(b), 1e-12);
@@ -38,10 +38,24 @@ describe('closed-model solves by bordering', () => {
     const direct = luFactor(identityMinus(pm.closed!.Abar, 7), 7);
     const openDet = Array.from({ length: 6 }, (_, i) => pm.openLU.lu[i * 6 + i]!).reduce((p, q) => p * q, pm.openLU.sign);
     const closedDet = Array.from({ length: 7 }, (_, i) => direct.lu[i * 7 + i]!).reduce((p, q) => p * q, direct.sign);
-    expect(rel(pm.border!.s, closedDet / openDet)).toBeLessThan(1e-12);
+    expect(rel(closedBorder(pm)!.s, closedDet / openDet)).toBeLessThan(1e-12);
     const f = Float64Array.of(1, 2, 3, 4, 5, 6);
     const x = solveOpen(pm, f);
     expect(x.length).toBe(6);
+  });
+
+  it('handles households buying from themselves (ā_hh ≠ 0) and a hand-replaced closure', () => {
+    // Ā of Miller & Blair 2009 §2.5 (recalled from memory) has ā_hh = 0.05; L̄'s first column is (1.3651, 0.5273, 0.5698).
+    const base = prepareModel(tableFromA([[0.15, 0.25], [0.2, 0.05]]));
+    const Abar = Float64Array.from([0.15, 0.25, 0.05, 0.2, 0.05, 0.4, 0.3, 0.25, 0.05]);
+    const pm = { ...base, closed: { m: 3, Abar, hc: Float64Array.of(0.05, 0.4), hr: Float64Array.of(0.3, 0.25) } };
+    const direct = luFactor(identityMinus(Abar, 3), 3);
+    const e1 = Float64Array.of(1, 0, 0);
+    const a = solveClosed(pm, e1), b = luSolve(direct, e1);
+    for (let i = 0; i < 3; i++) expect(rel(a[i]!, b[i]!)).toBeLessThan(1e-12);
+    expect(Array.from(a, (v) => Number(v.toFixed(4)))).toEqual([1.3651, 0.5273, 0.5698]);
+    const at = solveClosedTransposed(pm, Float64Array.of(1, 1, 0)), bt = luSolveTransposed(direct, Float64Array.of(1, 1, 0));
+    for (let i = 0; i < 3; i++) expect(rel(at[i]!, bt[i]!)).toBeLessThan(1e-12);
   });
 
   it('refuses to solve without a closure or when the closed system is singular', () => {
@@ -51,7 +65,7 @@ describe('closed-model solves by bordering', () => {
     // households earn 0.5 per unit and spend all of it on sector 1 while A = 0: s = 1 − h·c = 1 − 1 = 0
     const t = tableFromA([[0, 0], [0, 0]], { labour: [1, 1], households: [2, 0] });
     const pm = prepareModel(t);
-    expect(pm.border!.s).toBeCloseTo(0, 15);
+    expect(closedBorder(pm)!.s).toBeCloseTo(0, 15);
     expect(() => solveClosed(pm, new Float64Array(3))).toThrow(/singular/);
   });
 });
