@@ -5,7 +5,7 @@
  */
 import { basename, join } from 'node:path';
 import { z } from 'zod';
-import { InputError } from '../../diagnostics/errors.ts';
+import { formatLocated, InputError } from '../../diagnostics/errors.ts';
 import { prepareModel } from '../../model/prepared.ts';
 import { createProject, serializeProject, sha256Hex } from '../../project/index.ts';
 import { roleMapSchema } from '../../project/schema.ts';
@@ -157,6 +157,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     throw new InputError('singular', 'I − A is singular, so the table cannot carry a demand shock (check that every sector has inputs from outside the table, i.e. value added or imports)', { file: args.table });
   }
   const result = runScenario(pm, scenario);
+  for (const w of table.warnings) result.notes.push(`Table warning: ${formatLocated(w)}`);
   const rounds = spendingRounds(pm, result.effectiveDemand, result.openOutput);
   let paths: PathAnalysis | null = null;
   if (args.paths !== undefined) {
