@@ -7,15 +7,12 @@ import { basename, join } from 'node:path';
 import { z } from 'zod';
 import { formatLocated, InputError } from '../../diagnostics/errors.ts';
 import { prepareModel } from '../../model/prepared.ts';
-import { createProject, serializeProject, sha256Hex } from '../../project/index.ts';
+import { createProject, parseProject, serializeProject, sha256Hex } from '../../project/index.ts';
 import { roleMapSchema } from '../../project/schema.ts';
 import { CAUTIONS } from '../../report/cautions.ts';
-import type { ReportFile } from '../../report/document.ts';
+import { modelTypeOf, scenarioReports, SCENARIO_CAUTIONS, type ScenarioReportContext } from '../../report/scenario.ts';
 import {
-  impactReport, modelTypeOf, pathReport, roundsReport, scenarioMultiplierReport, SCENARIO_CAUTIONS, type ScenarioReportContext,
-} from '../../report/scenario.ts';
-import {
-  parseShockCsv, runScenario, spendingRounds, structuralPaths, VARIABLES, type EffectSplit, type PathAnalysis, type RoundsResult, type ScenarioResult,
+  analyseScenario, parseShockCsv, VARIABLES, type EffectSplit, type PathAnalysis, type RoundsResult, type ScenarioResult,
 } from '../../scenario/index.ts';
 import { importTable, type RoleMap } from '../../table/index.ts';
 import { readBytes, writeFileAtomic, type CliIO } from '../io.ts';
@@ -80,6 +77,24 @@ function readRoleMap(path: string): Partial<RoleMap> {
     throw new InputError('bad-map', `role map ${issue.path.join('.') || '(top level)'}: ${issue.message}`, { file: path });
   }
   return parsed.data as z.infer<typeof roleMapSchema>;
+}
+
+/** An existing file at the project path is replaced only when it is itself a readable Roundwise project. */
+function refuseToOverwriteForeign(path: string): void {
+  let bytes: Uint8Array;
+  try {
+    bytes = readBytes(path);
+  } catch {
+    return; // nothing there yet
+  }
+  try {
+    parseProject(decoder.decode(bytes), path);
+  } catch (e) {
+    if (e instanceof InputError) {
+      throw new InputError('project-not-overwritten', `will not overwrite it: ${e.message}; choose another --project path`, e.location);
+    }
+    throw e;
+  }
 }
 
 const arr = (v: Float64Array | null) => (v ? Array.from(v) : null);
@@ -156,25 +171,19 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   if (pm.openLU.singular) {
     throw new InputError('singular', 'I − A is singular, so the table cannot carry a demand shock (check that every sector has inputs from outside the table, i.e. value added or imports)', { file: args.table });
   }
-  const result = runScenario(pm, scenario);
-  for (const w of table.warnings) result.notes.push(`Table warning: ${formatLocated(w)}`);
-  const rounds = spendingRounds(pm, result.effectiveDemand, result.openOutput);
-  let paths: PathAnalysis | null = null;
+  let pathsTo: number | null = null;
   if (args.paths !== undefined) {
-    const d = table.sectors.indexOf(args.paths);
-    if (d < 0) throw new InputError('unknown-sector', `--paths: unknown sector '${args.paths}'`, { rowLabel: args.paths });
-    paths = structuralPaths(pm, result.effectiveDemand, d);
+    pathsTo = table.sectors.indexOf(args.paths);
+    if (pathsTo < 0) throw new InputError('unknown-sector', `--paths: unknown sector '${args.paths}'`, { rowLabel: args.paths });
   }
+  const analysis = analyseScenario(pm, scenario, { pathsTo });
+  const { result, rounds, paths } = analysis;
+  for (const w of table.warnings) result.notes.push(`Table warning: ${formatLocated(w)}`);
 
   const ctx: ScenarioReportContext = { tableName: table.name, sourceFile: basename(args.table), sourceHash: sha256Hex(tableBytes), date: new Date().toISOString() };
   const written: string[] = [];
   if (args.out !== undefined) {
-    const files: ReportFile[] = [
-      ...impactReport(result, ctx),
-      ...roundsReport(result, rounds, ctx),
-      ...scenarioMultiplierReport(result, ctx),
-      ...(paths ? pathReport(result, paths, ctx) : []),
-    ];
+    const files = scenarioReports(analysis, ctx);
     for (const f of files) {
       const path = join(args.out, f.name);
       writeFileAtomic(path, f.content);
@@ -185,6 +194,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     const project = createProject(table, { source: { fileName: basename(args.table), sha256: ctx.sourceHash!, bytes: tableBytes.length }, scenarios: [scenario] });
     project.settings.activeScenario = scenario.name;
     if (args.paths !== undefined) project.settings.paths.destination = args.paths;
+    refuseToOverwriteForeign(args.project);
     writeFileAtomic(args.project, serializeProject(project));
     written.push(args.project);
   }

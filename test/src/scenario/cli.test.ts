@@ -1,7 +1,7 @@
 // `roundwise scenario` end to end, in process, on the invented fixture table (test/fixtures/scenario). Reference values
 // come from a direct solve of the partitioned mixed model with mathjs, not from the engine.
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
-import { mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -101,6 +101,14 @@ describe('roundwise scenario', () => {
     const [r] = projectResults(p);
     expect(Array.from(r!.effects.output.total)).toEqual(JSON.parse(a.out).effects.output.total);
     expect(p.source!.fileName).toBe('table.csv');
+    // Saving again over a valid project is fine; over anything else it is refused and the file is left as it was.
+    expect((await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--project', path)).code).toBe(0);
+    const foreign = join(dir, 'notes.json');
+    writeFileSync(foreign, '{"my": "notes"}');
+    const refused = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--project', foreign);
+    expect(refused.code).toBe(2);
+    expect(refused.err).toMatch(/will not overwrite it: this is not a Roundwise project file/);
+    expect(readFileSync(foreign, 'utf8')).toBe('{"my": "notes"}');
   });
   it('prints a plain summary without --json', async () => {
     const { code, out } = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'));
