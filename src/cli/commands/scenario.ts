@@ -161,6 +161,10 @@ function summary(r: ScenarioResult, rounds: RoundsResult, written: string[]): st
 }
 
 export async function run(argv: string[], io: CliIO): Promise<number> {
+  if (argv.includes('--help') || argv.includes('-h')) {
+    io.stdout(`${USAGE}\n\nSHOCK.csv: header sector,amount[,kind][,local_share][,note]; kind is final-demand (default), output or jobs; local_share 0-1 (default 1, final-demand lines only).\n--paths SECTOR adds the structural paths to that sector; --project FILE.json saves the study as a project file.\n`);
+    return 0;
+  }
   const args = parseArgs(argv);
   const tableBytes = readFileOrRefuse(args.table);
   const roles = args.map ? readRoleMap(args.map) : undefined;
