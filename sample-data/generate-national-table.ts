@@ -6,7 +6,8 @@
  *
  * Whole numbers of million dollars, so every row and column balances exactly: intermediate purchases + compensation
  * of employees + other value added + imports = total input = total output = intermediate sales + households + exports
- * + other final demand. test/src/regional/sample-data.test.ts checks that the committed file is this output.
+ * + other final demand. Same layout as the sample county. test/src/regional/sample-data.test.ts checks that the committed
+ * files are this output.
  */
 
 export const SECTORS = [
@@ -75,24 +76,27 @@ export function nationalTableCsv(seed = 20261201): string {
 
   const sum = (v: number[]) => v.reduce((a, b) => a + b, 0);
   const q = (s: string) => (/[",]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s);
+  // the layout of the sample county (sample-data/fernhollow-county.csv): money unit in the corner, value-added rows,
+  // jobs, then the totals row with final-demand sums and the grand total
   const lines: (string | number)[][] = [
-    ['Invented national table (million dollars; not real data)', ...SECTORS, 'Households', 'Exports', 'Other final demand', 'Total output'],
+    ['million dollars', ...SECTORS, 'Households', 'Exports', 'Other final demand', 'Total output'],
     ...SECTORS.map((s, i) => [s, ...Z[i]!, households[i]!, exports[i]!, otherFD[i]!, x[i]!]),
-    ['Compensation of employees', ...comp, '', '', '', sum(comp)],
-    ['Other value added', ...otherVA, '', '', '', sum(otherVA)],
-    ['Imports', ...imports, '', '', '', sum(imports)],
-    ['Total input', ...x, sum(households), sum(exports), sum(otherFD), ''],
-    ['Employment', ...jobs, '', '', '', ''],
+    ['Compensation of employees', ...comp, '', '', '', ''],
+    ['Other value added', ...otherVA, '', '', '', ''],
+    ['Imports', ...imports, '', '', '', ''],
+    ['Employment (jobs)', ...jobs, '', '', '', ''],
+    ['Total input', ...x, sum(households), sum(exports), sum(otherFD), sum(x)],
   ];
-  return lines.map((r) => r.map((c) => (typeof c === 'number' ? String(c) : q(c))).join(',')).join('\n') + '\n';
+  return lines.map((r) => r.map((c) => (typeof c === 'number' ? String(c) : q(c))).join(',')).join('\r\n') + '\r\n';
 }
 
-/** Invented jobs by sector in Fernhollow County (the sample county; not a real place). */
-export const COUNTY_JOBS = [2140, 910, 260, 185, 2320, 1880, 1420, 610, 4790, 1290, 720, 410, 930, 3640, 2210, 4150];
+/** Jobs by sector in Fernhollow County: the Employment (jobs) row of the invented sample county, fernhollow-county.csv. */
+export const COUNTY_JOBS = [3742, 1015, 457, 383, 3796, 2189, 1204, 1427, 7528, 1976, 1454, 774, 2726, 5001, 4352, 6657];
 
 /** sample-data/fernhollow-employment.csv: `sector,regional,national`, national jobs from the national table's Employment row. */
 export function employmentCsv(seed = 20261201): string {
-  const national = nationalTableCsv(seed).trimEnd().split('\n').at(-1)!.split(',').slice(1, 1 + SECTORS.length);
+  const jobsRow = nationalTableCsv(seed).split('\r\n').find((l) => l.startsWith('Employment (jobs),'))!;
+  const national = jobsRow.split(',').slice(1, 1 + SECTORS.length);
   const lines = SECTORS.map((s, i) => `${s},${COUNTY_JOBS[i]},${national[i]}`);
   return ['sector,regional,national', ...lines].join('\n') + '\n';
 }
