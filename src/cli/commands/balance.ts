@@ -5,11 +5,14 @@
 import { InputError } from '../../diagnostics/errors.ts';
 import { CAUTIONS } from '../../report/cautions.ts';
 import { reportFiles } from '../../report/document.ts';
-import { parseLabelledMatrix, parseTotals, ras, RAS_DEFAULT_MAX_ITERATIONS, RAS_DEFAULT_TOLERANCE, type RasResult, type LabelledMatrix } from '../../regional/index.ts';
+import { importTable } from '../../table/index.ts';
+import { writeTableCsv } from '../../table/write.ts';
+import { aboutText } from '../../report/document.ts';
+import { balanceTable, parseLabelledMatrix, parseTotals, ras, RAS_DEFAULT_MAX_ITERATIONS, RAS_DEFAULT_TOLERANCE, type RasResult, type LabelledMatrix } from '../../regional/index.ts';
 import type { CliIO } from '../io.ts';
-import { num, numberOption, parseCommandArgs, readInput, requireOne, requireOption, sha256, writeAll } from './regional-shared.ts';
+import { num, numberOption, parseCommandArgs, readInput, readRoleMap, requireOne, requireOption, sha256, writeAll } from './regional-shared.ts';
 
-export const USAGE = 'roundwise balance MATRIX.csv --rows ROWS.csv --columns COLS.csv [--tolerance 1e-10] [--max-iterations 10000] [--json] [--out DIR]';
+export const USAGE = 'roundwise balance MATRIX.csv --rows ROWS.csv --columns COLS.csv [--table [--output OUTPUT.csv] [--map MAP.json]] [--tolerance 1e-10] [--max-iterations 10000] [--json] [--out DIR]';
 
 const HELP = `${USAGE}
 
@@ -22,8 +25,14 @@ block to known county totals.
   --columns COLS.csv  label,total for every column
   --tolerance T       stop when every total is met within this relative gap (default ${RAS_DEFAULT_TOLERANCE})
   --max-iterations K  iteration cap (default ${RAS_DEFAULT_MAX_ITERATIONS}); not converging by then is an error
+  --table             MATRIX.csv is a whole input-output table (any layout roundwise analyze reads): its intermediate
+                      flows are scaled to ROWS (intermediate sales) and COLS (intermediate purchases) by sector;
+                      final demand and value added absorb the rest of total output in their original proportions
+  --output OUTPUT.csv with --table: label,total new total output by sector (default: the table's own)
+  --map MAP.json      with --table: role overrides for the table's rows and columns
   --json              print the result as one JSON object (matrix, r, s, iterations, converged, gaps)
-  --out DIR           write balanced.csv (same layout as MATRIX.csv) and balanced.about.txt (convergence report)
+  --out DIR           write balanced.csv (same layout as MATRIX.csv), or with --table balanced-table.csv (reads back
+                      with roundwise analyze), and balanced.about.txt (convergence report)
 Refused: totals whose sums disagree, a positive total on an all-zero row or column, or a zero pattern that cannot
 carry the totals (the message names the rows and columns).
 `;
@@ -59,6 +68,9 @@ export async function run(args: string[], io: CliIO): Promise<number> {
     columns: { type: 'string' },
     tolerance: { type: 'string' },
     'max-iterations': { type: 'string' },
+    table: { type: 'boolean' },
+    output: { type: 'string' },
+    map: { type: 'string' },
     json: { type: 'boolean' },
     out: { type: 'string' },
     help: { type: 'boolean', short: 'h' },
@@ -73,17 +85,32 @@ export async function run(args: string[], io: CliIO): Promise<number> {
   const tolerance = numberOption(values.tolerance, 'tolerance');
   const maxIterations = numberOption(values['max-iterations'], 'max-iterations');
 
-  const text = readInput(matrixPath);
-  const m = parseLabelledMatrix(text, matrixPath);
-  const u = parseTotals(readInput(rowsPath), rowsPath, m.rowLabels, 'row');
-  const v = parseTotals(readInput(colsPath), colsPath, m.columnLabels, 'column');
-  const res = ras(m.values, m.rows, m.columns, u, v, {
-    rowLabels: m.rowLabels,
-    columnLabels: m.columnLabels,
+  if (!values.table && (values.output !== undefined || values.map !== undefined)) throw new InputError('usage', '--output and --map apply to --table only');
+  const rasOpts = {
     fileName: matrixPath,
     ...(tolerance !== undefined ? { tolerance } : {}),
     ...(maxIterations !== undefined ? { maxIterations } : {}),
-  });
+  };
+  const text = readInput(matrixPath);
+  let m: LabelledMatrix;
+  let res: RasResult;
+  let tableFile: { csv: string; notes: string[]; name: string; moneyUnit: string } | undefined;
+  if (values.table) {
+    const roles = readRoleMap(values.map);
+    const t = importTable(text, { fileName: matrixPath, ...(roles ? { roles } : {}) });
+    const sales = parseTotals(readInput(rowsPath), rowsPath, t.sectors, 'sector');
+    const purchases = parseTotals(readInput(colsPath), colsPath, t.sectors, 'sector');
+    const output = values.output !== undefined ? parseTotals(readInput(values.output), values.output, t.sectors, 'sector') : undefined;
+    const b = balanceTable(t, { sales, purchases, ...(output ? { output } : {}) }, rasOpts);
+    res = b.ras;
+    m = { rowLabels: t.sectors, columnLabels: t.sectors, rows: t.n, columns: t.n, values: t.Z };
+    tableFile = { csv: writeTableCsv(b.table), notes: [...b.notes, ...b.warnings.map((w) => w.message)], name: b.table.name, moneyUnit: b.table.moneyUnit };
+  } else {
+    m = parseLabelledMatrix(text, matrixPath);
+    const u = parseTotals(readInput(rowsPath), rowsPath, m.rowLabels, 'row');
+    const v = parseTotals(readInput(colsPath), colsPath, m.columnLabels, 'column');
+    res = ras(m.values, m.rows, m.columns, u, v, { ...rasOpts, rowLabels: m.rowLabels, columnLabels: m.columnLabels });
+  }
   if (!res.converged) {
     throw new InputError(
       'ras-not-converged',
@@ -101,13 +128,18 @@ export async function run(args: string[], io: CliIO): Promise<number> {
       sourceHash: sha256(text),
       modelType: 'RAS biproportional balancing (Stone; Bacharach 1970)',
       date: new Date().toISOString(),
-      moneyUnit: 'as in the source matrix',
+      moneyUnit: tableFile?.moneyUnit ?? 'as in the source matrix',
       notes: [...report(res), `Row totals from ${rowsPath}; column totals from ${colsPath}.`],
     };
-    files = writeAll(values.out, reportFiles('balanced', meta, [
-      ['Row \\ column', ...m.columnLabels],
-      ...m.rowLabels.map((l, i) => [l, ...Array.from(res.matrix.subarray(i * m.columns, (i + 1) * m.columns))]),
-    ]));
+    files = writeAll(values.out, tableFile
+      ? [
+          { name: 'balanced-table.csv', content: tableFile.csv },
+          { name: 'balanced-table.about.txt', content: aboutText({ ...meta, title: 'Input-output table balanced by RAS', tableName: tableFile.name, notes: [...meta.notes, ...tableFile.notes] }) },
+        ]
+      : reportFiles('balanced', meta, [
+          ['Row \\ column', ...m.columnLabels],
+          ...m.rowLabels.map((l, i) => [l, ...Array.from(res.matrix.subarray(i * m.columns, (i + 1) * m.columns))]),
+        ]));
   }
   if (values.json) io.stdout(`${JSON.stringify({ ...json(m, res), ...(files ? { files } : {}) })}\n`);
   else io.stdout([...report(res), ...(files ? [`Wrote ${files.join(', ')}`] : []), ''].join('\n'));
