@@ -188,3 +188,19 @@ describe('properties on random tables', () => {
     );
   });
 });
+
+describe('employment file reading', () => {
+  it('a header is optional; a first data row with one bad number is refused at line 1, not taken for a header', () => {
+    expect(parseEmploymentCsv('Farming,20,100\nMaking,10,200\nServices,70,700\n', 'e.csv').entries).toHaveLength(3);
+    const e = refusal(() => parseEmploymentCsv('Farming,2O,100\nMaking,10,200\n', 'e.csv'));
+    expect(e.location).toMatchObject({ line: 1, column: 2, rowLabel: 'Farming' });
+  });
+  it('semicolons, CRLF, a BOM and quoted labels are read; lines are counted across blank lines', () => {
+    const e = parseEmploymentCsv('\uFEFFsector;regional;national\r\n\r\n"Farming";20;100\r\nMaking;10;200\r\n', 'e.csv');
+    expect(e.entries.map((x) => [x.sector, x.line])).toEqual([['Farming', 3], ['Making', 4]]);
+  });
+  it('an empty file, a file with only a header', () => {
+    expect(refusal(() => parseEmploymentCsv('', 'e.csv')).message).toMatch(/empty/);
+    expect(refusal(() => parseEmploymentCsv('sector,regional,national\n', 'e.csv')).message).toMatch(/no sectors/);
+  });
+});
