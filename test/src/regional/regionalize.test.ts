@@ -4,6 +4,7 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { regionalize, parseEmploymentCsv, REGIONAL_IMPORT_LABEL, type EmploymentInput } from '../../../src/regional/index.ts';
 import { coefficients } from '../../../src/model/coefficients.ts';
+import { prepareModel, solveOpenTransposed } from '../../../src/model/prepared.ts';
 import { InputError, formatLocated } from '../../../src/diagnostics/errors.ts';
 import { THREE, buildTable, expectClose } from './build-table.ts';
 
@@ -183,6 +184,15 @@ describe('properties on random tables', () => {
           }
         }
         for (let k = 0; k < n * n; k++) expect(flq.coefficients[k]!).toBeLessThanOrEqual(cilq.coefficients[k]!);
+        // 0 ≤ R ≤ A with ρ(A) < 1 gives (I − R)⁻¹ ≤ (I − A)⁻¹ entrywise (Neumann series I + R + R² + … term by term):
+        // a county's output multipliers never exceed the nation's
+        const ones = new Float64Array(n).fill(1);
+        const nationalM = solveOpenTransposed(prepareModel(t), ones);
+        const regionalM = solveOpenTransposed(prepareModel({ ...t, Z: Float64Array.from(flq.coefficients, (r, k) => r * t.x[k % n]!) }), ones);
+        for (let j = 0; j < n; j++) {
+          expect(regionalM[j]!).toBeGreaterThanOrEqual(1 - 1e-12);
+          expect(regionalM[j]!).toBeLessThanOrEqual(nationalM[j]! * (1 + 1e-12));
+        }
       }),
       { numRuns: 150 },
     );
