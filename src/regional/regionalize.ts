@@ -172,7 +172,7 @@ export function regionalize(national: IOTable, emp: EmploymentInput, opts: Regio
     if (rest[i]! < -1e-9 * Math.max(x[i]!, 1)) {
       warnings.push({
         code: 'regional-negative-final-demand',
-        message: `local intermediate and household use of '${sectors[i]}' exceeds its estimated county output; exports and other final demand come out negative (${rest[i]}). Consider CILQ/FLQ or balancing to known county totals (RAS)`,
+        message: `local intermediate and household use exceeds the estimated county output; exports and other final demand come out negative (${Number(rest[i]!.toPrecision(6))} ${national.moneyUnit}). Consider CILQ or FLQ, or balancing to known county totals (RAS)`,
         location: { rowLabel: sectors[i]!, columnLabel: fdLabel },
       });
     }

@@ -214,3 +214,16 @@ describe('employment file reading', () => {
     expect(refusal(() => parseEmploymentCsv('sector,regional,national\n', 'e.csv')).message).toMatch(/no sectors/);
   });
 });
+
+describe('negative exports and other final demand', () => {
+  it('is warned about, located at the sector: local use 0.8·40 exceeds county output 20 (hand computation)', () => {
+    // A sells 80 % of B's output value to B; the county has A's jobs at twice the national share and B's at four times
+    const t = buildTable({ sectors: ['A', 'B', 'C'], Z: [[0, 80, 0], [0, 0, 0], [0, 0, 0]], x: [100, 100, 100], labour: [100, 20, 100], otherFD: [20, 100, 100], employment: [100, 100, 800] });
+    const res = regionalize(t, parseEmploymentCsv('A,20,100\nB,40,100\nC,0,800\n', 'e.csv'), { method: 'slq' });
+    expectClose(res.table.otherFinalDemand[0]!.values, [20 - 32, 40, 0]);
+    const w = res.warnings.find((x) => x.code === 'regional-negative-final-demand')!;
+    expect(w.location).toMatchObject({ rowLabel: 'A', columnLabel: 'Exports and other final demand' });
+    expect(w.message).toMatch(/negative \(-12 million dollars\)/);
+    expect(res.absent).toEqual(['C']);
+  });
+});
