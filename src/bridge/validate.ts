@@ -49,7 +49,7 @@ function check<T>(schema: z.ZodType<T>, args: unknown, what: string): Validated<
 
 export const argSchemas = {
   openFile: z.tuple([fileKind]),
-  saveProject: z.union([z.tuple([name, content]), z.tuple([name, content, path]), z.tuple([name, content, z.undefined()])]),
+  saveProject: z.tuple([name, content, path.optional()]),
   exportFile: z.tuple([name, exportKind, content]).refine(([, kind, body]) => kind !== 'png' || isPngBase64(body), {
     message: 'png content is not base64 of a PNG image',
     path: [2],
