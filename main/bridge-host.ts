@@ -6,7 +6,7 @@
  */
 import { basename, extname, resolve } from 'node:path';
 import type { ExportKind, FileKind, OpenedFile, RecentEntry, SavedFile } from '../src/bridge/contract.ts';
-import { EXPORT_TYPES, OPEN_EXTENSIONS, OPEN_FILTER_NAMES, PROJECT_EXTENSION, withExtension } from '../src/bridge/files.ts';
+import { EXPORT_TYPES, OPEN_EXTENSIONS, OPEN_FILTER_NAMES, PROJECT_EXTENSION, projectFileName, withExtension } from '../src/bridge/files.ts';
 import { sanitizeFileName, stripDataUrl } from '../src/bridge/validate.ts';
 import { InputError } from '../src/diagnostics/errors.ts';
 import { AutosaveStore, readTextLimited, RecentStore, writeFileAtomic } from './file-store.ts';
@@ -81,10 +81,10 @@ export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
           throw new InputError('path-not-granted', 'this file was not opened or saved in this session; use Save As', { file: basename(path) });
         }
       } else {
-        const suggested = withExtension(sanitizeFileName(name), PROJECT_EXTENSION);
+        const suggested = projectFileName(sanitizeFileName(name));
         const picked = await deps.dialogs.savePath('Save project', resolve(deps.documentsDir, suggested), projectFilters);
         if (!picked) return null;
-        target = grant(extname(picked) ? picked : withExtension(picked, PROJECT_EXTENSION));
+        target = grant(extname(picked) ? picked : projectFileName(picked));
       }
       writeFileAtomic(target, content);
       recent.add(target);

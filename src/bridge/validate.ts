@@ -7,6 +7,10 @@ import { z } from 'zod';
 import type { ExportKind, FileKind, RecentEntry } from './contract.ts';
 import { MAX_SAVE_CHARS } from './files.ts';
 
+// The desktop window's CSP forbids eval; without this, zod probes `new Function` on first use and the refused
+// probe is reported as a CSP violation. Modules elsewhere that use zod in the renderer or worker need the same.
+z.config({ jitless: true });
+
 export type Validated<T> = { ok: true; value: T } | { ok: false; message: string };
 
 /** Longest suggested file name accepted (before sanitising); file systems allow 255 bytes per name. */
