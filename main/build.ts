@@ -11,7 +11,7 @@ function nodeBundle(root: string, entry: string, outFile: string, format: 'es' |
   return {
     configFile: false,
     root,
-    logLevel: 'warn',
+    logLevel: 'error',
     publicDir: false,
     // Bundle every dependency (zod, the engine) so the output needs nothing but Electron and Node at run time.
     ssr: { noExternal: true, target: 'node' },
@@ -41,7 +41,7 @@ export async function buildRenderer(root: string): Promise<void> {
   const { entries, outputs } = electronConfig;
   await build({
     configFile: resolve(root, entries.rendererConfig),
-    logLevel: 'warn',
+    logLevel: 'error',
     build: { outDir: resolve(root, outputs.renderer), emptyOutDir: true },
   });
 }

@@ -19,7 +19,16 @@ export const DEFAULT_PORT = 5178;
 /** Long enough for a reachable download to start, short enough not to stall `npm start` on an offline machine. */
 const INSTALL_TIMEOUT_MS = 20_000;
 
-/** Where the electron package keeps its binary (without requiring it: its index.js would start a download). */
+/** The binary's path inside an Electron dist folder, as the electron package's installer lays it out. */
+function platformBinary(platform: string): string {
+  if (platform === 'darwin') return 'Electron.app/Contents/MacOS/Electron';
+  return platform === 'win32' ? 'electron.exe' : 'electron';
+}
+
+/**
+ * Where the electron package keeps its binary (without requiring the package: its index.js would start a download).
+ * ELECTRON_OVERRIDE_DIST_PATH, the package's own variable, points at an Electron installed elsewhere.
+ */
 export function electronBinaryPath(env: NodeJS.ProcessEnv = process.env): string | null {
   let pkgDir: string;
   try {
@@ -28,8 +37,7 @@ export function electronBinaryPath(env: NodeJS.ProcessEnv = process.env): string
     return null;
   }
   const pathFile = join(pkgDir, 'path.txt');
-  if (!existsSync(pathFile)) return null;
-  const rel = readFileSync(pathFile, 'utf8').trim();
+  const rel = existsSync(pathFile) ? readFileSync(pathFile, 'utf8').trim() : platformBinary(process.platform);
   const bin = env.ELECTRON_OVERRIDE_DIST_PATH ? join(env.ELECTRON_OVERRIDE_DIST_PATH, rel) : join(pkgDir, 'dist', rel);
   return existsSync(bin) ? bin : null;
 }
@@ -101,9 +109,11 @@ async function runBrowser(action: Extract<LaunchAction, { kind: 'browser' }>): P
   const started = Date.now();
   const child = spawn(action.openWith, args, { stdio: 'ignore' });
   child.on('error', () => console.log(`Roundwise: could not start ${action.openWith}; open ${url} in a browser.`));
-  child.on('exit', () => {
-    // A quick exit means the window was handed to a running browser: keep serving. Otherwise the user closed it.
+  child.on('exit', (code) => {
+    // Closed after a while: the user closed the app window, so stop. A quick clean exit means the window was handed
+    // to a browser already running on that profile: keep serving. A quick failure: say where to go instead.
     if (Date.now() - started > 3000) void stop(0);
+    else if (code !== 0) console.log(`Roundwise: the app window did not open; open ${url} in a browser.`);
   });
 }
 

@@ -2,11 +2,11 @@
 // binary is there; otherwise one line and browser mode on 127.0.0.1, in a Chromium --app window when one is found,
 // never a window under CI or without a display).
 import { describe, it, expect } from 'vitest';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { browserModeLine, findBrowser, hasDisplay, isCI, planLaunch, shouldTryInstall, type LaunchFacts } from '../../main/launch-plan.ts';
-import { tryInstallElectron } from '../../main/launch.ts';
+import { electronBinaryPath, tryInstallElectron } from '../../main/launch.ts';
 
 const facts = (over: Partial<LaunchFacts>): LaunchFacts => ({
   electronBinary: false, platform: 'linux', env: { DISPLAY: ':0' }, browserPath: '/usr/bin/chromium', ...over,
@@ -89,6 +89,21 @@ describe('tryInstallElectron', () => {
       const started = Date.now();
       expect(tryInstallElectron(script('hang.js', 'setTimeout(() => {}, 60000)'), 300)).toBe(false);
       expect(Date.now() - started).toBeLessThan(10_000); // a bound on hanging, not a speed measurement
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  });
+});
+
+describe('electronBinaryPath', () => {
+  it('honours ELECTRON_OVERRIDE_DIST_PATH and reports a missing binary as null', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'roundwise-electron-'));
+    try {
+      expect(electronBinaryPath({ ELECTRON_OVERRIDE_DIST_PATH: dir })).toBeNull();
+      const name = process.platform === 'win32' ? 'electron.exe' : process.platform === 'darwin' ? 'Electron.app/Contents/MacOS/Electron' : 'electron';
+      mkdirSync(dirname(join(dir, name)), { recursive: true });
+      writeFileSync(join(dir, name), '');
+      expect(electronBinaryPath({ ELECTRON_OVERRIDE_DIST_PATH: dir })).toBe(join(dir, name));
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
