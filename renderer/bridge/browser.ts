@@ -184,7 +184,10 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
     const cmd = commandForKey(ev, env.isMac);
     if (!cmd || handlers.size === 0) return;
     if ((cmd === 'undo' || cmd === 'redo') && isTextEditing(doc.activeElement as HTMLInputElement | null)) return;
-    ev.preventDefault(); // keep the browser's own Open/Save page dialogs out of the way
+    // The bridge owns the menu shortcuts, as the native menu does in the desktop app: keep the browser's own
+    // Open/Save dialogs out of the way, and stop the chord here (capture phase) so no page handler runs it twice.
+    ev.preventDefault();
+    ev.stopPropagation();
     for (const h of [...handlers]) h(cmd);
   }
 

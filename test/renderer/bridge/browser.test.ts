@@ -54,9 +54,11 @@ class FakePage {
     return { window: win as unknown as Window, document: doc as unknown as Document, storage: storage as unknown as Storage, isMac: false, now: () => new Date('2026-05-01T12:00:00Z') };
   }
   key(key: string, mods: { ctrlKey?: boolean; shiftKey?: boolean; metaKey?: boolean } = {}) {
-    const ev = { key, ctrlKey: false, metaKey: false, shiftKey: false, altKey: false, ...mods, preventDefault: vi.fn() };
+    const ev = { key, ctrlKey: false, metaKey: false, shiftKey: false, altKey: false, ...mods, preventDefault: vi.fn(), stopPropagation: vi.fn() };
     for (const fn of this.winListeners.get('keydown') ?? []) fn(ev);
-    return ev.preventDefault.mock.calls.length > 0;
+    const handled = ev.preventDefault.mock.calls.length > 0;
+    expect(ev.stopPropagation.mock.calls.length > 0).toBe(handled); // a handled chord reaches no other key handler
+    return handled;
   }
   lastInput(): FakeElement {
     const el = this.clicked.at(-1);
