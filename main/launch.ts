@@ -119,6 +119,8 @@ async function runBrowser(action: Extract<LaunchAction, { kind: 'browser' }>): P
 
 export async function main(): Promise<void> {
   const env = process.env;
+  const rendererConfig = join(root, electronConfig.entries.rendererConfig);
+  if (!existsSync(rendererConfig)) throw new Error(`the UI is missing (${electronConfig.entries.rendererConfig} not found)`);
   let bin = electronBinaryPath(env);
   let missingBecause: LaunchFacts['missingBecause'];
   if (!bin) {
