@@ -3,7 +3,8 @@
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { mkdtempSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { join, relative, sep } from 'node:path';
+import fc from 'fast-check';
 import { createAppHandler, mimeType, resolveAppFile } from '../../main/app-protocol.ts';
 import { contentSecurityPolicy } from '../../main/csp.ts';
 
@@ -32,6 +33,13 @@ describe('resolveAppFile', () => {
     expect(resolveAppFile(root, 'app://roundwise/%E0%A4%A')).toBeNull();
     expect(resolveAppFile(root, 'app://other/index.html')).toBeNull();
     expect(resolveAppFile(root, 'file:///etc/passwd')).toBeNull();
+  });
+  it('resolves no URL path at all outside the folder (property, fast-check)', () => {
+    const segment = fc.constantFrom('..', '.', '%2e%2e', '%2e', '%2f', '%5c', 'assets', 'a b', '%00', '..%2f', '%252e', '\\', '');
+    fc.assert(fc.property(fc.array(segment, { maxLength: 8 }), (parts) => {
+      const file = resolveAppFile(root, `app://roundwise/${parts.join('/')}`);
+      if (file !== null) expect(relative(root, file).split(sep)[0]).not.toBe('..');
+    }), { numRuns: 3000 });
   });
   it('knows the types it serves', () => {
     expect(mimeType('a.js')).toMatch(/^text\/javascript/);
