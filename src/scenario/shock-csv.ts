@@ -5,6 +5,7 @@
 import Papa from 'papaparse';
 import { InputError } from '../diagnostics/errors.ts';
 import { recordStartLines } from '../table/grid.ts';
+import { checkNotBinary } from '../table/text.ts';
 import { LINE_KINDS, type LineKind, type Scenario, type ScenarioLine } from './types.ts';
 
 const COLUMNS = ['sector', 'amount', 'kind', 'local_share', 'note'] as const;
@@ -23,6 +24,7 @@ function parseNumber(text: string, file: string, line: number, column: number, w
 
 export function parseShockCsv(text: string, fileName: string, scenarioName?: string): Scenario {
   const body = text.replace(/^\uFEFF/, '');
+  checkNotBinary(body, fileName);
   const parsed = Papa.parse<string[]>(body, { header: false, skipEmptyLines: false });
   const rows = parsed.data;
   // File line of each record: a quoted note may span lines, so record r does not always start on line r + 1.
