@@ -4,6 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { formatLocated, InputError } from '../../../src/diagnostics/errors.ts';
 import { importTable } from '../../../src/table/index.ts';
+import { parseShockCsv } from '../../../src/scenario/shock-csv.ts';
 import { refusalOf } from './gen.ts';
 
 describe('found by the property tests', () => {
@@ -27,5 +28,17 @@ describe('found by the property tests', () => {
     const t = importTable(text, { fileName: 'zero.csv' });
     expect(t.layout).toBe('matrix');
     expect(Array.from(t.labourIncome[0]!.values)).toEqual([1, 1]);
+  });
+});
+
+describe('found by the hardening corpus', () => {
+  it('a shock-file refusal below a quoted note that spans lines names its own file line', () => {
+    const s = parseShockCsv('sector,amount,kind,local_share,note\r\nCanning,300,final-demand,1,"new line\r\nof jars"\r\nServices,20,,,\r\nCannery,5,,,\r\n', 'shock.csv');
+    expect(s.lines.map((l) => l.origin?.line)).toEqual([2, 4, 5]);
+  });
+  it('a binary or UTF-16 shock file is refused as such, not as a header with an unknown column of garbage', () => {
+    const utf16 = '\ufffd\ufffd' + 'sector,amount\r\n'.split('').join('\u0000') + '\u0000';
+    expect(refusalOf(() => parseShockCsv(utf16, 'shock.csv'), 'shock.csv')?.code).toBe('utf16');
+    expect(refusalOf(() => parseShockCsv('sector,amount\r\nCan\u0000ning,1\r\n', 'shock.csv'), 'shock.csv')?.code).toBe('binary');
   });
 });
