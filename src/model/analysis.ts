@@ -6,8 +6,8 @@
  */
 import type { Warning } from '../diagnostics/errors.ts';
 import type { IOTable } from '../table/types.ts';
-import { identityMinus, luInverse, norm1 } from '../linalg/index.ts';
-import { conditionEstimate1, scaledResidual, solveResidual, RESIDUAL_THRESHOLD } from '../linalg/checks.ts';
+import { identityMinus, luInverse } from '../linalg/index.ts';
+import { conditionEstimate1, scaledResidual, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF } from '../linalg/checks.ts';
 import { coefficients } from './coefficients.ts';
 import { closedBorder, prepareModel, type PreparedModel } from './prepared.ts';
 import { sectorBlocks } from './graph.ts';
@@ -123,6 +123,36 @@ function absolute(a: Float64Array): Float64Array {
   return Float64Array.from(a, Math.abs);
 }
 
+/** ‖I − A‖₁ (maximum absolute column sum), read row by row so the n×n matrix I − A is never formed. */
+function identityMinusNorm1(a: Float64Array, n: number): number {
+  const col = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const row = i * n;
+    for (let j = 0; j < n; j++) col[j] = col[j]! + Math.abs((i === j ? 1 : 0) - a[row + j]!);
+  }
+  let best = 0;
+  for (let j = 0; j < n; j++) if (col[j]! > best) best = col[j]!;
+  return best;
+}
+
+/**
+ * LAPACK xGET02 ratio ‖b − (I − A)x‖₁ / (‖I − A‖₁·‖x‖₁·n·ε) for one solve, computed from A (as linalg's solveResidual
+ * does for a formed matrix), so no n×n copy is made.
+ */
+function openSolveResidual(a: Float64Array, n: number, x: Float64Array, b: Float64Array, norm: number): number {
+  let resid = 0, xnorm = 0;
+  for (let i = 0; i < n; i++) {
+    let s = b[i]! - x[i]!;
+    const row = i * n;
+    for (let j = 0; j < n; j++) s += a[row + j]! * x[j]!;
+    resid += Math.abs(s);
+    xnorm += Math.abs(x[i]!);
+  }
+  if (resid === 0) return 0;
+  const denom = norm * xnorm * n * UNIT_ROUNDOFF;
+  return denom > 0 ? resid / denom : Number.POSITIVE_INFINITY;
+}
+
 function fmt(x: number): string {
   return x.toPrecision(6);
 }
@@ -197,7 +227,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     closedWhy = 'the table has no household income row or no household consumption column, so there is no household closure (Type II)';
   } else {
     const abar = negativeFlows ? absolute(closed.Abar) : closed.Abar;
-    const pc = perronRoot(abar, closed.m, opts.perron);
+    const pc = perronRoot(abar, closed.m, { ...opts.perron, rightOnly: true });
     perronRootClosed = pc.root;
     perronRootClosedBounds = [pc.lower, pc.upper];
     const s = closedBorder(pm)?.s ?? 0;
@@ -217,24 +247,24 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   const linkages = computeLinkages(pm, multipliers.output.typeI, avail);
 
   // Accuracy checks on the factorisation.
-  const ima = identityMinus(A, n);
   let condition: number | null = null;
   let residual: number | null = null;
   let inverseResidual: number | null = null;
   let leontief: Float64Array | null = null;
   if (!openLU.singular) {
-    const c = conditionEstimate1(openLU, norm1(ima, n));
+    const norm = identityMinusNorm1(A, n);
+    const c = conditionEstimate1(openLU, norm);
     condition = Number.isFinite(c) ? c : null;
     if (condition === null || condition > CONDITION_LIMIT) {
       warn('ill-conditioned', `I − A is ill-conditioned (condition estimate ${condition === null ? 'beyond range' : condition.toExponential(2)}, limit ${CONDITION_LIMIT.toExponential(0)}): results may have lost most of their digits`);
     }
     if (linkages.rowSums.every((v) => v !== null)) {
-      const r = solveResidual(ima, n, Float64Array.from(linkages.rowSums as number[]), new Float64Array(n).fill(1));
+      const r = openSolveResidual(A, n, Float64Array.from(linkages.rowSums as number[]), new Float64Array(n).fill(1), norm);
       residual = Number.isFinite(r) ? r : null;
     }
     if (opts.inverse && productive) {
       leontief = luInverse(openLU);
-      const r = scaledResidual(ima, leontief, n);
+      const r = scaledResidual(identityMinus(A, n), leontief, n);
       inverseResidual = Number.isFinite(r) ? r : null;
     }
     for (const [what, r] of [['solve', residual], ['inverse', inverseResidual]] as const) {

@@ -124,8 +124,55 @@ export function blockPeriod(adj: Int32Array[], sectors: number[]): number | null
   return d === 0 ? null : d;
 }
 
+/**
+ * Breadth-first levels from sector 0 along a_ij ≠ 0 (forward) and whether every sector is reached backward too,
+ * straight on the dense matrix: O(n²) with no adjacency lists, the common case of a strongly connected table.
+ */
+function denseStronglyConnected(a: Float64Array, n: number): Int32Array | null {
+  const level = new Int32Array(n).fill(-1);
+  const queue = new Int32Array(n);
+  level[0] = 0;
+  let head = 0, tail = 1;
+  while (head < tail) {
+    const u = queue[head++]!;
+    const row = u * n;
+    for (let v = 0; v < n; v++) if (level[v] === -1 && a[row + v] !== 0) { level[v] = level[u]! + 1; queue[tail++] = v; }
+  }
+  if (tail < n) return null;
+  const seen = new Uint8Array(n);
+  seen[0] = 1;
+  queue[0] = 0;
+  head = 0; tail = 1;
+  while (head < tail) {
+    const v = queue[head++]!;
+    for (let u = 0; u < n; u++) if (!seen[u] && a[u * n + v] !== 0) { seen[u] = 1; queue[tail++] = u; }
+  }
+  return tail < n ? null : level;
+}
+
+/** Period of a strongly connected dense matrix from its forward levels (gcd over all edges, stopping at 1). */
+function densePeriod(a: Float64Array, n: number, level: Int32Array): number | null {
+  let d = 0;
+  for (let u = 0; u < n; u++) {
+    const row = u * n, lu = level[u]! + 1;
+    for (let v = 0; v < n; v++) {
+      if (a[row + v] !== 0) {
+        d = gcd(d, lu - level[v]!);
+        if (d === 1) return 1;
+      }
+    }
+  }
+  return d === 0 ? null : d;
+}
+
 /** Blocks of the sector graph with their periods, in topological order. */
 export function sectorBlocks(a: Float64Array, n: number): SectorBlock[] {
+  if (n === 0) return [];
+  const level = denseStronglyConnected(a, n);
+  if (level) {
+    const period = densePeriod(a, n, level);
+    return [{ sectors: Array.from({ length: n }, (_, i) => i), cyclic: period !== null, period }];
+  }
   const adj = sectorGraph(a, n);
   return stronglyConnected(adj).map((sectors) => {
     const period = blockPeriod(adj, sectors);

@@ -23,6 +23,8 @@ export interface PerronOptions {
   maxIterations?: number;
   /** Blocks of the sector graph, when already computed. */
   blocks?: SectorBlock[];
+  /** Iterate the right vector only (half the work per step; bounds from the right vector alone; `left` is then all zeros). */
+  rightOnly?: boolean;
 }
 
 export interface PerronResult {
@@ -65,10 +67,61 @@ interface Iterated {
 }
 
 /**
+ * av = b·v and wa = wᵀ·b in one pass over b, four rows at a time (one load of wa[j] per four rows, so the pass is
+ * bound by reading b rather than by stores).
+ */
+function products(b: Float64Array, m: number, v: Float64Array, w: Float64Array, av: Float64Array, wa: Float64Array, rightOnly: boolean): void {
+  if (rightOnly) { rightProduct(b, m, v, av); return; }
+  wa.fill(0);
+  let i = 0;
+  for (; i + 3 < m; i += 4) {
+    const r0 = i * m, r1 = r0 + m, r2 = r1 + m, r3 = r2 + m;
+    const w0 = w[i]!, w1 = w[i + 1]!, w2 = w[i + 2]!, w3 = w[i + 3]!;
+    let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+    for (let j = 0; j < m; j++) {
+      const vj = v[j]!;
+      const b0 = b[r0 + j]!, b1 = b[r1 + j]!, b2 = b[r2 + j]!, b3 = b[r3 + j]!;
+      s0 += b0 * vj; s1 += b1 * vj; s2 += b2 * vj; s3 += b3 * vj;
+      wa[j] = wa[j]! + (w0 * b0 + w1 * b1 + w2 * b2 + w3 * b3);
+    }
+    av[i] = s0; av[i + 1] = s1; av[i + 2] = s2; av[i + 3] = s3;
+  }
+  for (; i < m; i++) {
+    const row = i * m, wi = w[i]!;
+    let s0 = 0;
+    for (let j = 0; j < m; j++) {
+      const bij = b[row + j]!;
+      s0 += bij * v[j]!;
+      wa[j] = wa[j]! + wi * bij;
+    }
+    av[i] = s0;
+  }
+}
+
+function rightProduct(b: Float64Array, m: number, v: Float64Array, av: Float64Array): void {
+  let i = 0;
+  for (; i + 3 < m; i += 4) {
+    const r0 = i * m, r1 = r0 + m, r2 = r1 + m, r3 = r2 + m;
+    let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+    for (let j = 0; j < m; j++) {
+      const vj = v[j]!;
+      s0 += b[r0 + j]! * vj; s1 += b[r1 + j]! * vj; s2 += b[r2 + j]! * vj; s3 += b[r3 + j]! * vj;
+    }
+    av[i] = s0; av[i + 1] = s1; av[i + 2] = s2; av[i + 3] = s3;
+  }
+  for (; i < m; i++) {
+    const row = i * m;
+    let s0 = 0;
+    for (let j = 0; j < m; j++) s0 += b[row + j]! * v[j]!;
+    av[i] = s0;
+  }
+}
+
+/**
  * Power iteration on the m×m non-negative matrix b, right and left vectors together in one pass over b per step.
  * `shift` is added to the diagonal of the iteration matrix only (the bounds are always computed for b itself).
  */
-function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter: number): Iterated {
+function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter: number, rightOnly = false): Iterated {
   let v = new Float64Array(m).fill(1);
   let w = new Float64Array(m).fill(1);
   const g = safety(m);
@@ -79,18 +132,7 @@ function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter
   const av = new Float64Array(m);
   const wa = new Float64Array(m);
   for (; it < maxIter; it++) {
-    wa.fill(0);
-    for (let i = 0; i < m; i++) {
-      let s = 0;
-      const row = i * m;
-      const wi = w[i]!;
-      for (let j = 0; j < m; j++) {
-        const bij = b[row + j]!;
-        s += bij * v[j]!;
-        wa[j] = wa[j]! + wi * bij;
-      }
-      av[i] = s;
-    }
+    products(b, m, v, w, av, wa, rightOnly);
     let loR = Number.POSITIVE_INFINITY, hiR = 0, loL = Number.POSITIVE_INFINITY, hiL = 0;
     let allPositive = true;
     for (let i = 0; i < m; i++) {
@@ -100,12 +142,14 @@ function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter
         if (r < loR) loR = r;
         if (r > hiR) hiR = r;
       } else allPositive = false;
+      if (rightOnly) continue;
       if (wi > 0) {
         const r = wa[i]! / wi;
         if (r < loL) loL = r;
         if (r > hiL) hiL = r;
       } else allPositive = false;
     }
+    if (rightOnly) hiL = Number.POSITIVE_INFINITY;
     // Lower bounds need only v ≥ 0, v ≠ 0; upper bounds need v > 0 throughout.
     const lo = Math.max(loR === Number.POSITIVE_INFINITY ? 0 : loR, loL === Number.POSITIVE_INFINITY ? 0 : loL) * (1 - g);
     if (lo > lower) lower = lo;
@@ -121,19 +165,24 @@ function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter
       if (av[i]! > mv) mv = av[i]!;
       if (wa[i]! > mw) mw = wa[i]!;
     }
-    if (!(mv > 0) || !(mw > 0)) {
+    if (!(mv > 0) || (!rightOnly && !(mw > 0))) {
       // The iterate vanished (only possible without a shift); the bounds found so far stand.
       it++;
       break;
     }
-    const nv = new Float64Array(m), nw = new Float64Array(m);
-    for (let i = 0; i < m; i++) { nv[i] = av[i]! / mv; nw[i] = wa[i]! / mw; }
+    const nv = new Float64Array(m);
+    for (let i = 0; i < m; i++) nv[i] = av[i]! / mv;
     v = nv;
-    w = nw;
+    if (!rightOnly) {
+      const nw = new Float64Array(m);
+      for (let i = 0; i < m; i++) nw[i] = wa[i]! / mw;
+      w = nw;
+    }
   }
   if (upper === Number.POSITIVE_INFINITY) upper = Math.max(lower, maxRowSum(b, m) * (1 + g));
   normalise(v);
-  normalise(w);
+  if (rightOnly) w = new Float64Array(m);
+  else normalise(w);
   return { lower, upper, right: v, left: w, iterations: it, converged };
 }
 
@@ -178,7 +227,7 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
       if (blocks.length === 1) single = { lower: d, upper: d, right: Float64Array.of(1), left: Float64Array.of(1), iterations: 0, converged: true };
       continue;
     }
-    const r = iterate(subMatrix(a, n, blk.sectors), m, blk.period === 1 ? 0 : 1, tol, maxIter);
+    const r = iterate(m === n ? a : subMatrix(a, n, blk.sectors), m, blk.period === 1 ? 0 : 1, tol, maxIter, opts.rightOnly ?? false);
     iterations += r.iterations;
     converged &&= r.converged;
     if (r.lower > lower) lower = r.lower;
@@ -192,7 +241,7 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
     left = single.left;
   } else {
     // Reducible: whole-matrix vectors from the shifted iteration A + I (non-negative eigenvectors for ρ, not unique).
-    const whole = iterate(a, n, 1, tol, maxIter);
+    const whole = iterate(a, n, 1, tol, maxIter, opts.rightOnly ?? false);
     iterations += whole.iterations;
     right = whole.right;
     left = whole.left;

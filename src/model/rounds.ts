@@ -49,8 +49,32 @@ export function contractionRate(a: Float64Array, n: number, v: Float64Array): nu
   return beta * (1 + g / (1 - g));
 }
 
-export function certificate(a: Float64Array, n: number, v: Float64Array, source: SeriesCertificate['source']): SeriesCertificate | null {
-  const beta = contractionRate(a, n, v);
+/** β for several weight vectors in one pass over A (null for a vector that is not strictly positive). */
+export function contractionRates(a: Float64Array, n: number, vs: Float64Array[]): (number | null)[] {
+  const k = vs.length;
+  const ok = vs.map((v) => v.every((x) => x > 0 && Number.isFinite(x)));
+  const beta = new Float64Array(k);
+  const sums = new Float64Array(k);
+  for (let i = 0; i < n; i++) {
+    sums.fill(0);
+    const row = i * n;
+    for (let j = 0; j < n; j++) {
+      const aij = Math.abs(a[row + j]!);
+      if (aij === 0) continue;
+      for (let c = 0; c < k; c++) sums[c] = sums[c]! + aij * vs[c]![j]!;
+    }
+    for (let c = 0; c < k; c++) {
+      if (!ok[c]) continue;
+      const r = sums[c]! / vs[c]![i]!;
+      if (r > beta[c]!) beta[c] = r;
+    }
+  }
+  const g = (n + 2) * UNIT_ROUNDOFF;
+  return Array.from(beta, (b, c) => (ok[c] ? b * (1 + g / (1 - g)) : null));
+}
+
+export function certificate(a: Float64Array, n: number, v: Float64Array, source: SeriesCertificate['source'], rate?: number | null): SeriesCertificate | null {
+  const beta = rate === undefined ? contractionRate(a, n, v) : rate;
   if (beta === null || !(beta < 1)) return null;
   let lo = Number.POSITIVE_INFINITY, hi = 0;
   for (let i = 0; i < n; i++) {
@@ -92,25 +116,28 @@ export function seriesVerdict(
       reason: `the rounds do not die out: the Perron root of A is at least ${perronLower.toPrecision(6)} (≥ 1), so the power series diverges and the table is not productive`,
     };
   }
-  const certs: SeriesCertificate[] = [];
-  const ones = new Float64Array(n).fill(1);
-  const c1 = certificate(a, n, ones, 'row sums');
-  if (c1) certs.push(c1);
+  const vs: Float64Array[] = [new Float64Array(n).fill(1)];
+  const sources: SeriesCertificate['source'][] = ['row sums'];
   if (candidates.perron) {
     let max = 0;
     for (let i = 0; i < n; i++) if (candidates.perron[i]! > max) max = candidates.perron[i]!;
     if (max > 0) {
       // Floor tiny or zero entries (reducible tables): any positive v is valid, this only affects the rate.
       const floor = max * 1e-6;
-      const v = Float64Array.from(candidates.perron, (x) => (x > floor ? x : floor));
-      const c = certificate(a, n, v, 'Perron vector');
-      if (c) certs.push(c);
+      vs.push(Float64Array.from(candidates.perron, (x) => (x > floor ? x : floor)));
+      sources.push('Perron vector');
     }
   }
   if (candidates.leontiefRowSums) {
-    const c = certificate(a, n, candidates.leontiefRowSums, 'Leontief row sums');
-    if (c) certs.push(c);
+    vs.push(candidates.leontiefRowSums);
+    sources.push('Leontief row sums');
   }
+  const rates = contractionRates(a, n, vs);
+  const certs: SeriesCertificate[] = [];
+  vs.forEach((v, c) => {
+    const cert = certificate(a, n, v, sources[c]!, rates[c]!);
+    if (cert) certs.push(cert);
+  });
   if (certs.length === 0) {
     return {
       converges: false,
