@@ -15,6 +15,7 @@ import { leontiefMatrix } from './matrices.ts';
 import { time, runsFor, type Timing } from './timing.ts';
 import { numpyAvailable, numpyInverse, type NumpyTiming } from './numpy.ts';
 import { benchJob, jobCsv, type JobRow } from './job.ts';
+import { cliJob, type CliJob } from './cli-job.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../src/cli/parallel.ts';
 
 const args = process.argv.slice(2);
@@ -99,10 +100,13 @@ for (const n of SIZES) {
 }
 
 const jobs: JobRow[] = [];
+const clis: CliJob[] = [];
 for (const n of SIZES) {
   process.stderr.write(`job n=${n}…`);
   const csv = jobCsv(n);
   jobs.push(benchJob(n, QUICK ? Math.max(1, Math.ceil(runsFor(n) / 3)) : runsFor(n), csv));
+  process.stderr.write(' CLI…');
+  clis.push(cliJob(n, csv, outDir, QUICK ? 1 : 3, numpyVersion !== null));
   process.stderr.write(' done\n');
 }
 
@@ -135,8 +139,15 @@ const jobHeader = ['n', 'CSV', 'import', 'prepare (coefficients + LU)', 'one sce
 const jobTable = jobs.map((j) => [String(j.n), `${j.csvMB.toFixed(1)} MB`, fmt(j.importMs.medianMs), fmt(j.prepareMs.medianMs), fmt(j.scenarioMs.medianMs)]);
 printTable(jobHeader, jobTable);
 console.log('Whole job on invented tables written by writeTableCsv: import = importTable on the CSV text; one scenario = runScenario after preparation (a final-demand line in one sector).');
+const cliHeader = ['n', 'roundwise analyze --json', 'numpy script', 'ours/numpy', 'peak RSS ours', 'peak RSS numpy', 'max rel. diff'];
+const cliTable = clis.map((c) => [String(c.n), fmt(c.ours?.medianMs), fmt(c.numpy?.medianMs), ratio(c.ours?.medianMs, c.numpy?.medianMs),
+  c.ours?.peakMB == null ? '—' : `${c.ours.peakMB.toFixed(0)} MB`, c.numpy?.peakMB == null ? '—' : `${c.numpy.peakMB.toFixed(0)} MB`,
+  c.maxRelDiff == null ? '—' : c.maxRelDiff.toExponential(1)]);
+printTable(cliHeader, cliTable);
+console.log('Process start to exit. numpy script = test/bench/numpy_job.py (loadtxt, two inv, the same multipliers); max rel. diff = largest relative difference between the two outputs over every multiplier and linkage.');
+for (const c of clis) if (c.note) console.log(`n=${c.n}: ${c.note}`);
 
-const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs };
+const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis };
 const stamp = started.toISOString().replace(/[:.]/g, '-');
 writeFileSync(join(outDir, `bench-${stamp}.json`), JSON.stringify(json, null, 2));
 writeFileSync(join(outDir, 'latest.json'), JSON.stringify(json, null, 2));
