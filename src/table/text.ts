@@ -80,12 +80,12 @@ export function detectDelimiter(text: string): Delimiter {
 
 /**
  * Decimal mark. Comma-delimited and tab-delimited files use a point. Semicolon-delimited files use the decimal comma
- * (the usual reason for choosing ';'), unless no comma occurs anywhere and some point is followed by other than a group
- * of exactly three digits — then the points can only be decimal points.
+ * (the usual reason for choosing ';'), unless no comma stands between digits anywhere (commas in labels do not count)
+ * and some point is followed by other than a group of exactly three digits — then the points can only be decimal points.
  */
 export function detectDecimalMark(text: string, delimiter: Delimiter): DecimalMark {
   if (delimiter !== ';') return '.';
-  if (text.indexOf(',') >= 0) return ',';
+  if (/\d,\d/.test(text)) return ',';
   const re = /\d\.(\d*)/g;
   let m: RegExpExecArray | null;
   while ((m = re.exec(text)) !== null) {
