@@ -75,6 +75,9 @@ describe('table import refusals', () => {
   it('refuses duplicate sector row labels', () => {
     expectRefusal(replaceOnce(BASE, 'Services,5,20,30,60,35,150\n', 'Services,5,20,30,60,35,150\nMills,1,2,3,4,5,15\n'), 'duplicate-label', "duplicate row label 'Mills' (also on line 3)", { line: 5, column: 1, rowLabel: 'Mills' });
   });
+  it('refuses row labels that differ only in case', () => {
+    expectRefusal(replaceOnce(BASE, 'Services,5,20,30,60,35,150\n', 'Services,5,20,30,60,35,150\nMILLS,1,2,3,4,5,15\n'), 'duplicate-label', "duplicate row label 'MILLS' (also on line 3)", { line: 5, column: 1, rowLabel: 'MILLS' });
+  });
   it('refuses duplicate column labels', () => {
     expectRefusal(replaceOnce(BASE, ',Farming,Mills,', ',Farming,Farming,'), 'duplicate-label', "duplicate column label 'Farming' (also in field 2)", { line: 1, column: 3, columnLabel: 'Farming' });
   });
@@ -129,6 +132,11 @@ describe('not refused', () => {
     expect(t.sectors).toEqual(['Farming', 'Mills']);
     expect(Array.from(t.Z)).toEqual([10, 40, 15, 20]);
     expect(t.warnings.find((w) => w.code === 'sector-dropped')?.message).toBe("dropped 1 sector with zero output and no purchases or sales: 'Idle'");
+  });
+  it('uses the first of two total output columns and says so', () => {
+    const text = BASE.split('\n').map((l, k) => (l === '' ? l : `${l},${k === 0 ? 'Gross output' : l.split(',')[6] ?? ''}`)).join('\n');
+    const t = importTable(text, { fileName: 't.csv' });
+    expect(t.warnings.map((w) => w.code)).toEqual(['extra-total']);
   });
   it('warns when totals disagree beyond the tolerance, listing the worst sectors', () => {
     // Mills: sales 15+20+10+45+110 = 200 against a stated 190 (gap 10/200 = 5 %); Farming 100 vs 99 (1 %).

@@ -93,6 +93,10 @@ describe('CSV variants import to the same numbers', () => {
     const rows = cells.map((row) => [row[0]!, ...perm.map((k) => row[1 + k]!), ...row.slice(1 + n)]);
     same(importTable(emit(rows, ','), { fileName: 'perm.csv' }));
   });
+  it('column labels that differ from the row labels only in case or spacing', () => {
+    const rows = cells.map((row, r) => (r === 0 ? row.map((s, c) => (c > 0 && c <= clean.n ? s.toUpperCase().replace(/ /g, '  ') : s)) : row));
+    same(importTable(emit(rows, ','), { fileName: 'case.csv' }));
+  });
   it('spaces around cells and labels', () => {
     same(importTable(emit(cells, ',', '\r\n', (s) => (s === '' ? '  ' : ` ${s} `)), { fileName: 'spaces.csv' }));
   });
