@@ -63,6 +63,8 @@ export function looksLikeCoefficients(raw: RawTable): boolean {
     if (col > 1) return false;
     zSum += col;
   }
+  // An all-zero block is no evidence either way; read it as flows (as coefficients it would rescale the value-added rows).
+  if (zSum === 0) return false;
   let xSum = 0;
   for (let i = 0; i < n; i++) xSum += total.values[i]!;
   // In a flow table intermediate flows are a large share of output (typically 30–65 %); 1 % would be implausible.

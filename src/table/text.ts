@@ -30,6 +30,11 @@ const SAMPLE = 64 * 1024;
  * or U+FFFD replacement characters (bytes that were not UTF-8) among the first 64 Ki characters.
  */
 export function checkNotBinary(text: string, fileName: string): void {
+  // UTF-16 ("Unicode text" exports) read as UTF-8: the byte-order mark FF FE or FE FF becomes two U+FFFD, and every
+  // ASCII character comes with a NUL beside it. Say so rather than call the file binary.
+  if (/^(\ufffd\ufffd)?(?:(?:[^\u0000]\u0000){4}|(?:\u0000[^\u0000]){4})/.test(text)) {
+    throw new InputError('utf16', 'the file is UTF-16 text; save it as UTF-8 (in a spreadsheet: "CSV UTF-8")', { file: fileName });
+  }
   const nul = text.indexOf('\u0000');
   if (nul >= 0) {
     if (looksUtf16(text)) throw new InputError('utf16', 'the file is UTF-16 text (as from "Unicode text" exports); save it as CSV in UTF-8', { file: fileName });
