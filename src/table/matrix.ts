@@ -35,7 +35,7 @@ export function headerWidth(grid: Grid, r: number): number {
 export function checkWidth(grid: Grid, r: number, width: number, fileName: string, rowLabel?: string): void {
   const w = grid.width(r);
   if (w < width) {
-    throw new InputError('ragged-row', `row has ${w} field${w === 1 ? '' : 's'}, the header has ${width}`, { file: fileName, line: grid.line(r), column: w + 1, ...(rowLabel !== undefined ? { rowLabel } : {}) });
+    throw new InputError('ragged-row', `row has ${w} field${w === 1 ? '' : 's'}, the header has ${width}`, { file: fileName, line: grid.line(r), column: w, ...(rowLabel !== undefined ? { rowLabel } : {}) });
   }
   for (let c = width; c < w; c++) {
     if (grid.cell(r, c).trim() !== '') {

@@ -23,6 +23,17 @@ export function stripBom(text: string): string {
   return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
 }
 
+/** Line and column (1-based, in characters) of a character offset. */
+export function lineColumnAt(text: string, offset: number): { line: number; column: number } {
+  let line = 1;
+  let lineStart = 0;
+  for (let i = text.indexOf('\n'); i >= 0 && i < offset; i = text.indexOf('\n', i + 1)) {
+    line++;
+    lineStart = i + 1;
+  }
+  return { line, column: offset - lineStart + 1 };
+}
+
 const SAMPLE = 64 * 1024;
 
 /**
@@ -36,10 +47,7 @@ export function checkNotBinary(text: string, fileName: string): void {
     throw new InputError('utf16', 'the file is UTF-16 text; save it as UTF-8 (in a spreadsheet: "CSV UTF-8")', { file: fileName });
   }
   const nul = text.indexOf('\u0000');
-  if (nul >= 0) {
-    if (looksUtf16(text)) throw new InputError('utf16', 'the file is UTF-16 text (as from "Unicode text" exports); save it as CSV in UTF-8', { file: fileName });
-    throw new InputError('binary', 'the file holds binary data (NUL bytes), not CSV text', { file: fileName });
-  }
+  if (nul >= 0) throw new InputError('binary', 'the file holds binary data (NUL bytes), not CSV text', { file: fileName, ...lineColumnAt(text, nul) });
   const n = Math.min(text.length, SAMPLE);
   let odd = 0;
   for (let i = 0; i < n; i++) {
@@ -47,20 +55,6 @@ export function checkNotBinary(text: string, fileName: string): void {
     if ((c < 32 && c !== 9 && c !== 10 && c !== 13 && c !== 12) || c === 0x7f || c === 0xfffd) odd++;
   }
   if (odd > 0.01 * n) throw new InputError('binary', 'the file looks like binary data, not CSV text', { file: fileName });
-}
-
-/** UTF-16 read as UTF-8: a byte-order mark FF FE or FE FF became two U+FFFD, or every other character is NUL. */
-function looksUtf16(text: string): boolean {
-  if (text.startsWith('\ufffd\ufffd')) return true;
-  const n = Math.min(text.length, 200);
-  let even = 0;
-  let odd = 0;
-  for (let i = 0; i < n; i++) {
-    if (text.charCodeAt(i) !== 0) continue;
-    if (i % 2) odd++;
-    else even++;
-  }
-  return Math.max(even, odd) > 0.4 * n && Math.min(even, odd) < 0.05 * n;
 }
 
 /** Delimiter of the first non-blank line: the most frequent of comma, semicolon and tab outside quotes (ties go to comma, then semicolon). */

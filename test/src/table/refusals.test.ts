@@ -28,7 +28,7 @@ describe('table import refusals', () => {
     expectRefusal(BASE.split('\n')[0]! + '\r\n\r\n', 'header-only', 'the file has a header but no rows of numbers', { line: 1 });
   });
   it('refuses binary content (NUL bytes)', () => {
-    expectRefusal('\u0089PNG\r\n\u001a\n\u0000\u0000\u0000\rIHDR', 'binary', 'the file holds binary data (NUL bytes), not CSV text', {});
+    expectRefusal('\u0089PNG\r\n\u001a\n\u0000\u0000\u0000\rIHDR', 'binary', 'the file holds binary data (NUL bytes), not CSV text', { line: 3, column: 1 });
   });
   it('refuses binary content (mostly undecodable bytes)', () => {
     expectRefusal('\ufffd'.repeat(50) + 'a,b\n', 'binary', 'the file looks like binary data, not CSV text', {});
@@ -37,7 +37,7 @@ describe('table import refusals', () => {
     expectRefusal(replaceOnce(BASE, 'Mills,15,20', '"Mills,15,20'), 'bad-quotes', 'a quoted cell is not closed or a quote is misplaced (RFC 4180 §2)', { line: 3 });
   });
   it('refuses a ragged row (too few fields)', () => {
-    expectRefusal(replaceOnce(BASE, 'Mills,15,20,10,45,110,200', 'Mills,15,20,10,45,110'), 'ragged-row', 'row has 6 fields, the header has 7', { line: 3, column: 7, rowLabel: 'Mills' });
+    expectRefusal(replaceOnce(BASE, 'Mills,15,20,10,45,110,200', 'Mills,15,20,10,45,110'), 'ragged-row', 'row has 6 fields, the header has 7', { line: 3, column: 6, rowLabel: 'Mills' });
   });
   it('refuses a ragged row (a value beyond the header)', () => {
     expectRefusal(replaceOnce(BASE, 'Mills,15,20,10,45,110,200', 'Mills,15,20,10,45,110,200,7'), 'ragged-row', "row has a value in field 8, beyond the header's 7 fields", { line: 3, column: 8, rowLabel: 'Mills' });
