@@ -1,0 +1,80 @@
+/**
+ * CSV injection end to end (OWASP "CSV Injection": a cell beginning with =, +, -, @, tab or carriage return may be run
+ * as a formula by a spreadsheet). A table whose labels are formulas is imported from a file, analysed and shocked, and
+ * every cell of every CSV report is checked: text that begins with one of those characters must carry the leading
+ * quote; only numbers may begin with '-' or '+'.
+ */
+import Papa from 'papaparse';
+import { describe, expect, it } from 'vitest';
+import { importTable } from '../../../src/table/index.ts';
+import { writeTableCsv } from '../../../src/table/write.ts';
+import { prepareModel } from '../../../src/model/prepared.ts';
+import { compareScenarios, runScenario, spendingRounds, structuralPaths } from '../../../src/scenario/index.ts';
+import { comparisonReport, impactReport, pathReport, roundsReport, scenarioMultiplierReport } from '../../../src/report/scenario.ts';
+import type { ReportFile } from '../../../src/report/document.ts';
+
+/** Labels a spreadsheet would run as formulas (invented; the URL is never contacted). */
+export const FORMULA_LABELS = ['=HYPERLINK("http://x")', '+SUM(A1)', '-2+3', '@cmd', '=1+1;=2'];
+
+/** Formula-leading text in a CSV, as "row r, field c: text". Numbers (which may begin with - or +) are fine. */
+export function unsafeCells(csv: string): string[] {
+  const rows = Papa.parse<string[]>(csv, { skipEmptyLines: true }).data;
+  const out: string[] = [];
+  rows.forEach((row, r) => row.forEach((cell, c) => {
+    if (/^[=+\-@\t\r]/.test(cell) && !/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(cell)) out.push(`row ${r + 1}, field ${c + 1}: ${cell}`);
+  }));
+  return out;
+}
+
+/** A three-sector table (invented) whose sector labels are the formulas above, written as a spreadsheet would quote them. */
+export function formulaTableCsv(): string {
+  const [a, b, c] = FORMULA_LABELS.map((l) => `"${l.replace(/"/g, '""')}"`);
+  return [
+    `"=cmd|' /C calc'!A0",${a},${b},${c},Households,Exports,Total output`,
+    `${a},10,40,5,20,25,100`,
+    `${b},5,20,10,60,105,200`,
+    `${c},15,30,20,100,35,200`,
+    '"@Labor income",30,50,90,,,',
+    'Labor income,0,0,0,,,',
+    '"-Other value added",20,30,50,,,',
+    'Imports,20,30,25,,,',
+    'Employment,12,25,40,,,',
+  ].join('\r\n') + '\r\n';
+}
+
+describe('CSV injection, end to end through the engine', () => {
+  const table = importTable(formulaTableCsv(), { fileName: 'formulas.csv' });
+  const pm = prepareModel(table);
+  const ctx = { tableName: '=cmd', sourceFile: '@formulas.csv', date: '2026-12-01T21:00:00Z' };
+
+  it('the probe finds an unescaped formula and passes numbers', () => {
+    expect(unsafeCells('a,b\r\n=1+1,-2.5\r\n"\'=1+1",+3e5\r\n')).toEqual(['row 2, field 1: =1+1']);
+  });
+
+  it('the formula labels are imported as sector labels', () => {
+    expect(table.sectors).toEqual(FORMULA_LABELS.slice(0, 3));
+  });
+
+  it('every scenario report and the written table escape every formula-leading text cell', () => {
+    const s1 = runScenario(pm, { name: '=cmd scenario', lines: [{ sector: FORMULA_LABELS[0]!, amount: 300, kind: 'final-demand', localShare: 0.9 }, { sector: FORMULA_LABELS[2]!, amount: -50, kind: 'final-demand', localShare: 1 }] });
+    const s2 = runScenario(pm, { name: '@other', lines: [{ sector: FORMULA_LABELS[1]!, amount: 25, kind: 'jobs', localShare: 1 }] });
+    const rounds = spendingRounds(pm, s1.effectiveDemand, s1.openOutput);
+    const paths = structuralPaths(pm, s1.effectiveDemand, 1);
+    const files: ReportFile[] = [
+      ...impactReport(s1, ctx), ...roundsReport(s1, rounds, ctx), ...scenarioMultiplierReport(s1, ctx), ...pathReport(s1, paths, ctx),
+      ...comparisonReport(compareScenarios([s1, s2]), table.moneyUnit, ctx),
+      { name: 'table.csv', content: writeTableCsv(table) },
+    ];
+    const csvs = files.filter((f) => f.name.endsWith('.csv'));
+    expect(csvs.length).toBeGreaterThanOrEqual(6);
+    for (const f of csvs) {
+      expect(unsafeCells(f.content), f.name).toEqual([]);
+    }
+    // The labels are there, escaped, so the check above looked at them.
+    const all = csvs.map((f) => f.content).join('\n');
+    for (const l of [...FORMULA_LABELS.slice(0, 3), '=cmd|']) expect(all).toContain(`'${l.replace(/"/g, '""')}`);
+    expect(impactReport(s1, ctx)[0]!.content).toContain("'-2+3");
+    // The written table reads back to the same labels (the importer removes the escaping quote).
+    expect(importTable(writeTableCsv(table), { fileName: 'again.csv' }).sectors).toEqual(table.sectors);
+  });
+});
