@@ -152,7 +152,8 @@ export function expectWellFormedRefusal(e: InputError, fileName: string): void {
     expect(e.location.column, `${e.code} names a column`).toBeGreaterThanOrEqual(1);
   }
   const text = formatLocated(e);
-  expect(text).not.toMatch(/[\r\n]/);
+  expect(text).not.toMatch(/\r/);
+  expect(text.split('\n').length, text).toBeLessThanOrEqual(3);
   expect(text.length).toBeLessThan(400);
   expect(text).not.toMatch(/\bat .*\(.*:\d+:\d+\)/);
   // The user's own text is quoted ('NaN' is not a finite number); outside quotes no NaN, undefined or [object …].

@@ -16,9 +16,11 @@ describe('found by the property tests', () => {
     expect(formatLocated(e!)).toMatch(/^cr\.csv:\d+:2 \(row 'B\\[rn]1', column 'A'\): 'x' is not a number$/);
   });
 
-  it('control characters in a message are shown escaped, never as raw line breaks or NUL', () => {
-    const e = new InputError('t', "'a\tb\u0000' is not a number", { file: 'f.csv', line: 1, rowLabel: 'x\ny' });
-    expect(formatLocated(e)).toBe("f.csv:1 (row 'x\\ny'): 'a\\tb\\u0000' is not a number");
+  it('control characters are shown escaped (labels entirely; messages keep only their own line breaks)', () => {
+    const e = new InputError('t', "'a\tb\u0000\r' is not a number", { file: 'f.csv', line: 1, rowLabel: 'x\ny' });
+    expect(formatLocated(e)).toBe("f.csv:1 (row 'x\\ny'): 'a\\tb\\u0000\\r' is not a number");
+    // A message's own line break (a usage hint below it) is kept.
+    expect(formatLocated(new InputError('usage', 'no table given\nusage: roundwise …'))).toBe('no table given\nusage: roundwise …');
   });
 
   it('a flow table whose inter-industry block is all zero is not read as a coefficients table', () => {
