@@ -51,6 +51,13 @@ export interface RoundwiseBridge {
   setDirty(dirty: boolean): void;
   /** Subscribe to menu commands; returns an unsubscribe function. */
   onMenu(handler: (cmd: MenuCommand) => void): () => void;
+  /**
+   * Keep a crash-recovery copy of the current (unsaved) project; `null` removes it (after a save, or when the
+   * project is clean). Call it debounced while dirty; it never replaces a saved project file.
+   */
+  autosave(content: string | null): Promise<void>;
+  /** The recovery copy left by an earlier session that ended with unsaved changes, or null when there is none. */
+  recoverAutosave(): Promise<OpenedFile | null>;
 }
 
 /** IPC channel names, one per bridge method that crosses the process boundary. */
@@ -61,5 +68,7 @@ export const CHANNELS = {
   recentProjects: 'roundwise:recent-projects',
   openRecent: 'roundwise:open-recent',
   setDirty: 'roundwise:set-dirty',
+  autosave: 'roundwise:autosave',
+  recoverAutosave: 'roundwise:recover-autosave',
   menu: 'roundwise:menu',
 } as const;

@@ -1,4 +1,5 @@
 /** Dense row-major Float64Array helpers. A matrix of n rows and m columns stores entry (i, j) at i*m + j. */
+import { gemmSubtract } from './gemm.ts';
 
 export function identity(n: number): Float64Array {
   const out = new Float64Array(n * n);
@@ -38,18 +39,11 @@ export function vecMat(v: Float64Array, a: Float64Array, n: number, m: number): 
   return y;
 }
 
-/** C = A·B with A n×k and B k×m. */
+/** C = A·B with A n×k and B k×m, through the tiled kernel (C = −(0 − A·B)). */
 export function matMul(a: Float64Array, b: Float64Array, n: number, k: number, m: number): Float64Array {
   const c = new Float64Array(n * m);
-  for (let i = 0; i < n; i++) {
-    for (let p = 0; p < k; p++) {
-      const aip = a[i * k + p]!;
-      if (aip === 0) continue;
-      const brow = p * m;
-      const crow = i * m;
-      for (let j = 0; j < m; j++) c[crow + j] = c[crow + j]! + aip * b[brow + j]!;
-    }
-  }
+  gemmSubtract(c, 0, m, a, 0, k, b, 0, m, n, m, k);
+  for (let q = 0; q < n * m; q++) c[q] = c[q] === 0 ? 0 : -c[q]!;
   return c;
 }
 

@@ -1,2 +1,3 @@
 export * from './dense.ts';
 export * from './lu.ts';
+export * from './checks.ts';

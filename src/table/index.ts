@@ -1,10 +1,24 @@
 /**
- * Table import: CSV text → validated IOTable. (Being built; the signature is the contract other modules use.)
+ * Table import: CSV text → validated IOTable, and a preview of the same import that never throws (for the UI's
+ * "accept this table?" step). Formats are described in README (section "CSV formats").
  */
-import { InputError } from '../diagnostics/errors.ts';
-import type { IOTable, Layout, RoleMap } from './types.ts';
+import { formatLocated, InputError, isInputError, type Location, type Warning } from '../diagnostics/errors.ts';
+import type { ColumnRole, IOTable, Layout, RoleMap, RowRole } from './types.ts';
+import { buildGrid } from './grid.ts';
+import { contentRows, readMatrix, type ReadOptions } from './matrix.ts';
+import { longHeader, readLong } from './long.ts';
+import { finishTable, looksLikeCoefficients, scaleCoefficients, type BalanceReport } from './finish.ts';
+import { checkNotBinary, checkTableSize, detectDecimalMark, detectDelimiter, stripBom, type Delimiter } from './text.ts';
+import type { DecimalMark } from './numbers.ts';
+import type { LabelRole } from './structure.ts';
 
-export type { IOTable, Layout, RoleMap } from './types.ts';
+export type { IOTable, Layout, RoleMap, RowRole, ColumnRole, LabelledVector } from './types.ts';
+export type { BalanceReport } from './finish.ts';
+export type { LabelRole } from './structure.ts';
+export type { Delimiter } from './text.ts';
+export type { DecimalMark } from './numbers.ts';
+export { MAX_TABLE_BYTES, checkTableSize } from './text.ts';
+export { suggestRoles, suggestRowRole, suggestColumnRole, parseRoleMap, normaliseLabel, ROW_ROLES, COLUMN_ROLES, ROW_LABELS, COLUMN_LABELS } from './roles.ts';
 
 export interface ImportOptions {
   /** Shown in messages ("county.csv:12:4 …"). */
@@ -19,8 +33,113 @@ export interface ImportOptions {
   balanceTolerance?: number;
   /** Table name; defaults to the file name without extension. */
   name?: string;
+  /** Field delimiter; detected from the first line when omitted. */
+  delimiter?: Delimiter;
+  /** Decimal mark; ',' for semicolon-delimited files and '.' otherwise when omitted (see text.ts). */
+  decimalMark?: DecimalMark;
+  /** Money unit; defaults to the corner cell's text. */
+  moneyUnit?: string;
 }
 
-export function importTable(_text: string, opts: ImportOptions): IOTable {
-  throw new InputError('not-implemented', 'table import is not available yet', { file: opts.fileName });
+/** What the preview learns, stage by stage; filled as far as the import gets. */
+interface Progress {
+  delimiter: Delimiter | null;
+  decimalMark: DecimalMark | null;
+  layout: Layout | null;
+  sectors: string[];
+  rows: LabelRole<RowRole>[];
+  columns: LabelRole<ColumnRole>[];
+  balance: BalanceReport | null;
+}
+
+function baseName(fileName: string): string {
+  const f = fileName.split(/[\\/]/).pop() ?? fileName;
+  return f.replace(/\.[^.]*$/, '') || f;
+}
+
+function run(text: string, opts: ImportOptions, p: Progress): IOTable {
+  const file = opts.fileName;
+  checkTableSize(text.length, file);
+  const body = stripBom(text);
+  if (!/\S/.test(body)) throw new InputError('empty', 'the file is empty', { file });
+  checkNotBinary(body, file);
+  const delimiter = (p.delimiter = opts.delimiter ?? detectDelimiter(body));
+  const decimalMark = (p.decimalMark = opts.decimalMark ?? detectDecimalMark(body, delimiter));
+  const grid = buildGrid(body, delimiter, file);
+  const rows = contentRows(grid);
+  if (rows.length === 0) throw new InputError('empty', 'the file has no cells', { file });
+  if (rows.length === 1) throw new InputError('header-only', 'the file has a header but no rows of numbers', { file, line: grid.line(rows[0]!) });
+  const read: ReadOptions = { fileName: file, decimalMark, allowNegative: opts.allowNegative ?? false, ...(opts.roles ? { roles: opts.roles } : {}) };
+  const isLong = opts.layout === 'long' || (opts.layout === undefined && longHeader(grid, rows[0]!) !== null);
+  const raw = isLong ? readLong(grid, rows, read) : readMatrix(grid, rows, read, opts.layout === 'coefficients' ? 'coefficients' : 'matrix');
+  if (opts.layout === undefined && raw.layout === 'matrix' && looksLikeCoefficients(raw)) raw.layout = 'coefficients';
+  p.layout = raw.layout;
+  p.sectors = raw.sectors;
+  p.rows = raw.classified.rows;
+  p.columns = raw.classified.columns;
+  if (raw.layout === 'coefficients') scaleCoefficients(raw);
+  const table = finishTable(
+    raw,
+    { name: opts.name ?? baseName(file), tolerance: opts.balanceTolerance ?? 0.001, ...(opts.moneyUnit !== undefined ? { moneyUnit: opts.moneyUnit } : {}) },
+    (b) => (p.balance = b),
+  );
+  p.sectors = table.sectors;
+  return table;
+}
+
+function emptyProgress(): Progress {
+  return { delimiter: null, decimalMark: null, layout: null, sectors: [], rows: [], columns: [], balance: null };
+}
+
+/** Import a table or throw an InputError with a located message. */
+export function importTable(text: string, opts: ImportOptions): IOTable {
+  return run(text, opts, emptyProgress());
+}
+
+export interface Refusal {
+  code: string;
+  message: string;
+  /** `formatLocated` of the refusal: "county.csv:12:4 (row 'Farming', column 'Mining'): …". */
+  formatted: string;
+  location: Location;
+}
+
+/** Everything the UI shows before the user accepts a table. */
+export interface TablePreview {
+  ok: boolean;
+  /** Detected (or forced) layout; null when the import stopped before it was known. */
+  layout: Layout | null;
+  delimiter: Delimiter | null;
+  decimalMark: DecimalMark | null;
+  /** Sector labels (the inter-industry block), in row order. */
+  sectors: string[];
+  /** Every row label with its role ('sector' for block rows), in file order. */
+  rows: LabelRole<RowRole>[];
+  /** Every column label with its role, in file order. */
+  columns: LabelRole<ColumnRole>[];
+  balance: BalanceReport | null;
+  warnings: Warning[];
+  refusal: Refusal | null;
+  /** The imported table when ok. */
+  table: IOTable | null;
+}
+
+/** The import as a preview: what was detected and suggested, the balance report, and the refusal if any. Never throws. */
+export function previewTable(text: string, opts: ImportOptions): TablePreview {
+  const p = emptyProgress();
+  try {
+    const table = run(text, opts, p);
+    return { ok: true, ...p, warnings: table.warnings, refusal: null, table };
+  } catch (e) {
+    const err = isInputError(e)
+      ? e
+      : new InputError('internal', `the table could not be read (${e instanceof Error ? e.message.split('\n')[0] : String(e)})`, { file: opts.fileName });
+    return {
+      ok: false,
+      ...p,
+      warnings: [],
+      refusal: { code: err.code, message: err.message, formatted: formatLocated(err), location: err.location },
+      table: null,
+    };
+  }
 }

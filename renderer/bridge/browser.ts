@@ -1,0 +1,219 @@
+/**
+ * The bridge in browser mode (`npm run web`, or `npm start` without the Electron binary): the same contract as the
+ * desktop preload, built from what a web page has: a file input to open, a download to save or export, localStorage
+ * for recent projects and the crash-recovery copy, `beforeunload` for the unsaved-changes prompt, and key events for
+ * the menu shortcuts. The environment is injectable so tests can drive it without a browser.
+ */
+import type { ExportKind, FileKind, MenuCommand, OpenedFile, RecentEntry, RoundwiseBridge, SavedFile } from '../../src/bridge/contract.ts';
+import { EXPORT_TYPES, MAX_OPEN_BYTES, OPEN_EXTENSIONS, PROJECT_EXTENSION, formatBytes, withExtension } from '../../src/bridge/files.ts';
+import { commandForKey, isTextEditing } from '../../src/bridge/shortcuts.ts';
+import { addRecent, parseRecentList, sanitizeFileName } from '../../src/bridge/validate.ts';
+import { InputError } from '../../src/diagnostics/errors.ts';
+
+/** localStorage keys; project copies are stored under PROJECT_PREFIX + file name. */
+export const STORAGE_KEYS = {
+  recent: 'roundwise:recent',
+  autosave: 'roundwise:autosave',
+  projectPrefix: 'roundwise:project:',
+} as const;
+
+/** Project copies larger than this are downloaded but not kept in localStorage (its quota is a few MB). */
+export const MAX_STORED_PROJECT_CHARS = 1_500_000;
+
+export interface BrowserEnv {
+  window: Window;
+  document: Document;
+  storage: Storage | null;
+  isMac: boolean;
+  now: () => Date;
+}
+
+function defaultEnv(): BrowserEnv {
+  let storage: Storage | null = null;
+  try {
+    storage = window.localStorage;
+  } catch {
+    storage = null; // storage disabled (privacy mode): recent projects and recovery are simply unavailable
+  }
+  const platform = (navigator as Navigator & { userAgentData?: { platform?: string } }).userAgentData?.platform ?? navigator.platform ?? '';
+  return { window, document, storage, isMac: /mac|iphone|ipad/i.test(platform), now: () => new Date() };
+}
+
+/** Strip the byte-order mark so both shells hand the importer the same text. */
+function stripBom(text: string): string {
+  return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+}
+
+function utf8Length(text: string): number {
+  return new TextEncoder().encode(text).length;
+}
+
+/** Read a File (from the file input or a drop) under the shared size limit. */
+export async function openedFileFromFile(file: File): Promise<OpenedFile> {
+  if (file.size > MAX_OPEN_BYTES) {
+    throw new InputError('file-too-large', `file is ${formatBytes(file.size)}, larger than the ${formatBytes(MAX_OPEN_BYTES)} limit; nothing was read`, { file: file.name });
+  }
+  return { name: file.name, text: stripBom(await file.text()), size: file.size };
+}
+
+/** Decode base64 (optionally a `data:image/png;base64,` URL) to bytes. */
+export function base64ToBytes(b64: string): Uint8Array {
+  const body = b64.replace(/^data:[^,]*;base64,/, '');
+  const bin = atob(body);
+  const out = new Uint8Array(bin.length);
+  for (let i = 0; i < bin.length; i++) out[i] = bin.charCodeAt(i);
+  return out;
+}
+
+export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBridge {
+  const { window: win, document: doc, storage } = env;
+  let dirty = false;
+  const handlers = new Set<(cmd: MenuCommand) => void>();
+
+  function readJson<T>(key: string): T | null {
+    if (!storage) return null;
+    try {
+      const raw = storage.getItem(key);
+      return raw === null ? null : (JSON.parse(raw) as T);
+    } catch {
+      return null; // a damaged entry is treated as absent, never thrown at the user
+    }
+  }
+
+  function writeItem(key: string, value: string): boolean {
+    if (!storage) return false;
+    try {
+      storage.setItem(key, value);
+      return true;
+    } catch {
+      return false; // quota exceeded: the download still happened, only the local copy is missing
+    }
+  }
+
+  function loadRecent(): RecentEntry[] {
+    return parseRecentList(readJson<unknown>(STORAGE_KEYS.recent)).filter((e) => e.ref.startsWith(STORAGE_KEYS.projectPrefix));
+  }
+
+  /** Keep a copy of a project so "recent projects" can reopen it without a file dialog. */
+  function remember(name: string, text: string): void {
+    if (text.length > MAX_STORED_PROJECT_CHARS) return;
+    const ref = STORAGE_KEYS.projectPrefix + name;
+    if (!writeItem(ref, text)) return;
+    const before = loadRecent();
+    const list = addRecent(before, { name, ref, when: env.now().toISOString() });
+    for (const dropped of before) if (!list.some((e) => e.ref === dropped.ref)) storage?.removeItem(dropped.ref);
+    writeItem(STORAGE_KEYS.recent, JSON.stringify(list));
+  }
+
+  function download(name: string, blob: Blob): void {
+    const url = URL.createObjectURL(blob);
+    const a = doc.createElement('a');
+    a.href = url;
+    a.download = name;
+    a.rel = 'noopener';
+    a.style.display = 'none';
+    doc.body.append(a);
+    a.click();
+    a.remove();
+    // Revoke later: revoking at once can cancel the download in some browsers.
+    win.setTimeout(() => URL.revokeObjectURL(url), 60_000);
+  }
+
+  function openFile(kind: FileKind): Promise<OpenedFile | null> {
+    for (const old of doc.querySelectorAll('input[data-roundwise-open]')) old.remove();
+    return new Promise<OpenedFile | null>((resolve, reject) => {
+      const input = doc.createElement('input');
+      input.type = 'file';
+      input.accept = OPEN_EXTENSIONS[kind].map((e) => `.${e}`).join(',');
+      input.dataset.roundwiseOpen = kind;
+      input.style.display = 'none';
+      let settled = false;
+      const settle = (run: () => void): void => {
+        if (settled) return;
+        settled = true;
+        input.remove();
+        run();
+      };
+      input.addEventListener('change', () => {
+        const file = input.files?.[0];
+        if (!file) return settle(() => resolve(null));
+        openedFileFromFile(file).then(
+          (opened) => settle(() => {
+            if (kind === 'project') remember(opened.name, opened.text);
+            resolve(opened);
+          }),
+          (err: unknown) => settle(() => reject(err)),
+        );
+      });
+      input.addEventListener('cancel', () => settle(() => resolve(null)));
+      doc.body.append(input);
+      input.click();
+    });
+  }
+
+  async function saveProject(suggestedName: string, content: string): Promise<SavedFile | null> {
+    const name = withExtension(sanitizeFileName(suggestedName), PROJECT_EXTENSION);
+    download(name, new Blob([content], { type: 'application/json' }));
+    remember(name, content);
+    return { name };
+  }
+
+  async function exportFile(suggestedName: string, kind: ExportKind, content: string): Promise<SavedFile | null> {
+    const type = EXPORT_TYPES[kind];
+    const name = withExtension(sanitizeFileName(suggestedName), type.extension);
+    const body: BlobPart = kind === 'png' ? (base64ToBytes(content) as Uint8Array<ArrayBuffer>) : content;
+    download(name, new Blob([body], { type: type.mime }));
+    return { name };
+  }
+
+  async function openRecent(ref: string): Promise<OpenedFile | null> {
+    const entry = loadRecent().find((e) => e.ref === ref);
+    const text = entry && storage ? storage.getItem(ref) : null;
+    if (!entry || text === null) return null;
+    remember(entry.name, text);
+    return { name: entry.name, text, size: utf8Length(text) };
+  }
+
+  function onKey(ev: KeyboardEvent): void {
+    const cmd = commandForKey(ev, env.isMac);
+    if (!cmd || handlers.size === 0) return;
+    if ((cmd === 'undo' || cmd === 'redo') && isTextEditing(doc.activeElement as HTMLInputElement | null)) return;
+    ev.preventDefault(); // keep the browser's own Open/Save page dialogs out of the way
+    for (const h of [...handlers]) h(cmd);
+  }
+
+  win.addEventListener('beforeunload', (ev: BeforeUnloadEvent) => {
+    if (!dirty) return;
+    ev.preventDefault();
+    ev.returnValue = ''; // older browsers need a value to show their "leave page?" prompt
+  });
+
+  return {
+    mode: 'browser',
+    openFile,
+    saveProject,
+    exportFile,
+    recentProjects: async () => loadRecent(),
+    openRecent,
+    setDirty(value: boolean) {
+      dirty = value === true;
+    },
+    onMenu(handler) {
+      if (handlers.size === 0) win.addEventListener('keydown', onKey, true);
+      handlers.add(handler);
+      return () => {
+        handlers.delete(handler);
+        if (handlers.size === 0) win.removeEventListener('keydown', onKey, true);
+      };
+    },
+    async autosave(content) {
+      if (content === null) storage?.removeItem(STORAGE_KEYS.autosave);
+      else writeItem(STORAGE_KEYS.autosave, JSON.stringify({ when: env.now().toISOString(), content }));
+    },
+    async recoverAutosave() {
+      const saved = readJson<{ when?: unknown; content?: unknown }>(STORAGE_KEYS.autosave);
+      if (!saved || typeof saved.content !== 'string') return null;
+      return { name: 'Recovered project', text: saved.content, size: utf8Length(saved.content) };
+    },
+  };
+}

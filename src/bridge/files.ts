@@ -1,0 +1,46 @@
+/**
+ * What the file bridges accept and how big a file may be. Shared by the desktop shell (dialog filters, read
+ * limit) and the browser bridge (file-input accept list, read limit) so both refuse the same files.
+ */
+import type { ExportKind, FileKind } from './contract.ts';
+
+/**
+ * Largest file either shell reads into memory (128 MiB). Bigger files are refused before they are read;
+ * the importer may apply a lower limit of its own before parsing, using OpenedFile.size.
+ */
+export const MAX_OPEN_BYTES = 128 * 1024 * 1024;
+
+/** Largest content the UI may hand to a save or export (same limit, in UTF-16 code units or base64 characters). */
+export const MAX_SAVE_CHARS = 128 * 1024 * 1024;
+
+/** Project files: JSON written by the UI; `.roundwise` is our own extension, `.json` is accepted on open. */
+export const PROJECT_EXTENSION = 'roundwise';
+
+export const OPEN_EXTENSIONS: Record<FileKind, readonly string[]> = {
+  table: ['csv', 'tsv', 'txt'],
+  project: [PROJECT_EXTENSION, 'json'],
+};
+
+export const OPEN_FILTER_NAMES: Record<FileKind, string> = {
+  table: 'Flow tables (CSV)',
+  project: 'Roundwise projects',
+};
+
+export const EXPORT_TYPES: Record<ExportKind, { extension: string; mime: string; filterName: string }> = {
+  csv: { extension: 'csv', mime: 'text/csv;charset=utf-8', filterName: 'CSV report' },
+  txt: { extension: 'txt', mime: 'text/plain;charset=utf-8', filterName: 'Text' },
+  png: { extension: 'png', mime: 'image/png', filterName: 'PNG image' },
+  json: { extension: 'json', mime: 'application/json', filterName: 'JSON' },
+};
+
+/** `name` with `ext` as its extension (added when missing, never doubled). */
+export function withExtension(name: string, ext: string): string {
+  return name.toLowerCase().endsWith(`.${ext}`) ? name : `${name}.${ext}`;
+}
+
+/** Human size for messages: "12.3 MB". */
+export function formatBytes(n: number): string {
+  if (n < 1024) return `${n} bytes`;
+  if (n < 1024 * 1024) return `${(n / 1024).toFixed(1)} KB`;
+  return `${(n / (1024 * 1024)).toFixed(1)} MB`;
+}

@@ -1,0 +1,111 @@
+/**
+ * Scenario effects: direct (the shock itself), indirect (open-model total − direct), induced (household-closed total −
+ * open total) and total (closed model), for output, value added, labour income and employment — the usual split of
+ * Type I and Type II impact analysis (Miller & Blair 2009, ch. 6).
+ */
+import { solveClosed, solveOpen, type PreparedModel } from '../model/prepared.ts';
+import { resolveShock } from './lines.ts';
+import { solveMixed } from './mixed.ts';
+import type { EffectSplit, EffectTotals, Ratio, Scenario, ScenarioMultiplier, ScenarioResult } from './types.ts';
+
+function scale(c: Float64Array, x: Float64Array): Float64Array {
+  const out = new Float64Array(x.length);
+  for (let i = 0; i < x.length; i++) out[i] = c[i]! * x[i]!;
+  return out;
+}
+
+function minus(a: Float64Array, b: Float64Array): Float64Array {
+  const out = new Float64Array(a.length);
+  for (let i = 0; i < a.length; i++) out[i] = a[i]! - b[i]!;
+  return out;
+}
+
+export function sum(v: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < v.length; i++) s += v[i]!;
+  return s;
+}
+
+function split(coef: Float64Array, direct: Float64Array, open: Float64Array, closed: Float64Array | null): EffectSplit {
+  const d = scale(coef, direct);
+  const o = scale(coef, open);
+  const c = closed ? scale(coef, closed) : null;
+  return { direct: d, indirect: minus(o, d), induced: c ? minus(c, o) : null, total: c ?? o };
+}
+
+function totalsOf(s: EffectSplit): EffectTotals {
+  return { direct: sum(s.direct), indirect: sum(s.indirect), induced: s.induced ? sum(s.induced) : null, total: sum(s.total) };
+}
+
+function ratio(num: number, den: number): Ratio {
+  if (den === 0) return { value: null, reason: 'the direct effect is zero' };
+  return { value: num / den };
+}
+
+function multiplierOf(t: EffectTotals): ScenarioMultiplier {
+  return {
+    typeI: ratio(t.direct + t.indirect, t.direct),
+    typeII: t.induced === null ? { value: null, reason: 'the table has no household closure' } : ratio(t.total, t.direct),
+  };
+}
+
+export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResult {
+  const shock = resolveShock(pm, scenario);
+  const { n, sectors, h, otherVA, e } = pm.coef;
+  const direct = Float64Array.from(shock.df);
+  shock.fixed.forEach((j, r) => { direct[j] = shock.fixedOutput[r]!; });
+
+  const open = solveMixed((b) => solveOpen(pm, b), n, shock.df, shock.fixed, shock.fixedOutput);
+  let closedOutput: Float64Array | null = null;
+  let closedHouseholdIncome: number | null = null;
+  if (pm.closed) {
+    const m = pm.closed.m;
+    const fbar = new Float64Array(m);
+    fbar.set(shock.df);
+    const closed = solveMixed((b) => solveClosed(pm, b), m, fbar, shock.fixed, shock.fixedOutput);
+    closedOutput = closed.x.slice(0, n);
+    closedHouseholdIncome = closed.x[n]!;
+  }
+
+  const va = new Float64Array(n);
+  for (let j = 0; j < n; j++) va[j] = h[j]! + otherVA[j]!;
+  const ones = new Float64Array(n).fill(1);
+  const output = split(ones, direct, open.x, closedOutput);
+  const valueAdded = split(va, direct, open.x, closedOutput);
+  const income = split(h, direct, open.x, closedOutput);
+  const employment = e ? split(e, direct, open.x, closedOutput) : null;
+
+  const totals = {
+    output: totalsOf(output),
+    valueAdded: totalsOf(valueAdded),
+    income: totalsOf(income),
+    employment: employment ? totalsOf(employment) : null,
+  };
+  const notes: string[] = [];
+  if (!pm.closed) notes.push('The table has no household income or household consumption, so there is no Type II model: induced effects are not available and totals are open-model (Type I) totals.');
+  if (!e) notes.push('The table has no employment row: employment effects are not available.');
+  for (let r = 0; r < shock.fixed.length; r++) {
+    const j = shock.fixed[r]!;
+    notes.push(`Output of '${sectors[j]}' is fixed from outside at ${shock.fixedOutput[r]} (mixed exogenous/endogenous model); the other sectors respond to its purchases.`);
+  }
+  return {
+    scenario: scenario.name,
+    sectors: pm.coef.sectors,
+    moneyUnit: pm.table.moneyUnit,
+    closure: pm.closed ? 'household' : 'none',
+    shock,
+    openOutput: open.x,
+    closedOutput,
+    closedHouseholdIncome,
+    effectiveDemand: open.fEffective,
+    effects: { output, valueAdded, income, employment },
+    totals,
+    multipliers: {
+      output: multiplierOf(totals.output),
+      valueAdded: multiplierOf(totals.valueAdded),
+      income: multiplierOf(totals.income),
+      employment: totals.employment ? multiplierOf(totals.employment) : null,
+    },
+    notes,
+  };
+}

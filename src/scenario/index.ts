@@ -1,0 +1,9 @@
+/** Demand-shock scenarios: lines, effects (direct / indirect / induced / total), spending rounds, structural paths. */
+export * from './types.ts';
+export { resolveShock, spreadPattern, PATTERN_SUM_TOLERANCE } from './lines.ts';
+export { solveMixed, type MixedSolution } from './mixed.ts';
+export { runScenario } from './effects.ts';
+export { spendingRounds, COVERAGE_TARGETS, type RoundsOptions, type RoundsResult } from './rounds.ts';
+export { structuralPaths, HOUSEHOLD_POLE_LABEL, type PathOptions, type PathAnalysis, type StructuralPath } from './paths.ts';
+export { compareScenarios, type ScenarioComparison } from './compare.ts';
+export { parseShockCsv } from './shock-csv.ts';

@@ -1,0 +1,131 @@
+/**
+ * Role suggestions from labels, and the role-map file (`--map map.json`, the UI's role editor, saved projects).
+ * Labels are compared case-insensitively, with spaces collapsed and a trailing remark in parentheses ignored
+ * ("Employment (jobs)" is "employment").
+ */
+import { z } from 'zod';
+import { InputError, type Location } from '../diagnostics/errors.ts';
+import type { ColumnRole, RoleMap, RowRole } from './types.ts';
+
+export const ROW_ROLES: readonly RowRole[] = ['labourIncome', 'otherValueAdded', 'imports', 'employment', 'totalInput', 'ignore'];
+export const COLUMN_ROLES: readonly ColumnRole[] = ['householdConsumption', 'otherFinalDemand', 'totalOutput', 'ignore'];
+
+/** Recognised row labels (after normalising). Any label containing "import" is an import row. */
+export const ROW_LABELS: Readonly<Record<'labourIncome' | 'employment' | 'totalInput', readonly string[]>> = {
+  labourIncome: ['labor income', 'labour income', 'compensation of employees', 'wages and salaries', 'household income', 'households', 'employee compensation'],
+  employment: ['employment', 'jobs'],
+  totalInput: ['total input', 'total inputs', 'total outlays', 'total outlay', 'total'],
+};
+
+/** Recognised column labels (after normalising). */
+export const COLUMN_LABELS: Readonly<Record<'householdConsumption' | 'totalOutput', readonly string[]>> = {
+  householdConsumption: ['households', 'household consumption', 'personal consumption', 'household', 'personal consumption expenditures', 'private consumption'],
+  totalOutput: ['total output', 'total outputs', 'gross output', 'total'],
+};
+
+/** Lower case, spaces collapsed, a trailing "(…)" remark dropped. */
+export function normaliseLabel(label: string): string {
+  return label
+    .toLowerCase()
+    .replace(/\s*\([^()]*\)\s*$/, '')
+    .replace(/[\s\u00a0]+/g, ' ')
+    .trim();
+}
+
+/** Other subtotals ("Total value added", "Subtotal intermediate") would double-count, so they are ignored. */
+function isSubtotal(key: string): boolean {
+  return /^(sub)?total\b/.test(key);
+}
+
+export interface Suggestion<R> {
+  role: R;
+  /** True when the label is one of the recognised labels; false when the role is the fallback. */
+  recognised: boolean;
+}
+
+export function suggestRowRole(label: string): Suggestion<RowRole> {
+  const key = normaliseLabel(label);
+  if (key.includes('import')) return { role: 'imports', recognised: true };
+  if (ROW_LABELS.labourIncome.includes(key)) return { role: 'labourIncome', recognised: true };
+  if (ROW_LABELS.employment.includes(key)) return { role: 'employment', recognised: true };
+  if (ROW_LABELS.totalInput.includes(key)) return { role: 'totalInput', recognised: true };
+  if (isSubtotal(key)) return { role: 'ignore', recognised: true };
+  return { role: 'otherValueAdded', recognised: false };
+}
+
+export function suggestColumnRole(label: string): Suggestion<ColumnRole> {
+  const key = normaliseLabel(label);
+  if (COLUMN_LABELS.householdConsumption.includes(key)) return { role: 'householdConsumption', recognised: true };
+  if (COLUMN_LABELS.totalOutput.includes(key)) return { role: 'totalOutput', recognised: true };
+  if (isSubtotal(key)) return { role: 'ignore', recognised: true };
+  return { role: 'otherFinalDemand', recognised: false };
+}
+
+/** Suggested roles for the given non-sector row and column labels. */
+export function suggestRoles(rowLabels: readonly string[], columnLabels: readonly string[]): RoleMap {
+  const rows: Record<string, RowRole> = {};
+  const columns: Record<string, ColumnRole> = {};
+  for (const l of rowLabels) rows[l] = suggestRowRole(l).role;
+  for (const l of columnLabels) columns[l] = suggestColumnRole(l).role;
+  return { rows, columns };
+}
+
+const roleMapSchema = z
+  .object({
+    rows: z.record(z.string(), z.enum(ROW_ROLES as [RowRole, ...RowRole[]])).optional(),
+    columns: z.record(z.string(), z.enum(COLUMN_ROLES as [ColumnRole, ...ColumnRole[]])).optional(),
+  })
+  .strict();
+
+/** Where a key first appears in the JSON text (for messages). */
+function locateKey(text: string, key: string | number | undefined, fileName: string): Location {
+  if (key === undefined) return { file: fileName };
+  const at = text.indexOf(JSON.stringify(String(key)));
+  if (at < 0) return { file: fileName };
+  const before = text.slice(0, at);
+  const line = before.split('\n').length;
+  return { file: fileName, line, column: at - before.lastIndexOf('\n') };
+}
+
+function jsonErrorLocation(text: string, err: unknown, fileName: string): Location {
+  const msg = err instanceof Error ? err.message : '';
+  const lc = /line (\d+) column (\d+)/.exec(msg);
+  if (lc) return { file: fileName, line: Number(lc[1]), column: Number(lc[2]) };
+  const pos = /position (\d+)/.exec(msg);
+  if (pos) {
+    const before = text.slice(0, Number(pos[1]));
+    return { file: fileName, line: before.split('\n').length, column: Number(pos[1]) - before.lastIndexOf('\n') };
+  }
+  return { file: fileName };
+}
+
+/**
+ * Read a role map: `{"rows": {"Wages": "labourIncome", …}, "columns": {"Visitors": "otherFinalDemand", …}}`.
+ * Row roles: labourIncome, otherValueAdded, imports, employment, totalInput, ignore.
+ * Column roles: householdConsumption, otherFinalDemand, totalOutput, ignore.
+ */
+export function parseRoleMap(text: string, fileName: string): Partial<RoleMap> {
+  let data: unknown;
+  try {
+    data = JSON.parse(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
+  } catch (e) {
+    throw new InputError('role-map-json', 'the role map is not valid JSON', jsonErrorLocation(text, e, fileName));
+  }
+  const res = roleMapSchema.safeParse(data);
+  if (!res.success) {
+    const issue = res.error.issues[0]!;
+    const path = issue.path.map(String);
+    const where = path.join('.');
+    let message: string;
+    if (issue.code === 'invalid_value' && path[0] === 'rows') message = `unknown row role for '${path[1]}': use one of ${ROW_ROLES.join(', ')}`;
+    else if (issue.code === 'invalid_value' && path[0] === 'columns') message = `unknown column role for '${path[1]}': use one of ${COLUMN_ROLES.join(', ')}`;
+    else if (issue.code === 'unrecognized_keys') message = `unknown key ${issue.keys.map((k) => `'${k}'`).join(', ')}: a role map has only "rows" and "columns"`;
+    else message = `${where ? `'${where}': ` : ''}${issue.message}`;
+    const key = issue.code === 'unrecognized_keys' ? issue.keys[0] : path[path.length - 1];
+    throw new InputError('role-map-schema', message, locateKey(text, key, fileName));
+  }
+  const out: Partial<RoleMap> = {};
+  if (res.data.rows) out.rows = res.data.rows;
+  if (res.data.columns) out.columns = res.data.columns;
+  return out;
+}

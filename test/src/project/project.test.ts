@@ -1,0 +1,119 @@
+import { describe, it, expect } from 'vitest';
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { InputError } from '../../../src/diagnostics/errors.ts';
+import {
+  createProject, parseProject, projectResults, serializeProject, sourceInfo, PROJECT_VERSION, utf8Bytes, type Project,
+} from '../../../src/project/index.ts';
+import type { ScenarioResult } from '../../../src/scenario/index.ts';
+import { county4 } from '../scenario/tables.ts';
+
+const fixture = (name: string) => readFileSync(fileURLToPath(new URL(`../../fixtures/scenario/${name}`, import.meta.url)), 'utf8');
+
+function study(): Project {
+  const t = county4();
+  // Numbers whose shortest form is long, a negative zero and a subnormal, to catch any lossy writing.
+  t.Z[1] = 40 + 1 / 3;
+  t.Z[2] = -0;
+  t.x[3] = 1100.0000000000002;
+  t.otherFinalDemand[0]!.values[0] = 5e-324;
+  t.roles = { rows: { 'Compensation of employees': 'labourIncome' }, columns: { Households: 'householdConsumption' } };
+  const p = createProject(t, { name: 'Food plant study', source: sourceInfo('county.csv', utf8Bytes('sector,Farms\n')) });
+  p.scenarios.push(
+    { name: 'plant', description: 'a plant opens', lines: [{ sector: 'Food processing', amount: 300, kind: 'jobs', localShare: 1, note: 'new plant', origin: { file: 'shock.csv', line: 2 } }] },
+    { name: 'visitors', lines: [{ sector: 'Retail', amount: 0.1 + 0.2, kind: 'final-demand', localShare: 0.7, pattern: 'festival' }, { sector: 'Services', amount: -12.5, kind: 'final-demand', localShare: 1, pattern: 'festival' }] },
+  );
+  p.patterns.push({ name: 'festival', shares: [{ sector: 'Retail', share: 0.6 }, { sector: 'Services', share: 0.4 }] });
+  p.settings.paths.destination = 'Farms';
+  return p;
+}
+
+function sameBits(a: Float64Array | null, b: Float64Array | null): boolean {
+  if (a === null || b === null) return a === b;
+  return a.length === b.length && a.every((v, i) => Object.is(v, b[i]));
+}
+
+function resultsEqual(a: ScenarioResult, b: ScenarioResult): void {
+  expect(sameBits(a.openOutput, b.openOutput)).toBe(true);
+  expect(sameBits(a.closedOutput, b.closedOutput)).toBe(true);
+  expect(Object.is(a.closedHouseholdIncome, b.closedHouseholdIncome)).toBe(true);
+  for (const v of ['output', 'valueAdded', 'income', 'employment'] as const) {
+    for (const part of ['direct', 'indirect', 'induced', 'total'] as const) expect(sameBits(a.effects[v]![part], b.effects[v]![part])).toBe(true);
+  }
+}
+
+function refusal(text: string): InputError {
+  try { parseProject(text, 'study.json'); } catch (e) { if (e instanceof InputError) return e; throw e; }
+  throw new Error('expected a refusal');
+}
+
+describe('project files', () => {
+  it('load → save reproduces the text, and results are bit-for-bit identical', () => {
+    const p = study();
+    const text = serializeProject(p);
+    const loaded = parseProject(text, 'study.json');
+    expect(serializeProject(loaded)).toBe(text);
+    expect(Object.is(loaded.table.Z[2], -0)).toBe(true);
+    expect(loaded.table.otherFinalDemand[0]!.values[0]).toBe(5e-324);
+    const before = projectResults(p);
+    const after = projectResults(parseProject(serializeProject(loaded), 'again.json'));
+    expect(after).toHaveLength(2);
+    before.forEach((r, k) => resultsEqual(r, after[k]!));
+  });
+  it('stores the source name and SHA-256, roles, patterns and settings; not results, not line origins', () => {
+    const text = serializeProject(study());
+    const doc = JSON.parse(text);
+    expect(doc.format).toBe('roundwise-project');
+    expect(doc.version).toBe(PROJECT_VERSION);
+    expect(doc.source).toEqual({ fileName: 'county.csv', sha256: sourceInfo('x', utf8Bytes('sector,Farms\n')).sha256, bytes: 13 });
+    expect(doc.roles.rows['Compensation of employees']).toBe('labourIncome');
+    expect(doc.patterns[0].name).toBe('festival');
+    expect(doc.settings.paths.destination).toBe('Farms');
+    expect(text).not.toMatch(/origin|openOutput|effects/);
+  });
+  it('migrates a version 1 file (nested flow rows, flat source fields, roleMap, share)', () => {
+    const p = parseProject(fixture('project-v1.json'), 'project-v1.json');
+    expect(p.table.n).toBe(3);
+    expect(Array.from(p.table.Z.slice(0, 3))).toEqual([50, 120, 10]);
+    expect(p.source).toEqual({ fileName: 'county.csv', sha256: '5f'.repeat(32) });
+    expect(p.table.roles.rows.Jobs).toBe('employment');
+    expect(p.scenarios[0]!.lines[1]).toEqual({ sector: 'Shops', amount: 40, kind: 'final-demand', localShare: 0.6 });
+    expect(p.settings.rounds.maxRounds).toBe(200);
+    const saved = serializeProject(p);
+    expect(JSON.parse(saved).version).toBe(2);
+    const r1 = projectResults(p);
+    const r2 = projectResults(parseProject(saved));
+    resultsEqual(r1[0]!, r2[0]!);
+    expect(r1[0]!.effects.employment!.direct[1]).toBeCloseTo(25, 10);
+  });
+  it('refuses empty, truncated, corrupt, foreign and newer files with clear messages', () => {
+    const text = serializeProject(study());
+    expect(refusal('').code).toBe('project-empty');
+    for (const cut of [10, Math.floor(text.length / 2), text.length - 3]) {
+      const e = refusal(text.slice(0, cut));
+      expect(e.code).toBe('project-truncated');
+      expect(e.message).toMatch(/truncated/);
+    }
+    const corrupt = text.replace('"name": "Food plant study"', '"name": Food plant study"');
+    const e = refusal(corrupt);
+    expect(e.code).toBe('project-corrupt');
+    expect(e.location).toMatchObject({ line: 4, column: 11 });
+    expect(refusal('{"format": "roundwise-project",\n "version": 2 x}').location).toMatchObject({ line: 2, column: 15 });
+    expect(refusal('{"hello": "world"}').code).toBe('project-foreign');
+    expect(refusal('sector,Farms\nFarms,1\n').code).toBe('project-corrupt');
+    expect(refusal('[1, 2]').code).toBe('project-foreign');
+    const newer = refusal(text.replace('"version": 2', '"version": 3'));
+    expect(newer.code).toBe('project-newer');
+    expect(newer.message).toMatch(/newer Roundwise \(project version 3; this one reads up to 2\)/);
+  });
+  it('refuses inconsistent content, naming the place', () => {
+    const doc = JSON.parse(serializeProject(study()));
+    const bad = (edit: (d: typeof doc) => void) => { const d = structuredClone(doc); edit(d); return refusal(JSON.stringify(d)); };
+    expect(bad((d) => { d.table.Z.pop(); }).message).toMatch(/table\.Z: expected 16 flows/);
+    expect(bad((d) => { d.scenarios[1].lines[0].localShare = 2; }).message).toMatch(/scenarios\[1\]\.lines\[0\]\.localShare/);
+    expect(bad((d) => { d.scenarios[0].lines[0].sector = 'Mining'; }).message).toMatch(/unknown sector 'Mining'/);
+    expect(bad((d) => { d.source.sha256 = 'xyz'; }).message).toMatch(/source\.sha256/);
+    expect(bad((d) => { d.version = 'two'; }).code).toBe('project-invalid');
+    expect(bad((d) => { delete d.settings; }).message).toMatch(/settings/);
+  });
+});

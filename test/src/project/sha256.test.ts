@@ -1,0 +1,26 @@
+import { describe, it, expect } from 'vitest';
+import { createHash } from 'node:crypto';
+import fc from 'fast-check';
+import { sha256Hex, utf8Bytes } from '../../../src/project/sha256.ts';
+
+const ascii = (s: string) => Uint8Array.from(s, (c) => c.charCodeAt(0));
+
+describe('SHA-256', () => {
+  it('matches the NIST FIPS 180-4 example messages', () => {
+    // Example digests published with FIPS 180-4 (NIST CSRC "Examples with intermediate values", SHA-256).
+    expect(sha256Hex(ascii('abc'))).toBe('ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad');
+    expect(sha256Hex(ascii('abcdbcdecdefdefgefghfghighijhijkijkljklmklmnlmnomnopnopq'))).toBe('248d6a61d20638b8e5c026930c3e6039a33ce45964ff2167f6ecedd419db06c1');
+    expect(sha256Hex(new Uint8Array(0))).toBe('e3b0c44298fc1c149afbf4c8996fb92427ae41e4649b934ca495991b7852b855');
+  });
+  it('agrees with Node’s crypto on random inputs across block boundaries', () => {
+    fc.assert(fc.property(fc.uint8Array({ minLength: 0, maxLength: 300 }), (bytes) => {
+      expect(sha256Hex(bytes)).toBe(createHash('sha256').update(bytes).digest('hex'));
+    }), { numRuns: 300 });
+  });
+  it('UTF-8 encoding agrees with TextEncoder', () => {
+    fc.assert(fc.property(fc.string({ unit: 'binary' }), (s) => {
+      expect(Array.from(utf8Bytes(s))).toEqual(Array.from(new TextEncoder().encode(s)));
+    }), { numRuns: 300 });
+    expect(Array.from(utf8Bytes('\ud800x'))).toEqual(Array.from(new TextEncoder().encode('\ud800x')));
+  });
+});

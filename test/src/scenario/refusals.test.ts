@@ -1,0 +1,86 @@
+// Every refusal named in the scenario requirements, with its location (shock-file line, sector label).
+import { describe, it, expect } from 'vitest';
+import { InputError, formatLocated } from '../../../src/diagnostics/errors.ts';
+import { prepareModel } from '../../../src/model/prepared.ts';
+import { parseShockCsv, resolveShock, runScenario, spreadPattern, type Scenario } from '../../../src/scenario/index.ts';
+import { county4 } from './tables.ts';
+
+const pm = prepareModel(county4());
+
+function refusal(fn: () => unknown): InputError {
+  try { fn(); } catch (e) { if (e instanceof InputError) return e; throw e; }
+  throw new Error('expected a refusal');
+}
+
+describe('scenario refusals', () => {
+  it('unknown sector, located at the shock-file line', () => {
+    const s = parseShockCsv('sector,amount\nRetail,10\nMining,5\n', 'shock.csv');
+    const e = refusal(() => runScenario(pm, s));
+    expect(e.code).toBe('unknown-sector');
+    expect(e.location).toMatchObject({ file: 'shock.csv', line: 3, rowLabel: 'Mining' });
+    expect(formatLocated(e)).toMatch(/^shock\.csv:3 \(row 'Mining'\): unknown sector 'Mining'/);
+  });
+  it('local share outside [0, 1], in the file and in code', () => {
+    const e1 = refusal(() => parseShockCsv('sector,amount,kind,local_share\nRetail,10,final-demand,1.5\n', 'shock.csv'));
+    expect(e1.code).toBe('local-share-range');
+    expect(e1.location).toMatchObject({ line: 2, column: 4, rowLabel: 'Retail' });
+    const e2 = refusal(() => resolveShock(pm, { name: 's', lines: [{ sector: 'Retail', amount: 1, kind: 'final-demand', localShare: -0.1 }] }));
+    expect(e2.code).toBe('local-share-range');
+    const e3 = refusal(() => spreadPattern({ name: 'visitors', shares: [{ sector: 'Retail', share: 1.2 }] }, 100));
+    expect(e3.code).toBe('pattern-share-range');
+  });
+  it('jobs line for a sector with no employment (no employment row, and a zero entry)', () => {
+    const t = county4();
+    t.employment = null;
+    const e1 = refusal(() => runScenario(prepareModel(t), { name: 's', lines: [{ sector: 'Retail', amount: 10, kind: 'jobs', localShare: 1 }] }));
+    expect(e1.code).toBe('no-employment');
+    const t2 = county4();
+    t2.employment![2] = 0;
+    const e2 = refusal(() => runScenario(prepareModel(t2), { name: 's', lines: [{ sector: 'Retail', amount: 10, kind: 'jobs', localShare: 1 }] }));
+    expect(e2.code).toBe('no-employment');
+    expect(e2.location.rowLabel).toBe('Retail');
+  });
+  it('a sector both fixed and shocked in final demand, located at the later line', () => {
+    const s = parseShockCsv('sector,amount,kind\nServices,50,output\nRetail,3,\nServices,10,final-demand\n', 'shock.csv');
+    const e = refusal(() => runScenario(pm, s));
+    expect(e.code).toBe('fixed-and-shocked');
+    expect(e.location).toMatchObject({ line: 4, rowLabel: 'Services' });
+  });
+  it('empty scenario: no lines in code, only a header or nothing in the file', () => {
+    expect(refusal(() => runScenario(pm, { name: 'nothing', lines: [] })).code).toBe('empty-scenario');
+    expect(refusal(() => parseShockCsv('sector,amount\n', 'shock.csv')).code).toBe('empty-scenario');
+    expect(refusal(() => parseShockCsv('', 'shock.csv')).code).toBe('empty-scenario');
+  });
+  it('malformed shock files: bad number, bad kind, unknown or missing column', () => {
+    expect(refusal(() => parseShockCsv('sector,amount\nRetail,"1,000"\n', 'x.csv')).location).toMatchObject({ line: 2, column: 2 });
+    expect(refusal(() => parseShockCsv('sector,amount,kind\nRetail,1,visitors\n', 'x.csv')).code).toBe('bad-kind');
+    expect(refusal(() => parseShockCsv('sector,amount,colour\nRetail,1,red\n', 'x.csv')).location).toMatchObject({ line: 1, column: 3 });
+    expect(refusal(() => parseShockCsv('sector,kind\nRetail,output\n', 'x.csv')).code).toBe('bad-header');
+  });
+  it('a local share other than 1 on an output line', () => {
+    const s: Scenario = { name: 's', lines: [{ sector: 'Retail', amount: 10, kind: 'output', localShare: 0.5 }] };
+    expect(refusal(() => runScenario(pm, s)).code).toBe('local-share-fixed');
+  });
+  it('spending pattern shares that do not sum to 1', () => {
+    const e = refusal(() => spreadPattern({ name: 'visitors', shares: [{ sector: 'Retail', share: 0.5 }, { sector: 'Services', share: 0.4 }] }, 100));
+    expect(e.code).toBe('pattern-share-sum');
+  });
+});
+
+describe('shock file and spending patterns', () => {
+  it('parses defaults, notes and a BOM; blank lines keep line numbers', () => {
+    const s = parseShockCsv('\uFEFFSector,Amount,Kind,Local_Share,Note\nRetail,10,,,\n\nServices,-5,final-demand,0.8,"mill closes, staff move"\n', 'dir/visitors.csv');
+    expect(s.name).toBe('visitors');
+    expect(s.lines).toEqual([
+      { sector: 'Retail', amount: 10, kind: 'final-demand', localShare: 1, origin: { file: 'dir/visitors.csv', line: 2 } },
+      { sector: 'Services', amount: -5, kind: 'final-demand', localShare: 0.8, note: 'mill closes, staff move', origin: { file: 'dir/visitors.csv', line: 4 } },
+    ]);
+  });
+  it('a spending pattern is a set of lines whose final demand adds to amount × local share', () => {
+    const lines = spreadPattern({ name: 'visitors', shares: [{ sector: 'Retail', share: 0.5 }, { sector: 'Services', share: 0.3 }, { sector: 'Food processing', share: 0.2 }] }, 1000, { localShare: 0.7 });
+    expect(lines.every((l) => l.pattern === 'visitors')).toBe(true);
+    const shock = resolveShock(pm, { name: 'v', lines });
+    expect(Array.from(shock.df).reduce((a, b) => a + b, 0)).toBeCloseTo(700, 10);
+    expect(shock.df[2]).toBeCloseTo(350, 10);
+  });
+});
