@@ -31,10 +31,9 @@ export function fmtFixed(v: number | null | undefined, digits: number, reason = 
   return { text: nf({ minimumFractionDigits: digits, maximumFractionDigits: digits }).format(Object.is(v, -0) ? 0 : v) };
 }
 
-/** Money in the table's unit: grouped, no decimals for large values, two below 100. */
+/** Money in the table's unit: grouped, one decimal, so a column of values lines up. */
 export function fmtMoney(v: number | null | undefined, reason?: string): Shown {
-  if (!isShowable(v)) return fmtFixed(v, 0, reason);
-  return fmtFixed(v, Math.abs(v) >= 100 ? 0 : 2);
+  return fmtFixed(v, 1, reason);
 }
 
 /** Multipliers and coefficients: four decimals. */
@@ -62,7 +61,13 @@ export function fmtCompact(v: number): string {
   return nf({ notation: 'compact', maximumFractionDigits: 1 }).format(v);
 }
 
-export type NumberStyle = 'money' | 'ratio' | 'jobs' | 'percent' | 'int';
+/** Four significant digits, for small per-unit values such as jobs per thousand dollars. */
+export function fmtSig(v: number | null | undefined, reason?: string): Shown {
+  if (!isShowable(v)) return fmtFixed(v, 0, reason);
+  return { text: nf({ maximumSignificantDigits: 4 }).format(v) };
+}
+
+export type NumberStyle = 'money' | 'ratio' | 'jobs' | 'percent' | 'int' | 'sig';
 
 export function fmt(style: NumberStyle, v: number | null | undefined, reason?: string): Shown {
   switch (style) {
@@ -71,5 +76,6 @@ export function fmt(style: NumberStyle, v: number | null | undefined, reason?: s
     case 'jobs': return fmtJobs(v, reason);
     case 'percent': return fmtPercent(v, 1, reason);
     case 'int': return fmtInt(v, reason);
+    case 'sig': return fmtSig(v, reason);
   }
 }

@@ -3,22 +3,24 @@
  * Pure functions over module state (the current table and its prepared model), so it also runs under Node in
  * test/renderer without a browser.
  */
-import { importTable } from '../../src/table/index.ts';
+import { importTable, previewTable as enginePreview, ROW_ROLES, COLUMN_ROLES } from '../../src/table/index.ts';
 import type { IOTable, Layout, RoleMap } from '../../src/table/types.ts';
+import { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../../src/table/sample.ts';
 import { prepareModel, solveOpen, type PreparedModel } from '../../src/model/prepared.ts';
-import { perronRoot } from '../../src/model/perron.ts';
-import { hawkinsSimon } from '../../src/model/hawkins.ts';
-import { spectrum, SPECTRUM_MAX_SECTORS, type ModeKind } from '../../src/model/spectrum.ts';
-import { computeLinkages, computeMultipliers, type Availability, type Values } from '../../src/model/multipliers.ts';
-import { runScenario as engineRunScenario, spendingRounds, structuralPaths } from '../../src/scenario/index.ts';
-import type { Scenario, ScenarioLine, EffectSplit, Variable } from '../../src/scenario/types.ts';
+import { analyzePrepared, type Analysis } from '../../src/model/analysis.ts';
+import type { ModeKind } from '../../src/model/spectrum.ts';
+import type { Values } from '../../src/model/multipliers.ts';
+import { runScenario as engineRunScenario, spendingRounds, spreadPattern, structuralPaths, compareScenarios } from '../../src/scenario/index.ts';
+import type { Scenario, ScenarioLine, EffectSplit, Variable, ScenarioResult } from '../../src/scenario/types.ts';
+import { impactReport, roundsReport, pathReport, comparisonReport, scenarioMultiplierReport, type ScenarioReportContext } from '../../src/report/scenario.ts';
 import { reportFiles, type ReportFile } from '../../src/report/document.ts';
 import type { Cell } from '../../src/report/csv.ts';
-import { formatLocated, isInputError } from '../../src/diagnostics/errors.ts';
-import sampleCsv from '../../sample-data/fernhollow-county.csv?raw';
+import { createProject, parseProject, serializeProject, sourceInfo, type SourceInfo } from '../../src/project/index.ts';
+import { utf8Bytes } from '../../src/project/sha256.ts';
+import { formatLocated } from '../../src/diagnostics/errors.ts';
 import type { AnalysisView, Eigen, MultiplierRow, TableInfo } from './protocol.ts';
 
-export const SAMPLE_FILE = 'fernhollow-county.csv';
+export const SAMPLE_FILE = SAMPLE_FILE_NAME;
 
 /** Where a table came from: enough to import it again (project files keep this). */
 export interface TableSource {
@@ -33,8 +35,9 @@ export type ScenarioDraft = Scenario;
 interface State {
   table: IOTable;
   pm: PreparedModel;
+  full: Analysis;
   analysis: AnalysisView;
-  avail: Availability;
+  source: SourceInfo | null;
 }
 
 let state: State | null = null;
@@ -70,6 +73,13 @@ function tableInfo(t: IOTable, fileName: string): TableInfo {
     warnings: t.warnings.map((w) => formatLocated(w)),
     output: Array.from(t.x),
     totalOutput: total,
+    patterns: [...t.householdConsumption, ...t.otherFinalDemand].flatMap((col) => {
+      let sum = 0;
+      for (let i = 0; i < t.n; i++) sum += Math.max(0, col.values[i]!);
+      if (!(sum > 0)) return [];
+      const shares = t.sectors.map((sector, i) => ({ sector, share: Math.max(0, col.values[i]!) / sum })).filter((x) => x.share > 0);
+      return [{ name: `Like ${col.label}`, shares }];
+    }),
     roles: { rows: { ...t.roles.rows }, columns: { ...t.roles.columns } },
   };
 }
@@ -86,31 +96,21 @@ const BEHAVIOUR: Record<ModeKind, string> = {
   'rotating-growth': 'swings with growing size',
 };
 
-function analyse(t: IOTable, pm: PreparedModel): { analysis: AnalysisView; avail: Availability } {
-  const { n, A, sectors } = pm.coef;
+function analyse(pm: PreparedModel): { analysis: AnalysisView; full: Analysis } {
+  const full = analyzePrepared(pm);
+  const { n, sectors } = pm.coef;
+  const v = full.viability;
+  const m = full.multipliers;
+  const link = full.linkages;
   const notes: string[] = [];
-  const pr = perronRoot(A, n);
-  const hs = hawkinsSimon(A, n, pm.openLU);
-  const productive = pr.upper < 1 ? true : pr.lower >= 1 ? false : hs.holds && !hs.nearZero;
-  const open: Availability['open'] = pm.openLU.singular
-    ? 'I − A is singular: the Leontief inverse does not exist'
-    : productive ? true : 'the table is not productive (Perron root ≥ 1): the Leontief inverse is not a sum of spending rounds';
-  let closed: Availability['closed'] = true;
-  if (!pm.closed) closed = 'the table has no household income row or no household consumption column';
-  else if (!pm.border) closed = 'the open model cannot be solved';
-  else if (!(pm.border.s > 0)) closed = 'the household-closed model is not productive (households re-spend more than they earn)';
-  const avail: Availability = { open, closed };
-
-  const m = computeMultipliers(pm, avail);
-  const link = computeLinkages(pm, m.output.typeI, avail);
   for (const note of [...m.notes, ...link.notes]) {
     const where = note.sectors === 'all' ? 'all sectors' : note.sectors.map((j) => sectors[j]).slice(0, 5).join(', ');
     notes.push(`${note.measure} (${where}): ${note.reason}`);
   }
   const key = new Set(link.keySectors);
-  const at = (v: Values, j: number): number | null => finite(v[j]);
+  const at = (vals: Values, j: number): number | null => finite(vals[j]);
   const rows: MultiplierRow[] = sectors.map((sector, j) => {
-    const b = at(link.backward, j) ?? 0, f = at(link.forward, j) ?? 0;
+    const b = at(link.backward, j), f = at(link.forward, j);
     return {
       sector, index: j,
       output: at(m.output.typeI, j) ?? Number.NaN,
@@ -123,54 +123,46 @@ function analyse(t: IOTable, pm: PreparedModel): { analysis: AnalysisView; avail
       valueAddedII: at(m.valueAdded.total, j),
       employment: at(m.employment.simple, j),
       employmentII: at(m.employment.total, j),
-      backward: b, forward: f,
-      linkage: key.has(j) ? 'key' : b > 1 ? 'backward' : f > 1 ? 'forward' : 'weak',
+      backward: b ?? Number.NaN, forward: f ?? Number.NaN,
+      linkage: key.has(j) ? 'key' : (b ?? 0) > 1 ? 'backward' : (f ?? 0) > 1 ? 'forward' : 'weak',
     };
   });
 
-  let spec: Eigen[] = [];
-  let spectrumNote: string | undefined;
-  if (n <= SPECTRUM_MAX_SECTORS) {
-    spec = spectrum(A, n).map((e) => ({ re: e.re, im: e.im, modulus: e.modulus, behaviour: BEHAVIOUR[e.kind] }));
-  } else {
-    spectrumNote = `The full spectrum is computed for tables up to ${SPECTRUM_MAX_SECTORS} sectors; this one has ${n}. The Perron root and its bounds are shown.`;
-  }
+  const spec: Eigen[] = (v.spectrum ?? []).map((e) => ({ re: e.re, im: e.im, modulus: e.modulus, behaviour: BEHAVIOUR[e.kind] }));
 
   // Spending rounds for one unit of final demand in every sector.
   let rounds: AnalysisView['rounds'] = [];
-  let rounds99: AnalysisView['rounds99'] = { value: null, reason: open === true ? 'not reached within 200 rounds' : open };
-  if (open === true) {
+  let rounds99: AnalysisView['rounds99'] = { value: null, reason: v.productive ? 'not reached within 200 rounds' : 'the table is not productive: the rounds do not die out' };
+  if (v.productive) {
     const f = new Float64Array(n).fill(1);
     const r = spendingRounds(pm, f, solveOpen(pm, f), { maxRounds: 200 });
     let total = 0;
-    for (const v of r.roundTotals) total += v;
+    for (const x of r.roundTotals) total += x;
     let cum = 0;
-    rounds = r.roundTotals.slice(0, 40).map((v, k) => {
-      cum += v;
-      return { round: k, added: v, cumulative: cum / (total || 1) };
+    rounds = r.roundTotals.slice(0, 40).map((x, k) => {
+      cum += x;
+      return { round: k, added: x, cumulative: cum / (total || 1) };
     });
     const reach = r.reach.find((x) => x.target === 0.99);
     if (reach?.rounds != null) rounds99 = { value: reach.rounds };
   }
 
-  const rho = finite(pr.root);
+  const [lower, upper] = v.perronRootBounds;
+  const productive: boolean | null = v.verdictNote && !v.negativeFlows && v.productive !== (upper < 1) ? null : v.productive;
   let say: string;
   const detail: string[] = [];
-  if (productive === true) {
+  if (v.productive) {
     say = 'Every round of spending is smaller than the last: the table is productive.';
-    detail.push(`Each round of inter-industry purchases is at most ${pct(pr.upper)} of the one before (the Perron root), so the rounds add up to a finite total — the Leontief inverse.`);
-  } else if (productive === false) {
-    say = 'Spending rounds do not die out: the table is not productive.';
-    detail.push(`The Perron root is at least ${pr.lower.toFixed(4)}: some sectors need more than a dollar of local inputs per dollar of output. Check the units and the roles of the rows and columns.`);
+    detail.push(`Each round of local inter-industry buying is at most ${pct(upper)} of the round before (the Perron root), so the rounds add up to a finite total: the Leontief inverse exists and the multipliers are meaningful.`);
   } else {
-    say = 'The table is at the edge of productivity; results would rest on rounding.';
-    detail.push('The Perron root is within rounding of 1. Check the table before using its results.');
+    say = 'Rounds of spending do not die out: the table is not productive.';
+    detail.push(`The Perron root is at least ${lower.toFixed(4)}: taken together, the sectors need a dollar or more of local inputs per dollar of output. Check the units and the roles of the rows and columns.`);
   }
-  detail.push(hs.holds
+  detail.push(v.hawkinsSimon
     ? 'Hawkins–Simon condition holds: every leading principal minor of I − A is positive.'
-    : `Hawkins–Simon condition fails at sector '${sectors[hs.firstFailing?.sector ?? 0] ?? '?'}' (minor of order ${hs.firstFailing?.order ?? '?'}).`);
-  const reducible = pr.blocks.length > 1;
-  if (reducible) detail.push(`The table is reducible: the sectors fall into ${pr.blocks.length} groups that do not all buy from each other (see Table).`);
+    : `Hawkins–Simon condition fails at the minor of order ${v.hawkinsSimonDetail.firstFailing?.order ?? '?'} (sector '${sectors[v.hawkinsSimonDetail.firstFailing?.sector ?? 0] ?? '?'}').`);
+  if (v.verdictNote) detail.push(v.verdictNote);
+  if (!v.irreducible && n > 1) detail.push(`The table is reducible: its sectors fall into ${v.blocks.length} groups that do not all buy from one another (see Table).`);
 
   let sumI = 0, sumII = 0, countII = 0;
   for (const r of rows) {
@@ -179,31 +171,31 @@ function analyse(t: IOTable, pm: PreparedModel): { analysis: AnalysisView; avail
   }
   const analysis: AnalysisView = {
     verdict: { productive, say, detail },
-    perron: { value: rho, lower: finite(pr.lower), upper: finite(pr.upper), ...(pr.converged ? {} : { reason: 'the iteration stopped before the bounds met; they are still certified' }) },
-    hawkinsSimon: hs.holds,
+    perron: { value: finite(v.perronRoot), lower: finite(lower), upper: finite(upper), ...(v.perronConverged ? {} : { reason: 'the iteration stopped before the bounds met; they are still certified' }) },
+    hawkinsSimon: v.hawkinsSimon,
     rounds99,
     rounds,
     spectrum: spec,
-    ...(spectrumNote ? { spectrumNote } : {}),
-    blocks: pr.blocks.map((b) => ({ sectors: b.sectors.map((j) => sectors[j]!), cyclic: b.cyclic, period: b.period })),
-    reducible,
+    ...(v.spectrumNote ? { spectrumNote: v.spectrumNote } : {}),
+    blocks: v.blocks.map((b) => ({ sectors: b.sectors.map((j) => sectors[j]!), cyclic: b.period !== null, period: b.period })),
+    reducible: !v.irreducible,
     multipliers: rows,
-    hasTypeII: closed === true,
-    meanOutput: n ? sumI / n : Number.NaN,
+    hasTypeII: v.closedProductive === true,
+    meanOutput: n && v.productive ? sumI / n : Number.NaN,
     meanOutputII: countII === n && n > 0 ? sumII / n : null,
-    notes,
+    notes: [...notes, ...full.warnings.map((w) => formatLocated(w))],
   };
-  return { analysis, avail };
+  return { analysis, full };
 }
 
 function pct(v: number): string {
   return `${(v * 100).toFixed(1)} %`;
 }
 
-function load(t: IOTable, fileName: string): { table: TableInfo; analysis: AnalysisView } {
+function load(t: IOTable, fileName: string, source: SourceInfo | null): { table: TableInfo; analysis: AnalysisView } {
   const pm = prepareModel(t);
-  const { analysis, avail } = analyse(t, pm);
-  state = { table: t, pm, analysis, avail };
+  const { analysis, full } = analyse(pm);
+  state = { table: t, pm, full, analysis, source };
   return { table: tableInfo(t, fileName), analysis };
 }
 
@@ -221,45 +213,45 @@ export interface PreviewView {
   cells: string[][];
   balance: { sector: string; inputs: number; output: number; gap: number; relative: number }[];
   balanced: boolean;
+  tolerance: number;
+  outputSource: string | null;
   warnings: string[];
   /** Why the file, as it stands, would be refused (located), or null. */
   refusal: string | null;
 }
 
-const ROW_ROLES = ['labourIncome', 'otherValueAdded', 'imports', 'employment', 'totalInput', 'ignore'] as const;
-const COLUMN_ROLES = ['householdConsumption', 'otherFinalDemand', 'totalOutput', 'ignore'] as const;
-
 function firstCells(text: string): string[][] {
-  return text.split(/\r?\n/).filter((l) => l.trim() !== '').slice(0, 12).map((l) => l.split(/[,;\t]/).slice(0, 10));
+  return text.split(/\r?\n/, 14).filter((l) => l.trim() !== '').slice(0, 12).map((l) => l.split(/[,;\t]/).slice(0, 10));
 }
 
 function previewTable(src: TableSource): PreviewView {
-  const base = { fileName: src.fileName, rowRoles: ROW_ROLES, columnRoles: COLUMN_ROLES, cells: firstCells(src.text) };
-  try {
-    const t = importTable(src.text, importOptions(src));
-    const balance = t.sectors.map((sector, j) => {
-      let inputs = 0;
-      for (let i = 0; i < t.n; i++) inputs += t.Z[i * t.n + j]!;
-      for (const v of [...t.labourIncome, ...t.otherValueAdded, ...t.imports]) inputs += v.values[j]!;
-      const output = t.x[j]!;
-      const gap = inputs - output;
-      return { sector, inputs, output, gap, relative: output !== 0 ? gap / output : 0 };
-    }).sort((a, b) => Math.abs(b.relative) - Math.abs(a.relative));
-    return {
-      ...base,
-      layout: t.layout,
-      sectors: t.sectors,
-      rows: Object.entries(t.roles.rows).map(([label, role]) => ({ label, role })),
-      columns: Object.entries(t.roles.columns).map(([label, role]) => ({ label, role })),
-      balance: balance.slice(0, 8),
-      balanced: balance.every((b) => Math.abs(b.relative) <= 0.001),
-      warnings: t.warnings.map((w) => formatLocated(w)),
-      refusal: null,
-    };
-  } catch (e) {
-    if (!isInputError(e)) throw e;
-    return { ...base, layout: src.layout ?? 'matrix', sectors: [], rows: [], columns: [], balance: [], balanced: false, warnings: [], refusal: formatLocated(e) };
+  const p = enginePreview(src.text, importOptions(src));
+  const b = p.balance;
+  const balance: PreviewView['balance'] = [];
+  if (b) {
+    b.sectors.forEach((sector, j) => {
+      const gaps = [b.columnGap?.[j], b.rowGap?.[j], b.totalGap?.[j]].filter((g): g is number => typeof g === 'number');
+      const worst = gaps.reduce((w, g) => (Math.abs(g) > Math.abs(w) ? g : w), 0);
+      balance.push({ sector, inputs: b.purchases?.[j] ?? Number.NaN, output: b.output[j]!, gap: worst, relative: worst });
+    });
+    balance.sort((x, y) => Math.abs(y.relative) - Math.abs(x.relative));
   }
+  return {
+    fileName: src.fileName,
+    layout: p.layout ?? src.layout ?? 'matrix',
+    sectors: p.sectors,
+    rows: p.rows.filter((r) => r.role !== 'sector').map((r) => ({ label: r.label, role: r.role })),
+    columns: p.columns.filter((c) => c.role !== 'sector').map((c) => ({ label: c.label, role: c.role })),
+    rowRoles: ROW_ROLES,
+    columnRoles: COLUMN_ROLES,
+    cells: firstCells(src.text),
+    balance: balance.slice(0, 8),
+    balanced: b?.balanced ?? false,
+    tolerance: b?.tolerance ?? 0.001,
+    outputSource: b?.outputSource ?? null,
+    warnings: p.warnings.map((w) => formatLocated(w)),
+    refusal: p.refusal?.formatted ?? null,
+  };
 }
 
 // ---- scenarios ----
@@ -372,7 +364,7 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
   if (args.which === 'Z') values = Float64Array.from(table.Z);
   else if (args.which === 'A') values = Float64Array.from(pm.coef.A);
   else {
-    if (current().avail.open !== true) throw new Error(String(current().avail.open));
+    if (!current().full.viability.productive) throw new Error('the table is not productive, so the Leontief inverse is not shown');
     // L column by column: one solve per column, only when the user asks for the grid.
     values = new Float64Array(n * n);
     const e = new Float64Array(n);
@@ -390,70 +382,109 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
 
 // ---- reports ----
 
-export type ReportKind = 'multipliers' | 'linkages' | 'coefficients' | 'scenario';
+export type ReportKind = 'multipliers' | 'linkages' | 'coefficients' | 'scenario-impact' | 'scenario-rounds' | 'scenario-multipliers' | 'scenario-paths' | 'comparison';
 
-function meta(title: string, modelType: string, notes: string[] = []): Parameters<typeof reportFiles>[1] {
-  const { table } = current();
-  return { title, tableName: table.name, modelType, date: new Date().toISOString(), moneyUnit: table.moneyUnit, notes };
+function context(): ScenarioReportContext {
+  const { table, source } = current();
+  return { tableName: table.name, date: new Date().toISOString(), ...(source ? { sourceFile: source.fileName, sourceHash: source.sha256 } : {}) };
 }
 
-function report(args: { kind: ReportKind; scenario?: ScenarioDraft; closure?: boolean }): ReportFile[] {
-  const { analysis, pm, table } = current();
-  const unit = table.moneyUnit;
-  if (args.kind === 'multipliers') {
-    const rows: Cell[][] = [[
-      'sector', 'output Type I', 'output Type II', `income simple (${unit} per ${unit})`, `income total Type II (${unit} per ${unit})`,
-      'income Type I', 'income Type II', `value added simple (${unit} per ${unit})`, `value added total (${unit} per ${unit})`,
-      `employment simple (jobs per ${unit})`, `employment total (jobs per ${unit})`,
-    ]];
-    for (const r of analysis.multipliers) {
-      rows.push([r.sector, finite(r.output), r.outputII, finite(r.income), r.incomeII, r.incomeRatioI, r.incomeRatioII, finite(r.valueAdded), r.valueAddedII, r.employment, r.employmentII]);
-    }
-    return reportFiles('multipliers', meta('Multipliers by sector', 'open (Type I) and household-closed (Type II)', analysis.notes), rows);
-  }
-  if (args.kind === 'linkages') {
-    const rows: Cell[][] = [['sector', 'backward linkage (index)', 'forward linkage (index)', 'class']];
-    for (const r of analysis.multipliers) rows.push([r.sector, r.backward, r.forward, r.linkage]);
-    return reportFiles('linkages', meta('Backward and forward linkages (Rasmussen)', 'open (Type I)'), rows);
-  }
-  if (args.kind === 'coefficients') {
-    const n = pm.coef.n;
-    const rows: Cell[][] = [['sector (seller \\ buyer)', ...pm.coef.sectors]];
-    for (let i = 0; i < n; i++) rows.push([pm.coef.sectors[i]!, ...Array.from(pm.coef.A.subarray(i * n, (i + 1) * n))]);
-    return reportFiles('coefficients', meta(`Technical coefficients A (${unit} of input per ${unit} of output)`, 'open'), rows);
-  }
-  if (!args.scenario) throw new Error('the scenario report needs a scenario');
-  const v = runScenario({ scenario: args.scenario, closure: args.closure ?? true });
-  const head: Cell[] = ['sector'];
-  const vars: [Variable, string][] = [['output', unit], ['valueAdded', unit], ['income', unit], ['employment', 'jobs']];
-  for (const [name, u] of vars) {
-    if (!v.effects[name]) continue;
-    for (const part of ['direct', 'indirect', 'induced', 'total'] as const) {
-      if (part === 'induced' && !v.effects[name]!.induced) continue;
-      head.push(`${name} ${part} (${u})`);
-    }
-  }
-  const rows: Cell[][] = [head];
-  const lineOf = (label: string, get: (e: EffectView, part: 'direct' | 'indirect' | 'induced' | 'total') => number | null): Cell[] => {
-    const row: Cell[] = [label];
-    for (const [name] of vars) {
-      const e = v.effects[name];
-      if (!e) continue;
-      for (const part of ['direct', 'indirect', 'induced', 'total'] as const) {
-        if (part === 'induced' && !e.induced) continue;
-        row.push(get(e, part));
-      }
-    }
-    return row;
+function meta(title: string, modelType: string, notes: string[] = []): Parameters<typeof reportFiles>[1] {
+  const { table, source } = current();
+  return {
+    title, tableName: table.name, modelType, date: new Date().toISOString(), moneyUnit: table.moneyUnit, notes,
+    ...(source ? { sourceFile: source.fileName, sourceHash: source.sha256 } : {}),
   };
-  v.sectors.forEach((s, i) => rows.push(lineOf(s, (e, p) => (p === 'induced' ? e.induced![i]! : e[p][i]!))));
-  rows.push(lineOf('Total', (e, p) => e.totals[p]));
-  const lines = args.scenario.lines.map((l) => `${l.kind} ${l.amount} ${unit} in ${l.sector}, local share ${l.localShare}`);
-  return reportFiles(`scenario-${slug(args.scenario.name)}`, meta(`Scenario effects: ${args.scenario.name}`, v.closure === 'household' ? 'household-closed (Type II)' : 'open (Type I)', [...lines, ...v.notes]), rows);
+}
+
+/** The multiplier report: every measure straight from the engine's analysis (null where undefined). */
+function multiplierRows(a: Analysis, moneyUnit: string): Cell[][] {
+  const m = a.multipliers;
+  const head: Cell[] = [
+    'sector',
+    'output Type I (ratio)', 'output Type II (ratio)',
+    `income simple (${moneyUnit} per ${moneyUnit})`, 'income Type I (ratio)', `income total (${moneyUnit} per ${moneyUnit})`, 'income Type II (ratio)',
+    `employment simple (jobs per ${moneyUnit})`, 'employment Type I (ratio)', `employment total (jobs per ${moneyUnit})`, 'employment Type II (ratio)',
+    `value added simple (${moneyUnit} per ${moneyUnit})`, `value added total (${moneyUnit} per ${moneyUnit})`,
+    'backward linkage (index)', 'forward linkage (index)', 'key sector',
+  ];
+  const key = new Set(a.linkages.keySectors);
+  const rows: Cell[][] = [head];
+  a.sectors.forEach((s, j) => rows.push([
+    s,
+    m.output.typeI[j] ?? null, m.output.typeII[j] ?? null,
+    m.income.simple[j] ?? null, m.income.typeI[j] ?? null, m.income.total[j] ?? null, m.income.typeII[j] ?? null,
+    m.employment.simple[j] ?? null, m.employment.typeI[j] ?? null, m.employment.total[j] ?? null, m.employment.typeII[j] ?? null,
+    m.valueAdded.simple[j] ?? null, m.valueAdded.total[j] ?? null,
+    a.linkages.backward[j] ?? null, a.linkages.forward[j] ?? null, key.has(j) ? 'yes' : 'no',
+  ]));
+  return rows;
+}
+
+function report(args: { kind: ReportKind; scenario?: ScenarioDraft; scenarios?: ScenarioDraft[]; closure?: boolean; sector?: string }): ReportFile[] {
+  const { full, pm, table, analysis } = current();
+  const unit = table.moneyUnit;
+  switch (args.kind) {
+    case 'multipliers':
+      return reportFiles('multipliers', meta('Multipliers and linkages by sector', full.viability.closedProductive ? 'open (Type I) and household-closed (Type II)' : 'open (Type I); no household closure', analysis.notes), multiplierRows(full, unit));
+    case 'linkages': {
+      const rows: Cell[][] = [['sector', 'backward linkage (index)', 'forward linkage (index)', 'class']];
+      for (const r of analysis.multipliers) rows.push([r.sector, finite(r.backward), finite(r.forward), r.linkage]);
+      return reportFiles('linkages', meta('Backward and forward linkages (Rasmussen)', 'open (Type I)'), rows);
+    }
+    case 'coefficients': {
+      const n = pm.coef.n;
+      const rows: Cell[][] = [[`seller \\ buyer (${unit} per ${unit} of output)`, ...pm.coef.sectors]];
+      for (let i = 0; i < n; i++) rows.push([pm.coef.sectors[i]!, ...Array.from(pm.coef.A.subarray(i * n, (i + 1) * n))]);
+      return reportFiles('coefficients', meta('Technical coefficients A', 'open'), rows);
+    }
+    case 'comparison': {
+      const list = args.scenarios ?? [];
+      const results = list.map((sc) => engineRunScenario(pm, scenarioOf(sc)));
+      return comparisonReport(compareScenarios(results), unit, context());
+    }
+    default: {
+      if (!args.scenario) throw new Error('this report needs a scenario');
+      const r = engineRunScenario(pm, scenarioOf(args.scenario));
+      const base = `${slug(args.scenario.name)}`;
+      if (args.kind === 'scenario-impact') return impactReport(r, context(), `${base}-impact`);
+      if (args.kind === 'scenario-multipliers') return scenarioMultiplierReport(r, context(), `${base}-multipliers`);
+      if (args.kind === 'scenario-rounds') return roundsReport(r, spendingRounds(pm, r.effectiveDemand, r.openOutput, { maxRounds: 200 }), context(), `${base}-rounds`);
+      const dest = pm.coef.sectors.indexOf(args.sector ?? '');
+      const target = dest >= 0 ? dest : largest(r);
+      const model = args.closure && pm.closed ? 'closed' : 'open';
+      const f = model === 'closed' ? Float64Array.from([...r.effectiveDemand, 0]) : r.effectiveDemand;
+      return pathReport(r, structuralPaths(pm, f, target, { model }), context(), `${base}-paths`);
+    }
+  }
+}
+
+function largest(r: ScenarioResult): number {
+  const t = r.effects.output.total;
+  let best = 0;
+  for (let i = 1; i < t.length; i++) if (Math.abs(t[i]!) > Math.abs(t[best]!)) best = i;
+  return best;
 }
 
 function slug(s: string): string {
   return s.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'scenario';
+}
+
+// ---- projects ----
+
+function saveProject(args: { name: string; scenarios: ScenarioDraft[]; closure: boolean; active: number }): string {
+  const { table, source } = current();
+  const p = createProject(table, { name: args.name, source, scenarios: args.scenarios.map((s) => ({ name: s.name, lines: s.lines.map((l) => ({ ...l })) })) });
+  p.settings.paths.model = args.closure ? 'closed' : 'open';
+  p.settings.activeScenario = args.scenarios[args.active]?.name ?? null;
+  return serializeProject(p);
+}
+
+function openProject(args: { text: string; fileName: string }): { table: TableInfo; analysis: AnalysisView; scenarios: ScenarioDraft[]; closure: boolean; active: number; name: string } {
+  const p = parseProject(args.text, args.fileName);
+  const loaded = load(p.table, p.source?.fileName ?? args.fileName, p.source);
+  const active = Math.max(0, p.scenarios.findIndex((s) => s.name === p.settings.activeScenario));
+  return { ...loaded, scenarios: p.scenarios, closure: p.settings.paths.model === 'closed', active, name: p.name };
 }
 
 // ---- the API the UI calls ----
@@ -466,18 +497,29 @@ function starter(t: IOTable): ScenarioDraft {
   };
 }
 
+function spread(args: { pattern: { name: string; shares: { sector: string; share: number }[] }; amount: number; localShare: number }): ScenarioLine[] {
+  // Shares computed from a column can miss 1 by rounding; renormalise before the engine's strict check.
+  let sum = 0;
+  for (const x of args.pattern.shares) sum += x.share;
+  const pattern = { name: args.pattern.name, shares: args.pattern.shares.map((x) => ({ sector: x.sector, share: x.share / sum })) };
+  return spreadPattern(pattern, args.amount, { localShare: args.localShare });
+}
+
 export const api = {
-  loadSample(_: Record<string, never>): { table: TableInfo; analysis: AnalysisView; source: TableSource; starter: ScenarioDraft } {
-    const source: TableSource = { text: sampleCsv, fileName: SAMPLE_FILE };
-    const t = importTable(sampleCsv, { fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' });
-    return { ...load(t, SAMPLE_FILE), source, starter: starter(t) };
+  loadSample(_: Record<string, never>): { table: TableInfo; analysis: AnalysisView; source: TableSource; starter: ScenarioDraft; note: string } {
+    const source: TableSource = { text: SAMPLE_CSV, fileName: SAMPLE_FILE };
+    const t = importTable(SAMPLE_CSV, { fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' });
+    return { ...load(t, SAMPLE_FILE, sourceInfo(SAMPLE_FILE, utf8Bytes(SAMPLE_CSV))), source, starter: starter(t), note: SAMPLE_NOTE };
   },
   previewTable,
   loadTable(src: TableSource): { table: TableInfo; analysis: AnalysisView } {
-    return load(importTable(src.text, importOptions(src)), src.fileName);
+    return load(importTable(src.text, importOptions(src)), src.fileName, sourceInfo(src.fileName, utf8Bytes(src.text)));
   },
   runScenario,
+  spread,
   paths,
   grid,
   report,
+  saveProject,
+  openProject,
 };

@@ -25,6 +25,8 @@ export interface TableInfo {
   /** Total output per sector, money. */
   output: number[];
   totalOutput: number;
+  /** Spending patterns read from the table's final-demand columns (shares of each column), for scenario lines. */
+  patterns: { name: string; shares: { sector: string; share: number }[] }[];
   /** Roles as imported (for the project file and the role editor). */
   roles: { rows: Record<string, string>; columns: Record<string, string> };
 }
