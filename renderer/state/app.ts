@@ -33,6 +33,8 @@ export const app = reactive({
   results: [] as (ScenarioView | { error: string } | null)[],
   /** Type II: include the household closure in scenario results and multipliers. */
   closure: true,
+  /** True while the scenario list is only the example the app made itself (replaced when the table changes). */
+  starterOnly: false,
   dirty: false,
   project: null as { name: string; path?: string } | null,
   toast: '' as string,
@@ -74,7 +76,11 @@ export async function loadSample(): Promise<void> {
     app.source = r.source;
     app.analysis = r.analysis;
     app.ready = true;
-    if (app.scenarios.length === 0) app.scenarios = [r.starter];
+    if (app.scenarios.length === 0 || app.starterOnly) {
+      app.scenarios = [r.starter];
+      app.selected = 0;
+      app.starterOnly = true;
+    }
     await recomputeAll();
   } catch (e) {
     if (!(e instanceof CancelledError)) app.fatal = messageOf(e);
@@ -133,6 +139,10 @@ export async function useTable(source: TableSource): Promise<boolean> {
     app.analysis = r.analysis;
     app.importError = null;
     app.draft = null;
+    if (app.starterOnly) {
+      app.scenarios = [r.starter];
+      app.selected = 0;
+    }
     markDirty(true);
     await recomputeAll();
     return true;
@@ -158,6 +168,7 @@ export async function openTable(): Promise<void> {
 
 export function editScenarios(fn: (s: ScenarioDraft[]) => void, select?: number): void {
   history.record({ scenarios: app.scenarios, selected: app.selected });
+  app.starterOnly = false;
   const copy = JSON.parse(JSON.stringify(app.scenarios)) as ScenarioDraft[];
   fn(copy);
   app.scenarios = copy;

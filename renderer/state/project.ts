@@ -51,6 +51,7 @@ export async function applyProject(text: string, fileName: string, path?: string
     app.importError = null;
     app.draft = null;
     app.project = { name: fileName, ...(path ? { path } : {}) };
+    app.starterOnly = false;
     resetHistory();
     await recomputeAll();
     markDirty(false);

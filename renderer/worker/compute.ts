@@ -17,7 +17,7 @@ import { reportFiles, type ReportFile } from '../../src/report/document.ts';
 import type { Cell } from '../../src/report/csv.ts';
 import { createProject, parseProject, serializeProject, sourceInfo, type SourceInfo } from '../../src/project/index.ts';
 import { utf8Bytes } from '../../src/project/sha256.ts';
-import { formatLocated } from '../../src/diagnostics/errors.ts';
+import { formatLocated, InputError } from '../../src/diagnostics/errors.ts';
 import type { AnalysisView, Eigen, MultiplierRow, TableInfo } from './protocol.ts';
 
 export const SAMPLE_FILE = SAMPLE_FILE_NAME;
@@ -192,11 +192,11 @@ function pct(v: number): string {
   return `${(v * 100).toFixed(1)} %`;
 }
 
-function load(t: IOTable, fileName: string, source: SourceInfo | null): { table: TableInfo; analysis: AnalysisView } {
+function load(t: IOTable, fileName: string, source: SourceInfo | null): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft } {
   const pm = prepareModel(t);
   const { analysis, full } = analyse(pm);
   state = { table: t, pm, full, analysis, source };
-  return { table: tableInfo(t, fileName), analysis };
+  return { table: tableInfo(t, fileName), analysis, starter: starter(t) };
 }
 
 // ---- preview ----
@@ -474,7 +474,17 @@ function slug(s: string): string {
 
 function saveProject(args: { name: string; scenarios: ScenarioDraft[]; closure: boolean; active: number }): string {
   const { table, source } = current();
-  const p = createProject(table, { name: args.name, source, scenarios: args.scenarios.map((s) => ({ name: s.name, lines: s.lines.map((l) => ({ ...l })) })) });
+  const known = new Set(table.sectors);
+  for (const sc of args.scenarios) {
+    sc.lines.forEach((l, k) => {
+      if (l.sector !== '' && !known.has(l.sector)) {
+        throw new InputError('unknown-sector', `scenario '${sc.name}', line ${k + 1}: sector '${l.sector}' is not in this table; change or remove the line before saving`, { rowLabel: l.sector });
+      }
+    });
+  }
+  // Lines still being typed (no sector yet) are not part of the study.
+  const scenarios = args.scenarios.map((s) => ({ name: s.name, lines: s.lines.filter((l) => l.sector !== '').map((l) => ({ ...l })) }));
+  const p = createProject(table, { name: args.name, source, scenarios });
   p.settings.paths.model = args.closure ? 'closed' : 'open';
   p.settings.activeScenario = args.scenarios[args.active]?.name ?? null;
   return serializeProject(p);
@@ -491,9 +501,10 @@ function openProject(args: { text: string; fileName: string }): { table: TableIn
 
 function starter(t: IOTable): ScenarioDraft {
   const s = t.sectors;
+  const food = s.find((x) => /food/i.test(x));
   return {
-    name: 'New food plant',
-    lines: [{ sector: s.find((x) => /food/i.test(x)) ?? s[0] ?? '', amount: 1000, kind: 'final-demand', localShare: 1 }],
+    name: food ? 'New food plant' : 'Example scenario',
+    lines: [{ sector: food ?? s[0] ?? '', amount: 1000, kind: 'final-demand', localShare: 1 }],
   };
 }
 
@@ -509,10 +520,10 @@ export const api = {
   loadSample(_: Record<string, never>): { table: TableInfo; analysis: AnalysisView; source: TableSource; starter: ScenarioDraft; note: string } {
     const source: TableSource = { text: SAMPLE_CSV, fileName: SAMPLE_FILE };
     const t = importTable(SAMPLE_CSV, { fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' });
-    return { ...load(t, SAMPLE_FILE, sourceInfo(SAMPLE_FILE, utf8Bytes(SAMPLE_CSV))), source, starter: starter(t), note: SAMPLE_NOTE };
+    return { ...load(t, SAMPLE_FILE, sourceInfo(SAMPLE_FILE, utf8Bytes(SAMPLE_CSV))), source, note: SAMPLE_NOTE };
   },
   previewTable,
-  loadTable(src: TableSource): { table: TableInfo; analysis: AnalysisView } {
+  loadTable(src: TableSource): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft } {
     return load(importTable(src.text, importOptions(src)), src.fileName, sourceInfo(src.fileName, utf8Bytes(src.text)));
   },
   runScenario,

@@ -9,11 +9,56 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { REPO, shot, skipBrowser, startSession, type Session } from './harness.ts';
+import Papa from 'papaparse';
+import { DOWNLOADS, REPO, shot, skipBrowser, startSession, type Session } from './harness.ts';
+import { importTable } from '../../src/table/index.ts';
+import { prepareModel } from '../../src/model/prepared.ts';
+import { analyzeTable } from '../../src/model/analysis.ts';
+import { runScenario } from '../../src/scenario/index.ts';
+import type { Scenario } from '../../src/scenario/types.ts';
+import type { Download } from 'playwright-core';
 
 const FIX = join(REPO, 'test', 'fixtures', 'e2e');
+const TEST_CSV = join(FIX, 'ridgeline-test.csv');
 let s: Session;
 let page: Page;
+let projectFile = '';
+let totalBeforeSave = '';
+
+/** The scenario the test types in, as the engine sees it. */
+const TWO_LINES: Scenario = {
+  name: 'Cannery expansion',
+  lines: [
+    { sector: 'Cannery', amount: 500, kind: 'final-demand', localShare: 1 },
+    { sector: 'Retail', amount: 200, kind: 'final-demand', localShare: 0.5 },
+  ],
+};
+
+function engineTable() {
+  return importTable(readFileSync(TEST_CSV, 'utf8'), { fileName: 'ridgeline-test.csv' });
+}
+
+/** The browser shows money with one decimal in the user's locale (en-US here). */
+function shown(v: number): string {
+  return v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+}
+
+/** Click, and collect the downloads the click starts (reports come as a CSV and its .about.txt). */
+async function downloadsOf(click: () => Promise<void>, count: number): Promise<{ name: string; path: string; text: string }[]> {
+  const got: Download[] = [];
+  const onDl = (d: Download) => { got.push(d); };
+  page.on('download', onDl);
+  await click();
+  await expect.poll(() => got.length, { timeout: 15_000 }).toBe(count);
+  page.off('download', onDl);
+  const out = [];
+  for (const d of got) {
+    const path = join(DOWNLOADS, d.suggestedFilename());
+    await d.saveAs(path);
+    out.push({ name: d.suggestedFilename(), path, text: readFileSync(path, 'utf8') });
+  }
+  return out;
+}
 
 async function go(screen: string): Promise<void> {
   await page.click(`[data-screen="${screen}"]`);
@@ -67,6 +112,94 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     expect(text).toMatch(/thirty/);
     expect(await page.getByTestId('table-name').textContent()).toMatch(/ridgeline-test/);
     await shot(page, '03-import-refused');
+  });
+
+  it('runs a scenario with two lines and shows the engine\'s totals', async () => {
+    await go('scenarios');
+    await page.getByTestId('new-scenario').click();
+    await page.getByTestId('scenario-name').fill(TWO_LINES.name);
+    await page.getByTestId('scenario-name').press('Tab');
+    const l1 = TWO_LINES.lines[0]!, l2 = TWO_LINES.lines[1]!;
+    await page.getByLabel('Sector of line 1').fill(l1.sector);
+    await page.getByLabel('Sector of line 1').press('Enter');
+    await page.locator('[data-line-amount="0"]').fill(String(l1.amount));
+    await page.locator('[data-line-amount="0"]').press('Tab');
+    await page.getByTestId('add-line').click();
+    await page.getByLabel('Sector of line 2').fill('reta'); // a unique partial match is taken
+    await page.getByLabel('Sector of line 2').press('Enter');
+    await expect.poll(() => page.getByLabel('Sector of line 2').inputValue()).toBe(l2.sector);
+    await page.locator('[data-line-amount="1"]').fill(String(l2.amount));
+    await page.locator('[data-line-amount="1"]').press('Tab');
+    await page.getByLabel('Local share of line 2, percent').fill('50');
+    await page.getByLabel('Local share of line 2, percent').press('Tab');
+
+    const expected = runScenario(prepareModel(engineTable()), TWO_LINES);
+    const total = expected.totals.output.total;
+    await expect.poll(() => page.getByTestId('total-effect').textContent(), { timeout: 10_000 }).toBe(shown(total));
+    expect(await page.getByTestId('effect-totals').textContent()).toContain(shown(expected.totals.output.direct));
+    totalBeforeSave = shown(total);
+    // Undo takes the last edit back (local share 50 % → 100 %); redo restores it.
+    await page.keyboard.press('Control+z');
+    await expect.poll(() => page.getByLabel('Local share of line 2, percent').inputValue()).toBe('100');
+    await page.keyboard.press('Control+y');
+    await expect.poll(() => page.getByLabel('Local share of line 2, percent').inputValue()).toBe('50');
+    await expect.poll(() => page.getByTestId('total-effect').textContent()).toBe(totalBeforeSave);
+    await page.getByTestId('compare').waitFor();
+    await shot(page, '04-scenarios');
+  });
+
+  it('exports the multiplier report with the engine\'s own numbers', async () => {
+    await go('export');
+    await shot(page, '05-export');
+    const files = await downloadsOf(() => page.click('[data-report="multipliers"]'), 2);
+    const csv = files.find((f) => f.name === 'multipliers.csv');
+    const about = files.find((f) => f.name === 'multipliers.about.txt');
+    expect(csv).toBeDefined();
+    expect(about?.text).toMatch(/Cautions/);
+    const rows = Papa.parse<string[]>(csv!.text.trim(), { skipEmptyLines: true }).data;
+    const a = analyzeTable(engineTable());
+    const header = rows[0]!;
+    const col = (name: string) => header.findIndex((h) => h.startsWith(name));
+    const checks: [string, (number | null)[]][] = [
+      ['output Type I', a.multipliers.output.typeI], ['output Type II', a.multipliers.output.typeII],
+      ['income simple', a.multipliers.income.simple], ['income Type II', a.multipliers.income.typeII],
+      ['employment simple', a.multipliers.employment.simple], ['value added total', a.multipliers.valueAdded.total],
+      ['backward linkage', a.linkages.backward], ['forward linkage', a.linkages.forward],
+    ];
+    expect(rows.length).toBe(a.n + 1);
+    for (const [name, values] of checks) {
+      const c = col(name);
+      expect(c, name).toBeGreaterThan(0);
+      a.sectors.forEach((sector, j) => {
+        const row = rows.find((r) => r[0] === sector)!;
+        const v = values[j];
+        expect(v, `${name} ${sector}`).not.toBeNull();
+        // Shortest round-trip numbers: what the engine computed is what the file says, to the last bit.
+        expect(Number(row[c]), `${name} ${sector}`).toBe(v);
+      });
+    }
+  });
+
+  it('saves the project and reopens it with the same results', async () => {
+    const [saved] = await downloadsOf(() => page.getByTestId('save-project').click(), 1);
+    expect(saved!.name).toMatch(/\.roundwise$/);
+    projectFile = saved!.path;
+    // Replace the table and scenarios' context with the sample, then reopen the project.
+    await go('import');
+    await page.getByTestId('use-sample').click();
+    await expect.poll(() => page.getByTestId('table-name').textContent()).toMatch(/Fernhollow/);
+    await go('export');
+    page.once('dialog', (d) => void d.accept());
+    const chooser = page.waitForEvent('filechooser');
+    await page.getByTestId('open-project').click();
+    await (await chooser).setFiles(projectFile);
+    await expect.poll(() => page.getByTestId('table-name').textContent()).toMatch(/ridgeline-test/);
+    await go('scenarios');
+    await page.getByRole('button', { name: TWO_LINES.name }).click();
+    await expect.poll(() => page.getByTestId('total-effect').textContent()).toBe(totalBeforeSave);
+    expect(await page.getByLabel('Sector of line 2').inputValue()).toBe('Retail');
+    expect(await page.getByLabel('Local share of line 2, percent').inputValue()).toBe('50');
+    await shot(page, '06-reopened-project');
   });
 
   it('shows no console errors during the whole flow', () => {
