@@ -5,7 +5,7 @@
  * the menu shortcuts. The environment is injectable so tests can drive it without a browser.
  */
 import type { ExportKind, FileKind, MenuCommand, OpenedFile, RecentEntry, RoundwiseBridge, SavedFile } from '../../src/bridge/contract.ts';
-import { EXPORT_TYPES, MAX_OPEN_BYTES, OPEN_EXTENSIONS, PROJECT_EXTENSION, formatBytes, withExtension } from '../../src/bridge/files.ts';
+import { EXPORT_TYPES, MAX_OPEN_BYTES, OPEN_EXTENSIONS, formatBytes, projectFileName, withExtension } from '../../src/bridge/files.ts';
 import { commandForKey, isTextEditing } from '../../src/bridge/shortcuts.ts';
 import { addRecent, parseRecentList, sanitizeFileName } from '../../src/bridge/validate.ts';
 import { InputError } from '../../src/diagnostics/errors.ts';
@@ -119,8 +119,11 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
     win.setTimeout(() => URL.revokeObjectURL(url), 60_000);
   }
 
+  /** Cancels the file input still waiting for the user, if any (a second Open replaces the first). */
+  let cancelPending: (() => void) | null = null;
+
   function openFile(kind: FileKind): Promise<OpenedFile | null> {
-    for (const old of doc.querySelectorAll('input[data-roundwise-open]')) old.remove();
+    cancelPending?.();
     return new Promise<OpenedFile | null>((resolve, reject) => {
       const input = doc.createElement('input');
       input.type = 'file';
@@ -131,9 +134,12 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
       const settle = (run: () => void): void => {
         if (settled) return;
         settled = true;
+        if (cancelPending === cancel) cancelPending = null;
         input.remove();
         run();
       };
+      const cancel = (): void => settle(() => resolve(null));
+      cancelPending = cancel;
       input.addEventListener('change', () => {
         const file = input.files?.[0];
         if (!file) return settle(() => resolve(null));
@@ -145,14 +151,14 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
           (err: unknown) => settle(() => reject(err)),
         );
       });
-      input.addEventListener('cancel', () => settle(() => resolve(null)));
+      input.addEventListener('cancel', cancel);
       doc.body.append(input);
       input.click();
     });
   }
 
   async function saveProject(suggestedName: string, content: string): Promise<SavedFile | null> {
-    const name = withExtension(sanitizeFileName(suggestedName), PROJECT_EXTENSION);
+    const name = projectFileName(sanitizeFileName(suggestedName));
     download(name, new Blob([content], { type: 'application/json' }));
     remember(name, content);
     return { name };
@@ -178,7 +184,10 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
     const cmd = commandForKey(ev, env.isMac);
     if (!cmd || handlers.size === 0) return;
     if ((cmd === 'undo' || cmd === 'redo') && isTextEditing(doc.activeElement as HTMLInputElement | null)) return;
-    ev.preventDefault(); // keep the browser's own Open/Save page dialogs out of the way
+    // The bridge owns the menu shortcuts, as the native menu does in the desktop app: keep the browser's own
+    // Open/Save dialogs out of the way, and stop the chord here (capture phase) so no page handler runs it twice.
+    ev.preventDefault();
+    ev.stopPropagation();
     for (const h of [...handlers]) h(cmd);
   }
 

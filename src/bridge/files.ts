@@ -33,9 +33,15 @@ export const EXPORT_TYPES: Record<ExportKind, { extension: string; mime: string;
   json: { extension: 'json', mime: 'application/json', filterName: 'JSON' },
 };
 
-/** `name` with `ext` as its extension (added when missing, never doubled). */
-export function withExtension(name: string, ext: string): string {
-  return name.toLowerCase().endsWith(`.${ext}`) ? name : `${name}.${ext}`;
+/** `name` with `ext` as its extension: kept when it already ends with `ext` or one of `alsoAccepted`, else added. */
+export function withExtension(name: string, ext: string, alsoAccepted: readonly string[] = []): string {
+  const lower = name.toLowerCase();
+  return [ext, ...alsoAccepted].some((e) => lower.endsWith(`.${e}`)) ? name : `${name}.${ext}`;
+}
+
+/** A project file name: `.roundwise` added unless the name already ends with an accepted project extension. */
+export function projectFileName(name: string): string {
+  return withExtension(name, PROJECT_EXTENSION, OPEN_EXTENSIONS.project);
 }
 
 /** Human size for messages: "12.3 MB". */

@@ -7,6 +7,10 @@ import { z } from 'zod';
 import type { ExportKind, FileKind, RecentEntry } from './contract.ts';
 import { MAX_SAVE_CHARS } from './files.ts';
 
+// The desktop window's CSP forbids eval; without this, zod probes `new Function` on first use and the refused
+// probe is reported as a CSP violation. Modules elsewhere that use zod in the renderer or worker need the same.
+z.config({ jitless: true });
+
 export type Validated<T> = { ok: true; value: T } | { ok: false; message: string };
 
 /** Longest suggested file name accepted (before sanitising); file systems allow 255 bytes per name. */
@@ -49,7 +53,7 @@ function check<T>(schema: z.ZodType<T>, args: unknown, what: string): Validated<
 
 export const argSchemas = {
   openFile: z.tuple([fileKind]),
-  saveProject: z.union([z.tuple([name, content]), z.tuple([name, content, path]), z.tuple([name, content, z.undefined()])]),
+  saveProject: z.tuple([name, content, path.optional()]),
   exportFile: z.tuple([name, exportKind, content]).refine(([, kind, body]) => kind !== 'png' || isPngBase64(body), {
     message: 'png content is not base64 of a PNG image',
     path: [2],

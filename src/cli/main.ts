@@ -15,9 +15,9 @@ type Command = { run: (args: string[], io: CliIO) => Promise<number> };
 const COMMANDS: Record<string, { cmd: Command; summary: string }> = {
   analyze: { cmd: analyze, summary: 'analyze TABLE.csv [--map MAP.json] [--json] [--out DIR]   coefficients, viability, multipliers' },
   scenario: { cmd: scenario, summary: 'scenario TABLE.csv --shock SHOCK.csv [--map MAP.json] [--json] [--out DIR]   demand-shock effects' },
-  regionalize: { cmd: regionalize, summary: 'regionalize NATIONAL.csv --employment EMP.csv --method slq|cilq|flq [--delta 0.3] [--json] [--out DIR]' },
-  balance: { cmd: balance, summary: 'balance MATRIX.csv --rows ROWS.csv --columns COLS.csv [--json] [--out DIR]   RAS balancing' },
-  aggregate: { cmd: aggregate, summary: 'aggregate TABLE.csv --groups GROUPS.csv [--out DIR]   merge sectors' },
+  regionalize: { cmd: regionalize, summary: 'regionalize NATIONAL.csv --employment EMP.csv --method slq|cilq|flq [--delta 0.3] [--map MAP.json] [--json] [--out DIR]' },
+  balance: { cmd: balance, summary: 'balance MATRIX.csv --rows ROWS.csv --columns COLS.csv [--table] [--tolerance T] [--max-iterations K] [--json] [--out DIR]   RAS balancing' },
+  aggregate: { cmd: aggregate, summary: 'aggregate TABLE.csv --groups GROUPS.csv [--map MAP.json] [--json] [--out DIR]   merge sectors' },
 };
 
 export function usage(): string {

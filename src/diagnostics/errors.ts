@@ -44,10 +44,15 @@ export function formatLocation(loc: Location): string {
   return parts.join(' ');
 }
 
+/** Control characters from a file (a CR inside a label, a NUL) shown escaped, so a message stays one readable line. */
+function escapeControls(s: string): string {
+  return s.replace(/[\u0000-\u001f\u007f]/g, (c) => JSON.stringify(c).slice(1, -1));
+}
+
 /** One line for the user: "county.csv:12:4 (row 'Farming', column 'Mining'): negative intermediate flow -3.2". */
 export function formatLocated(err: { message: string; location?: Location }): string {
   const where = err.location ? formatLocation(err.location) : '';
-  return where ? `${where}: ${err.message}` : err.message;
+  return escapeControls(where ? `${where}: ${err.message}` : err.message);
 }
 
 export function isInputError(e: unknown): e is InputError {

@@ -1,3 +1,4 @@
 export * from './dense.ts';
 export * from './lu.ts';
 export * from './checks.ts';
+export { gemmSubtract, setKernelMode, kernelMode, type KernelMode } from './gemm.ts';

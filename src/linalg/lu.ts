@@ -1,16 +1,19 @@
 /**
- * LU factorisation with partial pivoting and the solves built on it, cache-blocked for speed on large tables.
+ * LU factorisation with partial pivoting and the solves built on it, written for speed on large tables.
  *
- * Method: the right-looking blocked LU of LAPACK's xGETRF (Golub & Van Loan, Matrix Computations, 4th ed., §3.2.11 and
- * alg. 3.4.1 for the pivoting): factor a panel of LU_BLOCK columns with partial pivoting, solve for the matching block
- * row of U with the panel's unit lower triangle, then subtract L21·U12 from the trailing matrix with the tiled kernel
- * in gemm.ts, where nearly all the O(n³) work happens. Blocking changes only the order of the floating-point sums,
- * so results equal the textbook algorithm (lu-reference.ts) to rounding.
+ * Method: recursive LU with partial pivoting (Toledo, "Locality of reference in LU decomposition with partial
+ * pivoting", SIAM J. Matrix Anal. Appl. 18, 1997; Gustavson 1997; LAPACK's xGETRF2): factor the left half of the
+ * columns, solve for the top-right block with its unit lower triangle, subtract L21·U12 from the bottom-right block,
+ * factor that. Almost all O(n³) work then happens in large C −= A·B updates (gemm.ts: tiled, with a Wasm SIMD kernel
+ * where available); the recursion stops at LEAF columns, factored by the textbook algorithm (Golub & Van Loan,
+ * Matrix Computations, 4th ed., alg. 3.4.1). Blocking changes only the order of floating-point sums, so the pivots
+ * and factors equal those of the unblocked algorithm (lu-reference.ts) up to rounding.
  *
  * Leontief work solves against the factors instead of forming an inverse: a multiplier row vector m = c·L is one
  * transposed solve (I − A)ᵀ mᵀ = cᵀ. `luInverse` is for when the user asks to see or export the whole matrix.
  */
 import { gemmSubtract } from './gemm.ts';
+import { withWorkspace } from './workspace.ts';
 
 export interface LU {
   n: number;
@@ -20,36 +23,57 @@ export interface LU {
   piv: Int32Array;
   /** +1 or −1, the sign of the permutation (for determinants). */
   sign: number;
-  /** True when a zero pivot was met: the matrix is singular and solves must not be attempted. */
+  /**
+   * True when a pivot was zero or below n·ε·max|a_ij| (the matrix is singular or within rounding of a singular one):
+   * solves must not be attempted.
+   */
   singular: boolean;
 }
 
-/** Panel width of the blocked factorisation and block height of the blocked solves (tuned in test/bench). */
+/** Width at which the recursion stops and columns are factored (or rows solved) one at a time. */
+export const LEAF = 8;
+/** Column block of the explicit inverse's L⁻¹ stage (wide enough for efficient updates, small waste on zeros). */
+const INVERSE_BLOCK = 256;
+/** Former name of the block size, kept for callers and tests that size matrices around it. */
 export const LU_BLOCK = 64;
+
+/** Split point of a recursion over w > LEAF rows or columns: about half, a multiple of 4 so the SIMD kernel's 4×4 tiles fit. */
+function half(w: number): number {
+  return Math.max(4, (w >> 1) & ~3);
+}
 
 /** Factor an n×n matrix (the input is not modified). */
 export function luFactor(a: Float64Array, n: number): LU {
-  const lu = Float64Array.from(a.subarray(0, n * n));
   const piv = new Int32Array(n);
   for (let i = 0; i < n; i++) piv[i] = i;
-  let sign = 1;
-  for (let k0 = 0; k0 < n; k0 += LU_BLOCK) {
-    const kb = Math.min(LU_BLOCK, n - k0);
-    const k1 = k0 + kb;
-    if (factorPanel(lu, n, k0, kb, piv) % 2 === 1) sign = -sign;
-    if (k1 < n) {
-      // U12 = L11⁻¹·A12 (unit lower triangle), row by row.
-      for (let i = 1; i < kb; i++) {
-        gemmSubtract(lu, (k0 + i) * n + k1, n, lu, (k0 + i) * n + k0, n, lu, k0 * n + k1, n, 1, n - k1, i);
-      }
-      // A22 −= L21·U12.
-      gemmSubtract(lu, k1 * n + k1, n, lu, k1 * n + k0, n, lu, k0 * n + k1, n, n - k1, n - k1, kb);
-    }
-  }
-  // A zero pivot stays on U's diagonal: rows above the current one are never touched again.
+  let swaps = 0;
+  const lu = withWorkspace([n * n], ([w]) => {
+    w!.set(a.subarray(0, n * n));
+    swaps = factorColumns(w!, n, 0, n, piv);
+    return w!.slice();
+  });
+  // Singular: a pivot that is zero, or so small that A is within rounding of a singular matrix. Blocking computes U's
+  // rows and the trailing rows by differently ordered sums, so an exactly singular input (two equal rows, say) may
+  // leave a pivot of rounding size rather than an exact zero; |u_jj| ≤ n·ε·max|a_ij| catches that (setting u_jj to
+  // zero moves A by at most |u_jj| per entry, since |l_ij| ≤ 1 under partial pivoting).
+  let maxAbs = 0;
+  for (let k = 0; k < n * n; k++) { const v = Math.abs(a[k]!); if (v > maxAbs) maxAbs = v; }
+  const tiny = n * Number.EPSILON * maxAbs;
   let singular = false;
-  for (let i = 0; i < n; i++) if (lu[i * n + i] === 0) singular = true;
-  return { n, lu, piv, sign, singular };
+  for (let i = 0; i < n; i++) if (!(Math.abs(lu[i * n + i]!) > tiny)) singular = true;
+  return { n, lu, piv, sign: swaps % 2 === 0 ? 1 : -1, singular };
+}
+
+/** Factor columns [c0, c1) of rows [c0, n), all earlier updates applied. Returns the number of row swaps. */
+function factorColumns(lu: Float64Array, n: number, c0: number, c1: number, piv: Int32Array): number {
+  const w = c1 - c0;
+  if (w <= LEAF) return factorPanel(lu, n, c0, w, piv);
+  const mid = c0 + half(w);
+  let swaps = factorColumns(lu, n, c0, mid, piv);
+  solveUnitLower(lu, n, c0, mid, lu, n, mid, c1 - mid);
+  gemmSubtract(lu, mid * n + mid, n, lu, mid * n + c0, n, lu, c0 * n + mid, n, n - mid, c1 - mid, mid - c0);
+  swaps += factorColumns(lu, n, mid, c1, piv);
+  return swaps;
 }
 
 /**
@@ -145,74 +169,76 @@ export function luSolveTransposed(f: LU, c: Float64Array): Float64Array {
   return y;
 }
 
-/** Solve A·X = B for B of n rows and m columns (row-major); blocked forward and back substitution. */
+/**
+ * X ← L⁻¹X for rows [r0, r1) (L the unit lower triangle of the n×n factors, X the rows r0..r1 of x with leading
+ * dimension ldx, columns xc..xc+cols), recursively so the work is in large updates.
+ */
+function solveUnitLower(lu: Float64Array, n: number, r0: number, r1: number, x: Float64Array, ldx: number, xc: number, cols: number): void {
+  if (r1 - r0 <= LEAF) {
+    for (let i = r0 + 1; i < r1; i++) gemmSubtract(x, i * ldx + xc, ldx, lu, i * n + r0, n, x, r0 * ldx + xc, ldx, 1, cols, i - r0);
+    return;
+  }
+  const mid = r0 + half(r1 - r0);
+  solveUnitLower(lu, n, r0, mid, x, ldx, xc, cols);
+  gemmSubtract(x, mid * ldx + xc, ldx, lu, mid * n + r0, n, x, r0 * ldx + xc, ldx, r1 - mid, cols, mid - r0);
+  solveUnitLower(lu, n, mid, r1, x, ldx, xc, cols);
+}
+
+/** X ← U⁻¹X for rows [r0, r1) (U the upper triangle of the factors), bottom half first. */
+function solveUpper(lu: Float64Array, n: number, r0: number, r1: number, x: Float64Array, ldx: number, xc: number, cols: number): void {
+  if (r1 - r0 <= LEAF) {
+    for (let i = r1 - 1; i >= r0; i--) {
+      gemmSubtract(x, i * ldx + xc, ldx, lu, i * n + i + 1, n, x, (i + 1) * ldx + xc, ldx, 1, cols, r1 - i - 1);
+      const d = lu[i * n + i]!;
+      const row = i * ldx + xc;
+      for (let j = 0; j < cols; j++) x[row + j] = x[row + j]! / d;
+    }
+    return;
+  }
+  const mid = r0 + half(r1 - r0);
+  solveUpper(lu, n, mid, r1, x, ldx, xc, cols);
+  gemmSubtract(x, r0 * ldx + xc, ldx, lu, r0 * n + mid, n, x, mid * ldx + xc, ldx, mid - r0, cols, r1 - mid);
+  solveUpper(lu, n, r0, mid, x, ldx, xc, cols);
+}
+
+/** Solve A·X = B for B of n rows and m columns (row-major); recursive blocked forward and back substitution. */
 export function luSolveMany(f: LU, b: Float64Array, m: number): Float64Array {
   assertSolvable(f);
   const { n, piv } = f;
-  const x = new Float64Array(n * m);
-  for (let i = 0; i < n; i++) x.set(b.subarray(piv[i]! * m, piv[i]! * m + m), i * m);
-  forwardUnitLower(f, x, m);
-  backwardUpper(f, x, m);
-  return x;
-}
-
-/** X ← L⁻¹X in place (L unit lower, X n×m): each block row first takes the GEMM update from the rows above it. */
-function forwardUnitLower(f: LU, x: Float64Array, m: number): void {
-  const { n, lu } = f;
-  for (let i0 = 0; i0 < n; i0 += LU_BLOCK) {
-    const i1 = Math.min(n, i0 + LU_BLOCK);
-    gemmSubtract(x, i0 * m, m, lu, i0 * n, n, x, 0, m, i1 - i0, m, i0);
-    for (let i = i0 + 1; i < i1; i++) gemmSubtract(x, i * m, m, lu, i * n + i0, n, x, i0 * m, m, 1, m, i - i0);
-  }
-}
-
-/** X ← U⁻¹X in place (U upper, X n×m), block rows from the bottom. */
-function backwardUpper(f: LU, x: Float64Array, m: number): void {
-  const { n, lu } = f;
-  const top = Math.floor((n - 1) / LU_BLOCK) * LU_BLOCK;
-  for (let i0 = top; i0 >= 0; i0 -= LU_BLOCK) {
-    const i1 = Math.min(n, i0 + LU_BLOCK);
-    gemmSubtract(x, i0 * m, m, lu, i0 * n + i1, n, x, i1 * m, m, i1 - i0, m, n - i1);
-    for (let i = i1 - 1; i >= i0; i--) {
-      gemmSubtract(x, i * m, m, lu, i * n + i + 1, n, x, (i + 1) * m, m, 1, m, i1 - i - 1);
-      const d = lu[i * n + i]!;
-      const row = i * m;
-      for (let j = 0; j < m; j++) x[row + j] = x[row + j]! / d;
-    }
-  }
+  return withWorkspace([n * n, n * m], ([lu, x]) => {
+    lu!.set(f.lu);
+    for (let i = 0; i < n; i++) x!.set(b.subarray(piv[i]! * m, piv[i]! * m + m), i * m);
+    solveUnitLower(lu!, n, 0, n, x!, m, 0, m);
+    solveUpper(lu!, n, 0, n, x!, m, 0, m);
+    return x!.slice();
+  });
 }
 
 /**
  * Explicit inverse, A⁻¹ = U⁻¹·L⁻¹·P. Only for when the user asks to see or export the whole matrix.
- * L⁻¹ is built by blocked forward substitution that skips the zero upper triangle (n³/3 flops), then U⁻¹ is applied
- * by blocked back substitution (n³), then the columns are permuted: 4n³/3 flops after the factorisation, as LAPACK's
- * xGETRI, instead of 2n³ for solving against the identity.
+ * L⁻¹ is built block column by block column, each solve starting at its first non-zero row (≈ n³/3 flops), then U⁻¹
+ * is applied by recursive back substitution (n³) and the columns permuted: 4n³/3 flops after the factorisation, as
+ * LAPACK's xGETRI, instead of 2n³ for solving against the identity.
  */
 export function luInverse(f: LU): Float64Array {
   assertSolvable(f);
-  const { n, lu, piv } = f;
-  const w = new Float64Array(n * n);
-  // W = L⁻¹, lower triangular with unit diagonal.
-  for (let i0 = 0; i0 < n; i0 += LU_BLOCK) {
-    const i1 = Math.min(n, i0 + LU_BLOCK);
-    for (let i = i0; i < i1; i++) w[i * n + i] = 1;
-    // W[I, c0..c1) −= L[I, c0..i0)·W[c0..i0, c0..c1): W[p, c] is zero for p < c, so each column tile starts its
-    // sum at p = c0.
-    for (let c0 = 0; c0 < i0; c0 += LU_BLOCK) {
-      const c1 = Math.min(i0, c0 + LU_BLOCK);
-      gemmSubtract(w, i0 * n + c0, n, lu, i0 * n + c0, n, w, c0 * n + c0, n, i1 - i0, c1 - c0, i0 - c0);
+  const { n, piv } = f;
+  return withWorkspace([n * n, n * n], ([lu, w]) => {
+    lu!.set(f.lu);
+    for (let c0 = 0; c0 < n; c0 += INVERSE_BLOCK) {
+      const c1 = Math.min(n, c0 + INVERSE_BLOCK);
+      for (let i = c0; i < c1; i++) w![i * n + i] = 1;
+      solveUnitLower(lu!, n, c0, n, w!, n, c0, c1 - c0);
     }
-    for (let i = i0 + 1; i < i1; i++) gemmSubtract(w, i * n, n, lu, i * n + i0, n, w, i0 * n, n, 1, i, i - i0);
-  }
-  // X = U⁻¹W in place.
-  backwardUpper(f, w, n);
-  // A⁻¹ = X·P: column piv[i] of the inverse is column i of X.
-  const out = new Float64Array(n * n);
-  for (let r = 0; r < n; r++) {
-    const row = r * n;
-    for (let i = 0; i < n; i++) out[row + piv[i]!] = w[row + i]!;
-  }
-  return out;
+    solveUpper(lu!, n, 0, n, w!, n, 0, n);
+    // A⁻¹ = X·P: column piv[i] of the inverse is column i of X.
+    const out = new Float64Array(n * n);
+    for (let r = 0; r < n; r++) {
+      const row = r * n;
+      for (let i = 0; i < n; i++) out[row + piv[i]!] = w![row + i]!;
+    }
+    return out;
+  });
 }
 
 export function luDeterminant(f: LU): number {

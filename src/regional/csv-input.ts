@@ -53,10 +53,11 @@ export function parseNumberCell(cell: string): number | null {
   return Number.isFinite(v) ? v : null;
 }
 
-/** True when the first row looks like a header (its numeric cells are not numbers). */
+/**
+ * True when the first row looks like a header: none of the cells where numbers belong is a number. A data row with
+ * one bad number among good ones is therefore kept as data, and refused at its own line.
+ */
 export function isHeaderRow(row: CsvRow, numericColumns: number[]): boolean {
-  return numericColumns.some((k) => {
-    const c = row.cells[k];
-    return c !== undefined && c !== '' && parseNumberCell(c) === null;
-  });
+  const cells = numericColumns.map((k) => row.cells[k] ?? '').filter((c) => c !== '');
+  return cells.length > 0 && cells.every((c) => parseNumberCell(c) === null);
 }

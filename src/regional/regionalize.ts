@@ -62,8 +62,9 @@ function uniqueLabel(wanted: string, taken: Set<string>): string {
   return label;
 }
 
-function scaleColumns(v: LabelledVector, s: Float64Array): LabelledVector {
-  return { label: v.label, values: v.values.map((x, j) => x * s[j]!) };
+/** v_j · E_j^R / E_j^N (multiplied before dividing, so a row equal to the national jobs gives the county jobs exactly). */
+function scaleColumns(v: LabelledVector, er: Float64Array, en: Float64Array): LabelledVector {
+  return { label: v.label, values: v.values.map((x, j) => (en[j]! > 0 ? (x * er[j]!) / en[j]! : 0)) };
 }
 
 /** Checks the inputs and returns county and national jobs in table order. */
@@ -130,9 +131,8 @@ export function regionalize(national: IOTable, emp: EmploymentInput, opts: Regio
   const R = regionalCoefficients(A, quotientMatrix(opts.method, slq, lambda ?? 1));
   const absent = sectors.filter((_, i) => !(er[i]! > 0));
 
-  // s_j = E_j^R / E_j^N: county output and every per-output row scale by it (national output per job, coefficients kept)
-  const s = Float64Array.from(en, (v, j) => (v > 0 ? er[j]! / v : 0));
-  const x = Float64Array.from(national.x, (v, j) => v * s[j]!);
+  // county output and every per-output row scale by E_j^R / E_j^N (national output per job, coefficients kept)
+  const x = scaleColumns({ label: '', values: national.x }, er, en).values;
   const Z = new Float64Array(n * n);
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) Z[i * n + j] = R[i * n + j]! * x[j]!;
   const leakage = new Float64Array(n);
@@ -144,11 +144,11 @@ export function regionalize(national: IOTable, emp: EmploymentInput, opts: Regio
   const leakageValue = Float64Array.from(leakage, (m, j) => m * x[j]!);
 
   const rowLabels = new Set<string>([...sectors, ...[...national.labourIncome, ...national.otherValueAdded, ...national.imports].map((v) => v.label)]);
-  const labourIncome = national.labourIncome.map((v) => scaleColumns(v, s));
-  const otherValueAdded = national.otherValueAdded.map((v) => scaleColumns(v, s));
+  const labourIncome = national.labourIncome.map((v) => scaleColumns(v, er, en));
+  const otherValueAdded = national.otherValueAdded.map((v) => scaleColumns(v, er, en));
   const importLabel = uniqueLabel(REGIONAL_IMPORT_LABEL, rowLabels);
-  const imports = [...national.imports.map((v) => scaleColumns(v, s)), { label: importLabel, values: leakageValue }];
-  const employment = national.employment ? national.employment.map((v, j) => v * s[j]!) : Float64Array.from(er);
+  const imports = [...national.imports.map((v) => scaleColumns(v, er, en)), { label: importLabel, values: leakageValue }];
+  const employment = national.employment ? scaleColumns({ label: '', values: national.employment }, er, en).values : Float64Array.from(er);
 
   // households: consumption per unit of household income, c_i / x_h, regionalized with min(SLQ_i, 1)
   let incomeN = 0;
@@ -172,7 +172,7 @@ export function regionalize(national: IOTable, emp: EmploymentInput, opts: Regio
     if (rest[i]! < -1e-9 * Math.max(x[i]!, 1)) {
       warnings.push({
         code: 'regional-negative-final-demand',
-        message: `local intermediate and household use of '${sectors[i]}' exceeds its estimated county output; exports and other final demand come out negative (${rest[i]}). Consider CILQ/FLQ or balancing to known county totals (RAS)`,
+        message: `local intermediate and household use exceeds the estimated county output; exports and other final demand come out negative (${Number(rest[i]!.toPrecision(6))} ${national.moneyUnit}). Consider CILQ or FLQ, or balancing to known county totals (RAS)`,
         location: { rowLabel: sectors[i]!, columnLabel: fdLabel },
       });
     }

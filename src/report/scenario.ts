@@ -9,6 +9,7 @@ import type { PathAnalysis } from '../scenario/paths.ts';
 import type { RoundsResult } from '../scenario/rounds.ts';
 import type { ScenarioComparison } from '../scenario/compare.ts';
 import type { EffectSplit, ScenarioResult, Variable } from '../scenario/types.ts';
+import type { ScenarioAnalysis } from '../scenario/analysis.ts';
 
 /** Cautions that belong to demand-shock scenarios in particular, added to the general ones of cautions.ts. */
 export const SCENARIO_CAUTIONS: readonly string[] = [
@@ -217,4 +218,14 @@ export function comparisonRows(c: ScenarioComparison, moneyUnit: string): Cell[]
 export function comparisonReport(c: ScenarioComparison, moneyUnit: string, ctx: ScenarioReportContext, base = 'scenario-comparison'): ReportFile[] {
   const notes = [`Scenarios compared: ${c.scenarios.join(', ')}; differences are from '${c.scenarios[0]}'.`];
   return reportFiles(base, meta(ctx, 'Scenario comparison', 'as in each scenario', moneyUnit, notes), comparisonRows(c, moneyUnit));
+}
+
+/** Every report of one scenario analysis: impact, rounds (two files), implied multipliers and, when present, paths. */
+export function scenarioReports(a: ScenarioAnalysis, ctx: ScenarioReportContext): ReportFile[] {
+  return [
+    ...impactReport(a.result, ctx),
+    ...roundsReport(a.result, a.rounds, ctx),
+    ...scenarioMultiplierReport(a.result, ctx),
+    ...(a.paths ? pathReport(a.result, a.paths, ctx) : []),
+  ];
 }

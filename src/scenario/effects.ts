@@ -20,6 +20,11 @@ function minus(a: Float64Array, b: Float64Array): Float64Array {
   return out;
 }
 
+/** For notes only (reports carry full precision): at most 2 decimals. */
+function shortNumber(v: number): string {
+  return String(Math.round(v * 100) / 100);
+}
+
 export function sum(v: Float64Array): number {
   let s = 0;
   for (let i = 0; i < v.length; i++) s += v[i]!;
@@ -86,7 +91,7 @@ export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResu
   if (!e) notes.push('The table has no employment row: employment effects are not available.');
   for (let r = 0; r < shock.fixed.length; r++) {
     const j = shock.fixed[r]!;
-    notes.push(`Output of '${sectors[j]}' is fixed from outside at ${shock.fixedOutput[r]} (mixed exogenous/endogenous model); the other sectors respond to its purchases.`);
+    notes.push(`Output of '${sectors[j]}' is fixed from outside at ${shortNumber(shock.fixedOutput[r]!)} ${pm.table.moneyUnit} (mixed exogenous/endogenous model); the other sectors respond to its purchases.`);
   }
   return {
     scenario: scenario.name,

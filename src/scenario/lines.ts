@@ -69,7 +69,10 @@ export function resolveShock(pm: PreparedModel, scenario: Scenario): ResolvedSho
   for (const line of scenario.lines) {
     const j = index.get(line.sector);
     if (j === undefined) {
-      throw new InputError('unknown-sector', `unknown sector '${line.sector}' (the table has: ${sectors.slice(0, 8).join(', ')}${sectors.length > 8 ? ', …' : ''})`, where(line, line.sector));
+      const key = line.sector.trim().toLowerCase();
+      const near = sectors.find((s) => s.trim().toLowerCase() === key);
+      const hint = near !== undefined ? `did you mean '${near}'?` : `the table has: ${sectors.slice(0, 8).join(', ')}${sectors.length > 8 ? ', …' : ''}`;
+      throw new InputError('unknown-sector', `unknown sector '${line.sector}' (${hint})`, where(line, line.sector));
     }
     if (!Number.isFinite(line.amount)) {
       throw new InputError('bad-amount', `amount of '${line.sector}' is not a finite number`, where(line, line.sector));

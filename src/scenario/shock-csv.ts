@@ -4,6 +4,8 @@
  */
 import Papa from 'papaparse';
 import { InputError } from '../diagnostics/errors.ts';
+import { recordStartLines } from '../table/grid.ts';
+import { checkNotBinary } from '../table/text.ts';
 import { LINE_KINDS, type LineKind, type Scenario, type ScenarioLine } from './types.ts';
 
 const COLUMNS = ['sector', 'amount', 'kind', 'local_share', 'note'] as const;
@@ -21,8 +23,13 @@ function parseNumber(text: string, file: string, line: number, column: number, w
 }
 
 export function parseShockCsv(text: string, fileName: string, scenarioName?: string): Scenario {
-  const parsed = Papa.parse<string[]>(text.replace(/^\uFEFF/, ''), { header: false, skipEmptyLines: false });
+  const body = text.replace(/^\uFEFF/, '');
+  checkNotBinary(body, fileName);
+  const parsed = Papa.parse<string[]>(body, { header: false, skipEmptyLines: false });
   const rows = parsed.data;
+  // File line of each record: a quoted note may span lines, so record r does not always start on line r + 1.
+  const starts = recordStartLines(body);
+  const lineOf = (r: number): number => starts[r] ?? r + 1;
   const headerIdx = rows.findIndex((r) => r.some((c) => c.trim() !== ''));
   if (headerIdx < 0) throw new InputError('empty-scenario', 'the shock file is empty', { file: fileName });
   const header = rows[headerIdx]!.map((c) => c.trim().toLowerCase());
@@ -30,23 +37,23 @@ export function parseShockCsv(text: string, fileName: string, scenarioName?: str
   header.forEach((h, k) => {
     if (h === '') return;
     if (!(COLUMNS as readonly string[]).includes(h)) {
-      throw new InputError('bad-header', `unknown column '${rows[headerIdx]![k]}'; expected sector, amount and optionally kind, local_share, note`, { file: fileName, line: headerIdx + 1, column: k + 1 });
+      throw new InputError('bad-header', `unknown column '${rows[headerIdx]![k]}'; expected sector, amount and optionally kind, local_share, note`, { file: fileName, line: lineOf(headerIdx), column: k + 1 });
     }
     if (pos[h as Column] !== undefined) {
-      throw new InputError('bad-header', `column '${h}' appears twice`, { file: fileName, line: headerIdx + 1, column: k + 1 });
+      throw new InputError('bad-header', `column '${h}' appears twice`, { file: fileName, line: lineOf(headerIdx), column: k + 1 });
     }
     pos[h as Column] = k;
   });
   for (const required of ['sector', 'amount'] as const) {
     if (pos[required] === undefined) {
-      throw new InputError('bad-header', `the header needs a '${required}' column (sector,amount[,kind][,local_share][,note])`, { file: fileName, line: headerIdx + 1 });
+      throw new InputError('bad-header', `the header needs a '${required}' column (sector,amount[,kind][,local_share][,note])`, { file: fileName, line: lineOf(headerIdx) });
     }
   }
   const lines: ScenarioLine[] = [];
   for (let r = headerIdx + 1; r < rows.length; r++) {
     const row = rows[r]!;
     if (row.every((c) => c.trim() === '')) continue;
-    const line = r + 1; // papaparse rows map to file lines unless a quoted field spans lines
+    const line = lineOf(r);
     const cell = (c: Column): string => (pos[c] !== undefined ? (row[pos[c]] ?? '') : '');
     const sector = cell('sector').trim();
     if (sector === '') throw new InputError('missing-sector', 'sector is empty', { file: fileName, line, column: pos.sector + 1 });
@@ -64,6 +71,6 @@ export function parseShockCsv(text: string, fileName: string, scenarioName?: str
     const note = cell('note').trim();
     lines.push({ sector, amount, kind, localShare, ...(note ? { note } : {}), origin: { file: fileName, line } });
   }
-  if (lines.length === 0) throw new InputError('empty-scenario', 'the shock file has a header but no lines', { file: fileName, line: headerIdx + 1 });
+  if (lines.length === 0) throw new InputError('empty-scenario', 'the shock file has a header but no lines', { file: fileName, line: lineOf(headerIdx) });
   return { name: scenarioName ?? fileName.replace(/^.*[\\/]/, '').replace(/\.[^.]*$/, ''), lines };
 }

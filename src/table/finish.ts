@@ -63,6 +63,8 @@ export function looksLikeCoefficients(raw: RawTable): boolean {
     if (col > 1) return false;
     zSum += col;
   }
+  // An all-zero block is no evidence either way; read it as flows (as coefficients it would rescale the value-added rows).
+  if (zSum === 0) return false;
   let xSum = 0;
   for (let i = 0; i < n; i++) xSum += total.values[i]!;
   // In a flow table intermediate flows are a large share of output (typically 30–65 %); 1 % would be implausible.
@@ -130,8 +132,13 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
   const purchases0 = Float64Array.from(zCol);
   for (const r of vaRows) for (let j = 0; j < n0; j++) purchases0[j] = purchases0[j]! + r.values[j]!;
   for (let i = 0; i < n0; i++) {
-    if (!Number.isFinite(sales0[i]!)) throw new InputError('overflow', 'the row sum overflows (numbers too large to add up)', { file, rowLabel: raw.sectors[i]! });
-    if (!Number.isFinite(purchases0[i]!)) throw new InputError('overflow', 'the column sum overflows (numbers too large to add up)', { file, columnLabel: raw.sectors[i]! });
+    if (!Number.isFinite(sales0[i]!)) {
+      const at = raw.flowAt(i, 0);
+      throw new InputError('overflow', 'the row sum overflows (numbers too large to add up)', { file, ...(at.line !== undefined ? { line: at.line } : {}), rowLabel: raw.sectors[i]! });
+    }
+    if (!Number.isFinite(purchases0[i]!)) {
+      throw new InputError('overflow', 'the column sum overflows (numbers too large to add up)', { file, columnLabel: raw.sectors[i]! });
+    }
   }
 
   let x0: Float64Array;
@@ -205,7 +212,7 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
     worst.push(...top);
     const list = top.map((e) => `'${e.sector}' ${pct(e.gap)}`).join(', ');
     const loc: Location = kind === 'row' ? { file, rowLabel: top[0]!.sector } : { file, columnLabel: top[0]!.sector };
-    warnings.push({ code, message: `${what} beyond ${pct(tol).replace('+', '')} in ${bad.length} sector${bad.length > 1 ? 's' : ''}; worst: ${list}`, location: loc });
+    warnings.push({ code, message: `${what} beyond ${Number((tol * 100).toPrecision(3))} % in ${bad.length} sector${bad.length > 1 ? 's' : ''}; worst: ${list}`, location: loc });
   };
   describe(rowGap, 'row', 'row-total-mismatch', 'sales (intermediate flows plus final demand) differ from total output');
   describe(columnGap, 'column', 'column-total-mismatch', `purchases (intermediate inputs, value added and imports) differ from ${stated ? 'total input' : 'total output'}`);

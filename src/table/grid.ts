@@ -31,6 +31,8 @@ export interface Grid {
 /** Quote-free text: offsets only. */
 class OffsetGrid implements Grid {
   private readonly text: string;
+  /** True when the text mixes lone CR with LF line ends (the grid is then incomplete). */
+  mixed = false;
   /** Per record, field boundaries: field c is text[b[c], b[c+1]-1) (the −1 skips the delimiter; the last one is adjusted). */
   private readonly bounds: Int32Array[];
   constructor(text: string, delimiter: Delimiter) {
@@ -41,11 +43,18 @@ class OffsetGrid implements Grid {
     let start = 0;
     const scratch: number[] = [];
     let next = text.indexOf(delimiter);
-    while (start < len || (start === len && bounds.length === 0)) {
+    let nextCR = lineEnd === 10 ? text.indexOf('\r') : -1;
+    while (start < len) {
       let end = text.indexOf(lineEnd === 10 ? '\n' : '\r', start);
       if (end < 0) end = len;
       let stop = end;
       if (lineEnd === 10 && stop > start && text.charCodeAt(stop - 1) === 13) stop--;
+      if (nextCR >= 0 && nextCR < start) nextCR = text.indexOf('\r', start);
+      if (nextCR >= 0 && nextCR < stop) {
+        // A lone CR line end in a file that also has LF: the caller normalises the line ends and tries again.
+        this.mixed = true;
+        break;
+      }
       scratch.length = 0;
       scratch.push(start);
       // indexOf is the engine's native search, several times faster than a charCodeAt loop on long lines.
@@ -136,9 +145,27 @@ export function recordStartLines(text: string): number[] {
   return starts;
 }
 
-export function buildGrid(text: string, delimiter: Delimiter, fileName: string, forcePapa = false): Grid {
-  if (!forcePapa && text.indexOf('"') < 0) return new OffsetGrid(text, delimiter);
-  const res = Papa.parse<string[]>(text, { delimiter, quoteChar: '"', escapeChar: '"', skipEmptyLines: false, header: false, dynamicTyping: false });
+export function buildGrid(source: string, delimiter: Delimiter, fileName: string, forcePapa = false): Grid {
+  if (!forcePapa && source.indexOf('"') < 0) {
+    const fast = new OffsetGrid(source, delimiter);
+    if (!fast.mixed) return fast;
+    return new OffsetGrid(source.replace(/\r\n?/g, '\n'), delimiter);
+  }
+  // papaparse expects one kind of line end, told here rather than guessed. CRLF files from spreadsheets carry LF
+  // inside quoted cells, so LF beside CRLF is left alone unless it breaks the quotes; a lone CR beside other line
+  // ends (text edited in several programs) is made LF first. Normalising keeps the count of lines, so locations hold.
+  const ends = countLineEnds(source);
+  let text = source;
+  let newline: '\r\n' | '\n' | '\r' = ends.crlf > 0 ? '\r\n' : ends.cr > 0 ? '\r' : '\n';
+  if (ends.cr > 0 && ends.crlf + ends.lf > 0) {
+    text = source.replace(/\r\n?/g, '\n');
+    newline = '\n';
+  }
+  let res = papa(text, delimiter, newline);
+  if (newline === '\r\n' && ends.lf > 0 && res.errors.some((e) => e.type === 'Quotes')) {
+    text = source.replace(/\r\n?/g, '\n');
+    res = papa(text, delimiter, '\n');
+  }
   // A final line break yields one empty record at the end; drop it so both grids agree.
   const rows = res.data;
   const last = rows[rows.length - 1];
@@ -150,4 +177,20 @@ export function buildGrid(text: string, delimiter: Delimiter, fileName: string, 
     throw new InputError('bad-quotes', 'a quoted cell is not closed or a quote is misplaced (RFC 4180 §2)', { file: fileName, line: grid.line(r) });
   }
   return grid;
+}
+
+function papa(text: string, delimiter: Delimiter, newline: '\r\n' | '\n' | '\r'): Papa.ParseResult<string[]> {
+  return Papa.parse<string[]>(text, { delimiter, newline, quoteChar: '"', escapeChar: '"', skipEmptyLines: false, header: false, dynamicTyping: false });
+}
+
+function countLineEnds(text: string): { crlf: number; lf: number; cr: number } {
+  let crlf = 0;
+  let lf = 0;
+  let cr = 0;
+  for (let i = text.indexOf('\r'); i >= 0; i = text.indexOf('\r', i + 1)) {
+    if (text.charCodeAt(i + 1) === 10) crlf++;
+    else cr++;
+  }
+  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) lf++;
+  return { crlf, lf: lf - crlf, cr };
 }

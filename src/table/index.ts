@@ -69,14 +69,22 @@ function run(text: string, opts: ImportOptions, p: Progress): IOTable {
   const rows = contentRows(grid);
   if (rows.length === 0) throw new InputError('empty', 'the file has no cells', { file });
   if (rows.length === 1) throw new InputError('header-only', 'the file has a header but no rows of numbers', { file, line: grid.line(rows[0]!) });
-  const read: ReadOptions = { fileName: file, decimalMark, allowNegative: opts.allowNegative ?? false, ...(opts.roles ? { roles: opts.roles } : {}) };
   const isLong = opts.layout === 'long' || (opts.layout === undefined && longHeader(grid, rows[0]!) !== null);
+  p.layout = isLong ? 'long' : (opts.layout ?? 'matrix');
+  const read: ReadOptions = {
+    fileName: file,
+    decimalMark,
+    allowNegative: opts.allowNegative ?? false,
+    ...(opts.roles ? { roles: opts.roles } : {}),
+    onStructure: (c) => {
+      p.sectors = c.sectors;
+      p.rows = c.rows;
+      p.columns = c.columns;
+    },
+  };
   const raw = isLong ? readLong(grid, rows, read) : readMatrix(grid, rows, read, opts.layout === 'coefficients' ? 'coefficients' : 'matrix');
   if (opts.layout === undefined && raw.layout === 'matrix' && looksLikeCoefficients(raw)) raw.layout = 'coefficients';
   p.layout = raw.layout;
-  p.sectors = raw.sectors;
-  p.rows = raw.classified.rows;
-  p.columns = raw.classified.columns;
   if (raw.layout === 'coefficients') scaleCoefficients(raw);
   const table = finishTable(
     raw,

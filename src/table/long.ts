@@ -75,6 +75,7 @@ export function readLong(grid: Grid, rowsInFile: number[], opts: ReadOptions): R
     opts.roles,
     fileName,
   );
+  opts.onStructure?.(cl);
   const n = cl.sectors.length;
   if (n === 0) throw new InputError('no-sectors', "no 'from' label matches a 'to' label, so there is no inter-industry block", { file: fileName, line: grid.line(hr) });
   const sectors = cl.sectors;

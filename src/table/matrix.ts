@@ -5,7 +5,7 @@
 import { InputError, type Location } from '../diagnostics/errors.ts';
 import type { Grid } from './grid.ts';
 import { parseNumberText, showNumber, type DecimalMark } from './numbers.ts';
-import { classify, cleanLabel, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';
+import { classify, cleanLabel, type Classified, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';
 import type { RoleMap } from './types.ts';
 
 export interface ReadOptions {
@@ -13,6 +13,8 @@ export interface ReadOptions {
   decimalMark: DecimalMark;
   roles?: Partial<RoleMap>;
   allowNegative: boolean;
+  /** Told the labels and roles as soon as they are known, before any number is read (for the preview). */
+  onStructure?: (c: Classified) => void;
 }
 
 /** Non-blank records, in order. */
@@ -33,7 +35,7 @@ export function headerWidth(grid: Grid, r: number): number {
 export function checkWidth(grid: Grid, r: number, width: number, fileName: string, rowLabel?: string): void {
   const w = grid.width(r);
   if (w < width) {
-    throw new InputError('ragged-row', `row has ${w} field${w === 1 ? '' : 's'}, the header has ${width}`, { file: fileName, line: grid.line(r), column: w, ...(rowLabel !== undefined ? { rowLabel } : {}) });
+    throw new InputError('ragged-row', `row has ${w} field${w === 1 ? '' : 's'}, the header has ${width}`, { file: fileName, line: grid.line(r), column: w + 1, ...(rowLabel !== undefined ? { rowLabel } : {}) });
   }
   for (let c = width; c < w; c++) {
     if (grid.cell(r, c).trim() !== '') {
@@ -106,6 +108,7 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
     opts.roles,
     fileName,
   );
+  opts.onStructure?.(cl);
   const n = cl.sectors.length;
   if (n === 0) {
     throw new InputError('no-sectors', 'no row label matches a column label, so there is no inter-industry block (sector rows and columns need the same labels)', { file: fileName, line: grid.line(hr) });

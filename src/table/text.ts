@@ -23,19 +23,6 @@ export function stripBom(text: string): string {
   return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
 }
 
-/** Line and column (1-based, in characters) of a character offset. */
-export function lineColumnAt(text: string, offset: number): { line: number; column: number } {
-  let line = 1;
-  let lineStart = 0;
-  for (let i = 0; i < offset && i < text.length; i++) {
-    if (text.charCodeAt(i) === 10) {
-      line++;
-      lineStart = i + 1;
-    }
-  }
-  return { line, column: offset - lineStart + 1 };
-}
-
 const SAMPLE = 64 * 1024;
 
 /**
@@ -43,8 +30,13 @@ const SAMPLE = 64 * 1024;
  * or U+FFFD replacement characters (bytes that were not UTF-8) among the first 64 Ki characters.
  */
 export function checkNotBinary(text: string, fileName: string): void {
+  // UTF-16 ("Unicode text" exports) read as UTF-8: the byte-order mark FF FE or FE FF becomes two U+FFFD, and every
+  // ASCII character comes with a NUL beside it. Say so rather than call the file binary.
+  if (/^(\ufffd\ufffd)?(?:(?:[^\u0000]\u0000){4}|(?:\u0000[^\u0000]){4})/.test(text)) {
+    throw new InputError('utf16', 'the file is UTF-16 text; save it as UTF-8 (in a spreadsheet: "CSV UTF-8")', { file: fileName });
+  }
   const nul = text.indexOf('\u0000');
-  if (nul >= 0) throw new InputError('binary', 'the file holds binary data (NUL bytes), not CSV text', { file: fileName, ...lineColumnAt(text, nul) });
+  if (nul >= 0) throw new InputError('binary', 'the file holds binary data (NUL bytes), not CSV text', { file: fileName });
   const n = Math.min(text.length, SAMPLE);
   let odd = 0;
   for (let i = 0; i < n; i++) {

@@ -8,15 +8,21 @@
  *   Total input:  column sums of the money rows, final-demand column sums, grand total
  *
  * Numbers are written in the shortest form that reads back to the same double (ECMAScript Number::toString),
- * text cells through src/report/csv.ts (RFC 4180 quoting, CSV-injection escaping, which the importer undoes).
+ * text cells through src/report/csv.ts (RFC 4180 quoting, CSV-injection escaping, which the importer undoes); a text
+ * cell holding ';' or a tab is quoted as well, so that delimiter detection on the header line cannot be misled.
  * The totals row is derived, written to 15 significant digits so that a table balanced in decimal shows exact totals.
  */
-import { toCsv, type Cell } from '../report/csv.ts';
+import { formatCell, type Cell } from '../report/csv.ts';
 import type { IOTable, RoleMap } from './types.ts';
 
 const TOTAL_OUTPUT = 'Total output';
 const TOTAL_INPUT = 'Total input';
 const EMPLOYMENT = 'Employment (jobs)';
+
+function cell(c: Cell): string {
+  const s = formatCell(c);
+  return typeof c === 'string' && !s.startsWith('"') && /[;\t]/.test(s) ? `"${s}"` : s;
+}
 
 function derived(v: number): number {
   return Number(v.toPrecision(15));
@@ -85,5 +91,5 @@ export function writeTableCsv(t: IOTable): string {
   for (const v of fd) totals.push(derived(v.values.reduce((a, b) => a + b, 0)));
   totals.push(derived(x.reduce((a, b) => a + b, 0)));
   out.push(totals);
-  return toCsv(out);
+  return out.map((r) => r.map(cell).join(',')).join('\r\n') + '\r\n';
 }

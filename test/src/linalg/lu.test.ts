@@ -1,6 +1,6 @@
 // Blocked LU and solves against the unblocked reference (lu-reference.ts), mathjs and ml-matrix (general-purpose
 // libraries from the registry) on seeded random matrices, including sizes that are not multiples of the block size.
-import { describe, it, expect } from 'vitest';
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { inv, det, matrix, multiply } from 'mathjs';
 import { Matrix, LuDecomposition, inverse as mlInverse } from 'ml-matrix';
 import {
@@ -10,6 +10,7 @@ import {
 import {
   luFactorReference, luInverseReference, luSolveManyReference, luSolveReference, luSolveTransposedReference,
 } from '../../../src/linalg/lu-reference.ts';
+import { setKernelMode, type KernelMode } from '../../../src/linalg/gemm.ts';
 
 function seeded(seed: number): () => number {
   let s = seed >>> 0;
@@ -41,104 +42,114 @@ function relDiff(ours: ArrayLike<number>, ref: ArrayLike<number>): number {
 
 const SIZES = [1, 2, 3, 8, 25, LU_BLOCK - 1, LU_BLOCK, LU_BLOCK + 1, 2 * LU_BLOCK + 7, 200];
 
-describe('blocked LU against the unblocked reference', () => {
-  for (const n of SIZES) {
-    it(`same pivots, factors, solves and inverse at n=${n}`, () => {
-      const a = randomMatrix(n, n, 500 + n); // plain random (no dominance): pivoting matters
-      const f = luFactor(a, n);
-      const g = luFactorReference(a, n);
-      expect(Array.from(f.piv)).toEqual(Array.from(g.piv));
-      expect(f.sign).toBe(g.sign);
-      expect(f.singular).toBe(false);
-      expect(relDiff(f.lu, g.lu)).toBeLessThan(1e-11);
-      const b = Float64Array.from({ length: n }, (_, i) => Math.cos(i + 1));
-      expect(relDiff(luSolve(f, b), luSolveReference(g, b))).toBeLessThan(1e-10);
-      expect(relDiff(luSolveTransposed(f, b), luSolveTransposedReference(g, b))).toBeLessThan(1e-10);
-      const m = 5;
-      const bm = randomMatrix(n, m, 77 + n);
-      expect(relDiff(luSolveMany(f, bm, m), luSolveManyReference(g, bm, m))).toBeLessThan(1e-10);
-      const x = luInverse(f);
-      expect(relDiff(x, luInverseReference(g))).toBeLessThan(1e-10);
-      expect(scaledResidual(a, x, n)).toBeLessThan(RESIDUAL_THRESHOLD);
+// Every test runs twice: with the Wasm SIMD kernel (the default where the engine has it) and the JavaScript one.
+for (const mode of ['auto', 'js'] as KernelMode[]) {
+describe(`kernel mode ${mode}`, () => {
+  beforeAll(() => setKernelMode(mode));
+  afterAll(() => setKernelMode('auto'));
+  describe('blocked LU against the unblocked reference', () => {
+    for (const n of SIZES) {
+      it(`same pivots, factors, solves and inverse at n=${n}`, () => {
+        const a = randomMatrix(n, n, 500 + n); // plain random (no dominance): pivoting matters
+        const f = luFactor(a, n);
+        const g = luFactorReference(a, n);
+        expect(Array.from(f.piv)).toEqual(Array.from(g.piv));
+        expect(f.sign).toBe(g.sign);
+        expect(f.singular).toBe(false);
+        expect(relDiff(f.lu, g.lu)).toBeLessThan(1e-11);
+        const b = Float64Array.from({ length: n }, (_, i) => Math.cos(i + 1));
+        expect(relDiff(luSolve(f, b), luSolveReference(g, b))).toBeLessThan(1e-10);
+        expect(relDiff(luSolveTransposed(f, b), luSolveTransposedReference(g, b))).toBeLessThan(1e-10);
+        const m = 5;
+        const bm = randomMatrix(n, m, 77 + n);
+        expect(relDiff(luSolveMany(f, bm, m), luSolveManyReference(g, bm, m))).toBeLessThan(1e-10);
+        const x = luInverse(f);
+        expect(relDiff(x, luInverseReference(g))).toBeLessThan(1e-10);
+        expect(scaledResidual(a, x, n)).toBeLessThan(RESIDUAL_THRESHOLD);
+      });
+    }
+    it('does not modify its input', () => {
+      const a = randomMatrix(70, 70, 3);
+      const copy = Float64Array.from(a);
+      luFactor(a, 70);
+      expect(Array.from(a)).toEqual(Array.from(copy));
     });
-  }
-  it('does not modify its input', () => {
-    const a = randomMatrix(70, 70, 3);
-    const copy = Float64Array.from(a);
-    luFactor(a, 70);
-    expect(Array.from(a)).toEqual(Array.from(copy));
   });
-});
 
-describe('LU against mathjs and ml-matrix', () => {
-  for (const n of [1, 3, 8, 25, 67, 130]) {
-    it(`inverse and determinant agree with mathjs at n=${n}`, () => {
-      const a = randomMatrix(n, n, 1000 + n, n / 4);
+  describe('LU against mathjs and ml-matrix', () => {
+    for (const n of [1, 3, 8, 25, 67, 130]) {
+      it(`inverse and determinant agree with mathjs at n=${n}`, () => {
+        const a = randomMatrix(n, n, 1000 + n, n / 4);
+        const f = luFactor(a, n);
+        const ref = (inv(matrix(toRows(a, n))).toArray() as number[][]).flat();
+        expect(relDiff(luInverse(f), ref)).toBeLessThan(1e-12);
+        // Determinant of the matrix scaled to unit diagonal dominance, so it stays far from overflow at every n.
+        const s = new Float64Array(n * n).map((_, k) => a[k]! / (1 + n / 4));
+        const d = det(matrix(toRows(s, n))) as number;
+        expect(Math.abs(luDeterminant(luFactor(s, n)) - d) / Math.abs(d)).toBeLessThan(1e-9);
+      });
+    }
+    for (const n of [5, 64, 150]) {
+      it(`factors, inverse and solve agree with ml-matrix at n=${n}`, () => {
+        const a = randomMatrix(n, n, 2000 + n);
+        const ml = new LuDecomposition(new Matrix(toRows(a, n)));
+        const f = luFactor(a, n);
+        // ml-matrix stores LAPACK-style P·A = L·U with the same partial pivoting rule (largest magnitude, first wins).
+        expect(Array.from(f.piv)).toEqual(ml.pivotPermutationVector);
+        const mlU = ml.upperTriangularMatrix.to1DArray();
+        const ours = new Float64Array(n * n);
+        for (let i = 0; i < n; i++) for (let j = i; j < n; j++) ours[i * n + j] = f.lu[i * n + j]!;
+        expect(relDiff(ours, mlU)).toBeLessThan(1e-10);
+        expect(relDiff(luInverse(f), mlInverse(new Matrix(toRows(a, n))).to1DArray())).toBeLessThan(1e-9);
+        const b = Float64Array.from({ length: n }, (_, i) => i % 7 - 3);
+        expect(relDiff(luSolve(f, b), ml.solve(Matrix.columnVector(Array.from(b))).to1DArray())).toBeLessThan(1e-10);
+      });
+    }
+    it('solve and transposed solve reproduce the right-hand side', () => {
+      const n = 140;
+      const a = randomMatrix(n, n, 7);
       const f = luFactor(a, n);
-      const ref = (inv(matrix(toRows(a, n))).toArray() as number[][]).flat();
-      expect(relDiff(luInverse(f), ref)).toBeLessThan(1e-12);
-      // Determinant of the matrix scaled to unit diagonal dominance, so it stays far from overflow at every n.
-      const s = new Float64Array(n * n).map((_, k) => a[k]! / (1 + n / 4));
-      const d = det(matrix(toRows(s, n))) as number;
-      expect(Math.abs(luDeterminant(luFactor(s, n)) - d) / Math.abs(d)).toBeLessThan(1e-9);
+      const b = Float64Array.from({ length: n }, (_, i) => i - 3);
+      const back = matVec(a, n, n, luSolve(f, b));
+      const backT = vecMat(luSolveTransposed(f, b), a, n, n);
+      expect(relDiff(back, b)).toBeLessThan(1e-11);
+      expect(relDiff(backT, b)).toBeLessThan(1e-11);
     });
-  }
-  for (const n of [5, 64, 150]) {
-    it(`factors, inverse and solve agree with ml-matrix at n=${n}`, () => {
-      const a = randomMatrix(n, n, 2000 + n);
-      const ml = new LuDecomposition(new Matrix(toRows(a, n)));
-      const f = luFactor(a, n);
-      // ml-matrix stores LAPACK-style P·A = L·U with the same partial pivoting rule (largest magnitude, first wins).
-      expect(Array.from(f.piv)).toEqual(ml.pivotPermutationVector);
-      const mlU = ml.upperTriangularMatrix.to1DArray();
-      const ours = new Float64Array(n * n);
-      for (let i = 0; i < n; i++) for (let j = i; j < n; j++) ours[i * n + j] = f.lu[i * n + j]!;
-      expect(relDiff(ours, mlU)).toBeLessThan(1e-10);
-      expect(relDiff(luInverse(f), mlInverse(new Matrix(toRows(a, n))).to1DArray())).toBeLessThan(1e-9);
-      const b = Float64Array.from({ length: n }, (_, i) => i % 7 - 3);
-      expect(relDiff(luSolve(f, b), ml.solve(Matrix.columnVector(Array.from(b))).to1DArray())).toBeLessThan(1e-10);
-    });
-  }
-  it('solve and transposed solve reproduce the right-hand side', () => {
-    const n = 140;
-    const a = randomMatrix(n, n, 7);
-    const f = luFactor(a, n);
-    const b = Float64Array.from({ length: n }, (_, i) => i - 3);
-    const back = matVec(a, n, n, luSolve(f, b));
-    const backT = vecMat(luSolveTransposed(f, b), a, n, n);
-    expect(relDiff(back, b)).toBeLessThan(1e-11);
-    expect(relDiff(backT, b)).toBeLessThan(1e-11);
   });
-});
 
-describe('singular matrices', () => {
-  const cases: Array<[string, number, (a: Float64Array, n: number) => void]> = [
-    ['zero matrix', 3, (a) => a.fill(0)],
-    ['a zero column', 70, (a, n) => { for (let i = 0; i < n; i++) a[i * n + 5] = 0; }],
-    ['two equal rows', 130, (a, n) => { a.copyWithin(100 * n, 3 * n, 4 * n); }],
-    ['a column that is the sum of two others (beyond the first panel)', 150, (a, n) => {
-      for (let i = 0; i < n; i++) a[i * n + 140] = a[i * n + 1]! + a[i * n + 2]!;
-    }],
-  ];
-  for (const [name, n, spoil] of cases) {
-    it(`flags ${name} (n=${n}) and refuses to solve`, () => {
-      const a = randomMatrix(n, n, 9 + n);
-      spoil(a, n);
-      const f = luFactor(a, n);
-      // A rank-deficient matrix built from exact sums may keep a tiny rounding pivot instead of an exact zero; only
-      // exact zeros count, as in the reference.
-      const g = luFactorReference(a, n);
-      expect(f.singular).toBe(g.singular);
-      if (name !== 'a column that is the sum of two others (beyond the first panel)') expect(f.singular).toBe(true);
-      if (f.singular) {
+  describe('singular matrices', () => {
+    const cases: Array<[string, number, (a: Float64Array, n: number) => void]> = [
+      ['zero matrix', 3, (a) => a.fill(0)],
+      ['a zero row at n=1', 1, (a) => a.fill(0)],
+      ['a zero column', 70, (a, n) => { for (let i = 0; i < n; i++) a[i * n + 5] = 0; }],
+      ['two equal rows', 130, (a, n) => { a.copyWithin(100 * n, 3 * n, 4 * n); }],
+      ['a column that is the sum of two others (beyond the first panel)', 150, (a, n) => {
+        for (let i = 0; i < n; i++) a[i * n + 140] = a[i * n + 1]! + a[i * n + 2]!;
+      }],
+    ];
+    it('keeps a badly scaled but comfortably invertible matrix non-singular', () => {
+      const d = Float64Array.from([1e-8, 0, 0, 1]); // κ = 1e8, far below 1/(nε)
+      expect(luFactor(d, 2).singular).toBe(false);
+    });
+    for (const [name, n, spoil] of cases) {
+      it(`flags ${name} (n=${n}) and refuses to solve`, () => {
+        const a = randomMatrix(n, n, 9 + n);
+        spoil(a, n);
+        const f = luFactor(a, n);
+        // Blocked sums may leave a pivot of rounding size where the textbook order gives an exact zero: the flag
+        // (zero or below n·ε·max|a_ij|) must catch both.
+        expect(f.singular).toBe(true);
         expect(() => luSolve(f, new Float64Array(n))).toThrow(/singular/);
         expect(() => luSolveTransposed(f, new Float64Array(n))).toThrow(/singular/);
+        expect(() => luSolveMany(f, new Float64Array(n * 2), 2)).toThrow(/singular/);
         expect(() => luInverse(f)).toThrow(/singular/);
-        expect(Math.abs(luDeterminant(f))).toBe(0);
-      }
-    });
-  }
+        // |det| is at most the product of |u_jj| with one factor below n·ε·max|a| (definition of the flag).
+        expect(Math.abs(luDeterminant(f))).toBeLessThan(1e-10 * Math.abs(luDeterminant(luFactor(randomMatrix(n, n, 9 + n), n))));
+      });
+    }
+  });
 });
+}
 
 describe('dense products against mathjs', () => {
   for (const [n, k, m] of [[1, 1, 1], [3, 5, 2], [70, 130, 9], [130, 600, 520]] as const) {

@@ -4,6 +4,7 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { regionalize, parseEmploymentCsv, REGIONAL_IMPORT_LABEL, type EmploymentInput } from '../../../src/regional/index.ts';
 import { coefficients } from '../../../src/model/coefficients.ts';
+import { prepareModel, solveOpenTransposed } from '../../../src/model/prepared.ts';
 import { InputError, formatLocated } from '../../../src/diagnostics/errors.ts';
 import { THREE, buildTable, expectClose } from './build-table.ts';
 
@@ -183,8 +184,46 @@ describe('properties on random tables', () => {
           }
         }
         for (let k = 0; k < n * n; k++) expect(flq.coefficients[k]!).toBeLessThanOrEqual(cilq.coefficients[k]!);
+        // 0 ≤ R ≤ A with ρ(A) < 1 gives (I − R)⁻¹ ≤ (I − A)⁻¹ entrywise (Neumann series I + R + R² + … term by term):
+        // a county's output multipliers never exceed the nation's
+        const ones = new Float64Array(n).fill(1);
+        const nationalM = solveOpenTransposed(prepareModel(t), ones);
+        const regionalM = solveOpenTransposed(prepareModel({ ...t, Z: Float64Array.from(flq.coefficients, (r, k) => r * t.x[k % n]!) }), ones);
+        for (let j = 0; j < n; j++) {
+          expect(regionalM[j]!).toBeGreaterThanOrEqual(1 - 1e-12);
+          expect(regionalM[j]!).toBeLessThanOrEqual(nationalM[j]! * (1 + 1e-12));
+        }
       }),
       { numRuns: 150 },
     );
+  });
+});
+
+describe('employment file reading', () => {
+  it('a header is optional; a first data row with one bad number is refused at line 1, not taken for a header', () => {
+    expect(parseEmploymentCsv('Farming,20,100\nMaking,10,200\nServices,70,700\n', 'e.csv').entries).toHaveLength(3);
+    const e = refusal(() => parseEmploymentCsv('Farming,2O,100\nMaking,10,200\n', 'e.csv'));
+    expect(e.location).toMatchObject({ line: 1, column: 2, rowLabel: 'Farming' });
+  });
+  it('semicolons, CRLF, a BOM and quoted labels are read; lines are counted across blank lines', () => {
+    const e = parseEmploymentCsv('\uFEFFsector;regional;national\r\n\r\n"Farming";20;100\r\nMaking;10;200\r\n', 'e.csv');
+    expect(e.entries.map((x) => [x.sector, x.line])).toEqual([['Farming', 3], ['Making', 4]]);
+  });
+  it('an empty file, a file with only a header', () => {
+    expect(refusal(() => parseEmploymentCsv('', 'e.csv')).message).toMatch(/empty/);
+    expect(refusal(() => parseEmploymentCsv('sector,regional,national\n', 'e.csv')).message).toMatch(/no sectors/);
+  });
+});
+
+describe('negative exports and other final demand', () => {
+  it('is warned about, located at the sector: local use 0.8·40 exceeds county output 20 (hand computation)', () => {
+    // A sells 80 % of B's output value to B; the county has A's jobs at twice the national share and B's at four times
+    const t = buildTable({ sectors: ['A', 'B', 'C'], Z: [[0, 80, 0], [0, 0, 0], [0, 0, 0]], x: [100, 100, 100], labour: [100, 20, 100], otherFD: [20, 100, 100], employment: [100, 100, 800] });
+    const res = regionalize(t, parseEmploymentCsv('A,20,100\nB,40,100\nC,0,800\n', 'e.csv'), { method: 'slq' });
+    expectClose(res.table.otherFinalDemand[0]!.values, [20 - 32, 40, 0]);
+    const w = res.warnings.find((x) => x.code === 'regional-negative-final-demand')!;
+    expect(w.location).toMatchObject({ rowLabel: 'A', columnLabel: 'Exports and other final demand' });
+    expect(w.message).toMatch(/negative \(-12 million dollars\)/);
+    expect(res.absent).toEqual(['C']);
   });
 });

@@ -19,6 +19,8 @@ describe('scenario refusals', () => {
     expect(e.code).toBe('unknown-sector');
     expect(e.location).toMatchObject({ file: 'shock.csv', line: 3, rowLabel: 'Mining' });
     expect(formatLocated(e)).toMatch(/^shock\.csv:3 \(row 'Mining'\): unknown sector 'Mining'/);
+    const e2 = refusal(() => runScenario(pm, { name: 's', lines: [{ sector: 'retail', amount: 1, kind: 'final-demand', localShare: 1 }] }));
+    expect(e2.message).toMatch(/did you mean 'Retail'\?/);
   });
   it('local share outside [0, 1], in the file and in code', () => {
     const e1 = refusal(() => parseShockCsv('sector,amount,kind,local_share\nRetail,10,final-demand,1.5\n', 'shock.csv'));

@@ -1,0 +1,126 @@
+/**
+ * `npm run bench`: dense kernels, and the whole job when its parts exist, on seeded invented matrices of
+ * n = 50, 200, 500, 1000, 2000, side by side with ml-matrix and (when python3 has numpy) numpy/OpenBLAS.
+ * Prints a table and writes JSON to bench-results/. Options: --sizes 50,200  --quick (fewer repeats).
+ * Speed is measured here only, never in unit tests.
+ */
+import { mkdirSync, writeFileSync, readFileSync } from 'node:fs';
+import { cpus, loadavg, totalmem } from 'node:os';
+import { join } from 'node:path';
+import { spawnSync } from 'node:child_process';
+import { Matrix, LuDecomposition, inverse as mlInverse } from 'ml-matrix';
+import { luFactor, luInverse, scaledResidual, setKernelMode } from '../../src/linalg/index.ts';
+import { luFactorReference } from '../../src/linalg/lu-reference.ts';
+import { leontiefMatrix } from './matrices.ts';
+import { time, runsFor, type Timing } from './timing.ts';
+import { numpyAvailable, numpyInverse, type NumpyTiming } from './numpy.ts';
+import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../src/cli/parallel.ts';
+
+const args = process.argv.slice(2);
+const sizesArg = args[args.indexOf('--sizes') + 1];
+const SIZES = args.includes('--sizes') && sizesArg ? sizesArg.split(',').map(Number) : [50, 200, 500, 1000, 2000];
+const QUICK = args.includes('--quick');
+/** ml-matrix's inverse is skipped above n = 1000 when the n = 1000 time predicts more than this (O(n³) scaling). */
+const ML_INVERSE_BUDGET_MS = 40_000;
+/** Helper threads for the threaded runs: one per extra core. */
+const HELPERS = cpus().length - 1;
+
+const outDir = join(process.cwd(), 'bench-results');
+mkdirSync(outDir, { recursive: true });
+
+function cpuModel(): string {
+  try {
+    const line = readFileSync('/proc/cpuinfo', 'utf8').split('\n').find((l) => l.startsWith('model name'));
+    return line ? line.split(':')[1]!.trim() : cpus()[0]?.model ?? 'unknown';
+  } catch { return cpus()[0]?.model ?? 'unknown'; }
+}
+
+interface Row {
+  n: number;
+  luOurs: Timing; luOursJs: Timing; luThreads: Timing | null; invThreads: Timing | null; luReference: Timing | null; luMl: Timing | null;
+  invOurs: Timing; invMl: Timing | null; invMlSkipped: string | null; invNumpy: NumpyTiming | null;
+  residual: number; peakMB: number | null; baselineMB: number | null;
+}
+
+const fmt = (ms: number | null | undefined): string => (ms == null ? '—' : ms < 10 ? ms.toFixed(2) : ms < 1000 ? ms.toFixed(1) : (ms / 1000).toFixed(2) + ' s');
+const ratio = (a: number | null | undefined, b: number | null | undefined): string => (a == null || b == null ? '—' : (a / b).toFixed(2) + '×');
+
+const numpyVersion = numpyAvailable();
+const loadBefore = loadavg();
+const started = new Date();
+const rows: Row[] = [];
+let mlInverse1000: number | null = null;
+
+for (const n of SIZES) {
+  const m = leontiefMatrix(n);
+  const runs = QUICK ? Math.max(1, Math.ceil(runsFor(n) / 3)) : runsFor(n);
+  process.stderr.write(`n=${n}: ours…`);
+  setKernelMode('auto');
+  const luOurs = time(() => luFactor(m, n), runs);
+  const invOurs = time(() => luInverse(luFactor(m, n)), runs);
+  const residual = scaledResidual(m, luInverse(luFactor(m, n)), n);
+  setKernelMode('js');
+  const luOursJs = time(() => luFactor(m, n), runs);
+  setKernelMode('auto');
+  let luThreads: Timing | null = null;
+  let invThreads: Timing | null = null;
+  if (HELPERS > 0) {
+    process.stderr.write(` ${HELPERS + 1} threads…`);
+    startParallelKernels(HELPERS);
+    if ((await parallelKernelsReady()) === HELPERS) {
+      luThreads = time(() => luFactor(m, n), runs);
+      invThreads = time(() => luInverse(luFactor(m, n)), runs);
+    }
+    await stopParallelKernels();
+  }
+  process.stderr.write(' reference…');
+  const luReference = n <= 2000 ? time(() => luFactorReference(m, n), n >= 1000 ? 1 : runs, n >= 1000 ? 0 : 1) : null;
+  process.stderr.write(' ml-matrix…');
+  const mm = new Matrix(Array.from({ length: n }, (_, i) => Array.from(m.subarray(i * n, (i + 1) * n))));
+  const mlRuns = n >= 1000 ? 1 : runs;
+  const luMl = time(() => new LuDecomposition(mm), mlRuns, n >= 1000 ? 0 : 1);
+  let invMl: Timing | null = null;
+  let invMlSkipped: string | null = null;
+  const predicted = mlInverse1000 !== null ? mlInverse1000 * (n / 1000) ** 3 : 0;
+  if (n > 1000 && predicted > ML_INVERSE_BUDGET_MS) {
+    invMlSkipped = `skipped: n=1000 took ${fmt(mlInverse1000)}, so n=${n} would take about ${fmt(predicted)} (over ${ML_INVERSE_BUDGET_MS / 1000} s)`;
+  } else {
+    invMl = time(() => mlInverse(mm), mlRuns, n >= 1000 ? 0 : 1);
+    if (n === 1000) mlInverse1000 = invMl.medianMs;
+  }
+  process.stderr.write(' numpy…');
+  const invNumpy = numpyVersion ? numpyInverse(m, n, QUICK ? 3 : Math.max(5, runs), join(outDir, `matrix-${n}.f64`)) : null;
+  process.stderr.write(' memory…');
+  const child = spawnSync(process.execPath, ['--import', 'tsx', join('test', 'bench', 'memory-child.ts'), 'inverse', String(n)], { encoding: 'utf8' });
+  const mem = child.status === 0 ? (JSON.parse(child.stdout) as { baselineMB: number; peakMB: number }) : null;
+  process.stderr.write(' done\n');
+  rows.push({ n, luOurs, luOursJs, luThreads, invThreads, luReference, luMl, invOurs, invMl, invMlSkipped, invNumpy, residual, peakMB: mem?.peakMB ?? null, baselineMB: mem?.baselineMB ?? null });
+}
+
+const T = HELPERS + 1;
+const best = (r: Row): number => Math.min(r.invOurs.medianMs, r.invThreads?.medianMs ?? Infinity);
+const header = ['n', 'LU', `LU ${T} thr`, 'LU JS kernel', 'LU unblocked', 'LU ml-matrix', 'inverse', `inverse ${T} thr`, 'inverse ml-matrix', 'inverse numpy', 'ours/numpy', 'ml-matrix/ours', 'residual', 'peak RSS'];
+const table = rows.map((r) => [
+  String(r.n), fmt(r.luOurs.medianMs), fmt(r.luThreads?.medianMs), fmt(r.luOursJs.medianMs), fmt(r.luReference?.medianMs), fmt(r.luMl?.medianMs),
+  fmt(r.invOurs.medianMs), fmt(r.invThreads?.medianMs), r.invMl ? fmt(r.invMl.medianMs) : 'skipped', fmt(r.invNumpy?.medianMs),
+  ratio(best(r), r.invNumpy?.medianMs), ratio(r.invMl?.medianMs, best(r)),
+  r.residual.toFixed(2), r.peakMB == null ? '—' : `${r.peakMB.toFixed(0)} MB`,
+]);
+const widths = header.map((h, c) => Math.max(h.length, ...table.map((row) => row[c]!.length)));
+const line = (cells: string[]): string => '| ' + cells.map((x, c) => x.padStart(widths[c]!)).join(' | ') + ' |';
+const loadAfter = loadavg();
+const machine = { cpu: cpuModel(), cores: cpus().length, memoryGB: +(totalmem() / 2 ** 30).toFixed(1), node: process.version, numpy: numpyVersion };
+console.log(`Roundwise bench — ${started.toISOString()} — ${machine.cpu}, ${machine.cores} cores, Node ${machine.node}${numpyVersion ? `, numpy ${numpyVersion}` : ', numpy not available'}`);
+console.log(`load average before ${loadBefore.map((x) => x.toFixed(2)).join(' ')}, after ${loadAfter.map((x) => x.toFixed(2)).join(' ')} (medians of repeated runs; times in ms unless marked s)`);
+console.log(line(header));
+console.log('|' + widths.map((w) => '-'.repeat(w + 2)).join('|') + '|');
+for (const row of table) console.log(line(row));
+console.log(`LU = factorisation with partial pivoting; inverse = factorisation + explicit inverse (ours: Wasm SIMD kernel, 1 thread unless marked; ${T} thr = with ${HELPERS} helper thread(s)); ours/numpy and ml-matrix/ours use our faster column; residual = ‖M·X − I‖₁/(‖M‖₁‖X‖₁nε) of our inverse (LAPACK threshold 30); peak RSS = factorisation + inverse in a fresh Node process (1 thread).`);
+for (const r of rows) if (r.invMlSkipped) console.log(`ml-matrix inverse at n=${r.n} ${r.invMlSkipped}.`);
+if (!numpyVersion) console.log('numpy columns empty: `python3 -c "import numpy"` failed on this machine.');
+
+const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows };
+const stamp = started.toISOString().replace(/[:.]/g, '-');
+writeFileSync(join(outDir, `bench-${stamp}.json`), JSON.stringify(json, null, 2));
+writeFileSync(join(outDir, 'latest.json'), JSON.stringify(json, null, 2));
+console.log(`JSON: bench-results/bench-${stamp}.json`);

@@ -1,0 +1,44 @@
+/**
+ * Defects found by the hardening property tests, each pinned by the smallest input that showed it.
+ */
+import { describe, expect, it } from 'vitest';
+import { formatLocated, InputError } from '../../../src/diagnostics/errors.ts';
+import { importTable } from '../../../src/table/index.ts';
+import { parseShockCsv } from '../../../src/scenario/shock-csv.ts';
+import { refusalOf } from './gen.ts';
+
+describe('found by the property tests', () => {
+  it('a label holding a carriage return (LF file) still gives a one-line message', () => {
+    // Character fuzz, seed 73382: a lone CR inside a row label of an LF file stays in the label.
+    const text = 'unit,A,B,Total output\nA,1,2,10\nB\r1,x,3,10\n';
+    const e = refusalOf(() => importTable(text, { fileName: 'cr.csv' }), 'cr.csv');
+    expect(e?.code).toBe('non-numeric');
+    expect(formatLocated(e!)).toBe("cr.csv:3:2 (row 'B\\r1', column 'A'): 'x' is not a number");
+  });
+
+  it('control characters in a message are shown escaped, never as raw line breaks or NUL', () => {
+    const e = new InputError('t', "'a\tb\u0000' is not a number", { file: 'f.csv', line: 1, rowLabel: 'x\ny' });
+    expect(formatLocated(e)).toBe("f.csv:1 (row 'x\\ny'): 'a\\tb\\u0000' is not a number");
+  });
+
+  it('a flow table whose inter-industry block is all zero is not read as a coefficients table', () => {
+    // Scaling property, seed 8103: with zero flows, the "flows are ≥ 1 % of output" test took the table for
+    // coefficients and multiplied the labour-income row by output.
+    const text = 'thousand dollars,A,B,Households,Total output\r\nA,0,0,2,2\r\nB,0,0,2,2\r\nLabor income,1,1,,\r\n';
+    const t = importTable(text, { fileName: 'zero.csv' });
+    expect(t.layout).toBe('matrix');
+    expect(Array.from(t.labourIncome[0]!.values)).toEqual([1, 1]);
+  });
+});
+
+describe('found by the hardening corpus', () => {
+  it('a shock-file refusal below a quoted note that spans lines names its own file line', () => {
+    const s = parseShockCsv('sector,amount,kind,local_share,note\r\nCanning,300,final-demand,1,"new line\r\nof jars"\r\nServices,20,,,\r\nCannery,5,,,\r\n', 'shock.csv');
+    expect(s.lines.map((l) => l.origin?.line)).toEqual([2, 4, 5]);
+  });
+  it('a binary or UTF-16 shock file is refused as such, not as a header with an unknown column of garbage', () => {
+    const utf16 = '\ufffd\ufffd' + 'sector,amount\r\n'.split('').join('\u0000') + '\u0000';
+    expect(refusalOf(() => parseShockCsv(utf16, 'shock.csv'), 'shock.csv')?.code).toBe('utf16');
+    expect(refusalOf(() => parseShockCsv('sector,amount\r\nCan\u0000ning,1\r\n', 'shock.csv'), 'shock.csv')?.code).toBe('binary');
+  });
+});

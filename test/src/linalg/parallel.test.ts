@@ -1,0 +1,66 @@
+// Kernels split across a helper thread (src/linalg/parallel.ts protocol, Node adapter src/cli/parallel.ts) give the
+// same numbers as the single-thread kernels: each row of C is computed by exactly the same operations whichever
+// thread takes its chunk, so results must be bit-identical, and agree with the unblocked reference to rounding.
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { luFactor, luInverse, luSolveMany } from '../../../src/linalg/index.ts';
+import { luFactorReference, luInverseReference } from '../../../src/linalg/lu-reference.ts';
+import { splitJobCount, sharedKernel } from '../../../src/linalg/parallel.ts';
+import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../../src/cli/parallel.ts';
+
+function seeded(seed: number): () => number {
+  let s = seed >>> 0;
+  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32);
+}
+function randomMatrix(n: number, m: number, seed: number): Float64Array {
+  const r = seeded(seed);
+  return Float64Array.from({ length: n * m }, () => r() * 2 - 1);
+}
+
+const N = 301; // large enough for split updates, not a multiple of 4
+const a = randomMatrix(N, N, 42);
+const b = randomMatrix(N, 9, 43);
+const single = (() => {
+  const f = luFactor(a, N);
+  return { f, inv: luInverse(f), many: luSolveMany(f, b, 9) };
+})();
+
+describe('kernels with a helper thread', () => {
+  beforeAll(async () => {
+    expect(startParallelKernels(1)).toBe(1);
+    expect(await parallelKernelsReady()).toBe(1);
+  });
+  afterAll(async () => { await stopParallelKernels(); });
+
+  it('splits large updates and gives bit-identical factors, inverse and solves', () => {
+    const before = splitJobCount();
+    const f = luFactor(a, N);
+    const inv = luInverse(f);
+    const many = luSolveMany(f, b, 9);
+    expect(splitJobCount()).toBeGreaterThan(before);
+    expect(sharedKernel()).not.toBeNull();
+    expect(Array.from(f.piv)).toEqual(Array.from(single.f.piv));
+    expect(Array.from(f.lu)).toEqual(Array.from(single.f.lu));
+    expect(Array.from(inv)).toEqual(Array.from(single.inv));
+    expect(Array.from(many)).toEqual(Array.from(single.many));
+    // Results are ordinary (unshared) arrays that outlive the workspace.
+    expect(inv.buffer).not.toBeInstanceOf(SharedArrayBuffer);
+  });
+
+  it('agrees with the unblocked reference', () => {
+    const g = luFactorReference(a, N);
+    const ref = luInverseReference(g);
+    const inv = luInverse(luFactor(a, N));
+    let d = 0, s = 0;
+    for (let k = 0; k < N * N; k++) { d = Math.max(d, Math.abs(inv[k]! - ref[k]!)); s = Math.max(s, Math.abs(ref[k]!)); }
+    expect(d / s).toBeLessThan(1e-10);
+  });
+});
+
+describe('after the helpers stop', () => {
+  it('runs single-threaded with the same results', () => {
+    expect(sharedKernel()).toBeNull();
+    const before = splitJobCount();
+    expect(Array.from(luInverse(luFactor(a, N)))).toEqual(Array.from(single.inv));
+    expect(splitJobCount()).toBe(before);
+  });
+});

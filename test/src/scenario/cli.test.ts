@@ -1,0 +1,134 @@
+// `roundwise scenario` end to end, in process, on the invented fixture table (test/fixtures/scenario). Reference values
+// come from a direct solve of the partitioned mixed model with mathjs, not from the engine.
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import * as math from 'mathjs';
+import Papa from 'papaparse';
+import { main } from '../../../src/cli/main.ts';
+import { parseProject, projectResults } from '../../../src/project/index.ts';
+
+const fx = (name: string) => fileURLToPath(new URL(`../../fixtures/scenario/${name}`, import.meta.url));
+
+async function cli(...args: string[]) {
+  let out = '';
+  let err = '';
+  const code = await main(['scenario', ...args], { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
+  return { code, out, err };
+}
+
+// Fixture table: Z, x, labour, employment, household consumption as in table.csv.
+const Z = [[50, 120, 10], [30, 80, 40], [20, 60, 30]];
+const x = [400, 900, 500];
+const labour = [100, 300, 200];
+const jobs = [12, 20, 25];
+const hh = [60, 150, 250];
+
+/** Mixed model: Mills fixed at 25 jobs / (20/900 jobs per unit); Shops final demand 40 × 0.6. */
+function reference(closed: boolean): number[] {
+  const n = 3;
+  const xh = labour.reduce((a, b) => a + b, 0);
+  const m = closed ? n + 1 : n;
+  const A = (i: number, j: number) => (i < n && j < n ? Z[i]![j]! / x[j]! : i < n ? hh[i]! / xh : j < n ? labour[j]! / x[j]! : 0);
+  const fixedOut = 25 / (jobs[1]! / x[1]!);
+  const endo = [...Array(m).keys()].filter((i) => i !== 1);
+  const f = [0, 0, 24, 0];
+  const M = endo.map((i) => endo.map((j) => (i === j ? 1 : 0) - A(i, j)));
+  const rhs = endo.map((i) => f[i]! + A(i, 1) * fixedOut);
+  const xe = (math.lusolve(M, rhs) as number[][]).map((r) => r[0]!);
+  const out = [xe[0]!, fixedOut, xe[1]!];
+  return closed ? [...out, xe[2]!] : out;
+}
+
+describe('roundwise scenario', () => {
+  let dir = '';
+  beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'roundwise-scenario-')); });
+  afterAll(() => { rmSync(dir, { recursive: true, force: true }); });
+
+  it('--json prints effects in sector order, totals and rounds matching the partitioned solve', async () => {
+    const { code, out, err } = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--json');
+    expect(err).toBe('');
+    expect(code).toBe(0);
+    const j = JSON.parse(out);
+    expect(j.sectors).toEqual(['Farms', 'Mills', 'Shops']);
+    const open = reference(false);
+    const closed = reference(true);
+    const openTotal = j.effects.output.direct.map((d: number, i: number) => d + j.effects.output.indirect[i]);
+    for (let i = 0; i < 3; i++) {
+      expect(openTotal[i]).toBeCloseTo(open[i]!, 9);
+      expect(j.effects.output.total[i]).toBeCloseTo(closed[i]!, 9);
+      expect(j.effects.income.total[i]).toBeCloseTo((labour[i]! / x[i]!) * closed[i]!, 9);
+    }
+    expect(j.effects.employment.direct[1]).toBeCloseTo(25, 9);
+    expect(j.effects.output.direct).toEqual([0, open[1], 24]);
+    for (const v of ['output', 'valueAdded', 'income', 'employment']) {
+      for (const p of ['direct', 'indirect', 'induced', 'total']) expect(j.effects[v][p]).toHaveLength(3);
+      expect(Object.keys(j.totals[v])).toEqual(['direct', 'indirect', 'induced', 'total']);
+    }
+    expect(j.totals.output.total).toBeCloseTo(closed.slice(0, 3).reduce((a, b) => a + b, 0), 9);
+    expect(j.rounds.reach.map((r: { target: number }) => r.target)).toEqual([0.9, 0.99, 0.999]);
+    // The rounds stop once 99.9 % of the open-model total is reached.
+    const openSum = open.reduce((a, b) => a + b, 0);
+    expect(Math.abs(j.rounds.output.reduce((a: number, b: number) => a + b, 0) - openSum) / openSum).toBeLessThanOrEqual(1e-3);
+    expect(j.cautions.length).toBeGreaterThan(5);
+  });
+  it('--out writes impact, rounds and multiplier reports with sidecars, readable back as numbers', async () => {
+    const out = join(dir, 'reports');
+    const { code } = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--out', out, '--paths', 'Farms');
+    expect(code).toBe(0);
+    const names = readdirSync(out).sort();
+    expect(names).toEqual([
+      'scenario-impact.about.txt', 'scenario-impact.csv', 'scenario-multipliers.about.txt', 'scenario-multipliers.csv',
+      'scenario-paths.about.txt', 'scenario-paths.csv', 'scenario-rounds-by-sector.about.txt', 'scenario-rounds-by-sector.csv',
+      'scenario-rounds.about.txt', 'scenario-rounds.csv',
+    ]);
+    const impact = Papa.parse<unknown[]>(readFileSync(join(out, 'scenario-impact.csv'), 'utf8'), { dynamicTyping: true, skipEmptyLines: true }).data;
+    expect(impact).toHaveLength(5);
+    expect(impact[1]![0]).toBe('Farms');
+    expect(impact[1]![4]).toBeCloseTo(reference(true)[0]!, 9);
+    const about = readFileSync(join(out, 'scenario-impact.about.txt'), 'utf8');
+    expect(about).toMatch(/Source SHA-256: [0-9a-f]{64}/);
+    expect(about).toContain('Source file: table.csv');
+    expect(about).toMatch(/Produced: \d{4}-\d\d-\d\dT/);
+  });
+  it('--project writes a project file whose recomputed results equal the run', async () => {
+    const path = join(dir, 'study.json');
+    const a = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--project', path, '--json');
+    expect(a.code).toBe(0);
+    const p = parseProject(readFileSync(path, 'utf8'), path);
+    const [r] = projectResults(p);
+    expect(Array.from(r!.effects.output.total)).toEqual(JSON.parse(a.out).effects.output.total);
+    expect(p.source!.fileName).toBe('table.csv');
+    // Saving again over a valid project is fine; over anything else it is refused and the file is left as it was.
+    expect((await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--project', path)).code).toBe(0);
+    const foreign = join(dir, 'notes.json');
+    writeFileSync(foreign, '{"my": "notes"}');
+    const refused = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--project', foreign);
+    expect(refused.code).toBe(2);
+    expect(refused.err).toMatch(/will not overwrite it: this is not a Roundwise project file/);
+    expect(readFileSync(foreign, 'utf8')).toBe('{"my": "notes"}');
+  });
+  it('prints a plain summary without --json', async () => {
+    const { code, out } = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'));
+    expect(code).toBe(0);
+    expect(out).toMatch(/labour income/);
+    expect(out).toMatch(/Cautions:/);
+  });
+  it('refuses with a located message and exit code 2, no stack trace', async () => {
+    const unknown = await cli(fx('table.csv'), '--shock', fx('shock-unknown.csv'), '--map', fx('map.json'));
+    expect(unknown.code).toBe(2);
+    expect(unknown.err).toMatch(/shock-unknown\.csv:3 \(row 'Quarries'\): unknown sector 'Quarries'/);
+    expect(unknown.err).not.toMatch(/at .*\.ts:\d+/);
+    const noShock = await cli(fx('table.csv'));
+    expect(noShock.code).toBe(2);
+    expect(noShock.err).toMatch(/--shock SHOCK\.csv is required/);
+    const missing = await cli(join(dir, 'nope.csv'), '--shock', fx('shock.csv'));
+    expect(missing.code).toBe(2);
+    expect(missing.err).toMatch(/nope\.csv: file not found/);
+    const badMap = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('shock.csv'));
+    expect(badMap.code).toBe(2);
+    expect(badMap.err).toMatch(/role map is not valid JSON/);
+  });
+});
