@@ -80,12 +80,11 @@ export function spectrumChart(points: { re: number; im: number }[], perron: numb
     },
     options: {
       responsive: true,
-      aspectRatio: 1,
-      maintainAspectRatio: true,
-      plugins: { legend: { position: 'bottom' } },
+      // No legend inside the square: the caption below the chart names the circles, keeping the plot area square.
+      plugins: { legend: { display: false } },
       scales: {
-        x: { min: -1.15, max: 1.15, title: { display: true, text: 'Real part' }, grid: { color: PALETTE.grid } },
-        y: { min: -1.15, max: 1.15, title: { display: true, text: 'Imaginary part' }, grid: { color: PALETTE.grid } },
+        x: { min: -1.5, max: 1.5, ticks: { stepSize: 0.5 }, title: { display: true, text: 'Real part' }, grid: { color: PALETTE.grid } },
+        y: { min: -1.5, max: 1.5, ticks: { stepSize: 0.5 }, title: { display: true, text: 'Imaginary part' }, grid: { color: PALETTE.grid } },
       },
     },
   };

@@ -86,6 +86,15 @@ export interface AnalysisView {
   spectrumNote?: string;
   blocks: Block[];
   reducible: boolean;
+  /** Period of A when irreducible (1 = primitive), else null. */
+  period: number | null;
+  /** Rounds after which less than `tolerance` of any demand is left unaccounted (engine certificate), or null. */
+  roundsToTolerance: number | null;
+  tolerance: number;
+  /** Perron root of the household-closed coefficients, or null. */
+  perronClosed: number | null;
+  /** Condition estimate of I − A, or null. */
+  condition: number | null;
   multipliers: MultiplierRow[];
   hasTypeII: boolean;
   /** Average output multipliers, for the headline. */

@@ -114,6 +114,36 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await shot(page, '03-import-refused');
   });
 
+  it('shows the multipliers with the household closure switch, the table, and its structure', async () => {
+    await go('multipliers');
+    const table = page.getByTestId('multiplier-table');
+    await table.waitFor();
+    expect(await table.textContent()).toContain('Output II');
+    await shot(page, '04-multipliers');
+    await page.getByTestId('closure').uncheck();
+    await expect.poll(() => table.textContent()).not.toContain('Output II');
+    await page.getByTestId('closure').check();
+    await expect.poll(() => table.textContent()).toContain('Output II');
+    await page.click('button[title="Sort by Output I"]');
+    expect(await page.locator('th:has(button[title="Sort by Output I"])').getAttribute('aria-sort')).toBe('descending');
+    const first = Number((await table.locator('tbody tr:not(.pad) td').first().textContent())!.replace(/,/g, ''));
+    const best = Math.max(...analyzeTable(engineTable()).multipliers.output.typeI.map((v) => v ?? -Infinity));
+    expect(first).toBeCloseTo(best, 4);
+
+    await go('table');
+    await page.locator('.matrix .m-cell').first().waitFor();
+    await shot(page, '05-table');
+    await page.click('[data-matrix="A"]');
+    await page.getByTestId('grid-view').click();
+    await page.locator('canvas.shaded').waitFor();
+    await shot(page, '06-table-grid');
+
+    await go('structure');
+    await page.getByTestId('spectrum-table').waitFor();
+    expect(await page.getByTestId('rounds99').textContent()).toMatch(/\d/);
+    await shot(page, '07-structure');
+  });
+
   it('runs a scenario with two lines and shows the engine\'s totals', async () => {
     await go('scenarios');
     await page.getByTestId('new-scenario').click();
@@ -145,12 +175,12 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await expect.poll(() => page.getByLabel('Local share of line 2, percent').inputValue()).toBe('50');
     await expect.poll(() => page.getByTestId('total-effect').textContent()).toBe(totalBeforeSave);
     await page.getByTestId('compare').waitFor();
-    await shot(page, '04-scenarios');
+    await shot(page, '08-scenarios');
   });
 
   it('exports the multiplier report with the engine\'s own numbers', async () => {
     await go('export');
-    await shot(page, '05-export');
+    await shot(page, '09-export');
     const files = await downloadsOf(() => page.click('[data-report="multipliers"]'), 2);
     const csv = files.find((f) => f.name === 'multipliers.csv');
     const about = files.find((f) => f.name === 'multipliers.about.txt');
@@ -199,7 +229,7 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await expect.poll(() => page.getByTestId('total-effect').textContent()).toBe(totalBeforeSave);
     expect(await page.getByLabel('Sector of line 2').inputValue()).toBe('Retail');
     expect(await page.getByLabel('Local share of line 2, percent').inputValue()).toBe('50');
-    await shot(page, '06-reopened-project');
+    await shot(page, '10-reopened-project');
   });
 
   it('shows no console errors during the whole flow', () => {
