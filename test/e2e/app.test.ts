@@ -6,7 +6,7 @@
  * reopened with the same results. No console error may appear along the way; every screen is photographed.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { readFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import Papa from 'papaparse';
@@ -41,6 +41,29 @@ function engineTable() {
 /** The browser shows money with one decimal in the user's locale (en-US here). */
 function shown(v: number): string {
   return v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+}
+
+/** An invented, balanced, productive table of n sectors (seeded, so every run sees the same file). */
+function bigTable(n: number): string {
+  let seed = 20261201;
+  const rnd = () => { seed = (seed * 1103515245 + 12345) % 2147483648; return seed / 2147483648; };
+  const s = Array.from({ length: n }, (_, i) => `Sector ${i + 1}`);
+  const x = s.map(() => Math.round(1000 + rnd() * 9000));
+  const Z = s.map(() => new Array<number>(n).fill(0));
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (rnd() < 0.01) Z[i]![j] = Math.round(rnd() * 2 * x[j]!) / 100;
+  const lines = [['thousand dollars', ...s, 'Households', 'Exports', 'Total output'].join(',')];
+  const sold = Z.map((r) => r.reduce((a, b) => a + b, 0));
+  const bought = s.map((_, j) => Z.reduce((a, r) => a + r[j]!, 0));
+  const out = s.map((_, i) => Math.max(x[i]!, sold[i]! * 1.5, bought[i]! * 1.5));
+  for (let i = 0; i < n; i++) {
+    const hh = (out[i]! - sold[i]!) * 0.4;
+    lines.push([s[i], ...Z[i]!, hh, out[i]! - sold[i]! - hh, out[i]].join(','));
+  }
+  const lab = s.map((_, j) => (out[j]! - bought[j]!) * 0.55);
+  lines.push(['Compensation of employees', ...lab, '', '', ''].join(','));
+  lines.push(['Other value added', ...s.map((_, j) => out[j]! - bought[j]! - lab[j]!), '', '', ''].join(','));
+  lines.push(['Employment', ...out.map((v) => Math.round(v / 100)), '', '', ''].join(','));
+  return lines.join('\n');
 }
 
 /** Click, and collect the downloads the click starts (reports come as a CSV and its .about.txt). */
@@ -230,6 +253,30 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     expect(await page.getByLabel('Sector of line 2').inputValue()).toBe('Retail');
     expect(await page.getByLabel('Local share of line 2, percent').inputValue()).toBe('50');
     await shot(page, '10-reopened-project');
+  });
+
+  it('stays usable at 2,000 sectors: progress with cancel while it works, then virtual scrolling', async () => {
+    const file = join(REPO, 'test-output', 'e2e-2000-sectors.csv');
+    writeFileSync(file, bigTable(2000));
+    await go('import');
+    await page.getByTestId('file-input').setInputFiles(file);
+    await page.getByTestId('accept-import').click({ timeout: 60_000 });
+    // Import and analysis take seconds at this size: the indicator (with its Cancel button) must show meanwhile.
+    await page.getByTestId('progress').waitFor({ timeout: 10_000 });
+    expect(await page.getByTestId('progress').getByRole('button', { name: 'Cancel' }).count()).toBe(1);
+    await expect.poll(() => page.getByTestId('table-name').textContent(), { timeout: 90_000 }).toMatch(/2,000 sectors/);
+    await go('multipliers');
+    const table = page.getByTestId('multiplier-table');
+    await table.waitFor();
+    expect(await table.textContent()).toMatch(/2,000 of 2,000 rows/);
+    const rendered = await table.locator('tbody tr:not(.pad)').count();
+    expect(rendered).toBeLessThan(60);
+    await table.locator('.table-scroll').evaluate((el) => { el.scrollTop = el.scrollHeight; });
+    await expect.poll(() => table.locator('tbody tr:not(.pad) th').last().textContent()).toBe('Sector 2000');
+    await go('table');
+    await page.locator('.matrix .m-cell').first().waitFor();
+    expect(await page.locator('.matrix .m-cell').count()).toBeLessThan(600);
+    await shot(page, '11-table-2000-sectors');
   });
 
   it('shows no console errors during the whole flow', () => {
