@@ -123,11 +123,25 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await expect.poll(() => page.getByTestId('balance').textContent()).toMatch(/^(?!.*[1-9]\.\d\d\s?%)/s);
     await page.getByTestId('accept-import').click();
     await expect.poll(() => page.getByTestId('table-name').textContent()).toMatch(/ridgeline-test/);
+    // Ctrl+O asks for a file too (through the bridge); dismissing the preview changes nothing.
+    const chooser = page.waitForEvent('filechooser');
+    await page.keyboard.press('Control+o');
+    await (await chooser).setFiles(TEST_CSV);
+    await page.getByRole('button', { name: 'Discard' }).click();
+    expect(await page.getByTestId('table-name').textContent()).toMatch(/ridgeline-test/);
   });
 
   it('refuses a malformed CSV with its location and keeps the previous table', async () => {
-    await go('import');
-    await page.getByTestId('file-input').setInputFiles(join(FIX, 'malformed.csv'));
+    await go('overview');
+    // Dropped onto the window (drag and drop), from any screen.
+    const csv = readFileSync(join(FIX, 'malformed.csv'), 'utf8');
+    await page.evaluate((content) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([content], 'malformed.csv', { type: 'text/csv' }));
+      const target = document.querySelector('.shell')!;
+      target.dispatchEvent(new DragEvent('dragover', { dataTransfer: dt, bubbles: true, cancelable: true }));
+      target.dispatchEvent(new DragEvent('drop', { dataTransfer: dt, bubbles: true, cancelable: true }));
+    }, csv);
     const err = page.getByTestId('import-error');
     await err.waitFor();
     const text = (await err.textContent()) ?? '';
@@ -252,6 +266,9 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await expect.poll(() => page.getByTestId('total-effect').textContent()).toBe(totalBeforeSave);
     expect(await page.getByLabel('Sector of line 2').inputValue()).toBe('Retail');
     expect(await page.getByLabel('Local share of line 2, percent').inputValue()).toBe('50');
+    await go('export');
+    expect(await page.getByTestId('recent').textContent()).toContain(saved!.name);
+    await go('scenarios');
     await shot(page, '10-reopened-project');
   });
 
@@ -277,6 +294,16 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await page.locator('.matrix .m-cell').first().waitFor();
     expect(await page.locator('.matrix .m-cell').count()).toBeLessThan(600);
     await shot(page, '11-table-2000-sectors');
+  });
+
+  it('asks before closing the window with unsaved changes', async () => {
+    expect(await page.getByTestId('table-name').locator('..').textContent()).toContain('●');
+    const asked = page.waitForEvent('dialog', { timeout: 10_000 });
+    await page.close({ runBeforeUnload: true });
+    const dialog = await asked;
+    expect(dialog.type()).toBe('beforeunload');
+    await dialog.dismiss();
+    expect(page.isClosed()).toBe(false);
   });
 
   it('shows no console errors during the whole flow', () => {

@@ -103,6 +103,17 @@ describe('worker adapter over the engine', () => {
     expect(() => api.saveProject({ name: 'x', scenarios: [wrong], closure: true, active: 0 })).toThrow(/Food processing.*not in this table/);
   });
 
+  it('spreads an amount by a pattern read from a final-demand column', () => {
+    const r = api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
+    const pattern = r.table.patterns.find((p) => p.name === 'Like Households')!;
+    expect(pattern.shares.reduce((a, x) => a + x.share, 0)).toBeCloseTo(1, 12);
+    // Households column of the fixture: 150, 980, 120, 1990, 2760 (sum 6000).
+    expect(pattern.shares.find((x) => x.sector === 'Retail')!.share).toBeCloseTo(1990 / 6000, 12);
+    const lines = api.spread({ pattern, amount: 600, localShare: 0.8 });
+    expect(lines.reduce((a, l) => a + l.amount, 0)).toBeCloseTo(600, 9);
+    expect(lines.every((l) => l.localShare === 0.8 && l.pattern === 'Like Households')).toBe(true);
+  });
+
   it('unwraps Vue proxies so they can be posted to the worker', () => {
     const state = reactive({ source: { text: 'a', roles: { rows: { x: 'ignore' } } }, list: [{ a: 1 }] });
     expect(() => structuredClone(state)).toThrow();
