@@ -107,6 +107,14 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     expect(await page.getByTestId('perron').textContent()).toMatch(/certified between/);
     expect(await page.getByTestId('cautions').count()).toBe(1);
     await shot(page, '01-overview');
+    // A chart saves as a real PNG file (a download in browser mode).
+    const [png] = await downloadsOf(() => page.click('[data-png="overview-output-multipliers"]'), 1);
+    expect(png!.name).toBe('overview-output-multipliers.png');
+    expect(readFileSync(png!.path).subarray(0, 8)).toEqual(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]));
+    // Every chart has a table alternative.
+    await page.getByRole('button', { name: 'Show as table' }).first().click();
+    expect(await page.locator('.chart-table table').first().textContent()).toMatch(/Food processing/);
+    await page.getByRole('button', { name: 'Show chart' }).first().click();
   });
 
   it('imports a CSV through the file input, with a role changed before accepting', async () => {
