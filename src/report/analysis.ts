@@ -126,7 +126,7 @@ export function viabilityRows(an: Analysis): Cell[][] {
   const rows: Cell[][] = [['measure', 'value', 'lower bound', 'upper bound', 'note']];
   rows.push(['productive', yes(v.productive), null, null, v.verdictNote ?? 'Hawkins–Simon and the Perron root agree']);
   rows.push(['Perron root of A', v.perronRoot, v.perronRootBounds[0], v.perronRootBounds[1],
-    `certified Collatz–Wielandt bounds after ${v.perronIterations} power-iteration steps${v.negativeFlows ? '; computed for |A| (negative flows)' : ''}`]);
+    `certified Collatz–Wielandt bounds after ${v.perronIterations} power-iteration step${v.perronIterations === 1 ? "" : "s"}${v.negativeFlows ? '; computed for |A| (negative flows)' : ''}`]);
   rows.push(['Hawkins–Simon condition', yes(v.hawkinsSimon), null, null, hs.firstFailing
     ? `first failing leading principal minor: order ${hs.firstFailing.order} (sector ${an.sectors[hs.firstFailing.sector]}), pivot ${hs.firstFailing.pivot}`
     : `all ${an.n} leading principal minors of I − A positive; smallest pivot ${hs.smallestPivot}`]);
