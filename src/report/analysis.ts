@@ -140,6 +140,7 @@ export function viabilityRows(an: Analysis): Cell[][] {
     s.converges ? `rigorous bound from a Collatz–Wielandt certificate (${s.certificate.source}, contraction ${s.certificate.beta})` : s.reason]);
   rows.push(['condition estimate of I − A (1-norm)', an.checks.condition, null, null, 'LAPACK-style estimate; above 1e12 the results lose most digits']);
   rows.push(['scaled residual of a solve', an.checks.solveResidual, null, null, `LAPACK xGET02 ratio; above ${an.checks.residualThreshold} the factorisation is suspect`]);
+  rows.push(['scaled residual of a household-closed solve', an.checks.closedSolveResidual, null, null, `the same ratio for I − Ā, solved by bordering the open factorisation`]);
   rows.push(['scaled residual of the inverse', an.checks.inverseResidual, null, null, `LAPACK xGET03 ratio; above ${an.checks.residualThreshold} the factorisation is suspect`]);
   return rows;
 }
