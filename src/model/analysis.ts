@@ -197,7 +197,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   let verdictNote: string | null = null;
   if (openLU.singular) {
     productive = false;
-    verdictNote = 'I − A is singular: the Perron root is 1, so no finite Leontief inverse exists';
+    verdictNote = 'I − A is singular or within rounding of singular: 1 is an eigenvalue of A, so no finite Leontief inverse exists';
   } else if (!negativeFlows) {
     const below = perron.upper < 1;
     const above = perron.lower >= 1;
