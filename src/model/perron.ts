@@ -120,15 +120,14 @@ function rightProduct(b: Float64Array, m: number, v: Float64Array, av: Float64Ar
   }
 }
 
-/**
- * Power iteration on the m×m non-negative matrix b, right and left vectors together in one pass over b per step.
- * `shift` is added to the diagonal of the iteration matrix only (the bounds are always computed for b itself).
- */
+/** Iteration cap for an m×m block: at most `work` multiply-adds, between 50 and 2000 steps. */
 function defaultCap(m: number, work = 4e8): number {
   return Math.max(50, Math.min(2000, Math.floor(work / (m * m))));
 }
 
 /**
+ * Power iteration on the m×m non-negative matrix b, right and left vectors together in one pass over b per step.
+ * `shift` is added to the diagonal of the iteration matrix only (the bounds are always computed for b itself).
  * `vectorsOnly`: stop when the vectors settle (max change ≤ tol·max entry) instead of when the bounds meet — for the
  * whole of a reducible matrix, whose Perron vector may have zeros so its upper bound need not converge.
  */
