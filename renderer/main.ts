@@ -1,0 +1,6 @@
+import { createApp } from 'vue';
+import App from './App.vue';
+import './styles.css';
+import './charts/register.ts';
+
+createApp(App).mount('#app');

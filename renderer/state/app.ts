@@ -1,0 +1,228 @@
+/**
+ * The app's state and the actions on it. Screens read `app` and call the actions; every computation goes to the
+ * engine worker. Scenario edits go through `editScenarios` so they can be undone and mark the project unsaved.
+ */
+import { reactive, watch } from 'vue';
+import { getBridge } from '../bridge/index.ts';
+import { engine, CancelledError, EngineError } from '../worker/client.ts';
+import type { AnalysisView, TableInfo } from '../worker/protocol.ts';
+import type { PreviewView, ScenarioView, ScenarioDraft, TableSource } from '../worker/compute.ts';
+import { History } from './history.ts';
+
+export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export';
+
+export interface ImportDraft {
+  source: TableSource;
+  preview: PreviewView | null;
+  /** Refusal of the draft as it stands (located message). */
+  error: string | null;
+}
+
+export const app = reactive({
+  screen: 'overview' as ScreenId,
+  ready: false,
+  /** The table in use and where it came from (kept for the project file). */
+  table: null as TableInfo | null,
+  source: null as TableSource | null,
+  analysis: null as AnalysisView | null,
+  /** Last import refusal; the previous table stays in use. */
+  importError: null as string | null,
+  draft: null as ImportDraft | null,
+  scenarios: [] as ScenarioDraft[],
+  selected: 0,
+  results: [] as (ScenarioView | { error: string } | null)[],
+  /** Type II: include the household closure in scenario results and multipliers. */
+  closure: true,
+  /** True while the scenario list is only the example the app made itself (replaced when the table changes). */
+  starterOnly: false,
+  dirty: false,
+  project: null as { name: string; path?: string } | null,
+  toast: '' as string,
+  fatal: '' as string,
+});
+
+const history = new History<{ scenarios: ScenarioDraft[]; selected: number }>();
+export const undoState = reactive({ canUndo: false, canRedo: false });
+
+function syncUndo(): void {
+  undoState.canUndo = history.canUndo;
+  undoState.canRedo = history.canRedo;
+}
+
+let toastTimer: ReturnType<typeof setTimeout> | null = null;
+export function say(msg: string): void {
+  app.toast = msg;
+  if (toastTimer) clearTimeout(toastTimer);
+  toastTimer = setTimeout(() => { app.toast = ''; }, 3500);
+}
+
+export function messageOf(e: unknown): string {
+  if (e instanceof EngineError) return e.message;
+  if (e instanceof Error) return e.message;
+  return String(e);
+}
+
+function markDirty(d: boolean): void {
+  app.dirty = d;
+  getBridge().setDirty(d);
+}
+
+// ---- table ----
+
+export async function loadSample(): Promise<void> {
+  try {
+    const r = await engine().call('loadSample', {}, 'Opening the sample county…');
+    app.table = r.table;
+    app.source = r.source;
+    app.analysis = r.analysis;
+    app.ready = true;
+    if (app.scenarios.length === 0 || app.starterOnly) {
+      app.scenarios = [r.starter];
+      app.selected = 0;
+      app.starterOnly = true;
+    }
+    await recomputeAll();
+  } catch (e) {
+    if (!(e instanceof CancelledError)) app.fatal = messageOf(e);
+  }
+}
+
+/** Open a file for import: show its preview on the Import screen. */
+export async function beginImport(source: TableSource): Promise<void> {
+  app.screen = 'import';
+  app.importError = null;
+  app.draft = { source, preview: null, error: null };
+  await refreshPreview();
+}
+
+export async function refreshPreview(): Promise<void> {
+  const d = app.draft;
+  if (!d) return;
+  try {
+    d.preview = await engine().call('previewTable', d.source, 'Reading the file…');
+    d.error = d.preview.refusal;
+  } catch (e) {
+    if (e instanceof CancelledError) return;
+    d.preview = null;
+    d.error = messageOf(e);
+  }
+}
+
+export async function setDraftRole(kind: 'rows' | 'columns', label: string, role: string): Promise<void> {
+  const d = app.draft;
+  if (!d) return;
+  const roles: Record<'rows' | 'columns', Record<string, string>> = { rows: { ...(d.source.roles?.rows ?? {}) }, columns: { ...(d.source.roles?.columns ?? {}) } };
+  roles[kind][label] = role;
+  d.source = { ...d.source, roles: roles as TableSource['roles'] };
+  await refreshPreview();
+}
+
+export async function setDraftLayout(layout: string | undefined): Promise<void> {
+  const d = app.draft;
+  if (!d) return;
+  d.source = { ...d.source, layout };
+  await refreshPreview();
+}
+
+/** Accept the draft: the new table replaces the old only when the engine accepts it. */
+export async function acceptImport(): Promise<boolean> {
+  const d = app.draft;
+  if (!d) return false;
+  return useTable(d.source);
+}
+
+export async function useTable(source: TableSource): Promise<boolean> {
+  try {
+    const r = await engine().call('loadTable', source, 'Importing the table…');
+    app.table = r.table;
+    app.source = source;
+    app.analysis = r.analysis;
+    app.importError = null;
+    app.draft = null;
+    if (app.starterOnly) {
+      app.scenarios = [r.starter];
+      app.selected = 0;
+    }
+    markDirty(true);
+    await recomputeAll();
+    return true;
+  } catch (e) {
+    if (e instanceof CancelledError) return false;
+    app.importError = messageOf(e);
+    if (app.draft) app.draft.error = app.importError;
+    return false;
+  }
+}
+
+export function discardDraft(): void {
+  app.draft = null;
+  app.importError = null;
+}
+
+export async function openTable(): Promise<void> {
+  const f = await getBridge().openFile('table');
+  if (f) await beginImport({ text: f.text, fileName: f.name });
+}
+
+// ---- scenarios ----
+
+export function editScenarios(fn: (s: ScenarioDraft[]) => void, select?: number): void {
+  history.record({ scenarios: app.scenarios, selected: app.selected });
+  app.starterOnly = false;
+  const copy = JSON.parse(JSON.stringify(app.scenarios)) as ScenarioDraft[];
+  fn(copy);
+  app.scenarios = copy;
+  if (select !== undefined) app.selected = select;
+  app.selected = Math.min(Math.max(0, app.selected), Math.max(0, copy.length - 1));
+  syncUndo();
+  markDirty(true);
+}
+
+export function undo(): void {
+  const s = history.undo({ scenarios: app.scenarios, selected: app.selected });
+  if (!s) return;
+  app.scenarios = s.scenarios;
+  app.selected = s.selected;
+  syncUndo();
+  markDirty(true);
+}
+
+export function redo(): void {
+  const s = history.redo({ scenarios: app.scenarios, selected: app.selected });
+  if (!s) return;
+  app.scenarios = s.scenarios;
+  app.selected = s.selected;
+  syncUndo();
+  markDirty(true);
+}
+
+let recomputeSeq = 0;
+/** Results follow the inputs: every change of scenarios, closure or table recomputes them (cheap solves). */
+export async function recomputeAll(): Promise<void> {
+  if (!app.table) return;
+  const seq = ++recomputeSeq;
+  const out: (ScenarioView | { error: string } | null)[] = [];
+  for (const s of app.scenarios) {
+    try {
+      out.push(await engine().call('runScenario', { scenario: JSON.parse(JSON.stringify(s)) as ScenarioDraft, closure: app.closure }, 'Computing scenario effects…'));
+    } catch (e) {
+      if (e instanceof CancelledError) return;
+      out.push({ error: messageOf(e) });
+    }
+    if (seq !== recomputeSeq) return;
+  }
+  app.results = out;
+}
+
+let pending: ReturnType<typeof setTimeout> | null = null;
+watch(() => [app.scenarios, app.closure], () => {
+  if (pending) clearTimeout(pending);
+  pending = setTimeout(() => { void recomputeAll(); }, 120);
+}, { deep: true });
+
+export function resetHistory(): void {
+  history.clear();
+  syncUndo();
+}
+
+export { markDirty };

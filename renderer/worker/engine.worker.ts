@@ -1,0 +1,27 @@
+/// <reference lib="webworker" />
+/**
+ * The engine's home in the browser: every import, analysis, scenario and report runs here, off the UI thread.
+ * The worker holds the current table and its prepared model; the UI holds only what it shows.
+ */
+import { isInputError, formatLocated } from '../../src/diagnostics/errors.ts';
+import { api } from './compute.ts';
+import type { RpcRequest, RpcResponse } from './rpc.ts';
+
+const scope = self as unknown as DedicatedWorkerGlobalScope;
+
+scope.onmessage = (e: MessageEvent<RpcRequest>) => {
+  const { id, op, args } = e.data;
+  let res: RpcResponse;
+  try {
+    const fn = (api as Record<string, (a: unknown) => unknown>)[op];
+    if (!fn) throw new Error(`unknown operation '${op}'`);
+    res = { id, ok: true, value: fn(args) };
+  } catch (err) {
+    if (isInputError(err)) res = { id, ok: false, error: { message: formatLocated(err), refused: true, code: err.code } };
+    else {
+      const msg = err instanceof Error ? err.message : String(err);
+      res = { id, ok: false, error: { message: msg.split('\n')[0] ?? 'internal error', refused: false } };
+    }
+  }
+  scope.postMessage(res);
+};
