@@ -44,15 +44,19 @@ export function formatLocation(loc: Location): string {
   return parts.join(' ');
 }
 
-/** Control characters from a file (a CR inside a label, a NUL) shown escaped, so a message stays one readable line. */
-function escapeControls(s: string): string {
-  return s.replace(/[\u0000-\u001f\u007f]/g, (c) => JSON.stringify(c).slice(1, -1));
+/**
+ * Control characters from a file (a CR inside a label, a NUL in a cell) shown escaped, so a message stays readable.
+ * Labels are escaped entirely; a message keeps its own line breaks (a usage hint on a second line) but nothing else.
+ */
+function escapeControls(s: string, keepNewline: boolean): string {
+  return s.replace(/[\u0000-\u001f\u007f]/g, (c) => (keepNewline && c === '\n' ? c : JSON.stringify(c).slice(1, -1)));
 }
 
 /** One line for the user: "county.csv:12:4 (row 'Farming', column 'Mining'): negative intermediate flow -3.2". */
 export function formatLocated(err: { message: string; location?: Location }): string {
-  const where = err.location ? formatLocation(err.location) : '';
-  return escapeControls(where ? `${where}: ${err.message}` : err.message);
+  const where = err.location ? escapeControls(formatLocation(err.location), false) : '';
+  const message = escapeControls(err.message, true);
+  return where ? `${where}: ${message}` : message;
 }
 
 export function isInputError(e: unknown): e is InputError {

@@ -116,6 +116,59 @@ function factorPanel(lu: Float64Array, n: number, k0: number, kb: number, piv: I
   return swaps;
 }
 
+/** Result of Gaussian elimination without pivoting (see `eliminationPivots`). */
+export interface EliminationPivots {
+  /** Pivots u_11 … u_kk up to and including the first that is not positive (all n when every pivot is positive). */
+  pivots: Float64Array;
+  /** 0-based index of the first pivot that is not positive, or −1. Leading principal minor k+1 = u_11·…·u_(k+1)(k+1). */
+  firstNonPositive: number;
+}
+
+/**
+ * Gaussian elimination without pivoting on an n×n matrix (input not modified), stopping at the first pivot that is not
+ * positive — the elimination behind the Hawkins–Simon test, where the k-th leading principal minor is the product of
+ * the first k pivots. Same recursive blocking (and speed) as `luFactor`; pivots equal those of the textbook loop up to
+ * rounding.
+ */
+export function eliminationPivots(a: Float64Array, n: number): EliminationPivots {
+  let fail = -1;
+  const diag = withWorkspace([n * n], ([w]) => {
+    w!.set(a.subarray(0, n * n));
+    fail = eliminateColumns(w!, n, 0, n);
+    const last = fail < 0 ? n : fail + 1;
+    const d = new Float64Array(last);
+    for (let k = 0; k < last; k++) d[k] = w![k * n + k]!;
+    return d;
+  });
+  return { pivots: diag, firstNonPositive: fail };
+}
+
+/** Columns [c0, c1) of the elimination without pivoting; returns the first non-positive pivot's index or −1. */
+function eliminateColumns(m: Float64Array, n: number, c0: number, c1: number): number {
+  const w = c1 - c0;
+  if (w <= LEAF) {
+    for (let j = c0; j < c1; j++) {
+      const rj = j * n;
+      const pivot = m[rj + j]!;
+      if (!(pivot > 0)) return j;
+      for (let i = j + 1; i < n; i++) {
+        const ri = i * n;
+        const l = m[ri + j]! / pivot;
+        m[ri + j] = l;
+        if (l === 0) continue;
+        for (let c = j + 1; c < c1; c++) m[ri + c] = m[ri + c]! - l * m[rj + c]!;
+      }
+    }
+    return -1;
+  }
+  const mid = c0 + half(w);
+  const failed = eliminateColumns(m, n, c0, mid);
+  if (failed >= 0) return failed;
+  solveUnitLower(m, n, c0, mid, m, n, mid, c1 - mid);
+  gemmSubtract(m, mid * n + mid, n, m, mid * n + c0, n, m, c0 * n + mid, n, n - mid, c1 - mid, mid - c0);
+  return eliminateColumns(m, n, mid, c1);
+}
+
 function assertSolvable(f: LU): void {
   if (f.singular) throw new Error('matrix is singular: no unique solution');
 }

@@ -1,13 +1,36 @@
 /**
- * A table made ready for repeated solves: coefficients, the household-closed coefficients, and factorisations.
+ * A table made ready for repeated solves: coefficients, the household-closed coefficients, and one factorisation.
  * Scenarios, multipliers and the UI share one PreparedModel, so a factorisation is done once per table.
- * Solves go through the functions below so the way the closed system is solved (today a second LU; bordering
- * on the open factorisation is the planned replacement) stays an internal matter.
+ *
+ * The closed (Type II) system is solved by bordering on the open factorisation, not by a second LU. I − Ā is I − A
+ * bordered by the household column −c and the household row −hᵀ:
+ *     I − Ā = [ B  −c ]      B = I − A,
+ *             [ −hᵀ 1 ]
+ * (the corner is 1 − ā_hh when households buy from themselves, as in some published closures; our closure has ā_hh = 0).
+ * With u = B⁻¹c, w = B⁻ᵀh (one solve each, once per table) and the Schur complement s = 1 − ā_hh − h·u,
+ * block elimination gives (Golub & Van Loan, Matrix Computations, 4th ed. 2013, §3.2.11; Miller & Blair 2009, §6.2):
+ *     (I − Ā) [x; y] = [f; g]      ⇒  y = (g + w·f)/s,  x = B⁻¹f + u·y
+ *     [x; y]ᵀ (I − Ā) = [c̄; d]     ⇒  y = (d + c̄·u)/s,  x = B⁻ᵀc̄ + w·y
+ * so each closed solve costs one open solve plus O(n). det(I − Ā) = det(B)·s, so the closed system is singular
+ * exactly when s = 0, and for a productive open model s > 0 exactly when the closed model is productive.
  */
 import type { IOTable } from '../table/types.ts';
 import { coefficients, type Coefficients } from './coefficients.ts';
 import { closeHouseholds, type ClosedCoefficients } from './closure.ts';
 import { identityMinus, luFactor, luSolve, luSolveTransposed, type LU } from '../linalg/index.ts';
+
+/** The bordering of I − Ā on the open factorisation (see the file comment). */
+export interface ClosedBorder {
+  /** The closed coefficients and open factorisation this bordering was computed from. */
+  closed: ClosedCoefficients;
+  openLU: LU;
+  /** u = (I − A)⁻¹ c: the output needed to meet one unit of household spending. */
+  u: Float64Array;
+  /** w = h (I − A)⁻¹: household income generated per unit of final demand (open model), i.e. the simple income multipliers. */
+  w: Float64Array;
+  /** Schur complement s = 1 − ā_hh − h·u; det(I − Ā) = det(I − A)·s. */
+  s: number;
+}
 
 export interface PreparedModel {
   table: IOTable;
@@ -16,36 +39,85 @@ export interface PreparedModel {
   closed: ClosedCoefficients | null;
   /** LU of I − A. */
   openLU: LU;
-  /** LU of I − Ā (closed model), or null. */
-  closedLU: LU | null;
+  /**
+   * Bordering data for the closed model, or null when there is no closure or the open system is singular. Read it
+   * through `closedBorder(pm)`, which recomputes it if `closed` or `openLU` was replaced (hand-assembled models).
+   */
+  border: ClosedBorder | null;
+  /** Not used: closed solves border the open factorisation. Kept optional so models assembled with it still type-check. */
+  closedLU?: LU | null;
 }
 
-export function prepareModel(table: IOTable): PreparedModel {
-  const coef = coefficients(table);
+function dot(p: Float64Array, q: Float64Array, n: number): number {
+  let s = 0;
+  for (let i = 0; i < n; i++) s += p[i]! * q[i]!;
+  return s;
+}
+
+/** Prepare from a table; `coef` may be passed when already computed. */
+export function prepareModel(table: IOTable, coef: Coefficients = coefficients(table)): PreparedModel {
   const closed = closeHouseholds(coef);
-  const openLU = luFactor(identityMinus(coef.A, coef.n), coef.n);
-  const closedLU = closed ? luFactor(identityMinus(closed.Abar, closed.m), closed.m) : null;
-  return { table, coef, closed, openLU, closedLU };
+  const n = coef.n;
+  const openLU = luFactor(identityMinus(coef.A, n), n);
+  return { table, coef, closed, openLU, border: closed ? makeBorder(closed, openLU) : null };
 }
 
-/** x = (I − A)⁻¹ f. */
+function makeBorder(closed: ClosedCoefficients, openLU: LU): ClosedBorder | null {
+  if (openLU.singular) return null;
+  const n = openLU.n;
+  const u = luSolve(openLU, closed.hc);
+  const w = luSolveTransposed(openLU, closed.hr);
+  const corner = closed.Abar[n * closed.m + n] ?? 0;
+  return { closed, openLU, u, w, s: 1 - corner - dot(closed.hr, u, n) };
+}
+
+/** The bordering for pm's current closure and factorisation (null without closure or when I − A is singular). */
+export function closedBorder(pm: PreparedModel): ClosedBorder | null {
+  if (!pm.closed) return null;
+  if (pm.border && pm.border.closed === pm.closed && pm.border.openLU === pm.openLU) return pm.border;
+  pm.border = makeBorder(pm.closed, pm.openLU);
+  return pm.border;
+}
+
+/** x = (I − A)⁻¹ f. Throws when I − A is singular. */
 export function solveOpen(pm: PreparedModel, f: Float64Array): Float64Array {
   return luSolve(pm.openLU, f);
 }
 
-/** y = c (I − A)⁻¹ for a row vector c (multipliers). */
+/** y = c (I − A)⁻¹ for a row vector c (multipliers). Throws when I − A is singular. */
 export function solveOpenTransposed(pm: PreparedModel, c: Float64Array): Float64Array {
   return luSolveTransposed(pm.openLU, c);
 }
 
-/** x̄ = (I − Ā)⁻¹ f̄ for f̄ of length n+1 (the last entry is exogenous household income). Throws when not closed. */
-export function solveClosed(pm: PreparedModel, fbar: Float64Array): Float64Array {
-  if (!pm.closedLU) throw new Error('the table has no household closure');
-  return luSolve(pm.closedLU, fbar);
+function solvableBorder(pm: PreparedModel): ClosedBorder {
+  if (!pm.closed) throw new Error('the table has no household closure');
+  const b = closedBorder(pm);
+  if (!b || b.s === 0) throw new Error('matrix is singular: no unique solution');
+  return b;
 }
 
-/** ȳ = c̄ (I − Ā)⁻¹ for a row vector c̄ of length n+1. Throws when not closed. */
+/** x̄ = (I − Ā)⁻¹ f̄ for f̄ of length n+1 (the last entry is exogenous household income). Throws when not closed or singular. */
+export function solveClosed(pm: PreparedModel, fbar: Float64Array): Float64Array {
+  const { u, w, s } = solvableBorder(pm);
+  const n = pm.coef.n;
+  const f = fbar.subarray(0, n);
+  const x0 = luSolve(pm.openLU, f);
+  const y = (fbar[n]! + dot(w, f, n)) / s;
+  const out = new Float64Array(n + 1);
+  for (let i = 0; i < n; i++) out[i] = x0[i]! + u[i]! * y;
+  out[n] = y;
+  return out;
+}
+
+/** ȳ = c̄ (I − Ā)⁻¹ for a row vector c̄ of length n+1. Throws when not closed or singular. */
 export function solveClosedTransposed(pm: PreparedModel, cbar: Float64Array): Float64Array {
-  if (!pm.closedLU) throw new Error('the table has no household closure');
-  return luSolveTransposed(pm.closedLU, cbar);
+  const { u, w, s } = solvableBorder(pm);
+  const n = pm.coef.n;
+  const c = cbar.subarray(0, n);
+  const x0 = luSolveTransposed(pm.openLU, c);
+  const y = (cbar[n]! + dot(c, u, n)) / s;
+  const out = new Float64Array(n + 1);
+  for (let i = 0; i < n; i++) out[i] = x0[i]! + w[i]! * y;
+  out[n] = y;
+  return out;
 }

@@ -3,6 +3,7 @@
  * open total) and total (closed model), for output, value added, labour income and employment — the usual split of
  * Type I and Type II impact analysis (Miller & Blair 2009, ch. 6).
  */
+import { InputError } from '../diagnostics/errors.ts';
 import { solveClosed, solveOpen, type PreparedModel } from '../model/prepared.ts';
 import { resolveShock } from './lines.ts';
 import { solveMixed } from './mixed.ts';
@@ -56,6 +57,10 @@ function multiplierOf(t: EffectTotals): ScenarioMultiplier {
 
 export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResult {
   const shock = resolveShock(pm, scenario);
+  // The UI and projects call this directly, not only the CLI: a singular I − A is a refusal, not a solver exception.
+  if (pm.openLU.singular) {
+    throw new InputError('singular', 'I − A is singular, so the table cannot carry a demand shock (check that every sector has inputs from outside the table, i.e. value added or imports)');
+  }
   const { n, sectors, h, otherVA, e } = pm.coef;
   const direct = Float64Array.from(shock.df);
   shock.fixed.forEach((j, r) => { direct[j] = shock.fixedOutput[r]!; });

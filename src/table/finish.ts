@@ -110,7 +110,7 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
   const totalColK = raw.columns.findIndex((c) => c.role === 'totalOutput');
   const totalRowK = raw.rows.findIndex((r) => r.role === 'totalInput');
   const empRows = raw.rows.filter((r) => r.role === 'employment');
-  const extraTotals = raw.columns.filter((c) => c.role === 'totalOutput').length - 1 + Math.max(0, raw.rows.filter((r) => r.role === 'totalInput').length - 1);
+  const extraTotals = Math.max(0, raw.columns.filter((c) => c.role === 'totalOutput').length - 1) + Math.max(0, raw.rows.filter((r) => r.role === 'totalInput').length - 1);
   if (extraTotals > 0) warnings.push({ code: 'extra-total', message: 'more than one total row or column: the first of each is used, the others are not read', location: { file } });
   if (empRows.length > 1) warnings.push({ code: 'extra-employment', message: `more than one employment row: '${empRows[0]!.label}' is used`, location: { file, rowLabel: empRows[1]!.label } });
 

@@ -31,8 +31,6 @@ export interface Grid {
 /** Quote-free text: offsets only. */
 class OffsetGrid implements Grid {
   private readonly text: string;
-  /** True when the text mixes lone CR with LF line ends (the grid is then incomplete). */
-  mixed = false;
   /** Per record, field boundaries: field c is text[b[c], b[c+1]-1) (the −1 skips the delimiter; the last one is adjusted). */
   private readonly bounds: Int32Array[];
   constructor(text: string, delimiter: Delimiter) {
@@ -43,18 +41,11 @@ class OffsetGrid implements Grid {
     let start = 0;
     const scratch: number[] = [];
     let next = text.indexOf(delimiter);
-    let nextCR = lineEnd === 10 ? text.indexOf('\r') : -1;
     while (start < len) {
       let end = text.indexOf(lineEnd === 10 ? '\n' : '\r', start);
       if (end < 0) end = len;
       let stop = end;
       if (lineEnd === 10 && stop > start && text.charCodeAt(stop - 1) === 13) stop--;
-      if (nextCR >= 0 && nextCR < start) nextCR = text.indexOf('\r', start);
-      if (nextCR >= 0 && nextCR < stop) {
-        // A lone CR line end in a file that also has LF: the caller normalises the line ends and tries again.
-        this.mixed = true;
-        break;
-      }
       scratch.length = 0;
       scratch.push(start);
       // indexOf is the engine's native search, several times faster than a charCodeAt loop on long lines.
@@ -128,16 +119,16 @@ class PapaGrid implements Grid {
   }
 }
 
-/** Line on which each record starts: line breaks (CRLF, LF or CR) outside double quotes end a record. */
+/** Line on which each record starts: line ends (LF, or CR in a file without LF) outside double quotes end a record. */
 export function recordStartLines(text: string): number[] {
+  const end = text.indexOf('\n') >= 0 ? 10 : 13;
   const starts = [1];
   let line = 1;
   let inQuotes = false;
   for (let i = 0; i < text.length; i++) {
     const c = text.charCodeAt(i);
     if (c === 34) inQuotes = !inQuotes;
-    else if (c === 10 || c === 13) {
-      if (c === 13 && text.charCodeAt(i + 1) === 10) i++;
+    else if (c === end) {
       line++;
       if (!inQuotes) starts.push(line);
     }
@@ -147,25 +138,20 @@ export function recordStartLines(text: string): number[] {
 
 export function buildGrid(source: string, delimiter: Delimiter, fileName: string, forcePapa = false): Grid {
   if (!forcePapa && source.indexOf('"') < 0) {
-    const fast = new OffsetGrid(source, delimiter);
-    if (!fast.mixed) return fast;
-    return new OffsetGrid(source.replace(/\r\n?/g, '\n'), delimiter);
+    return new OffsetGrid(source, delimiter);
   }
-  // papaparse expects one kind of line end, told here rather than guessed. CRLF files from spreadsheets carry LF
-  // inside quoted cells, so LF beside CRLF is left alone unless it breaks the quotes; a lone CR beside other line
-  // ends (text edited in several programs) is made LF first. Normalising keeps the count of lines, so locations hold.
-  const ends = countLineEnds(source);
+  // papaparse is told the line end rather than left to guess, with the fast grid's rule: LF ends a record (a CR
+  // before it is dropped), a lone CR is text — except in a file with no LF at all, where CR ends records. Line ends
+  // inside quotes are cell text and are left alone (spreadsheets put LF inside cells of CRLF files). When CRLF and
+  // LF both end records, CRLF is made LF first; the count of lines is unchanged, so locations still hold.
+  const ends = recordEnds(source);
   let text = source;
-  let newline: '\r\n' | '\n' | '\r' = ends.crlf > 0 ? '\r\n' : ends.cr > 0 ? '\r' : '\n';
-  if (ends.cr > 0 && ends.crlf + ends.lf > 0) {
-    text = source.replace(/\r\n?/g, '\n');
+  let newline: '\r\n' | '\n' | '\r';
+  if (ends.crlf > 0 && ends.lf > 0) {
+    text = source.replace(/\r\n/g, '\n');
     newline = '\n';
-  }
-  let res = papa(text, delimiter, newline);
-  if (newline === '\r\n' && ends.lf > 0 && res.errors.some((e) => e.type === 'Quotes')) {
-    text = source.replace(/\r\n?/g, '\n');
-    res = papa(text, delimiter, '\n');
-  }
+  } else newline = ends.crlf > 0 ? '\r\n' : ends.lf > 0 ? '\n' : ends.cr > 0 ? '\r' : '\n';
+  const res = papa(text, delimiter, newline);
   // A final line break yields one empty record at the end; drop it so both grids agree.
   const rows = res.data;
   const last = rows[rows.length - 1];
@@ -183,14 +169,23 @@ function papa(text: string, delimiter: Delimiter, newline: '\r\n' | '\n' | '\r')
   return Papa.parse<string[]>(text, { delimiter, newline, quoteChar: '"', escapeChar: '"', skipEmptyLines: false, header: false, dynamicTyping: false });
 }
 
-function countLineEnds(text: string): { crlf: number; lf: number; cr: number } {
+/** Line ends outside double quotes, by kind. */
+function recordEnds(text: string): { crlf: number; lf: number; cr: number } {
   let crlf = 0;
   let lf = 0;
   let cr = 0;
-  for (let i = text.indexOf('\r'); i >= 0; i = text.indexOf('\r', i + 1)) {
-    if (text.charCodeAt(i + 1) === 10) crlf++;
-    else cr++;
+  let inQuotes = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 34) inQuotes = !inQuotes;
+    else if (inQuotes) continue;
+    else if (c === 10) lf++;
+    else if (c === 13) {
+      if (text.charCodeAt(i + 1) === 10) {
+        crlf++;
+        i++;
+      } else cr++;
+    }
   }
-  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) lf++;
-  return { crlf, lf: lf - crlf, cr };
+  return { crlf, lf, cr };
 }

@@ -7,7 +7,7 @@ import { InputError, type Location } from '../diagnostics/errors.ts';
 import type { Grid } from './grid.ts';
 import { checkWidth, headerWidth, negativeFlow, readCell, type ReadOptions } from './matrix.ts';
 import { normaliseLabel } from './roles.ts';
-import { classify, cleanLabel, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';
+import { classify, cleanLabel, matchKey, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';
 
 const FROM = ['from', 'row', 'seller'];
 const TO = ['to', 'column', 'buyer'];
@@ -46,24 +46,25 @@ export function readLong(grid: Grid, rowsInFile: number[], opts: ReadOptions): R
     const line = grid.line(r);
     if (f === '') throw new InputError('missing-label', "record has no 'from' label", { file: fileName, line, column: h.from + 1 });
     if (t === '') throw new InputError('missing-label', "record has no 'to' label", { file: fileName, line, column: h.to + 1 });
-    let fi = fromIdx.get(f);
+    // Labels differing only in case or spacing are one label (the first spelling is kept).
+    let fi = fromIdx.get(matchKey(f));
     if (fi === undefined) {
       fi = fromLabels.length;
-      fromIdx.set(f, fi);
+      fromIdx.set(matchKey(f), fi);
       fromLabels.push(f);
       fromLine.push(line);
     }
-    let ti = toIdx.get(t);
+    let ti = toIdx.get(matchKey(t));
     if (ti === undefined) {
       ti = toLabels.length;
-      toIdx.set(t, ti);
+      toIdx.set(matchKey(t), ti);
       toLabels.push(t);
       toLine.push(line);
     }
     const key = `${fi},${ti}`;
     const prev = entries.get(key);
     if (prev !== undefined) {
-      throw new InputError('duplicate-entry', `the pair '${f}' → '${t}' occurs twice (also on line ${grid.line(prev)})`, { file: fileName, line, column: h.value + 1, rowLabel: f, columnLabel: t });
+      throw new InputError('duplicate-entry', `the pair '${fromLabels[fi]}' → '${toLabels[ti]}' occurs twice (also on line ${grid.line(prev)})`, { file: fileName, line, column: h.value + 1, rowLabel: f, columnLabel: t });
     }
     entries.set(key, r);
   }
@@ -114,7 +115,7 @@ export function readLong(grid: Grid, rowsInFile: number[], opts: ReadOptions): R
     }
   }
   const entryAt = (f: string, t: string): Location => {
-    const r = entries.get(`${fromIdx.get(f)},${toIdx.get(t)}`);
+    const r = entries.get(`${fromIdx.get(matchKey(f))},${toIdx.get(matchKey(t))}`);
     return r === undefined ? { file: fileName, rowLabel: f, columnLabel: t } : { file: fileName, line: grid.line(r), column: h.value + 1, rowLabel: f, columnLabel: t };
   };
   return {

@@ -5,7 +5,7 @@
 import { InputError, type Location } from '../diagnostics/errors.ts';
 import type { Grid } from './grid.ts';
 import { parseNumberText, showNumber, type DecimalMark } from './numbers.ts';
-import { classify, cleanLabel, type Classified, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';
+import { classify, cleanLabel, matchKey, type Classified, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';
 import type { RoleMap } from './types.ts';
 
 export interface ReadOptions {
@@ -35,7 +35,7 @@ export function headerWidth(grid: Grid, r: number): number {
 export function checkWidth(grid: Grid, r: number, width: number, fileName: string, rowLabel?: string): void {
   const w = grid.width(r);
   if (w < width) {
-    throw new InputError('ragged-row', `row has ${w} field${w === 1 ? '' : 's'}, the header has ${width}`, { file: fileName, line: grid.line(r), column: w + 1, ...(rowLabel !== undefined ? { rowLabel } : {}) });
+    throw new InputError('ragged-row', `row has ${w} field${w === 1 ? '' : 's'}, the header has ${width}`, { file: fileName, line: grid.line(r), column: w, ...(rowLabel !== undefined ? { rowLabel } : {}) });
   }
   for (let c = width; c < w; c++) {
     if (grid.cell(r, c).trim() !== '') {
@@ -82,9 +82,9 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
     const label = cleanLabel(grid.cell(hr, c));
     const loc = { file: fileName, line: grid.line(hr), column: c + 1 };
     if (label === '') throw new InputError('missing-label', 'column has no label', loc);
-    const first = colFirst.get(label);
+    const first = colFirst.get(matchKey(label));
     if (first !== undefined) throw new InputError('duplicate-label', `duplicate column label '${label}' (also in field ${first + 1})`, { ...loc, columnLabel: label });
-    colFirst.set(label, c);
+    colFirst.set(matchKey(label), c);
     colLabels.push(label);
   }
   const dataRows = rowsInFile.slice(1);
@@ -95,9 +95,9 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
     checkWidth(grid, r, W, fileName, label || undefined);
     const loc = { file: fileName, line: grid.line(r), column: 1 };
     if (label === '') throw new InputError('missing-label', 'row has numbers but no label', loc);
-    const first = rowFirst.get(label);
+    const first = rowFirst.get(matchKey(label));
     if (first !== undefined) throw new InputError('duplicate-label', `duplicate row label '${label}' (also on line ${grid.line(first)})`, { ...loc, rowLabel: label });
-    rowFirst.set(label, r);
+    rowFirst.set(matchKey(label), r);
     rowLabels.push(label);
   }
   const cl = classify(

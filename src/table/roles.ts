@@ -12,7 +12,7 @@ export const COLUMN_ROLES: readonly ColumnRole[] = ['householdConsumption', 'oth
 
 /** Recognised row labels (after normalising). Any label containing "import" is an import row. */
 export const ROW_LABELS: Readonly<Record<'labourIncome' | 'employment' | 'totalInput', readonly string[]>> = {
-  labourIncome: ['labor income', 'labour income', 'compensation of employees', 'wages and salaries', 'household income', 'households', 'employee compensation'],
+  labourIncome: ['labor income', 'labour income', 'compensation of employees', 'wages and salaries', 'household income', 'households', 'employee compensation', 'wages', 'labor compensation', 'labour compensation'],
   employment: ['employment', 'jobs'],
   totalInput: ['total input', 'total inputs', 'total outlays', 'total outlay', 'total'],
 };

@@ -36,6 +36,14 @@ export function cleanLabel(s: string): string {
   return /^'[=+\-@\t\r]/.test(t) ? t.slice(1) : t;
 }
 
+/**
+ * Key for matching a row label to a column label, and for duplicates: case and runs of spaces do not count, so a
+ * column "Real Estate" meets the row "Real estate" (the sector keeps the row's spelling).
+ */
+export function matchKey(label: string): string {
+  return label.toLowerCase().replace(/\s+/g, ' ');
+}
+
 export function classify(
   rowLabels: readonly string[],
   rowLoc: (k: number) => Location,
@@ -46,16 +54,15 @@ export function classify(
 ): Classified {
   const ovRows = overrides?.rows ?? {};
   const ovCols = overrides?.columns ?? {};
-  const colIndex = new Map<string, number>();
-  colLabels.forEach((l, k) => colIndex.set(l, k));
   const rowSet = new Set(rowLabels);
-  const isSector = (label: string): boolean =>
-    rowSet.has(label) &&
-    colIndex.has(label) &&
-    !Object.hasOwn(ovRows, label) &&
-    !Object.hasOwn(ovCols, label) &&
-    !suggestRowRole(label).recognised &&
-    !suggestColumnRole(label).recognised;
+  const colSet = new Set(colLabels);
+  const rowKeys = new Set(rowLabels.map(matchKey));
+  const colKeys = new Set(colLabels.map(matchKey));
+  const overridden = new Set([...Object.keys(ovRows), ...Object.keys(ovCols)].map(matchKey));
+  const isSector = (label: string): boolean => {
+    const k = matchKey(label);
+    return rowKeys.has(k) && colKeys.has(k) && !overridden.has(k) && !suggestRowRole(label).recognised && !suggestColumnRole(label).recognised;
+  };
 
   const sectors: string[] = [];
   const sectorOf = new Map<string, number>();
@@ -66,7 +73,7 @@ export function classify(
   const roles: RoleMap = { rows: {}, columns: {} };
   rowLabels.forEach((label, k) => {
     if (isSector(label)) {
-      sectorOf.set(label, sectors.length);
+      sectorOf.set(matchKey(label), sectors.length);
       rowSector[k] = sectors.length;
       sectors.push(label);
       rows.push({ label, role: 'sector', suggested: 'sector', location: rowLoc(k) });
@@ -78,7 +85,7 @@ export function classify(
     }
   });
   colLabels.forEach((label, k) => {
-    const s = sectorOf.get(label);
+    const s = sectorOf.get(matchKey(label));
     if (s !== undefined) {
       colSector[k] = s;
       columns.push({ label, role: 'sector', suggested: 'sector', location: colLoc(k) });
@@ -91,7 +98,7 @@ export function classify(
   });
   const warnings: Warning[] = [];
   const unusedRows = Object.keys(ovRows).filter((l) => !rowSet.has(l));
-  const unusedCols = Object.keys(ovCols).filter((l) => !colIndex.has(l));
+  const unusedCols = Object.keys(ovCols).filter((l) => !colSet.has(l));
   if (unusedRows.length || unusedCols.length) {
     const names = [...unusedRows.map((l) => `row '${l}'`), ...unusedCols.map((l) => `column '${l}'`)];
     warnings.push({ code: 'role-map-unused', message: `the role map names labels the table does not have: ${names.slice(0, 5).join(', ')}${names.length > 5 ? ', …' : ''}`, location: { file: fileName } });

@@ -23,6 +23,17 @@ export function stripBom(text: string): string {
   return text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
 }
 
+/** Line and column (1-based, in characters) of a character offset. */
+export function lineColumnAt(text: string, offset: number): { line: number; column: number } {
+  let line = 1;
+  let lineStart = 0;
+  for (let i = text.indexOf('\n'); i >= 0 && i < offset; i = text.indexOf('\n', i + 1)) {
+    line++;
+    lineStart = i + 1;
+  }
+  return { line, column: offset - lineStart + 1 };
+}
+
 const SAMPLE = 64 * 1024;
 
 /**
@@ -36,7 +47,7 @@ export function checkNotBinary(text: string, fileName: string): void {
     throw new InputError('utf16', 'the file is UTF-16 text; save it as UTF-8 (in a spreadsheet: "CSV UTF-8")', { file: fileName });
   }
   const nul = text.indexOf('\u0000');
-  if (nul >= 0) throw new InputError('binary', 'the file holds binary data (NUL bytes), not CSV text', { file: fileName });
+  if (nul >= 0) throw new InputError('binary', 'the file holds binary data (NUL bytes), not CSV text', { file: fileName, ...lineColumnAt(text, nul) });
   const n = Math.min(text.length, SAMPLE);
   let odd = 0;
   for (let i = 0; i < n; i++) {
@@ -68,12 +79,12 @@ export function detectDelimiter(text: string): Delimiter {
 
 /**
  * Decimal mark. Comma-delimited and tab-delimited files use a point. Semicolon-delimited files use the decimal comma
- * (the usual reason for choosing ';'), unless no comma occurs anywhere and some point is followed by other than a group
- * of exactly three digits — then the points can only be decimal points.
+ * (the usual reason for choosing ';'), unless no comma stands between digits anywhere (commas in labels do not count)
+ * and some point is followed by other than a group of exactly three digits — then the points can only be decimal points.
  */
 export function detectDecimalMark(text: string, delimiter: Delimiter): DecimalMark {
   if (delimiter !== ';') return '.';
-  if (text.indexOf(',') >= 0) return ',';
+  if (/\d,\d/.test(text)) return ',';
   const re = /\d\.(\d*)/g;
   let m: RegExpExecArray | null;
   while ((m = re.exec(text)) !== null) {

@@ -14,6 +14,8 @@ import { luFactorReference } from '../../src/linalg/lu-reference.ts';
 import { leontiefMatrix } from './matrices.ts';
 import { time, runsFor, type Timing } from './timing.ts';
 import { numpyAvailable, numpyInverse, type NumpyTiming } from './numpy.ts';
+import { benchJob, jobCsv, type JobRow } from './job.ts';
+import { cliJob, type CliJob } from './cli-job.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../src/cli/parallel.ts';
 
 const args = process.argv.slice(2);
@@ -97,6 +99,17 @@ for (const n of SIZES) {
   rows.push({ n, luOurs, luOursJs, luThreads, invThreads, luReference, luMl, invOurs, invMl, invMlSkipped, invNumpy, residual, peakMB: mem?.peakMB ?? null, baselineMB: mem?.baselineMB ?? null });
 }
 
+const jobs: JobRow[] = [];
+const clis: CliJob[] = [];
+for (const n of SIZES) {
+  process.stderr.write(`job n=${n}…`);
+  const csv = jobCsv(n);
+  jobs.push(benchJob(n, QUICK ? Math.max(1, Math.ceil(runsFor(n) / 3)) : runsFor(n), csv));
+  process.stderr.write(' CLI…');
+  clis.push(cliJob(n, csv, outDir, QUICK ? 1 : 3, numpyVersion !== null));
+  process.stderr.write(' done\n');
+}
+
 const T = HELPERS + 1;
 const best = (r: Row): number => Math.min(r.invOurs.medianMs, r.invThreads?.medianMs ?? Infinity);
 const header = ['n', 'LU', `LU ${T} thr`, 'LU JS kernel', 'LU unblocked', 'LU ml-matrix', 'inverse', `inverse ${T} thr`, 'inverse ml-matrix', 'inverse numpy', 'ours/numpy', 'ml-matrix/ours', 'residual', 'peak RSS'];
@@ -106,20 +119,35 @@ const table = rows.map((r) => [
   ratio(best(r), r.invNumpy?.medianMs), ratio(r.invMl?.medianMs, best(r)),
   r.residual.toFixed(2), r.peakMB == null ? '—' : `${r.peakMB.toFixed(0)} MB`,
 ]);
-const widths = header.map((h, c) => Math.max(h.length, ...table.map((row) => row[c]!.length)));
-const line = (cells: string[]): string => '| ' + cells.map((x, c) => x.padStart(widths[c]!)).join(' | ') + ' |';
+function printTable(head: string[], body: string[][]): void {
+  const widths = head.map((h, c) => Math.max(h.length, ...body.map((row) => row[c]!.length)));
+  const line = (cells: string[]): string => '| ' + cells.map((x, c) => x.padStart(widths[c]!)).join(' | ') + ' |';
+  console.log(line(head));
+  console.log('|' + widths.map((w) => '-'.repeat(w + 2)).join('|') + '|');
+  for (const row of body) console.log(line(row));
+}
 const loadAfter = loadavg();
 const machine = { cpu: cpuModel(), cores: cpus().length, memoryGB: +(totalmem() / 2 ** 30).toFixed(1), node: process.version, numpy: numpyVersion };
 console.log(`Roundwise bench — ${started.toISOString()} — ${machine.cpu}, ${machine.cores} cores, Node ${machine.node}${numpyVersion ? `, numpy ${numpyVersion}` : ', numpy not available'}`);
 console.log(`load average before ${loadBefore.map((x) => x.toFixed(2)).join(' ')}, after ${loadAfter.map((x) => x.toFixed(2)).join(' ')} (medians of repeated runs; times in ms unless marked s)`);
-console.log(line(header));
-console.log('|' + widths.map((w) => '-'.repeat(w + 2)).join('|') + '|');
-for (const row of table) console.log(line(row));
+printTable(header, table);
 console.log(`LU = factorisation with partial pivoting; inverse = factorisation + explicit inverse (ours: Wasm SIMD kernel, 1 thread unless marked; ${T} thr = with ${HELPERS} helper thread(s)); ours/numpy and ml-matrix/ours use our faster column; residual = ‖M·X − I‖₁/(‖M‖₁‖X‖₁nε) of our inverse (LAPACK threshold 30); peak RSS = factorisation + inverse in a fresh Node process (1 thread).`);
 for (const r of rows) if (r.invMlSkipped) console.log(`ml-matrix inverse at n=${r.n} ${r.invMlSkipped}.`);
 if (!numpyVersion) console.log('numpy columns empty: `python3 -c "import numpy"` failed on this machine.');
 
-const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows };
+const jobHeader = ['n', 'CSV', 'import', 'prepare (coefficients + LU)', 'one scenario'];
+const jobTable = jobs.map((j) => [String(j.n), `${j.csvMB.toFixed(1)} MB`, fmt(j.importMs.medianMs), fmt(j.prepareMs.medianMs), fmt(j.scenarioMs.medianMs)]);
+printTable(jobHeader, jobTable);
+console.log('Whole job on invented tables written by writeTableCsv: import = importTable on the CSV text; one scenario = runScenario after preparation (a final-demand line in one sector).');
+const cliHeader = ['n', 'roundwise analyze --json', 'numpy script', 'ours/numpy', 'peak RSS ours', 'peak RSS numpy', 'max rel. diff'];
+const cliTable = clis.map((c) => [String(c.n), fmt(c.ours?.medianMs), fmt(c.numpy?.medianMs), ratio(c.ours?.medianMs, c.numpy?.medianMs),
+  c.ours?.peakMB == null ? '—' : `${c.ours.peakMB.toFixed(0)} MB`, c.numpy?.peakMB == null ? '—' : `${c.numpy.peakMB.toFixed(0)} MB`,
+  c.maxRelDiff == null ? '—' : c.maxRelDiff.toExponential(1)]);
+printTable(cliHeader, cliTable);
+console.log('Process start to exit. numpy script = test/bench/numpy_job.py (loadtxt, two inv, the same multipliers); max rel. diff = largest relative difference between the two outputs over every multiplier and linkage.');
+for (const c of clis) if (c.note) console.log(`n=${c.n}: ${c.note}`);
+
+const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis };
 const stamp = started.toISOString().replace(/[:.]/g, '-');
 writeFileSync(join(outDir, `bench-${stamp}.json`), JSON.stringify(json, null, 2));
 writeFileSync(join(outDir, 'latest.json'), JSON.stringify(json, null, 2));

@@ -7,8 +7,13 @@ export function median(xs: number[]): number {
   return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
 }
 
+/**
+ * Median of `runs` timed calls after a warm-up: at least `warmup` calls and, when `warmup` > 0, calls until 300 ms have
+ * passed, so V8 has optimised the code being timed (small sizes otherwise measure the interpreter).
+ */
 export function time(fn: () => unknown, runs: number, warmup = 1): Timing {
-  for (let w = 0; w < warmup; w++) fn();
+  const until = performance.now() + (warmup > 0 ? 300 : 0);
+  for (let w = 0; w < warmup || performance.now() < until; w++) fn();
   const all: number[] = [];
   for (let r = 0; r < runs; r++) {
     const t = performance.now();

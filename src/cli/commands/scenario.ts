@@ -3,6 +3,7 @@
  * Demand-shock effects by sector (direct / indirect / induced / total), spending rounds, implied multipliers;
  * optionally structural paths to one sector, and the study saved as a project file.
  */
+import { statSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { z } from 'zod';
 import { formatLocated, InputError } from '../../diagnostics/errors.ts';
@@ -14,7 +15,7 @@ import { modelTypeOf, scenarioReports, SCENARIO_CAUTIONS, type ScenarioReportCon
 import {
   analyseScenario, parseShockCsv, VARIABLES, type EffectSplit, type PathAnalysis, type RoundsResult, type ScenarioResult,
 } from '../../scenario/index.ts';
-import { importTable, type RoleMap } from '../../table/index.ts';
+import { checkTableSize, importTable, type RoleMap } from '../../table/index.ts';
 import { readBytes, writeFileAtomic, type CliIO } from '../io.ts';
 
 interface Args {
@@ -52,12 +53,26 @@ export function parseArgs(argv: string[]): Args {
   return { ...opts, table: positional[0]!, shock: opts.shock } as Args;
 }
 
-function readFileOrRefuse(path: string): Uint8Array {
+function unreadable(e: unknown, path: string): InputError {
+  const code = (e as { code?: string }).code;
+  return new InputError('file-unreadable', code === 'ENOENT' ? 'file not found' : `cannot read the file (${code ?? 'error'})`, { file: path });
+}
+
+/** The file's bytes; with `limit`, its size is checked first so that an oversized file is never read into memory. */
+function readFileOrRefuse(path: string, limit?: (bytes: number, path: string) => void): Uint8Array {
+  if (limit) {
+    let size: number;
+    try {
+      size = statSync(path).size;
+    } catch (e) {
+      throw unreadable(e, path);
+    }
+    limit(size, path);
+  }
   try {
     return readBytes(path);
   } catch (e) {
-    const code = (e as { code?: string }).code;
-    throw new InputError('file-unreadable', code === 'ENOENT' ? 'file not found' : `cannot read the file (${code ?? 'error'})`, { file: path });
+    throw unreadable(e, path);
   }
 }
 
@@ -166,7 +181,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     return 0;
   }
   const args = parseArgs(argv);
-  const tableBytes = readFileOrRefuse(args.table);
+  const tableBytes = readFileOrRefuse(args.table, checkTableSize);
   const roles = args.map ? readRoleMap(args.map) : undefined;
   const table = importTable(decoder.decode(tableBytes), { fileName: args.table, ...(roles ? { roles } : {}) });
   const scenario = parseShockCsv(decoder.decode(readFileOrRefuse(args.shock)), args.shock);

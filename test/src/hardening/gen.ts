@@ -152,9 +152,50 @@ export function expectWellFormedRefusal(e: InputError, fileName: string): void {
     expect(e.location.column, `${e.code} names a column`).toBeGreaterThanOrEqual(1);
   }
   const text = formatLocated(e);
-  expect(text).not.toMatch(/[\r\n]/);
+  expect(text).not.toMatch(/\r/);
+  expect(text.split('\n').length, text).toBeLessThanOrEqual(3);
   expect(text.length).toBeLessThan(400);
   expect(text).not.toMatch(/\bat .*\(.*:\d+:\d+\)/);
   // The user's own text is quoted ('NaN' is not a finite number); outside quotes no NaN, undefined or [object …].
   expect(text.replace(/'[^']*'/g, "''")).not.toMatch(/NaN|undefined|\[object/);
+}
+
+/** Every number anywhere in a value (objects, arrays, typed arrays, Maps) that is NaN or ±Infinity, by path. */
+export function nonFinite(v: unknown, path = '$', out: string[] = [], seen = new Set<unknown>()): string[] {
+  if (typeof v === 'number') {
+    if (!Number.isFinite(v)) out.push(`${path} = ${v}`);
+  } else if (ArrayBuffer.isView(v) && !(v instanceof DataView)) {
+    Array.from(v as unknown as ArrayLike<number>).forEach((x, i) => nonFinite(x, `${path}[${i}]`, out, seen));
+  } else if (v !== null && typeof v === 'object' && !seen.has(v)) {
+    seen.add(v);
+    if (Array.isArray(v)) v.forEach((x, i) => nonFinite(x, `${path}[${i}]`, out, seen));
+    else if (v instanceof Map) for (const [k, x] of v) nonFinite(x, `${path}.get(${String(k)})`, out, seen);
+    else for (const [k, x] of Object.entries(v)) nonFinite(x, `${path}.${k}`, out, seen);
+  }
+  return out;
+}
+
+/** NaN or Infinity written as text into CSV cells or JSON ("NaN", "Infinity", "-Infinity", "∞"). */
+export function nonFiniteText(text: string): string[] {
+  return [...text.matchAll(/(^|[,"\s:[])(-?Infinity|NaN|∞)(?=$|[,"\s\]}])/gm)].map((m) => m[2]!);
+}
+
+/** A CLI run in process, with captured streams. */
+export async function runCli(main: (argv: string[], io: { stdout: (s: string) => void; stderr: (s: string) => void }) => Promise<number>, argv: string[]) {
+  let out = '';
+  let err = '';
+  const code = await main(argv, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
+  return { code, out, err };
+}
+
+/** A refused CLI run: non-zero exit, nothing on stdout, a 1–3 line message on stderr naming the command, no stack trace. */
+export function expectCliRefusal(r: { code: number; out: string; err: string }, command: string): void {
+  expect(r.code, r.err).toBe(2);
+  expect(r.out).toBe('');
+  expect(r.err.startsWith(`roundwise ${command}: `), r.err).toBe(true);
+  expect(r.err.endsWith('\n')).toBe(true);
+  const lines = r.err.trimEnd().split('\n');
+  expect(lines.length, r.err).toBeLessThanOrEqual(3);
+  expect(r.err).not.toMatch(/^\s+at\s/m);
+  expect(r.err).not.toMatch(/internal error|TypeError|RangeError|ReferenceError/);
 }

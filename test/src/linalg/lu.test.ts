@@ -4,7 +4,7 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { inv, det, matrix, multiply } from 'mathjs';
 import { Matrix, LuDecomposition, inverse as mlInverse } from 'ml-matrix';
 import {
-  luFactor, luInverse, luDeterminant, luSolve, luSolveMany, luSolveTransposed, matVec, vecMat, matMul, LU_BLOCK,
+  luFactor, luInverse, luDeterminant, luSolve, luSolveMany, luSolveTransposed, matVec, vecMat, matMul, LU_BLOCK, eliminationPivots,
   scaledResidual, RESIDUAL_THRESHOLD,
 } from '../../../src/linalg/index.ts';
 import {
@@ -166,4 +166,65 @@ describe('dense products against mathjs', () => {
       expect(relDiff(vecMat(w, b, k, m), vm)).toBeLessThan(1e-13);
     });
   }
+});
+
+describe('eliminationPivots (elimination without pivoting, for Hawkins–Simon)', () => {
+  /** The textbook loop (Golub & Van Loan alg. 3.2.1, no pivoting), stopping at the first non-positive pivot. */
+  function textbook(a: Float64Array, n: number): { pivots: number[]; fail: number } {
+    const m = Float64Array.from(a);
+    const pivots: number[] = [];
+    for (let k = 0; k < n; k++) {
+      const p = m[k * n + k]!;
+      pivots.push(p);
+      if (!(p > 0)) return { pivots, fail: k };
+      for (let i = k + 1; i < n; i++) {
+        const l = m[i * n + k]! / p;
+        for (let j = k + 1; j < n; j++) m[i * n + j] = m[i * n + j]! - l * m[k * n + j]!;
+      }
+    }
+    return { pivots, fail: -1 };
+  }
+  function leontief(n: number, seed: number, colSum: number): Float64Array {
+    const r = seeded(seed);
+    const m = new Float64Array(n * n);
+    for (let j = 0; j < n; j++) {
+      let s = 0;
+      for (let i = 0; i < n; i++) { m[i * n + j] = r(); s += m[i * n + j]!; }
+      for (let i = 0; i < n; i++) m[i * n + j] = (i === j ? 1 : 0) - (m[i * n + j]! / s) * colSum;
+    }
+    return m;
+  }
+  for (const n of [1, 7, 9, 64, 133]) {
+    it(`matches the textbook loop on a productive I − A (n=${n})`, () => {
+      const m = leontief(n, 300 + n, 0.8);
+      const ours = eliminationPivots(m, n);
+      const ref = textbook(m, n);
+      expect(ours.firstNonPositive).toBe(-1);
+      expect(relDiff(ours.pivots, ref.pivots)).toBeLessThan(1e-12);
+    });
+  }
+  it('leading principal minors equal mathjs determinants of the leading blocks (n=12)', () => {
+    const n = 12;
+    const m = leontief(n, 5, 0.9);
+    const { pivots } = eliminationPivots(m, n);
+    let prod = 1;
+    for (let k = 1; k <= n; k++) {
+      prod *= pivots[k - 1]!;
+      const block = Array.from({ length: k }, (_, i) => Array.from(m.subarray(i * n, i * n + k)));
+      const d = det(matrix(block)) as number;
+      expect(Math.abs(prod - d) / Math.abs(d)).toBeLessThan(1e-12);
+    }
+  });
+  it('stops at the first non-positive pivot, also past the first recursion leaf', () => {
+    // Column sums above one make I − A fail Hawkins–Simon somewhere; the textbook loop says where.
+    for (const [n, colSum] of [[40, 1.3], [150, 1.05], [3, 2.5]] as const) {
+      const m = leontief(n, 11 + n, colSum);
+      const ours = eliminationPivots(m, n);
+      const ref = textbook(m, n);
+      expect(ours.firstNonPositive).toBe(ref.fail);
+      expect(ours.firstNonPositive).toBeGreaterThanOrEqual(0);
+      expect(ours.pivots.length).toBe(ref.fail + 1);
+      expect(relDiff(ours.pivots, ref.pivots)).toBeLessThan(1e-9);
+    }
+  });
 });

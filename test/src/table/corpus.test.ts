@@ -1,5 +1,5 @@
 // The committed corpus of malformed files (test/fixtures/table/corpus), each with its expected located message in
-// expected.json. Files are decoded as the app decodes them (UTF-8, invalid bytes become U+FFFD, WHATWG Encoding).
+// expected.json (or the warnings of a file that imports). Files are decoded as the app decodes them (UTF-8, invalid bytes become U+FFFD, WHATWG Encoding).
 import { describe, it, expect } from 'vitest';
 import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
@@ -7,7 +7,9 @@ import { importTable, previewTable } from '../../../src/table/index.ts';
 import { InputError } from '../../../src/diagnostics/errors.ts';
 
 const dir = fileURLToPath(new URL('../../fixtures/table/corpus/', import.meta.url));
-const expected = JSON.parse(readFileSync(dir + 'expected.json', 'utf8')) as Record<string, { code: string; message: string } | null>;
+/** A refusal (code and formatted message), an import with these warning codes, or (null) a clean import. */
+type Expectation = { code: string; message: string } | { warnings: string[] } | null;
+const expected = JSON.parse(readFileSync(dir + 'expected.json', 'utf8')) as Record<string, Expectation>;
 const files = readdirSync(dir).filter((f) => f !== 'expected.json').sort();
 
 describe('malformed-file corpus', () => {
@@ -16,13 +18,14 @@ describe('malformed-file corpus', () => {
     expect(files.length).toBeGreaterThanOrEqual(20);
   });
   for (const f of files) {
-    it(`${f}: ${expected[f] ? expected[f]!.code : 'imports'}`, () => {
+    const want = expected[f];
+    it(`${f}: ${want && 'code' in want ? want.code : 'imports'}`, () => {
       const text = new TextDecoder('utf-8').decode(readFileSync(dir + f));
-      const want = expected[f];
       const p = previewTable(text, { fileName: f });
-      if (!want) {
+      if (!want || 'warnings' in want) {
         expect(p.ok).toBe(true);
         expect(p.refusal).toBeNull();
+        expect(p.warnings.map((w) => w.code)).toEqual(want ? want.warnings : []);
         return;
       }
       expect(p.ok).toBe(false);
@@ -32,4 +35,20 @@ describe('malformed-file corpus', () => {
       expect(() => importTable(text, { fileName: f })).toThrow(InputError);
     });
   }
+});
+
+describe('a large file with one bad cell near the end', () => {
+  it('is refused at the right line and field', async () => {
+    const { bigTableCsv } = await import('../../fixtures/table/big-table.ts');
+    const n = 600;
+    const text = bigTableCsv(n, 3);
+    const lines = text.split('\r\n');
+    const k = n - 1; // the last sector row (line n + 1)
+    const cells = lines[k + 1]!.split(',');
+    cells[n - 2] = '12.3.4';
+    lines[k + 1] = cells.join(',');
+    const p = previewTable(lines.join('\r\n'), { fileName: 'big.csv' });
+    expect(text.length).toBeGreaterThan(2_500_000);
+    expect(p.refusal?.formatted).toBe(`big.csv:${n + 1}:${n - 1} (row 'Sector ${n}', column 'Sector ${n - 2}'): '12.3.4' is not a number`);
+  });
 });

@@ -41,12 +41,14 @@ describe('grid', () => {
     expect(g.cell(1, 1)).toBe('p\nq\nr');
     expect(g.line(2)).toBe(6);
   });
-  it('mixed line ends: CRLF, LF and lone CR in one file', () => {
-    for (const text of ['a,1\r\nb,2\rc,3\n', 'a,"1"\r\nb,2\rc,3\n']) {
+  it('mixed line ends: CRLF and LF end records; a lone CR in a file with LF is text', () => {
+    for (const text of ['a,1\r\nb,2\nc,3\n', 'a,"1"\r\nb,2\nc,3\n']) {
       const g = buildGrid(text, ',', 't.csv');
       expect(cellsOf(g)).toEqual([['a', '1'], ['b', '2'], ['c', '3']]);
       expect([0, 1, 2].map((r) => g.line(r))).toEqual([1, 2, 3]);
     }
+    for (const text of ['a,1\nb\r2,3\n', 'a,"1"\nb\r2,3\n']) expect(cellsOf(buildGrid(text, ',', 't.csv'))).toEqual([['a', '1'], ['b\r2', '3']]);
+    expect(cellsOf(buildGrid('a,1\rb,2\r', ',', 't.csv'))).toEqual([['a', '1'], ['b', '2']]);
   });
   it('an unclosed quote is refused with its line', () => {
     expect(() => buildGrid('a,b\nc,"d\n', ',', 't.csv')).toThrow(/quoted cell is not closed/);

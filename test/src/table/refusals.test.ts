@@ -28,7 +28,7 @@ describe('table import refusals', () => {
     expectRefusal(BASE.split('\n')[0]! + '\r\n\r\n', 'header-only', 'the file has a header but no rows of numbers', { line: 1 });
   });
   it('refuses binary content (NUL bytes)', () => {
-    expectRefusal('\u0089PNG\r\n\u001a\n\u0000\u0000\u0000\rIHDR', 'binary', 'the file holds binary data (NUL bytes), not CSV text', {});
+    expectRefusal('\u0089PNG\r\n\u001a\n\u0000\u0000\u0000\rIHDR', 'binary', 'the file holds binary data (NUL bytes), not CSV text', { line: 3, column: 1 });
   });
   it('refuses binary content (mostly undecodable bytes)', () => {
     expectRefusal('\ufffd'.repeat(50) + 'a,b\n', 'binary', 'the file looks like binary data, not CSV text', {});
@@ -37,7 +37,7 @@ describe('table import refusals', () => {
     expectRefusal(replaceOnce(BASE, 'Mills,15,20', '"Mills,15,20'), 'bad-quotes', 'a quoted cell is not closed or a quote is misplaced (RFC 4180 §2)', { line: 3 });
   });
   it('refuses a ragged row (too few fields)', () => {
-    expectRefusal(replaceOnce(BASE, 'Mills,15,20,10,45,110,200', 'Mills,15,20,10,45,110'), 'ragged-row', 'row has 6 fields, the header has 7', { line: 3, column: 7, rowLabel: 'Mills' });
+    expectRefusal(replaceOnce(BASE, 'Mills,15,20,10,45,110,200', 'Mills,15,20,10,45,110'), 'ragged-row', 'row has 6 fields, the header has 7', { line: 3, column: 6, rowLabel: 'Mills' });
   });
   it('refuses a ragged row (a value beyond the header)', () => {
     expectRefusal(replaceOnce(BASE, 'Mills,15,20,10,45,110,200', 'Mills,15,20,10,45,110,200,7'), 'ragged-row', "row has a value in field 8, beyond the header's 7 fields", { line: 3, column: 8, rowLabel: 'Mills' });
@@ -74,6 +74,9 @@ describe('table import refusals', () => {
   });
   it('refuses duplicate sector row labels', () => {
     expectRefusal(replaceOnce(BASE, 'Services,5,20,30,60,35,150\n', 'Services,5,20,30,60,35,150\nMills,1,2,3,4,5,15\n'), 'duplicate-label', "duplicate row label 'Mills' (also on line 3)", { line: 5, column: 1, rowLabel: 'Mills' });
+  });
+  it('refuses row labels that differ only in case', () => {
+    expectRefusal(replaceOnce(BASE, 'Services,5,20,30,60,35,150\n', 'Services,5,20,30,60,35,150\nMILLS,1,2,3,4,5,15\n'), 'duplicate-label', "duplicate row label 'MILLS' (also on line 3)", { line: 5, column: 1, rowLabel: 'MILLS' });
   });
   it('refuses duplicate column labels', () => {
     expectRefusal(replaceOnce(BASE, ',Farming,Mills,', ',Farming,Farming,'), 'duplicate-label', "duplicate column label 'Farming' (also in field 2)", { line: 1, column: 3, columnLabel: 'Farming' });
@@ -129,6 +132,11 @@ describe('not refused', () => {
     expect(t.sectors).toEqual(['Farming', 'Mills']);
     expect(Array.from(t.Z)).toEqual([10, 40, 15, 20]);
     expect(t.warnings.find((w) => w.code === 'sector-dropped')?.message).toBe("dropped 1 sector with zero output and no purchases or sales: 'Idle'");
+  });
+  it('uses the first of two total output columns and says so', () => {
+    const text = BASE.split('\n').map((l, k) => (l === '' ? l : `${l},${k === 0 ? 'Gross output' : l.split(',')[6] ?? ''}`)).join('\n');
+    const t = importTable(text, { fileName: 't.csv' });
+    expect(t.warnings.map((w) => w.code)).toEqual(['extra-total']);
   });
   it('warns when totals disagree beyond the tolerance, listing the worst sectors', () => {
     // Mills: sales 15+20+10+45+110 = 200 against a stated 190 (gap 10/200 = 5 %); Farming 100 vs 99 (1 %).

@@ -14,6 +14,8 @@ describe('suggested row roles', () => {
     ['Compensation of employees', 'labourIncome'],
     ['Wages and salaries', 'labourIncome'],
     ['Household income', 'labourIncome'],
+    ['Wages', 'labourIncome'],
+    ['Labour compensation', 'labourIncome'],
     ['Imports', 'imports'],
     ['Imported intermediate inputs', 'imports'],
     ['Competitive imports from other regions', 'imports'],

@@ -3,7 +3,7 @@
 // signature); decimal comma with ';' as the field separator and thousands grouping by '.', ',' or space — common
 // spreadsheet practice in many locales (common practice, no source).
 import { describe, it, expect } from 'vitest';
-import { importTable, type IOTable } from '../../../src/table/index.ts';
+import { importTable, previewTable, type IOTable } from '../../../src/table/index.ts';
 import { SAMPLE_CSV } from '../../../src/table/sample.ts';
 
 const cells: string[][] = SAMPLE_CSV.trimEnd().split('\r\n').map((l) => l.split(','));
@@ -60,8 +60,15 @@ describe('CSV variants import to the same numbers', () => {
     expect(text).toContain(';37.645,2;');
     same(importTable(text, { fileName: 'semi-grouped.csv' }));
   });
-  it('semicolons with decimal points (no comma anywhere)', () => {
+  it('semicolons with decimal points (no comma between digits anywhere)', () => {
     same(importTable(emit(cells, ';'), { fileName: 'semi-point.csv' }));
+    const withCommaLabel = emit(cells, ';', '\r\n', (s) => (s === 'Farming' ? 'Farming, fishing' : s));
+    expect(importTable(withCommaLabel, { fileName: 'semi-point2.csv' }).sectors[0]).toBe('Farming, fishing');
+  });
+  it('semicolons with points only as thousands separators stay decimal-comma (ambiguous: "1.234" is 1234)', () => {
+    const p = previewTable('x;A;Total output\nA;1.234;2.468\nWages;1.234;\n', { fileName: 'amb.csv' });
+    expect(p.decimalMark).toBe(',');
+    expect(Array.from(p.table!.Z)).toEqual([1234]);
   });
   it('tabs, with space thousands separators', () => {
     const text = emit(cells, '\t', '\n', (s) => (isNumber(s) ? grouped(s, ' ', '.') : s));
@@ -85,6 +92,10 @@ describe('CSV variants import to the same numbers', () => {
     const perm = Array.from({ length: n }, (_, k) => n - 1 - k); // reversed sector columns
     const rows = cells.map((row) => [row[0]!, ...perm.map((k) => row[1 + k]!), ...row.slice(1 + n)]);
     same(importTable(emit(rows, ','), { fileName: 'perm.csv' }));
+  });
+  it('column labels that differ from the row labels only in case or spacing', () => {
+    const rows = cells.map((row, r) => (r === 0 ? row.map((s, c) => (c > 0 && c <= clean.n ? s.toUpperCase().replace(/ /g, '  ') : s)) : row));
+    same(importTable(emit(rows, ','), { fileName: 'case.csv' }));
   });
   it('spaces around cells and labels', () => {
     same(importTable(emit(cells, ',', '\r\n', (s) => (s === '' ? '  ' : ` ${s} `)), { fileName: 'spaces.csv' }));

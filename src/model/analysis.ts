@@ -1,0 +1,344 @@
+/**
+ * One call from an imported table to everything the analysis screens and reports show: coefficients, viability
+ * (Hawkins–Simon, Perron root, irreducibility, period, spectrum), the power-series certificate, multipliers and
+ * linkages, accuracy checks, and warnings. The result holds only typed arrays, plain arrays and plain objects, so it
+ * crosses a Web Worker boundary by structured clone and turns into JSON without loss (no NaN or Infinity anywhere).
+ */
+import type { Warning } from '../diagnostics/errors.ts';
+import type { IOTable } from '../table/types.ts';
+import { identityMinus, luInverse } from '../linalg/index.ts';
+import { conditionEstimate1, scaledResidual, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF } from '../linalg/checks.ts';
+import { coefficients } from './coefficients.ts';
+import { closedBorder, prepareModel, type PreparedModel } from './prepared.ts';
+import { sectorBlocks } from './graph.ts';
+import { perronRoot, type PerronOptions } from './perron.ts';
+import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
+import { spectrum as fullSpectrum, SPECTRUM_MAX_SECTORS, type Mode } from './spectrum.ts';
+import { seriesVerdict, type SeriesVerdict } from './rounds.ts';
+import { computeLinkages, computeMultipliers, type Availability, type Linkages, type Multipliers } from './multipliers.ts';
+
+export interface AnalysisOptions {
+  /** Relative tolerance for `roundsToTolerance` (default 1e-6: rounds until what is left is a millionth of the demand). */
+  tolerance?: number;
+  /** Full spectrum: 'auto' (default) computes it for n ≤ 400. */
+  spectrum?: boolean | 'auto';
+  /** Form the explicit Leontief inverse (for display and export; O(n³)). Default false. */
+  inverse?: boolean;
+  perron?: PerronOptions;
+}
+
+export interface BlockInfo {
+  /** Sector indices, ascending. */
+  sectors: number[];
+  /** Gcd of cycle lengths in the block; null for a block without cycles (it only passes demand on). */
+  period: number | null;
+  /** Certified bounds on the block's Perron root. */
+  perronRootBounds: [number, number];
+}
+
+export interface Viability {
+  /** ρ(A), midpoint of the certified interval. For a table with negative flows: ρ(|A|), an upper bound on the spectral radius. */
+  perronRoot: number;
+  perronRootBounds: [number, number];
+  perronIterations: number;
+  perronConverged: boolean;
+  /** Right Perron vector (sums to 1): the long-run direction of the rounds. */
+  rightPerronVector: Float64Array;
+  /** Left Perron vector (sums to 1): long-run weight of each sector's demand. */
+  leftPerronVector: Float64Array;
+  hawkinsSimon: boolean;
+  hawkinsSimonDetail: HawkinsSimon;
+  irreducible: boolean;
+  /** Strongly connected blocks in topological order (a block sells only to itself and to later blocks). */
+  blocks: BlockInfo[];
+  /** Period of A when irreducible, else null. */
+  period: number | null;
+  /** Irreducible with period 1. */
+  primitive: boolean;
+  /** The one verdict: Hawkins–Simon holds and ρ(A) < 1 (certified). */
+  productive: boolean;
+  /** Set when the two tests disagree or are decided by rounding (ρ(A) ≈ 1). */
+  verdictNote: string | null;
+  /** ρ(Ā) of the household-closed model; null without closure. */
+  perronRootClosed: number | null;
+  perronRootClosedBounds: [number, number] | null;
+  closedProductive: boolean | null;
+  /** Rounds after which less than `tolerance`·‖f‖∞ of any demand f is left unaccounted; null when the series diverges. */
+  roundsToTolerance: number | null;
+  tolerance: number;
+  /** Eigenvalues of A by decreasing modulus with their long-run mode; null when skipped (see spectrumNote). */
+  spectrum: Mode[] | null;
+  spectrumNote: string | null;
+  /** A has negative entries: Perron–Frobenius and Hawkins–Simon ⇔ ρ < 1 do not apply as such. */
+  negativeFlows: boolean;
+}
+
+export interface AccuracyChecks {
+  /** ‖b − (I−A)x‖₁/(‖I−A‖₁‖x‖₁·n·ε) for the solve x = L·1 (LAPACK xGET02 ratio); null when not solvable. */
+  solveResidual: number | null;
+  /** ‖(I−A)X − I‖₁/(‖I−A‖₁‖X‖₁·n·ε) for the explicit inverse (xGET03 ratio); null when the inverse was not formed. */
+  inverseResidual: number | null;
+  /** Estimated 1-norm condition number of I − A; null when singular. */
+  condition: number | null;
+  residualThreshold: number;
+}
+
+export interface CoefficientsOut {
+  /** Technical coefficients, n×n row-major. */
+  A: Float64Array;
+  x: Float64Array;
+  labourIncome: Float64Array;
+  otherValueAdded: Float64Array;
+  imports: Float64Array;
+  employment: Float64Array | null;
+  /** Household purchases from each sector per unit of household income; null without closure. */
+  householdConsumption: Float64Array | null;
+  householdIncomeTotal: number;
+}
+
+export interface Analysis {
+  tableName: string;
+  sectors: string[];
+  n: number;
+  moneyUnit: string;
+  coefficients: CoefficientsOut;
+  viability: Viability;
+  series: SeriesVerdict;
+  multipliers: Multipliers;
+  linkages: Linkages;
+  /** Explicit L = (I − A)⁻¹, n×n row-major, only when asked for (`inverse: true`) and the table is productive. */
+  leontief: Float64Array | null;
+  checks: AccuracyChecks;
+  warnings: Warning[];
+}
+
+const CONDITION_LIMIT = 1e12;
+
+function hasNegative(a: Float64Array): boolean {
+  for (let k = 0; k < a.length; k++) if (a[k]! < 0) return true;
+  return false;
+}
+
+function absolute(a: Float64Array): Float64Array {
+  return Float64Array.from(a, Math.abs);
+}
+
+/** ‖I − A‖₁ (maximum absolute column sum), read row by row so the n×n matrix I − A is never formed. */
+function identityMinusNorm1(a: Float64Array, n: number): number {
+  const col = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const row = i * n;
+    for (let j = 0; j < n; j++) col[j] = col[j]! + Math.abs((i === j ? 1 : 0) - a[row + j]!);
+  }
+  let best = 0;
+  for (let j = 0; j < n; j++) if (col[j]! > best) best = col[j]!;
+  return best;
+}
+
+/**
+ * LAPACK xGET02 ratio ‖b − (I − A)x‖₁ / (‖I − A‖₁·‖x‖₁·n·ε) for one solve, computed from A (as linalg's solveResidual
+ * does for a formed matrix), so no n×n copy is made.
+ */
+function openSolveResidual(a: Float64Array, n: number, x: Float64Array, b: Float64Array, norm: number): number {
+  let resid = 0, xnorm = 0;
+  for (let i = 0; i < n; i++) {
+    let s = b[i]! - x[i]!;
+    const row = i * n;
+    for (let j = 0; j < n; j++) s += a[row + j]! * x[j]!;
+    resid += Math.abs(s);
+    xnorm += Math.abs(x[i]!);
+  }
+  if (resid === 0) return 0;
+  const denom = norm * xnorm * n * UNIT_ROUNDOFF;
+  return denom > 0 ? resid / denom : Number.POSITIVE_INFINITY;
+}
+
+function fmt(x: number): string {
+  return x.toPrecision(6);
+}
+
+/** Analyse a validated table. */
+export function analyzeTable(table: IOTable, opts: AnalysisOptions = {}): Analysis {
+  return analyzePrepared(prepareModel(table, coefficients(table)), opts);
+}
+
+/** Analyse an already prepared model (the UI keeps the PreparedModel for scenarios). */
+export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): Analysis {
+  const { table, coef, closed, openLU } = pm;
+  const { n, A, sectors } = coef;
+  const tolerance = opts.tolerance ?? 1e-6;
+  const warnings: Warning[] = [...table.warnings];
+  const warn = (code: string, message: string): void => { warnings.push({ code, message }); };
+
+  const negativeFlows = hasNegative(A);
+  const absA = negativeFlows ? absolute(A) : A;
+  const blocks = sectorBlocks(A, n);
+  const perron = perronRoot(absA, n, { ...opts.perron, blocks });
+  const hs = hawkinsSimon(A, n, openLU);
+  const irreducible = blocks.length === 1 && (n === 1 ? blocks[0]!.cyclic : true);
+  const period = irreducible ? blocks[0]!.period : null;
+
+  let modes: Mode[] | null = null;
+  let spectrumNote: string | null = null;
+  const wantSpectrum = opts.spectrum ?? 'auto';
+  if (wantSpectrum === true || (wantSpectrum === 'auto' && n <= SPECTRUM_MAX_SECTORS)) {
+    modes = fullSpectrum(A, n);
+  } else {
+    spectrumNote = wantSpectrum === false
+      ? 'full spectrum not requested'
+      : `full spectrum skipped for ${n} sectors (computed up to ${SPECTRUM_MAX_SECTORS}); the Perron root is certified by its bounds`;
+  }
+  const spectralRadius = modes && modes.length ? modes[0]!.modulus : null;
+
+  // The one verdict.
+  let productive: boolean;
+  let verdictNote: string | null = null;
+  if (openLU.singular) {
+    productive = false;
+    verdictNote = 'I − A is singular: the Perron root is 1, so no finite Leontief inverse exists';
+  } else if (!negativeFlows) {
+    const below = perron.upper < 1;
+    const above = perron.lower >= 1;
+    productive = hs.holds && below;
+    if (hs.holds !== below || (!below && !above) || hs.nearZero) {
+      verdictNote = `the Perron root is within rounding of 1 (bounds ${fmt(perron.lower)}–${fmt(perron.upper)}; Hawkins–Simon ${hs.holds ? 'holds' : 'fails'}${hs.nearZero ? ' by a pivot of rounding size' : ''}); for a non-negative A the two tests agree exactly, so the disagreement is numerical noise: the table is treated as ${productive ? 'productive' : 'not productive'}`;
+    }
+  } else {
+    const radiusBelow = spectralRadius !== null ? spectralRadius < 1 : perron.upper < 1;
+    productive = hs.holds && radiusBelow;
+    verdictNote = `A has negative entries, so Hawkins–Simon and the Perron root are not equivalent tests; the verdict needs both Hawkins–Simon and a spectral radius below 1 (${spectralRadius !== null ? `from the full spectrum, ${fmt(spectralRadius)}` : `bounded by ρ(|A|) ≤ ${fmt(perron.upper)}`})`;
+    warn('negative-flows', 'the table has negative intermediate flows: Perron–Frobenius results apply to |A| only, and multipliers may be negative');
+  }
+  if (!productive) {
+    const hsText = hs.firstFailing
+      ? `Hawkins–Simon fails at the leading minor of order ${hs.firstFailing.order} (sector '${sectors[hs.firstFailing.sector]}', pivot ${fmt(hs.firstFailing.pivot)})`
+      : 'Hawkins–Simon holds';
+    warn('not-productive', `the table is not productive: Perron root ${fmt(perron.root)} (bounds ${fmt(perron.lower)}–${fmt(perron.upper)}); ${hsText}; multipliers are not defined`);
+  } else if (verdictNote && !negativeFlows) {
+    warn('productivity-noise', verdictNote);
+  }
+
+  // Closed model.
+  let perronRootClosed: number | null = null;
+  let perronRootClosedBounds: [number, number] | null = null;
+  let closedProductive: boolean | null = null;
+  let closedWhy: true | string = true;
+  if (!closed) {
+    closedWhy = 'the table has no household income row or no household consumption column, so there is no household closure (Type II)';
+  } else {
+    const abar = negativeFlows ? absolute(closed.Abar) : closed.Abar;
+    const pc = perronRoot(abar, closed.m, { ...opts.perron, rightOnly: true });
+    perronRootClosed = pc.root;
+    perronRootClosedBounds = [pc.lower, pc.upper];
+    const s = closedBorder(pm)?.s ?? 0;
+    closedProductive = productive && s > 0 && (negativeFlows || pc.upper < 1);
+    if (!productive) closedWhy = 'the open model is not productive';
+    else if (!closedProductive) {
+      closedWhy = `the household-closed model is not productive (Perron root ${fmt(pc.root)}, bounds ${fmt(pc.lower)}–${fmt(pc.upper)}): households re-spend at least all they earn locally`;
+      warn('closed-not-productive', `${closedWhy}; Type II multipliers are not defined`);
+    }
+  }
+
+  const avail: Availability = {
+    open: productive ? true : 'the table is not productive (Perron root of A not below 1)',
+    closed: closedWhy,
+  };
+  const multipliers = computeMultipliers(pm, avail);
+  const linkages = computeLinkages(pm, multipliers.output.typeI, avail);
+
+  // Accuracy checks on the factorisation.
+  let condition: number | null = null;
+  let residual: number | null = null;
+  let inverseResidual: number | null = null;
+  let leontief: Float64Array | null = null;
+  if (!openLU.singular) {
+    const norm = identityMinusNorm1(A, n);
+    const c = conditionEstimate1(openLU, norm);
+    condition = Number.isFinite(c) ? c : null;
+    if (condition === null || condition > CONDITION_LIMIT) {
+      warn('ill-conditioned', `I − A is ill-conditioned (condition estimate ${condition === null ? 'beyond range' : condition.toExponential(2)}, limit ${CONDITION_LIMIT.toExponential(0)}): results may have lost most of their digits`);
+    }
+    if (linkages.rowSums.every((v) => v !== null)) {
+      const r = openSolveResidual(A, n, Float64Array.from(linkages.rowSums as number[]), new Float64Array(n).fill(1), norm);
+      residual = Number.isFinite(r) ? r : null;
+    }
+    if (opts.inverse && productive) {
+      leontief = luInverse(openLU);
+      const r = scaledResidual(identityMinus(A, n), leontief, n);
+      inverseResidual = Number.isFinite(r) ? r : null;
+    }
+    for (const [what, r] of [['solve', residual], ['inverse', inverseResidual]] as const) {
+      if (r !== null && r > RESIDUAL_THRESHOLD) {
+        warn('residual', `the ${what} residual check failed (scaled residual ${fmt(r)} > ${RESIDUAL_THRESHOLD}): the factorisation of I − A is not accurate`);
+      }
+    }
+  }
+
+  // Power series.
+  const series = seriesVerdict(
+    A, n,
+    { perron: negativeFlows ? null : perron.right, leontiefRowSums: productive ? Float64Array.from(linkages.rowSums as number[]) : null },
+    tolerance,
+    negativeFlows ? 0 : perron.lower,
+  );
+  if (productive && !series.converges) warn('series-uncertified', series.reason);
+
+  if (!perron.converged) {
+    warn('perron-slow', `the Perron root iteration stopped before its tolerance; the certified bounds ${fmt(perron.lower)}–${fmt(perron.upper)} still hold`);
+  }
+  if (modes && spectralRadius !== null && !negativeFlows) {
+    const slack = 1e-8 * Math.max(1, perron.upper);
+    if (spectralRadius < perron.lower - slack || spectralRadius > perron.upper + slack) {
+      warn('spectrum-disagrees', `the eigenvalue routine's spectral radius ${fmt(spectralRadius)} lies outside the certified Perron bounds ${fmt(perron.lower)}–${fmt(perron.upper)} (the bounds are rigorous)`);
+    }
+  }
+
+  const viability: Viability = {
+    perronRoot: perron.root,
+    perronRootBounds: [perron.lower, perron.upper],
+    perronIterations: perron.iterations,
+    perronConverged: perron.converged,
+    rightPerronVector: perron.right,
+    leftPerronVector: perron.left,
+    hawkinsSimon: hs.holds,
+    hawkinsSimonDetail: hs,
+    irreducible,
+    blocks: blocks.map((b, k) => ({ sectors: b.sectors, period: b.period, perronRootBounds: perron.blockBounds[k] ?? [0, 0] })),
+    period,
+    primitive: irreducible && period === 1,
+    productive,
+    verdictNote,
+    perronRootClosed,
+    perronRootClosedBounds,
+    closedProductive,
+    roundsToTolerance: series.converges ? series.roundsToTolerance : null,
+    tolerance,
+    spectrum: modes,
+    spectrumNote,
+    negativeFlows,
+  };
+
+  return {
+    tableName: table.name,
+    sectors: [...sectors],
+    n,
+    moneyUnit: table.moneyUnit,
+    coefficients: {
+      A,
+      x: coef.x,
+      labourIncome: coef.h,
+      otherValueAdded: coef.otherVA,
+      imports: coef.imports,
+      employment: coef.e,
+      householdConsumption: closed ? closed.hc : null,
+      householdIncomeTotal: coef.householdIncomeTotal,
+    },
+    viability,
+    series,
+    multipliers,
+    linkages,
+    leontief,
+    checks: { solveResidual: residual, inverseResidual, condition, residualThreshold: RESIDUAL_THRESHOLD },
+    warnings,
+  };
+}

@@ -1,0 +1,129 @@
+/**
+ * Numerical edges of the tables planners bring: singular I − A (ρ(A) = 1 exactly), ρ(A) just above 1, nearly singular,
+ * reducible and periodic coefficient matrices, a sector with zero output and no inputs, magnitudes from 1e-300 to
+ * 1e300, an all-zero table. Each gives a defined, explained result — a located refusal, or numbers with notes — and
+ * no NaN or Infinity anywhere in the engine's results, the scenario JSON or the CSV reports.
+ * The tables are small invented ones whose properties are plain by construction (stated beside each).
+ */
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { main } from '../../../src/cli/main.ts';
+import { InputError } from '../../../src/diagnostics/errors.ts';
+import { prepareModel } from '../../../src/model/prepared.ts';
+import { analyseScenario, runScenario } from '../../../src/scenario/index.ts';
+import { importTable } from '../../../src/table/index.ts';
+import { expectCliRefusal, nonFinite, nonFiniteText, runCli } from './gen.ts';
+
+const dir = mkdtempSync(join(tmpdir(), 'roundwise-edges-'));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+const csv = (...rows: string[]) => rows.join('\r\n') + '\r\n';
+const HEAD = 'thousand dollars,A,B,Households,Exports,Total output';
+
+/** Two-sector tables; x = 100 for both unless stated. */
+export const EDGE_TABLES = {
+  // Columns of A sum to exactly 1 (no value added): ρ(A) = 1 (column sums equal ⇒ ρ equals them), I − A singular.
+  rhoOne: csv(HEAD, 'A,50,50,0,0,100', 'B,50,50,0,0,100'),
+  // A = [[0.6,0.5],[0.5,0.6]]: ρ(A) = 1.1 > 1 (eigenvalues 0.6 ± 0.5). Inputs exceed output.
+  rhoAbove: csv(HEAD, 'A,60,50,5,5,100', 'B,50,60,5,5,100', 'Labor income,1,1,,,'),
+  // ρ(A) = 1 − 2e-12: I − A nearly singular (condition number about 1e12).
+  nearlySingular: csv(HEAD, 'A,50,49.9999999998,0,0.0000000002,100', 'B,49.9999999998,50,0,0.0000000002,100', 'Labor income,0.0000000001,0.0000000001,,,', 'Other value added,0.0000000001,0.0000000001,,,'),
+  // A = [[0,0.5],[0.5,0]]: irreducible with period 2 (eigenvalues ±0.5).
+  periodic: csv(HEAD, 'A,0,50,20,30,100', 'B,50,0,20,30,100', 'Labor income,30,30,,,', 'Other value added,20,20,,,'),
+  // A = [[0.2,0.3],[0,0.4]]: reducible (B buys from A, A never from B).
+  reducible: csv(HEAD, 'A,20,30,20,30,100', 'B,0,40,30,30,100', 'Labor income,50,20,,,', 'Other value added,30,10,,,'),
+  // Sector C has zero output, buys and sells nothing: dropped with a note.
+  zeroSector: csv('thousand dollars,A,B,C,Households,Exports,Total output', 'A,10,20,0,30,40,100', 'B,20,10,0,30,40,100', 'C,0,0,0,0,0,0', 'Labor income,40,40,0,,,', 'Other value added,30,30,0,,,'),
+  // The periodic table's money at 1e-300 and at 1e300 (same coefficients).
+  tiny: csv(HEAD, 'A,0,50e-300,20e-300,30e-300,100e-300', 'B,50e-300,0,20e-300,30e-300,100e-300', 'Labor income,30e-300,30e-300,,,', 'Other value added,20e-300,20e-300,,,'),
+  huge: csv(HEAD, 'A,0,50e300,20e300,30e300,100e300', 'B,50e300,0,20e300,30e300,100e300', 'Labor income,30e300,30e300,,,', 'Other value added,20e300,20e300,,,'),
+  allZero: csv(HEAD, 'A,0,0,0,0,0', 'B,0,0,0,0,0'),
+} as const;
+
+const SHOCK = 'sector,amount\r\nA,100\r\n';
+
+async function scenarioCli(name: keyof typeof EDGE_TABLES, extra: string[] = []) {
+  const table = join(dir, `${name}.csv`);
+  writeFileSync(table, EDGE_TABLES[name]);
+  const shock = join(dir, 'shock.csv');
+  writeFileSync(shock, SHOCK);
+  return runCli(main, ['scenario', table, '--shock', shock, ...extra]);
+}
+
+/** The scenario through the engine and through the CLI (--json and --out): all finite, every CSV free of NaN/Infinity text. */
+async function expectFiniteEverywhere(name: keyof typeof EDGE_TABLES) {
+  const t = importTable(EDGE_TABLES[name], { fileName: `${name}.csv` });
+  const analysis = analyseScenario(prepareModel(t), { name: 's', lines: [{ sector: 'A', amount: 100, kind: 'final-demand', localShare: 1 }] }, { pathsTo: t.n - 1 });
+  expect(nonFinite(analysis)).toEqual([]);
+  const json = await scenarioCli(name, ['--json', '--paths', t.sectors[t.n - 1]!]);
+  expect(json.code, json.err).toBe(0);
+  expect(nonFiniteText(json.out)).toEqual([]);
+  const out = join(dir, `out-${name}`);
+  const rep = await scenarioCli(name, ['--out', out]);
+  expect(rep.code, rep.err).toBe(0);
+  for (const f of readdirSync(out)) expect(nonFiniteText(readFileSync(join(out, f), 'utf8')), f).toEqual([]);
+  return { table: t, analysis, json: JSON.parse(json.out) as Record<string, unknown> };
+}
+
+describe('numerical edges', () => {
+  it('ρ(A) = 1 exactly: I − A is singular — the engine and the CLI refuse with an explanation', async () => {
+    const pm = prepareModel(importTable(EDGE_TABLES.rhoOne, { fileName: 'rhoOne.csv' }));
+    expect(pm.openLU.singular).toBe(true);
+    let err: unknown;
+    try {
+      runScenario(pm, { name: 's', lines: [{ sector: 'A', amount: 100, kind: 'final-demand', localShare: 1 }] });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(InputError);
+    expect((err as InputError).code).toBe('singular');
+    const r = await scenarioCli('rhoOne');
+    expectCliRefusal(r, 'scenario');
+    expect(r.err).toContain('I − A is singular');
+  });
+
+  it('ρ(A) just above 1: imported with a warning that inputs exceed output; results finite', async () => {
+    const { table, json } = await expectFiniteEverywhere('rhoAbove');
+    expect(table.warnings.map((w) => w.code)).toContain('inputs-exceed-output');
+    // The outputs are negative for a positive shock; the result must say why they mean nothing.
+    expect((json.notes as string[]).join('\n')).toMatch(/cannot describe a productive economy/);
+  });
+
+  it('nearly singular I − A: results finite', async () => {
+    await expectFiniteEverywhere('nearlySingular');
+  });
+
+  it('periodic (period 2) and reducible matrices: results finite, spending rounds converge', async () => {
+    for (const name of ['periodic', 'reducible'] as const) {
+      const { analysis } = await expectFiniteEverywhere(name);
+      expect(analysis.rounds.reach.every((r) => r.rounds !== null), name).toBe(true);
+    }
+  });
+
+  it('a sector with zero output and no inputs is dropped with a note; a shock to it is refused by name', async () => {
+    const { table } = await expectFiniteEverywhere('zeroSector');
+    expect(table.sectors).toEqual(['A', 'B']);
+    expect(table.warnings.find((w) => w.code === 'sector-dropped')?.message).toBe("dropped 1 sector with zero output and no purchases or sales: 'C'");
+    writeFileSync(join(dir, 'shock-c.csv'), 'sector,amount\r\nC,10\r\n');
+    const r = await runCli(main, ['scenario', join(dir, 'zeroSector.csv'), '--shock', join(dir, 'shock-c.csv')]);
+    expectCliRefusal(r, 'scenario');
+    expect(r.err).toContain("unknown sector 'C' (the table has: A, B)");
+  });
+
+  it('money from 1e-300 to 1e300: finite results, and the multipliers do not depend on the unit', async () => {
+    const base = await expectFiniteEverywhere('periodic');
+    for (const name of ['tiny', 'huge'] as const) {
+      const r = await expectFiniteEverywhere(name);
+      const m = (j: Record<string, unknown>) => (j.multipliers as { output: { typeI: { value: number } } }).output.typeI.value;
+      expect(Math.abs(m(r.json) - m(base.json))).toBeLessThan(1e-12 * m(base.json));
+    }
+  });
+
+  it('an all-zero table is refused: there is nothing to model', async () => {
+    const r = await scenarioCli('allZero');
+    expectCliRefusal(r, 'scenario');
+    expect(r.err).toContain('every sector has zero output and no flows: there is nothing to model');
+  });
+});
