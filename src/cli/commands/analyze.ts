@@ -6,9 +6,9 @@
 import { parseArgs } from 'node:util';
 import { createHash } from 'node:crypto';
 import { basename, join } from 'node:path';
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { InputError, formatLocated } from '../../diagnostics/errors.ts';
-import { importTable, parseRoleMap } from '../../table/index.ts';
+import { checkTableSize, importTable, parseRoleMap } from '../../table/index.ts';
 import { analyzeTable, type Analysis } from '../../model/analysis.ts';
 import { analysisJson } from '../../report/analysis-json.ts';
 import { analysisReports } from '../../report/analysis.ts';
@@ -20,10 +20,16 @@ const PARALLEL_MIN_SECTORS = 500;
 
 const USAGE = 'usage: roundwise analyze TABLE.csv [--map MAP.json] [--json] [--out DIR] [--allow-negative] [--tolerance T]';
 
-function readInput(path: string): Buffer {
+/** The file's bytes; with `limit`, its size is checked first so that an oversized file is never read into memory. */
+function readInput(path: string, limit?: (bytes: number, path: string) => void): Buffer {
   try {
+    if (limit) {
+      const size = statSync(path).size;
+      limit(size, path);
+    }
     return readFileSync(path);
   } catch (e) {
+    if (e instanceof InputError) throw e;
     const code = (e as { code?: string }).code;
     const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder, not a file' : code === 'EACCES' ? 'permission denied' : 'cannot be read';
     throw new InputError('unreadable-file', why, { file: path });
@@ -93,7 +99,7 @@ export async function run(args: string[], io: CliIO): Promise<number> {
   // Only the table survives this block: the file's bytes and text (tens of MB for a large table) can be collected.
   let sourceHash: string | undefined;
   const table = (() => {
-    const bytes = readInput(path);
+    const bytes = readInput(path, checkTableSize);
     if (values.out !== undefined) sourceHash = createHash('sha256').update(bytes).digest('hex');
     return importTable(bytes.toString('utf8'), { fileName, allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
   })();
