@@ -94,7 +94,9 @@ export async function acceptEstimate(): Promise<boolean> {
     say(`Now using ${v.result.fileName}`);
     app.screen = 'overview';
   } else {
+    // The refusal belongs to this screen, not to the Import screen's file.
     regional.error = app.importError;
+    app.importError = null;
   }
   return ok;
 }
