@@ -19,6 +19,7 @@ import { createProject, parseProject, serializeProject, sourceInfo, type SourceI
 import { utf8Bytes } from '../../src/project/sha256.ts';
 import { formatLocated, InputError } from '../../src/diagnostics/errors.ts';
 import type { AnalysisView, Eigen, MultiplierRow, TableInfo } from './protocol.ts';
+import { regionalApi } from './regional.ts';
 
 export const SAMPLE_FILE = SAMPLE_FILE_NAME;
 
@@ -548,4 +549,5 @@ export const api = {
   report,
   saveProject,
   openProject,
+  ...regionalApi,
 };
