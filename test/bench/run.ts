@@ -135,10 +135,10 @@ console.log(`LU = factorisation with partial pivoting; inverse = factorisation +
 for (const r of rows) if (r.invMlSkipped) console.log(`ml-matrix inverse at n=${r.n} ${r.invMlSkipped}.`);
 if (!numpyVersion) console.log('numpy columns empty: `python3 -c "import numpy"` failed on this machine.');
 
-const jobHeader = ['n', 'CSV', 'import', 'prepare (coefficients + LU)', 'one scenario'];
-const jobTable = jobs.map((j) => [String(j.n), `${j.csvMB.toFixed(1)} MB`, fmt(j.importMs.medianMs), fmt(j.prepareMs.medianMs), fmt(j.scenarioMs.medianMs)]);
+const jobHeader = ['n', 'CSV', 'import', 'prepare (coefficients + LU + bordering)', 'full analysis', 'one scenario'];
+const jobTable = jobs.map((j) => [String(j.n), `${j.csvMB.toFixed(1)} MB`, fmt(j.importMs.medianMs), fmt(j.prepareMs.medianMs), fmt(j.analysisMs.medianMs), fmt(j.scenarioMs.medianMs)]);
 printTable(jobHeader, jobTable);
-console.log('Whole job on invented tables written by writeTableCsv: import = importTable on the CSV text; one scenario = runScenario after preparation (a final-demand line in one sector).');
+console.log('Whole job on invented tables written by writeTableCsv, in process, 1 thread: import = importTable on the CSV text; full analysis = analyzeTable (defaults: spectrum only up to 400 sectors, no explicit inverse); one scenario = runScenario after preparation (a final-demand line in one sector).');
 const cliHeader = ['n', 'roundwise analyze --json', 'numpy script', 'ours/numpy', 'peak RSS ours', 'peak RSS numpy', 'max rel. diff'];
 const cliTable = clis.map((c) => [String(c.n), fmt(c.ours?.medianMs), fmt(c.numpy?.medianMs), ratio(c.ours?.medianMs, c.numpy?.medianMs),
   c.ours?.peakMB == null ? '—' : `${c.ours.peakMB.toFixed(0)} MB`, c.numpy?.peakMB == null ? '—' : `${c.numpy.peakMB.toFixed(0)} MB`,
