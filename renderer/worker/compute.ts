@@ -378,7 +378,7 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
   if (args.which === 'Z') values = Float64Array.from(table.Z);
   else if (args.which === 'A') values = Float64Array.from(pm.coef.A);
   else {
-    if (!current().full.viability.productive) throw new Error('the table is not productive, so the Leontief inverse is not shown');
+    if (!current().full.viability.productive) throw new InputError('not-productive', 'the table is not productive, so the Leontief inverse is not shown');
     // L column by column: one solve per column, only when the user asks for the grid.
     values = new Float64Array(n * n);
     const e = new Float64Array(n);
