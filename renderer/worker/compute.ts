@@ -114,18 +114,18 @@ function analyse(pm: PreparedModel): { analysis: AnalysisView; full: Analysis } 
     const b = at(link.backward, j), f = at(link.forward, j);
     return {
       sector, index: j,
-      output: at(m.output.typeI, j) ?? Number.NaN,
+      output: at(m.output.typeI, j),
       outputII: at(m.output.typeII, j),
-      income: at(m.income.simple, j) ?? Number.NaN,
+      income: at(m.income.simple, j),
       incomeII: at(m.income.total, j),
       incomeRatioI: at(m.income.typeI, j),
       incomeRatioII: at(m.income.typeII, j),
-      valueAdded: at(m.valueAdded.simple, j) ?? Number.NaN,
+      valueAdded: at(m.valueAdded.simple, j),
       valueAddedII: at(m.valueAdded.total, j),
       employment: at(m.employment.simple, j),
       employmentII: at(m.employment.total, j),
-      backward: b ?? Number.NaN, forward: f ?? Number.NaN,
-      linkage: key.has(j) ? 'key' : (b ?? 0) > 1 ? 'backward' : (f ?? 0) > 1 ? 'forward' : 'weak',
+      backward: b, forward: f,
+      linkage: b === null || f === null ? 'undefined' : key.has(j) ? 'key' : b > 1 ? 'backward' : f > 1 ? 'forward' : 'weak',
     };
   });
 
@@ -167,7 +167,7 @@ function analyse(pm: PreparedModel): { analysis: AnalysisView; full: Analysis } 
 
   let sumI = 0, sumII = 0, countII = 0;
   for (const r of rows) {
-    sumI += Number.isFinite(r.output) ? r.output : 0;
+    sumI += r.output ?? 0;
     if (r.outputII !== null) { sumII += r.outputII; countII++; }
   }
   const analysis: AnalysisView = {
@@ -187,7 +187,7 @@ function analyse(pm: PreparedModel): { analysis: AnalysisView; full: Analysis } 
     condition: finite(full.checks.condition),
     multipliers: rows,
     hasTypeII: v.closedProductive === true,
-    meanOutput: n && v.productive ? sumI / n : Number.NaN,
+    meanOutput: n && v.productive ? sumI / n : null,
     meanOutputII: countII === n && n > 0 ? sumII / n : null,
     notes: [...notes, ...full.warnings.map((w) => formatLocated(w))],
   };
@@ -305,7 +305,14 @@ function scenarioOf(d: ScenarioDraft): Scenario {
   return { name: d.name, lines };
 }
 
+function requireProductive(): void {
+  if (!current().full.viability.productive) {
+    throw new InputError('not-productive', 'the table is not productive (its spending rounds do not die out), so scenario effects are not defined; check the table on the Import screen');
+  }
+}
+
 function runScenario(args: { scenario: ScenarioDraft; closure: boolean }): ScenarioView {
+  requireProductive();
   const { pm, table } = current();
   const r = engineRunScenario(pm, scenarioOf(args.scenario));
   const closure = args.closure && r.closure === 'household';
@@ -336,6 +343,7 @@ export interface PathsView {
 }
 
 function paths(args: { scenario: ScenarioDraft; sector: string; closure: boolean }): PathsView {
+  requireProductive();
   const { pm } = current();
   const r = engineRunScenario(pm, scenarioOf(args.scenario));
   const dest = pm.coef.sectors.indexOf(args.sector);
@@ -435,7 +443,7 @@ function report(args: { kind: ReportKind; scenario?: ScenarioDraft; scenarios?: 
       return reportFiles('multipliers', meta('Multipliers and linkages by sector', full.viability.closedProductive ? 'open (Type I) and household-closed (Type II)' : 'open (Type I); no household closure', analysis.notes), multiplierRows(full, unit));
     case 'linkages': {
       const rows: Cell[][] = [['sector', 'backward linkage (index)', 'forward linkage (index)', 'class']];
-      for (const r of analysis.multipliers) rows.push([r.sector, finite(r.backward), finite(r.forward), r.linkage]);
+      for (const r of analysis.multipliers) rows.push([r.sector, r.backward, r.forward, r.linkage]);
       return reportFiles('linkages', meta('Backward and forward linkages (Rasmussen)', 'open (Type I)'), rows);
     }
     case 'coefficients': {
@@ -445,11 +453,13 @@ function report(args: { kind: ReportKind; scenario?: ScenarioDraft; scenarios?: 
       return reportFiles('coefficients', meta('Technical coefficients A', 'open'), rows);
     }
     case 'comparison': {
+      requireProductive();
       const list = args.scenarios ?? [];
       const results = list.map((sc) => engineRunScenario(pm, scenarioOf(sc)));
       return comparisonReport(compareScenarios(results), unit, context());
     }
     default: {
+      requireProductive();
       if (!args.scenario) throw new Error('this report needs a scenario');
       const r = engineRunScenario(pm, scenarioOf(args.scenario));
       const base = `${slug(args.scenario.name)}`;

@@ -43,21 +43,21 @@ export interface Verdict {
 export interface MultiplierRow {
   sector: string;
   index: number;
-  output: number;
+  output: number | null;
   outputII: number | null;
-  income: number;
+  income: number | null;
   incomeII: number | null;
   /** Type I/II income multipliers as ratios (total income change per unit of direct income change). */
   incomeRatioI: number | null;
   incomeRatioII: number | null;
-  valueAdded: number;
+  valueAdded: number | null;
   valueAddedII: number | null;
   employment: number | null;
   employmentII: number | null;
-  backward: number;
-  forward: number;
-  /** 'key' (both linkages above average), 'backward', 'forward', or 'weak'. */
-  linkage: 'key' | 'backward' | 'forward' | 'weak';
+  backward: number | null;
+  forward: number | null;
+  /** 'key' (both linkages above average), 'backward', 'forward', 'weak', or 'undefined' when linkages cannot be computed. */
+  linkage: 'key' | 'backward' | 'forward' | 'weak' | 'undefined';
 }
 
 export interface Eigen {
@@ -98,7 +98,7 @@ export interface AnalysisView {
   multipliers: MultiplierRow[];
   hasTypeII: boolean;
   /** Average output multipliers, for the headline. */
-  meanOutput: number;
+  meanOutput: number | null;
   meanOutputII: number | null;
   notes: string[];
 }

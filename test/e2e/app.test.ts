@@ -10,7 +10,7 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import Papa from 'papaparse';
-import { DOWNLOADS, REPO, shot, skipBrowser, startSession, type Session } from './harness.ts';
+import { DOWNLOADS, REPO, shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
 import { importTable } from '../../src/table/index.ts';
 import { prepareModel } from '../../src/model/prepared.ts';
 import { analyzeTable } from '../../src/model/analysis.ts';
@@ -81,6 +81,12 @@ async function downloadsOf(click: () => Promise<void>, count: number): Promise<{
     out.push({ name: d.suggestedFilename(), path, text: readFileSync(path, 'utf8') });
   }
   return out;
+}
+
+/** Photograph the screen, checking first that no NaN or Infinity is on it. */
+async function shot(p: Page, name: string): Promise<void> {
+  expect(await p.locator('body').innerText(), name).not.toMatch(/\bNaN\b|Infinity|∞/);
+  await photograph(p, name);
 }
 
 async function go(screen: string): Promise<void> {
@@ -302,6 +308,22 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await page.locator('.matrix .m-cell').first().waitFor();
     expect(await page.locator('.matrix .m-cell').count()).toBeLessThan(600);
     await shot(page, '11-table-2000-sectors');
+  });
+
+  it('says in words when a table is not productive, and shows no made-up numbers', async () => {
+    await go('import');
+    await page.getByTestId('file-input').setInputFiles(join(FIX, 'not-productive.csv'));
+    await page.getByTestId('accept-import').click();
+    await expect.poll(() => page.getByTestId('table-name').textContent(), { timeout: 20_000 }).toMatch(/not-productive/);
+    await go('overview');
+    expect(await page.getByTestId('verdict').textContent()).toMatch(/not productive/);
+    await page.getByTestId('no-multipliers').waitFor();
+    await shot(page, '12-not-productive');
+    await go('multipliers');
+    await shot(page, '13-not-productive-multipliers');
+    await go('scenarios');
+    await page.getByTestId('scenario-error').waitFor();
+    expect(await page.getByTestId('scenario-error').textContent()).toMatch(/not productive/);
   });
 
   it('asks before closing the window with unsaved changes', async () => {

@@ -53,6 +53,18 @@ describe('worker adapter over the engine', () => {
     expect(bad).toEqual([]);
   });
 
+  it('describes a table that is not productive in words, with no number made up', () => {
+    const r = api.loadTable({ text: text('not-productive.csv'), fileName: 'not-productive.csv' });
+    expect(r.analysis.verdict.productive).toBe(false);
+    expect(r.analysis.verdict.say).toMatch(/not productive/);
+    // A = [[0.6, 0.5], [0.5, 0.6]] has Perron root 1.1 (its largest eigenvalue, 0.6 + 0.5; hand computation).
+    expect(r.analysis.perron.value).toBeCloseTo(1.1, 12);
+    expect(r.analysis.rounds99.value).toBeNull();
+    expect(r.analysis.rounds99.reason).toMatch(/not productive/);
+    expect(r.analysis.multipliers.every((m) => m.output === null && m.backward === null)).toBe(true);
+    expect(numbers(r.analysis).filter(([, x]) => !Number.isFinite(x))).toEqual([]);
+  });
+
   it('gives scenario effects equal to the engine\'s runScenario', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
     const view = api.runScenario({ scenario: SCENARIO, closure: true });

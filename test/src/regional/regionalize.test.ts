@@ -227,3 +227,9 @@ describe('negative exports and other final demand', () => {
     expect(res.absent).toEqual(['C']);
   });
 });
+
+describe('files that are not employment CSVs', () => {
+  it('binary content is refused before parsing', () => {
+    expect(refusal(() => parseEmploymentCsv('PK\u0003\u0004\u0000\u0000junk', 'e.csv')).message).toMatch(/binary/);
+  });
+});
