@@ -251,7 +251,7 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     const col = (name: string) => header.findIndex((h) => h.startsWith(name));
     const checks: [string, (number | null)[]][] = [
       ['output Type I', a.multipliers.output.typeI], ['output Type II', a.multipliers.output.typeII],
-      ['income simple', a.multipliers.income.simple], ['income Type II', a.multipliers.income.typeII],
+      ['labour income simple', a.multipliers.income.simple], ['labour income Type II', a.multipliers.income.typeII],
       ['employment simple', a.multipliers.employment.simple], ['value added total', a.multipliers.valueAdded.total],
       ['backward linkage', a.linkages.backward], ['forward linkage', a.linkages.forward],
     ];
