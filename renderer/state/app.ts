@@ -9,7 +9,7 @@ import type { AnalysisView, TableInfo } from '../worker/protocol.ts';
 import type { PreviewView, ScenarioView, ScenarioDraft, TableSource } from '../worker/compute.ts';
 import { History } from './history.ts';
 
-export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export';
+export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional';
 
 export interface ImportDraft {
   source: TableSource;

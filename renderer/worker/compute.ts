@@ -19,6 +19,7 @@ import { createProject, parseProject, serializeProject, sourceInfo, type SourceI
 import { utf8Bytes } from '../../src/project/sha256.ts';
 import { formatLocated, InputError } from '../../src/diagnostics/errors.ts';
 import type { AnalysisView, Eigen, MultiplierRow, TableInfo } from './protocol.ts';
+import { regionalApi } from './regional.ts';
 
 export const SAMPLE_FILE = SAMPLE_FILE_NAME;
 
@@ -347,7 +348,8 @@ function paths(args: { scenario: ScenarioDraft; sector: string; closure: boolean
   const r = engineRunScenario(pm, scenarioOf(args.scenario));
   const dest = pm.coef.sectors.indexOf(args.sector);
   if (dest < 0) throw new Error(`unknown sector '${args.sector}'`);
-  const model = args.closure && pm.closed ? 'closed' : 'open';
+  // The scenario's own closure verdict: a household-closed model that is not productive is dropped there (with a note).
+  const model = args.closure && r.closure === 'household' ? 'closed' : 'open';
   const f = model === 'closed' ? Float64Array.from([...r.effectiveDemand, 0]) : r.effectiveDemand;
   const pa = structuralPaths(pm, f, dest, { model, maxPaths: 15 });
   return {
@@ -377,7 +379,7 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
   if (args.which === 'Z') values = Float64Array.from(table.Z);
   else if (args.which === 'A') values = Float64Array.from(pm.coef.A);
   else {
-    if (!current().full.viability.productive) throw new Error('the table is not productive, so the Leontief inverse is not shown');
+    if (!current().full.viability.productive) throw new InputError('not-productive', 'the table is not productive, so the Leontief inverse is not shown');
     // L column by column: one solve per column, only when the user asks for the grid.
     values = new Float64Array(n * n);
     const e = new Float64Array(n);
@@ -436,7 +438,7 @@ function report(args: { kind: ReportKind; scenario?: ScenarioDraft; scenarios?: 
       if (args.kind === 'scenario-rounds') return roundsReport(r, spendingRounds(pm, r.effectiveDemand, r.openOutput, { maxRounds: 200 }), context(), `${base}-rounds`);
       const dest = pm.coef.sectors.indexOf(args.sector ?? '');
       const target = dest >= 0 ? dest : largest(r);
-      const model = args.closure && pm.closed ? 'closed' : 'open';
+      const model = args.closure && r.closure === 'household' ? 'closed' : 'open';
       const f = model === 'closed' ? Float64Array.from([...r.effectiveDemand, 0]) : r.effectiveDemand;
       return pathReport(r, structuralPaths(pm, f, target, { model }), context(), `${base}-paths`);
     }
@@ -517,4 +519,5 @@ export const api = {
   report,
   saveProject,
   openProject,
+  ...regionalApi,
 };

@@ -9,7 +9,7 @@ import type { IOTable } from '../table/types.ts';
 import { identityMinus, luInverse } from '../linalg/index.ts';
 import { conditionEstimate1, scaledResidual, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF } from '../linalg/checks.ts';
 import { coefficients } from './coefficients.ts';
-import { closedBorder, prepareModel, type PreparedModel } from './prepared.ts';
+import { closedBorder, prepareModel, solveClosed, type PreparedModel } from './prepared.ts';
 import { sectorBlocks } from './graph.ts';
 import { perronRoot, type PerronOptions } from './perron.ts';
 import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
@@ -78,6 +78,8 @@ export interface AccuracyChecks {
   solveResidual: number | null;
   /** ‖(I−A)X − I‖₁/(‖I−A‖₁‖X‖₁·n·ε) for the explicit inverse (xGET03 ratio); null when the inverse was not formed. */
   inverseResidual: number | null;
+  /** The same ratio for the closed system (I − Ā)x̄ = 1 solved by bordering; null without a productive closure. */
+  closedSolveResidual: number | null;
   /** Estimated 1-norm condition number of I − A; null when singular. */
   condition: number | null;
   residualThreshold: number;
@@ -195,7 +197,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   let verdictNote: string | null = null;
   if (openLU.singular) {
     productive = false;
-    verdictNote = 'I − A is singular: the Perron root is 1, so no finite Leontief inverse exists';
+    verdictNote = 'I − A is singular or within rounding of singular: 1 is an eigenvalue of A, so no finite Leontief inverse exists';
   } else if (!negativeFlows) {
     const below = perron.upper < 1;
     const above = perron.lower >= 1;
@@ -250,6 +252,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   let condition: number | null = null;
   let residual: number | null = null;
   let inverseResidual: number | null = null;
+  let closedResidual: number | null = null;
   let leontief: Float64Array | null = null;
   if (!openLU.singular) {
     const norm = identityMinusNorm1(A, n);
@@ -267,9 +270,15 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
       const r = scaledResidual(identityMinus(A, n), leontief, n);
       inverseResidual = Number.isFinite(r) ? r : null;
     }
-    for (const [what, r] of [['solve', residual], ['inverse', inverseResidual]] as const) {
+    if (closed && closedProductive) {
+      const m = closed.m;
+      const ones = new Float64Array(m).fill(1);
+      const r = openSolveResidual(closed.Abar, m, solveClosed(pm, ones), ones, identityMinusNorm1(closed.Abar, m));
+      closedResidual = Number.isFinite(r) ? r : null;
+    }
+    for (const [what, r] of [['solve', residual], ['inverse', inverseResidual], ['household-closed solve', closedResidual]] as const) {
       if (r !== null && r > RESIDUAL_THRESHOLD) {
-        warn('residual', `the ${what} residual check failed (scaled residual ${fmt(r)} > ${RESIDUAL_THRESHOLD}): the factorisation of I − A is not accurate`);
+        warn('residual', `the ${what} residual check failed (scaled residual ${fmt(r)} > ${RESIDUAL_THRESHOLD}): the results may be inaccurate`);
       }
     }
   }
@@ -338,7 +347,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     multipliers,
     linkages,
     leontief,
-    checks: { solveResidual: residual, inverseResidual, condition, residualThreshold: RESIDUAL_THRESHOLD },
+    checks: { solveResidual: residual, inverseResidual, closedSolveResidual: closedResidual, condition, residualThreshold: RESIDUAL_THRESHOLD },
     warnings,
   };
 }

@@ -19,7 +19,10 @@ const UNIT_ROUNDOFF = 2 ** -53;
 export interface PerronOptions {
   /** Stop when upper − lower ≤ tolerance·upper (default 1e-12). */
   tolerance?: number;
-  /** Iteration cap per block (default 2000). The bounds stay certified when it is hit; they are only wider. */
+  /**
+   * Iteration cap per block (default: 2000 steps, fewer on large blocks so no block costs more than about 4·10⁸
+   * multiply-adds, i.e. 100 steps at n = 2000). The bounds stay certified when it is hit; they are only wider.
+   */
   maxIterations?: number;
   /** Blocks of the sector graph, when already computed. */
   blocks?: SectorBlock[];
@@ -117,11 +120,18 @@ function rightProduct(b: Float64Array, m: number, v: Float64Array, av: Float64Ar
   }
 }
 
+/** Iteration cap for an m×m block: at most `work` multiply-adds, between 50 and 2000 steps. */
+function defaultCap(m: number, work = 4e8): number {
+  return Math.max(50, Math.min(2000, Math.floor(work / (m * m))));
+}
+
 /**
  * Power iteration on the m×m non-negative matrix b, right and left vectors together in one pass over b per step.
  * `shift` is added to the diagonal of the iteration matrix only (the bounds are always computed for b itself).
+ * `vectorsOnly`: stop when the vectors settle (max change ≤ tol·max entry) instead of when the bounds meet — for the
+ * whole of a reducible matrix, whose Perron vector may have zeros so its upper bound need not converge.
  */
-function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter: number, rightOnly = false): Iterated {
+function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter: number, rightOnly = false, vectorsOnly = false): Iterated {
   let v = new Float64Array(m).fill(1);
   let w = new Float64Array(m).fill(1);
   const g = safety(m);
@@ -171,13 +181,23 @@ function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter
       break;
     }
     const nv = new Float64Array(m);
-    for (let i = 0; i < m; i++) nv[i] = av[i]! / mv;
+    let change = 0;
+    for (let i = 0; i < m; i++) {
+      nv[i] = av[i]! / mv;
+      const d = Math.abs(nv[i]! - v[i]!);
+      if (d > change) change = d;
+    }
     v = nv;
     if (!rightOnly) {
       const nw = new Float64Array(m);
-      for (let i = 0; i < m; i++) nw[i] = wa[i]! / mw;
+      for (let i = 0; i < m; i++) {
+        nw[i] = wa[i]! / mw;
+        const d = Math.abs(nw[i]! - w[i]!);
+        if (d > change) change = d;
+      }
       w = nw;
     }
+    if (vectorsOnly && change <= tol) { it++; break; }
   }
   if (upper === Number.POSITIVE_INFINITY) upper = Math.max(lower, maxRowSum(b, m) * (1 + g));
   normalise(v);
@@ -209,7 +229,6 @@ function subMatrix(a: Float64Array, n: number, idx: number[]): Float64Array {
 /** ρ(A) with certified bounds and Perron vectors for a non-negative n×n matrix (row-major). */
 export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {}): PerronResult {
   const tol = opts.tolerance ?? 1e-12;
-  const maxIter = opts.maxIterations ?? 2000;
   if (n === 0) return { root: 0, lower: 0, upper: 0, right: new Float64Array(0), left: new Float64Array(0), iterations: 0, converged: true, blockBounds: [], blocks: [] };
   const blocks = opts.blocks ?? sectorBlocks(a, n);
   let lower = 0, upper = 0, iterations = 0, converged = true;
@@ -227,7 +246,7 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
       if (blocks.length === 1) single = { lower: d, upper: d, right: Float64Array.of(1), left: Float64Array.of(1), iterations: 0, converged: true };
       continue;
     }
-    const r = iterate(m === n ? a : subMatrix(a, n, blk.sectors), m, blk.period === 1 ? 0 : 1, tol, maxIter, opts.rightOnly ?? false);
+    const r = iterate(m === n ? a : subMatrix(a, n, blk.sectors), m, blk.period === 1 ? 0 : 1, tol, opts.maxIterations ?? defaultCap(m), opts.rightOnly ?? false);
     iterations += r.iterations;
     converged &&= r.converged;
     if (r.lower > lower) lower = r.lower;
@@ -240,8 +259,9 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
     right = single.right;
     left = single.left;
   } else {
-    // Reducible: whole-matrix vectors from the shifted iteration A + I (non-negative eigenvectors for ρ, not unique).
-    const whole = iterate(a, n, 1, tol, maxIter, opts.rightOnly ?? false);
+    // Reducible: whole-matrix vectors from the shifted iteration A + I (non-negative eigenvectors for ρ, not unique;
+    // with a smaller work cap, since the bounds already come from the blocks).
+    const whole = iterate(a, n, 1, tol, opts.maxIterations ?? defaultCap(n, 1e8), opts.rightOnly ?? false, true);
     iterations += whole.iterations;
     right = whole.right;
     left = whole.left;

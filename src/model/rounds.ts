@@ -141,7 +141,7 @@ export function seriesVerdict(
   if (certs.length === 0) {
     return {
       converges: false,
-      reason: 'no convergence certificate: no positive weight vector contracts A (the Perron root is 1 or more, or within rounding of 1)',
+      reason: 'no convergence certificate: none of the weight vectors tried (row sums, Perron vector, Leontief row sums) contracts |A|, so no rigorous bound on the remaining rounds is available (the Perron root is 1 or more, within rounding of 1, or the table has negative flows)',
     };
   }
   let best = certs[0]!;

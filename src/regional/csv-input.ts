@@ -4,6 +4,7 @@
  */
 import Papa from 'papaparse';
 import { InputError } from '../diagnostics/errors.ts';
+import { checkTableSize } from '../table/text.ts';
 
 export interface CsvRow {
   /** Trimmed cells. */
@@ -14,6 +15,7 @@ export interface CsvRow {
 
 /** Rows of a CSV text (comma, semicolon or tab; UTF-8 BOM and CRLF accepted); blank lines are skipped. */
 export function readCsvRows(text: string, fileName: string): CsvRow[] {
+  checkTableSize(text.length, fileName);
   // one line-end convention, so files mixing CRLF and LF still split into lines
   const body = (text.charCodeAt(0) === 0xfeff ? text.slice(1) : text).replace(/\r\n?/g, '\n');
   if (/\u0000/.test(body)) throw new InputError('binary', 'this is not a text CSV file (it contains binary data)', { file: fileName });

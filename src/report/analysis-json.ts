@@ -61,6 +61,7 @@ export function analysisJson(an: Analysis): { [k: string]: Json } {
       condition: num(an.checks.condition),
       solveResidual: num(an.checks.solveResidual),
       inverseResidual: num(an.checks.inverseResidual),
+      closedSolveResidual: num(an.checks.closedSolveResidual),
       residualThreshold: an.checks.residualThreshold,
     },
     nullReasons: [...m.notes, ...l.notes].map(note),

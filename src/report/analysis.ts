@@ -126,7 +126,7 @@ export function viabilityRows(an: Analysis): Cell[][] {
   const rows: Cell[][] = [['measure', 'value', 'lower bound', 'upper bound', 'note']];
   rows.push(['productive', yes(v.productive), null, null, v.verdictNote ?? 'Hawkins–Simon and the Perron root agree']);
   rows.push(['Perron root of A', v.perronRoot, v.perronRootBounds[0], v.perronRootBounds[1],
-    `certified Collatz–Wielandt bounds after ${v.perronIterations} power-iteration steps${v.negativeFlows ? '; computed for |A| (negative flows)' : ''}`]);
+    `certified Collatz–Wielandt bounds after ${v.perronIterations} power-iteration step${v.perronIterations === 1 ? "" : "s"}${v.negativeFlows ? '; computed for |A| (negative flows)' : ''}`]);
   rows.push(['Hawkins–Simon condition', yes(v.hawkinsSimon), null, null, hs.firstFailing
     ? `first failing leading principal minor: order ${hs.firstFailing.order} (sector ${an.sectors[hs.firstFailing.sector]}), pivot ${hs.firstFailing.pivot}`
     : `all ${an.n} leading principal minors of I − A positive; smallest pivot ${hs.smallestPivot}`]);
@@ -140,6 +140,7 @@ export function viabilityRows(an: Analysis): Cell[][] {
     s.converges ? `rigorous bound from a Collatz–Wielandt certificate (${s.certificate.source}, contraction ${s.certificate.beta})` : s.reason]);
   rows.push(['condition estimate of I − A (1-norm)', an.checks.condition, null, null, 'LAPACK-style estimate; above 1e12 the results lose most digits']);
   rows.push(['scaled residual of a solve', an.checks.solveResidual, null, null, `LAPACK xGET02 ratio; above ${an.checks.residualThreshold} the factorisation is suspect`]);
+  rows.push(['scaled residual of a household-closed solve', an.checks.closedSolveResidual, null, null, `the same ratio for I − Ā, solved by bordering the open factorisation`]);
   rows.push(['scaled residual of the inverse', an.checks.inverseResidual, null, null, `LAPACK xGET03 ratio; above ${an.checks.residualThreshold} the factorisation is suspect`]);
   return rows;
 }

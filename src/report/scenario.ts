@@ -137,7 +137,7 @@ export function roundsNotes(rounds: RoundsResult): string[] {
     'Spending rounds: round 0 is the shock (for fixed-output lines, the final demand that produces the fixed output); round k+1 = A × round k. Their sum tends to the open-model (Type I) total.',
     `Rounds needed to reach the open-model total — ${reach.join('; ')}.`,
     `Largest column sum of A (‖A‖₁) = ${rounds.normA}; the rounds not shown add at most ${rounds.remainderBound ?? 'n/a (‖A‖₁ ≥ 1)'} (absolute, summed over sectors); actually left: ${rounds.remainder}.`,
-    `The ratio of successive rounds tends to the Perron root ρ(A) (dominant eigenvalue); last ratio shown: ${lastRatio ?? 'n/a'}.`,
+    `The ratio of successive rounds tends to the Perron root ρ(A) (dominant eigenvalue)${rounds.perronRoot !== null ? ` = ${rounds.perronRoot}` : ''}; last ratio shown: ${lastRatio ?? 'n/a'}.`,
   ];
 }
 

@@ -1,5 +1,6 @@
 /** One call for what a scenario screen or export needs: effects, spending rounds and (optionally) structural paths. */
 import type { PreparedModel } from '../model/prepared.ts';
+import { perronRoot } from '../model/perron.ts';
 import { runScenario } from './effects.ts';
 import { structuralPaths, type PathAnalysis, type PathOptions } from './paths.ts';
 import { spendingRounds, type RoundsOptions, type RoundsResult } from './rounds.ts';
@@ -18,7 +19,9 @@ export function analyseScenario(
   opts: { rounds?: RoundsOptions; pathsTo?: number | null; paths?: PathOptions } = {},
 ): ScenarioAnalysis {
   const result = runScenario(pm, scenario);
-  const rounds = spendingRounds(pm, result.effectiveDemand, result.openOutput, opts.rounds);
+  // The ratios of successive rounds tend to ρ(A); give it beside them (ρ(|A|) bounds it when flows are negative).
+  const rho = opts.rounds?.perronRoot ?? perronRoot(Float64Array.from(pm.coef.A, Math.abs), pm.coef.n, { rightOnly: true }).root;
+  const rounds = spendingRounds(pm, result.effectiveDemand, result.openOutput, { ...opts.rounds, perronRoot: rho });
   let paths: PathAnalysis | null = null;
   if (opts.pathsTo !== undefined && opts.pathsTo !== null) {
     const model = opts.paths?.model ?? 'open';

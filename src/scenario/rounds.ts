@@ -16,6 +16,8 @@ export const COVERAGE_TARGETS = [0.9, 0.99, 0.999] as const;
 export interface RoundsOptions {
   /** Stop after this many rounds (round 0 included) even if 99.9 % is not reached. Default 200. */
   maxRounds?: number;
+  /** ρ(A) when already known (viability check), reported beside the ratios. */
+  perronRoot?: number;
 }
 
 export interface RoundsResult {
@@ -37,6 +39,8 @@ export interface RoundsResult {
   remainderBound: number | null;
   /** ‖x − S_K‖₁ actually left after the computed rounds. */
   remainder: number;
+  /** ρ(A), the limit of the ratios, when given in the options. */
+  perronRoot: number | null;
 }
 
 function norm1Vec(v: Float64Array): number {
@@ -82,5 +86,5 @@ export function spendingRounds(pm: PreparedModel, f: Float64Array, x: Float64Arr
   const normA = norm1(A, n);
   const K = rounds.length - 1;
   const remainderBound = normA < 1 ? (normA ** (K + 1) / (1 - normA)) * norm1Vec(f) : null;
-  return { rounds, roundTotals, roundIncome, coverage, ratio, reach, normA, remainderBound, remainder };
+  return { rounds, roundTotals, roundIncome, coverage, ratio, reach, normA, remainderBound, remainder, perronRoot: opts.perronRoot ?? null };
 }

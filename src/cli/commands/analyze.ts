@@ -6,20 +6,30 @@
 import { parseArgs } from 'node:util';
 import { createHash } from 'node:crypto';
 import { basename, join } from 'node:path';
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { InputError, formatLocated } from '../../diagnostics/errors.ts';
-import { importTable, parseRoleMap } from '../../table/index.ts';
+import { checkTableSize, importTable, parseRoleMap } from '../../table/index.ts';
 import { analyzeTable, type Analysis } from '../../model/analysis.ts';
 import { analysisJson } from '../../report/analysis-json.ts';
 import { analysisReports } from '../../report/analysis.ts';
 import { writeFileAtomic, type CliIO } from '../io.ts';
+import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
+
+/** From this many sectors the factorisation's updates are shared with helper threads (one per extra core). */
+const PARALLEL_MIN_SECTORS = 500;
 
 const USAGE = 'usage: roundwise analyze TABLE.csv [--map MAP.json] [--json] [--out DIR] [--allow-negative] [--tolerance T]';
 
-function readInput(path: string): Buffer {
+/** The file's bytes; with `limit`, its size is checked first so that an oversized file is never read into memory. */
+function readInput(path: string, limit?: (bytes: number, path: string) => void): Buffer {
   try {
+    if (limit) {
+      const size = statSync(path).size;
+      limit(size, path);
+    }
     return readFileSync(path);
   } catch (e) {
+    if (e instanceof InputError) throw e;
     const code = (e as { code?: string }).code;
     const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder, not a file' : code === 'EACCES' ? 'permission denied' : 'cannot be read';
     throw new InputError('unreadable-file', why, { file: path });
@@ -64,6 +74,7 @@ export async function run(args: string[], io: CliIO): Promise<number> {
         out: { type: 'string' },
         'allow-negative': { type: 'boolean', default: false },
         tolerance: { type: 'string' },
+        help: { type: 'boolean', short: 'h', default: false },
       },
     });
   } catch (e) {
@@ -71,6 +82,10 @@ export async function run(args: string[], io: CliIO): Promise<number> {
     return 1;
   }
   const { values, positionals } = parsed;
+  if (values.help) {
+    io.stdout(`${USAGE}\n`);
+    return 0;
+  }
   if (positionals.length !== 1) {
     io.stderr(`roundwise analyze: ${positionals.length === 0 ? 'no table file given' : 'give exactly one table file'}\n${USAGE}\n`);
     return 1;
@@ -84,15 +99,23 @@ export async function run(args: string[], io: CliIO): Promise<number> {
     }
   }
   const path = positionals[0]!;
-  const bytes = readInput(path);
   const fileName = basename(path);
   const roles = values.map !== undefined ? parseRoleMap(readInput(values.map).toString('utf8'), basename(values.map)) : undefined;
-  const table = importTable(bytes.toString('utf8'), {
-    fileName,
-    allowNegative: values['allow-negative'],
-    ...(roles ? { roles } : {}),
-  });
-  const an = analyzeTable(table, { inverse: values.out !== undefined, ...(tolerance !== undefined ? { tolerance } : {}) });
+  // Only the table survives this block: the file's bytes and text (tens of MB for a large table) can be collected.
+  let sourceHash: string | undefined;
+  const table = (() => {
+    const bytes = readInput(path, checkTableSize);
+    if (values.out !== undefined) sourceHash = createHash('sha256').update(bytes).digest('hex');
+    return importTable(bytes.toString('utf8'), { fileName, allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
+  })();
+  const threaded = table.n >= PARALLEL_MIN_SECTORS && startParallelKernels() > 0;
+  let an: Analysis;
+  try {
+    if (threaded) await parallelKernelsReady(2000);
+    an = analyzeTable(table, { inverse: values.out !== undefined, ...(tolerance !== undefined ? { tolerance } : {}) });
+  } finally {
+    if (threaded) await stopParallelKernels();
+  }
 
   for (const w of an.warnings) io.stderr(`roundwise analyze: warning: ${formatLocated(w)}\n`);
   if (values.json) io.stdout(JSON.stringify(analysisJson(an)) + '\n');
@@ -100,7 +123,7 @@ export async function run(args: string[], io: CliIO): Promise<number> {
   if (values.out !== undefined) {
     const files = analysisReports(an, {
       sourceFile: fileName,
-      sourceHash: createHash('sha256').update(bytes).digest('hex'),
+      ...(sourceHash !== undefined ? { sourceHash } : {}),
       date: new Date().toISOString(),
     });
     for (const f of files) {

@@ -7,7 +7,10 @@ import { statSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { z } from 'zod';
 import { formatLocated, InputError } from '../../diagnostics/errors.ts';
+import { analyzePrepared, type Analysis } from '../../model/analysis.ts';
 import { prepareModel } from '../../model/prepared.ts';
+import { analysisNotes, multiplierRows } from '../../report/analysis.ts';
+import { reportFiles, type ReportFile } from '../../report/document.ts';
 import { createProject, parseProject, serializeProject, sha256Hex } from '../../project/index.ts';
 import { roleMapSchema } from '../../project/schema.ts';
 import { CAUTIONS } from '../../report/cautions.ts';
@@ -94,6 +97,25 @@ function readRoleMap(path: string): Partial<RoleMap> {
   return parsed.data as z.infer<typeof roleMapSchema>;
 }
 
+/** The table's multipliers by sector (the analysis report of `roundwise analyze`), beside the scenario's reports. */
+function tableMultiplierReport(an: Analysis, ctx: ScenarioReportContext): ReportFile[] {
+  return reportFiles('multipliers', {
+    title: 'Multipliers and linkages by sector (the table)',
+    tableName: an.tableName,
+    ...(ctx.sourceFile !== undefined ? { sourceFile: ctx.sourceFile } : {}),
+    ...(ctx.sourceHash !== undefined ? { sourceHash: ctx.sourceHash } : {}),
+    modelType: an.viability.closedProductive ? 'open (Type I) and household-closed (Type II) input-output model' : 'open (Type I) input-output model; Type II not available',
+    date: ctx.date,
+    moneyUnit: an.moneyUnit,
+    notes: [
+      'Multipliers after Miller & Blair, Input-Output Analysis, 2nd ed. 2009, ch. 6; linkages after Rasmussen 1956.',
+      'Blank cells are values that cannot be defined (see the notes below).',
+      ...analysisNotes(an),
+      ...SCENARIO_CAUTIONS,
+    ],
+  }, multiplierRows(an));
+}
+
 /** An existing file at the project path is replaced only when it is itself a readable Roundwise project. */
 function refuseToOverwriteForeign(path: string): void {
   let bytes: Uint8Array;
@@ -143,6 +165,7 @@ export function scenarioJson(r: ScenarioResult, rounds: RoundsResult, tableName:
       normA: rounds.normA,
       remainder: rounds.remainder,
       remainderBound: rounds.remainderBound,
+      perronRoot: rounds.perronRoot,
     },
     ...(paths ? {
       paths: {
@@ -187,22 +210,28 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
   const scenario = parseShockCsv(decoder.decode(readFileOrRefuse(args.shock)), args.shock);
 
   const pm = prepareModel(table);
+  // The table's own analysis: its viability verdict goes into the notes, its multipliers into the reports.
+  const an = analyzePrepared(pm, { spectrum: false });
   if (pm.openLU.singular) {
-    throw new InputError('singular', 'I − A is singular, so the table cannot carry a demand shock (check that every sector has inputs from outside the table, i.e. value added or imports)', { file: args.table });
+    throw new InputError('singular', 'I − A is singular (Perron root 1), so the table cannot carry a demand shock; check that every sector has value added or imports (roundwise analyze shows the details)', { file: args.table });
   }
   let pathsTo: number | null = null;
   if (args.paths !== undefined) {
     pathsTo = table.sectors.indexOf(args.paths);
     if (pathsTo < 0) throw new InputError('unknown-sector', `--paths: unknown sector '${args.paths}'`, { rowLabel: args.paths });
   }
-  const analysis = analyseScenario(pm, scenario, { pathsTo });
+  const analysis = analyseScenario(pm, scenario, { pathsTo, rounds: { perronRoot: an.viability.perronRoot } });
   const { result, rounds, paths } = analysis;
+  if (!an.viability.productive) {
+    const why = an.viability.verdictNote ?? `Perron root ${an.viability.perronRoot.toPrecision(6)} is not below 1`;
+    result.notes.unshift(`NOT MEANINGFUL: the table does not describe a productive economy (${why}); the numbers below follow from the equations but cannot be read as effects. Check the table and its role map (roundwise analyze).`);
+  }
   for (const w of table.warnings) result.notes.push(`Table warning: ${formatLocated(w)}`);
 
   const ctx: ScenarioReportContext = { tableName: table.name, sourceFile: basename(args.table), sourceHash: sha256Hex(tableBytes), date: new Date().toISOString() };
   const written: string[] = [];
   if (args.out !== undefined) {
-    const files = scenarioReports(analysis, ctx);
+    const files = [...scenarioReports(analysis, ctx), ...tableMultiplierReport(an, ctx)];
     for (const f of files) {
       const path = join(args.out, f.name);
       writeFileAtomic(path, f.content);

@@ -51,8 +51,9 @@ describe('import properties', () => {
       fc.property(gridTable, fc.integer({ min: -290, max: 290 }), (g, k) => {
         const scaled = clone(g);
         for (const r of g.moneyRows) for (const c of g.numberCols) if (scaled[r]![c] !== '') scaled[r]![c] = `${scaled[r]![c]}e${k}`;
-        const a = coefficients(imp(toText(g.grid)));
-        const b = coefficients(imp(toText(scaled)));
+        // The layout is stated: with tiny flows the coefficients guess is not scale-free (regressions.test.ts).
+        const a = coefficients(importTable(toText(g.grid), { fileName: FILE, layout: 'matrix' }));
+        const b = coefficients(importTable(toText(scaled), { fileName: FILE, layout: 'matrix' }));
         for (let i = 0; i < a.A.length; i++) {
           const ref = a.A[i]!;
           expect(Math.abs(b.A[i]! - ref)).toBeLessThanOrEqual(1e-13 * Math.abs(ref));

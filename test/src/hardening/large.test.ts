@@ -57,7 +57,7 @@ describe('large inputs', () => {
 });
 
 describe('the CLI and a file over the limit', () => {
-  it('a 1 GiB table is refused by its size before it is read: exit 2, and memory does not grow by the file', async () => {
+  it('a 1 GiB table is refused by its size before it is read (scenario and analyze): exit 2, memory does not grow by the file', async () => {
     const { main } = await import('../../../src/cli/main.ts');
     const { runCli, expectCliRefusal } = await import('./gen.ts');
     const { truncateSync } = await import('node:fs');
@@ -66,11 +66,13 @@ describe('the CLI and a file over the limit', () => {
     truncateSync(table, 1024 ** 3); // sparse: no disk space used
     const shock = join(dir, 'shock.csv');
     writeFileSync(shock, 'sector,amount\r\nA,1\r\n');
-    const before = process.memoryUsage().rss;
-    const r = await runCli(main, ['scenario', table, '--shock', shock]);
-    const grown = process.memoryUsage().rss - before;
-    expectCliRefusal(r, 'scenario');
-    expect(r.err).toBe(`roundwise scenario: ${table}: file is 1024 MiB; the limit for a table is 200 MiB\n`);
-    expect(grown).toBeLessThan(200 * 1024 * 1024);
+    for (const argv of [['scenario', table, '--shock', shock], ['analyze', table, '--json']]) {
+      const before = process.memoryUsage().rss;
+      const r = await runCli(main, argv);
+      const grown = process.memoryUsage().rss - before;
+      expectCliRefusal(r, argv[0]!);
+      expect(r.err).toMatch(new RegExp(`^roundwise ${argv[0]}: (.*/)?sparse\\.csv: file is 1024 MiB; the limit for a table is 200 MiB\n$`));
+      expect(grown).toBeLessThan(200 * 1024 * 1024);
+    }
   });
 });

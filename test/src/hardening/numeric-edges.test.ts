@@ -13,34 +13,14 @@ import { main } from '../../../src/cli/main.ts';
 import { InputError } from '../../../src/diagnostics/errors.ts';
 import { prepareModel } from '../../../src/model/prepared.ts';
 import { analyseScenario, runScenario } from '../../../src/scenario/index.ts';
+import { analyzeTable } from '../../../src/model/analysis.ts';
+import { analysisJson } from '../../../src/report/analysis-json.ts';
 import { importTable } from '../../../src/table/index.ts';
+import { EDGE_TABLES } from './edge-tables.ts';
 import { expectCliRefusal, nonFinite, nonFiniteText, runCli } from './gen.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-edges-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
-
-const csv = (...rows: string[]) => rows.join('\r\n') + '\r\n';
-const HEAD = 'thousand dollars,A,B,Households,Exports,Total output';
-
-/** Two-sector tables; x = 100 for both unless stated. */
-export const EDGE_TABLES = {
-  // Columns of A sum to exactly 1 (no value added): ρ(A) = 1 (column sums equal ⇒ ρ equals them), I − A singular.
-  rhoOne: csv(HEAD, 'A,50,50,0,0,100', 'B,50,50,0,0,100'),
-  // A = [[0.6,0.5],[0.5,0.6]]: ρ(A) = 1.1 > 1 (eigenvalues 0.6 ± 0.5). Inputs exceed output.
-  rhoAbove: csv(HEAD, 'A,60,50,5,5,100', 'B,50,60,5,5,100', 'Labor income,1,1,,,'),
-  // ρ(A) = 1 − 2e-12: I − A nearly singular (condition number about 1e12).
-  nearlySingular: csv(HEAD, 'A,50,49.9999999998,0,0.0000000002,100', 'B,49.9999999998,50,0,0.0000000002,100', 'Labor income,0.0000000001,0.0000000001,,,', 'Other value added,0.0000000001,0.0000000001,,,'),
-  // A = [[0,0.5],[0.5,0]]: irreducible with period 2 (eigenvalues ±0.5).
-  periodic: csv(HEAD, 'A,0,50,20,30,100', 'B,50,0,20,30,100', 'Labor income,30,30,,,', 'Other value added,20,20,,,'),
-  // A = [[0.2,0.3],[0,0.4]]: reducible (B buys from A, A never from B).
-  reducible: csv(HEAD, 'A,20,30,20,30,100', 'B,0,40,30,30,100', 'Labor income,50,20,,,', 'Other value added,30,10,,,'),
-  // Sector C has zero output, buys and sells nothing: dropped with a note.
-  zeroSector: csv('thousand dollars,A,B,C,Households,Exports,Total output', 'A,10,20,0,30,40,100', 'B,20,10,0,30,40,100', 'C,0,0,0,0,0,0', 'Labor income,40,40,0,,,', 'Other value added,30,30,0,,,'),
-  // The periodic table's money at 1e-300 and at 1e300 (same coefficients).
-  tiny: csv(HEAD, 'A,0,50e-300,20e-300,30e-300,100e-300', 'B,50e-300,0,20e-300,30e-300,100e-300', 'Labor income,30e-300,30e-300,,,', 'Other value added,20e-300,20e-300,,,'),
-  huge: csv(HEAD, 'A,0,50e300,20e300,30e300,100e300', 'B,50e300,0,20e300,30e300,100e300', 'Labor income,30e300,30e300,,,', 'Other value added,20e300,20e300,,,'),
-  allZero: csv(HEAD, 'A,0,0,0,0,0', 'B,0,0,0,0,0'),
-} as const;
 
 const SHOCK = 'sector,amount\r\nA,100\r\n';
 
@@ -50,6 +30,24 @@ async function scenarioCli(name: keyof typeof EDGE_TABLES, extra: string[] = [])
   const shock = join(dir, 'shock.csv');
   writeFileSync(shock, SHOCK);
   return runCli(main, ['scenario', table, '--shock', shock, ...extra]);
+}
+
+/** The analysis through the engine and `roundwise analyze` (--json and --out): no NaN or Infinity anywhere. */
+async function expectFiniteAnalysis(name: keyof typeof EDGE_TABLES) {
+  const t = importTable(EDGE_TABLES[name], { fileName: `${name}.csv` });
+  const an = analyzeTable(t, { inverse: true });
+  expect(nonFinite(an)).toEqual([]);
+  expect(nonFinite(analysisJson(an))).toEqual([]);
+  const table = join(dir, `${name}.csv`);
+  writeFileSync(table, EDGE_TABLES[name]);
+  const json = await runCli(main, ['analyze', table, '--json']);
+  expect(json.code, json.err).toBe(0);
+  expect(nonFiniteText(json.out)).toEqual([]);
+  const out = join(dir, `analysis-${name}`);
+  const rep = await runCli(main, ['analyze', table, '--out', out]);
+  expect(rep.code, rep.err).toBe(0);
+  for (const f of readdirSync(out)) expect(nonFiniteText(readFileSync(join(out, f), 'utf8')), f).toEqual([]);
+  return { an, json: JSON.parse(json.out) as { viability: Record<string, unknown> }, warnings: json.err };
 }
 
 /** The scenario through the engine and through the CLI (--json and --out): all finite, every CSV free of NaN/Infinity text. */
@@ -64,35 +62,59 @@ async function expectFiniteEverywhere(name: keyof typeof EDGE_TABLES) {
   const rep = await scenarioCli(name, ['--out', out]);
   expect(rep.code, rep.err).toBe(0);
   for (const f of readdirSync(out)) expect(nonFiniteText(readFileSync(join(out, f), 'utf8')), f).toEqual([]);
-  return { table: t, analysis, json: JSON.parse(json.out) as Record<string, unknown> };
+  const analysed = await expectFiniteAnalysis(name);
+  return { table: t, analysis, json: JSON.parse(json.out) as Record<string, unknown>, analysed };
 }
 
+function refusalCode(f: () => unknown): string {
+  try {
+    f();
+  } catch (e) {
+    expect(e).toBeInstanceOf(InputError);
+    return (e as InputError).code;
+  }
+  throw new Error('not refused');
+}
+
+const shockA = { name: 's', lines: [{ sector: 'A', amount: 100, kind: 'final-demand' as const, localShare: 1 }] };
+
 describe('numerical edges', () => {
-  it('ρ(A) = 1 exactly: I − A is singular — the engine and the CLI refuse with an explanation', async () => {
+  it('ρ(A) = 1 exactly: I − A is singular — scenarios are refused with an explanation; the analysis says not productive', async () => {
     const pm = prepareModel(importTable(EDGE_TABLES.rhoOne, { fileName: 'rhoOne.csv' }));
     expect(pm.openLU.singular).toBe(true);
-    let err: unknown;
-    try {
-      runScenario(pm, { name: 's', lines: [{ sector: 'A', amount: 100, kind: 'final-demand', localShare: 1 }] });
-    } catch (e) {
-      err = e;
-    }
-    expect(err).toBeInstanceOf(InputError);
-    expect((err as InputError).code).toBe('singular');
+    expect(refusalCode(() => runScenario(pm, shockA))).toBe('singular');
     const r = await scenarioCli('rhoOne');
     expectCliRefusal(r, 'scenario');
     expect(r.err).toContain('I − A is singular');
+    const { json, warnings } = await expectFiniteAnalysis('rhoOne');
+    expect(json.viability).toMatchObject({ productive: false, hawkinsSimon: false, roundsToTolerance: null });
+    expect(warnings).toMatch(/not productive/);
   });
 
-  it('ρ(A) just above 1: imported with a warning that inputs exceed output; results finite', async () => {
-    const { table, json } = await expectFiniteEverywhere('rhoAbove');
-    expect(table.warnings.map((w) => w.code)).toContain('inputs-exceed-output');
-    // The outputs are negative for a positive shock; the result must say why they mean nothing.
-    expect((json.notes as string[]).join('\n')).toMatch(/cannot describe a productive economy/);
+  it('ρ(A) = 1.1: scenarios are refused as not productive (their effects would be negative); the analysis says why', async () => {
+    const pm = prepareModel(importTable(EDGE_TABLES.rhoAbove, { fileName: 'rhoAbove.csv' }));
+    expect(refusalCode(() => runScenario(pm, shockA))).toBe('not-productive');
+    const r = await scenarioCli('rhoAbove');
+    expectCliRefusal(r, 'scenario');
+    expect(r.err).toContain('the table is not productive');
+    const { json, warnings } = await expectFiniteAnalysis('rhoAbove');
+    expect(json.viability).toMatchObject({ productive: false, hawkinsSimon: false, roundsToTolerance: null });
+    expect(json.viability.perronRoot as number).toBeCloseTo(1.1, 12); // eigenvalues 0.6 ± 0.5
+    expect(warnings).toMatch(/Perron root 1\.10000/);
   });
 
-  it('nearly singular I − A: results finite', async () => {
-    await expectFiniteEverywhere('nearlySingular');
+  it('nearly singular I − A (condition about 2e12): results finite, with an ill-conditioning warning in both', async () => {
+    const { analysis, analysed } = await expectFiniteEverywhere('nearlySingular');
+    expect(analysis.result.notes.join('\n')).toMatch(/I − A is ill-conditioned \(condition estimate 2\.00e\+12, limit 1e\+12\)/);
+    expect(analysed.warnings).toMatch(/I − A is ill-conditioned \(condition estimate 2\.00e\+12/);
+  });
+
+  it('household-closed model with ρ(Ā) = 1: open effects only, with a note; the analysis leaves Type II undefined', async () => {
+    const { analysis, analysed } = await expectFiniteEverywhere('closedSingular');
+    expect(analysis.result.closure).toBe('none');
+    expect(analysis.result.effects.output.induced).toBeNull();
+    expect(analysis.result.notes.join('\n')).toMatch(/household-closed model is not productive/);
+    expect(analysed.json.viability).toMatchObject({ productive: true, closedProductive: false });
   });
 
   it('periodic (period 2) and reducible matrices: results finite, spending rounds converge', async () => {

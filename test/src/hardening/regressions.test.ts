@@ -31,6 +31,15 @@ describe('found by the property tests', () => {
     expect(t.layout).toBe('matrix');
     expect(Array.from(t.labourIncome[0]!.values)).toEqual([1, 1]);
   });
+
+  it('a flow table with flows far below output that is read as coefficients says so', () => {
+    // Scaling property, seed 8103, 1000 runs: flows of 0.01 against outputs of 2 were taken for coefficients silently.
+    const text = 'thousand dollars,A,B,Households,Total output\r\nA,0,0,2,2\r\nB,0,0.01,2,2.01\r\nLabor income,1,1,,\r\n';
+    const t = importTable(text, { fileName: 'tiny-flows.csv' });
+    expect(t.layout).toBe('coefficients');
+    expect(t.warnings.find((w) => w.code === 'coefficients-guessed')?.message).toMatch(/read as technical coefficients.*matrix layout/);
+    expect(importTable(text, { fileName: 'tiny-flows.csv', layout: 'matrix' }).warnings.map((w) => w.code)).not.toContain('coefficients-guessed');
+  });
 });
 
 describe('found by the hardening corpus', () => {

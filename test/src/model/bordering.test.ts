@@ -2,6 +2,7 @@
 import { describe, it, expect } from 'vitest';
 import { inv } from 'mathjs';
 import { identityMinus, luFactor, luSolve, luSolveTransposed } from '../../../src/linalg/index.ts';
+import { analyzeTable } from '../../../src/model/analysis.ts';
 import { closedBorder, prepareModel, solveClosed, solveClosedTransposed, solveOpen } from '../../../src/model/prepared.ts';
 import { randomEconomy, seeded, tableFromA, toRows } from './tables.ts';
 
@@ -32,6 +33,15 @@ describe('closed-model solves by bordering', () => {
       }
     });
   }
+
+  it('the analysis checks the bordered closed solve with the LAPACK-style residual', () => {
+    for (const n of [3, 30]) {
+      const an = analyzeTable(randomEconomy(n, 50 + n));
+      expect(an.checks.closedSolveResidual).not.toBeNull();
+      expect(an.checks.closedSolveResidual!).toBeLessThan(30);
+      expect(an.checks.solveResidual!).toBeLessThan(30);
+    }
+  });
 
   it('keeps the open solve unchanged and the Schur complement equals det(I − Ā)/det(I − A)', () => {
     const pm = prepareModel(randomEconomy(6, 11));

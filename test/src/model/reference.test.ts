@@ -9,6 +9,13 @@ import { randomEconomy, seeded, toRows } from './tables.ts';
 
 const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(b), 1e-300);
 
+/** Ā from the analysis's own coefficients: A bordered by household purchases per unit of income and income per unit of output. */
+function closeRows(an: ReturnType<typeof analyzeTable>, n: number): number[][] {
+  const rows = toRows(an.coefficients.A, n).map((row, i) => [...row, an.coefficients.householdConsumption![i]!]);
+  rows.push([...Array.from(an.coefficients.labourIncome), 0]);
+  return rows;
+}
+
 function identityMinusRows(a: number[][]): number[][] {
   return a.map((row, i) => row.map((v, j) => (i === j ? 1 : 0) - v));
 }
@@ -43,6 +50,18 @@ describe('Leontief inverse, multipliers and determinants against mathjs', () => 
         expect(rel(minor, det(lead) as number)).toBeLessThan(1e-9);
       }
       expect(an.checks.inverseResidual!).toBeLessThan(30);
+      // Type II multipliers from mathjs's inverse of I − Ā, as §3 of the issue defines them
+      const Abar = closeRows(an, n);
+      const Lbar = inv(identityMinusRows(Abar)) as number[][];
+      const e = Array.from(an.coefficients.employment!);
+      for (let j = 0; j < n; j++) {
+        let out = 0, jobs = 0;
+        for (let i = 0; i < n; i++) { out += Lbar[i]![j]!; jobs += e[i]! * Lbar[i]![j]!; }
+        expect(rel(an.multipliers.output.typeII[j]!, out)).toBeLessThan(1e-9);
+        expect(rel(an.multipliers.income.total[j]!, Lbar[n]![j]!)).toBeLessThan(1e-9);
+        expect(rel(an.multipliers.employment.total[j]!, jobs)).toBeLessThan(1e-9);
+        expect(rel(an.multipliers.income.typeII[j]!, Lbar[n]![j]! / h[j]!)).toBeLessThan(1e-9);
+      }
     });
   }
 });

@@ -75,6 +75,13 @@ describe('Perron root', () => {
     expect(b01.perronRootBounds[1]).toBeGreaterThanOrEqual(0.5 - 1e-15);
     expect(an.viability.period).toBeNull();
     expect(an.viability.productive).toBe(true);
+    // the reported right vector is a non-negative eigenvector for ρ (the dominant block is unique here)
+    const v = an.viability.rightPerronVector;
+    for (let i = 0; i < 3; i++) {
+      const av = a[i]!.reduce((p, aij, j) => p + aij * v[j]!, 0);
+      expect(v[i]!).toBeGreaterThanOrEqual(0);
+      expect(Math.abs(av - 0.7 * v[i]!)).toBeLessThan(1e-9);
+    }
     noBadNumbers(an);
   });
   it('nilpotent (strictly triangular) A: ρ = 0, every mode collapses', () => {
@@ -136,6 +143,14 @@ describe('edge cases give defined results', () => {
     const an2 = analyzeTable(tableFromA([[0.5, 0.5 - 1e-15], [0.5, 0.5]]));
     expect(an2.viability.verdictNote ?? '').toMatch(/rounding/);
     noBadNumbers(an2);
+  });
+  it('ill-conditioning is warned about (κ(I − A) ≈ 4/δ for A = [[.5, .5 − δ], [.5, .5]])', () => {
+    const an = analyzeTable(tableFromA([[0.5, 0.5 - 1e-13], [0.5, 0.5]]));
+    expect(an.checks.condition!).toBeGreaterThan(1e12);
+    expect(an.warnings.map((w) => w.code)).toContain('ill-conditioned');
+    const ok = analyzeTable(tableFromA([[0.5, 0.3], [0.2, 0.5]]));
+    expect(ok.warnings.map((w) => w.code)).not.toContain('ill-conditioned');
+    noBadNumbers(an);
   });
   it('a sector with no employment, no labour income: ratios are null with a reason', () => {
     const an = analyzeTable(tableFromA([[0.1, 0.2], [0.2, 0.1]], { labour: [0.3, 0], employment: [2, 0], households: [0.2, 0.1] }));

@@ -7,6 +7,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import * as math from 'mathjs';
 import Papa from 'papaparse';
+import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { main } from '../../../src/cli/main.ts';
 import { parseProject, projectResults } from '../../../src/project/index.ts';
 
@@ -73,6 +74,11 @@ describe('roundwise scenario', () => {
     const openSum = open.reduce((a, b) => a + b, 0);
     expect(Math.abs(j.rounds.output.reduce((a: number, b: number) => a + b, 0) - openSum) / openSum).toBeLessThanOrEqual(1e-3);
     expect(j.cautions.length).toBeGreaterThan(5);
+    // ρ(A) of the fixture from ml-matrix's eigenvalues, beside the rounds whose ratios tend to it.
+    const eig = new EigenvalueDecomposition(new Matrix(Z.map((row) => row.map((z, c) => z / x[c]!))));
+    const rho = Math.max(...eig.realEigenvalues.map((v, k) => Math.hypot(v, eig.imaginaryEigenvalues[k]!)));
+    expect(j.rounds.perronRoot).toBeCloseTo(rho, 10);
+    expect(Math.abs(j.rounds.ratio.at(-1) - rho) / rho).toBeLessThan(0.05);
   });
   it('--out writes impact, rounds and multiplier reports with sidecars, readable back as numbers', async () => {
     const out = join(dir, 'reports');
@@ -80,7 +86,7 @@ describe('roundwise scenario', () => {
     expect(code).toBe(0);
     const names = readdirSync(out).sort();
     expect(names).toEqual([
-      'scenario-impact.about.txt', 'scenario-impact.csv', 'scenario-multipliers.about.txt', 'scenario-multipliers.csv',
+      'multipliers.about.txt', 'multipliers.csv', 'scenario-impact.about.txt', 'scenario-impact.csv', 'scenario-multipliers.about.txt', 'scenario-multipliers.csv',
       'scenario-paths.about.txt', 'scenario-paths.csv', 'scenario-rounds-by-sector.about.txt', 'scenario-rounds-by-sector.csv',
       'scenario-rounds.about.txt', 'scenario-rounds.csv',
     ]);
