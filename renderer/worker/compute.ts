@@ -217,7 +217,8 @@ export interface PreviewView {
   columnRoles: readonly string[];
   /** First cells of the file, as read. */
   cells: string[][];
-  balance: { sector: string; inputs: number; output: number; gap: number; relative: number }[];
+  /** Purchases are null when the table has no value-added or import rows. */
+  balance: { sector: string; inputs: number | null; output: number; gap: number; relative: number }[];
   balanced: boolean;
   tolerance: number;
   outputSource: string | null;
@@ -238,7 +239,7 @@ function previewTable(src: TableSource): PreviewView {
     b.sectors.forEach((sector, j) => {
       const gaps = [b.columnGap?.[j], b.rowGap?.[j], b.totalGap?.[j]].filter((g): g is number => typeof g === 'number');
       const worst = gaps.reduce((w, g) => (Math.abs(g) > Math.abs(w) ? g : w), 0);
-      balance.push({ sector, inputs: b.purchases?.[j] ?? Number.NaN, output: b.output[j]!, gap: worst, relative: worst });
+      balance.push({ sector, inputs: finite(b.purchases?.[j]), output: b.output[j]!, gap: worst, relative: worst });
     });
     balance.sort((x, y) => Math.abs(y.relative) - Math.abs(x.relative));
   }
