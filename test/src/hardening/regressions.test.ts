@@ -53,3 +53,12 @@ describe('found by the hardening corpus', () => {
     expect(refusalOf(() => parseShockCsv('sector,amount\r\nCan\u0000ning,1\r\n', 'shock.csv'), 'shock.csv')?.code).toBe('binary');
   });
 });
+
+describe('found by the regional CLI property', () => {
+  it('an unclosed quote in a regional input is refused at its line instead of swallowing the file into one cell', async () => {
+    const { readCsvRows } = await import('../../../src/regional/csv-input.ts');
+    const e = refusalOf(() => readCsvRows('"sector,group\nFarming,Goods\nMaking,Goods\n', 'groups.csv'), 'groups.csv');
+    expect(e?.code).toBe('bad-quotes');
+    expect(e!.location).toEqual({ file: 'groups.csv', line: 1 });
+  });
+});
