@@ -62,3 +62,12 @@ describe('found by the regional CLI property', () => {
     expect(e!.location).toEqual({ file: 'groups.csv', line: 1 });
   });
 });
+
+describe('line breaks quoted from the file', () => {
+  it('a quoted cell holding line breaks is echoed on one line', () => {
+    const text = 'unit,A,B,Total output\r\nA,"1\n2\n3\n4",2,10\r\nB,1,3,10\r\n';
+    const e = refusalOf(() => importTable(text, { fileName: 'nl.csv' }), 'nl.csv');
+    expect(e?.code).toBe('non-numeric');
+    expect(formatLocated(e!)).toBe("nl.csv:2:2 (row 'A', column 'A'): '1\\n2\\n3\\n4' is not a number");
+  });
+});
