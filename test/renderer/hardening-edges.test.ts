@@ -71,6 +71,16 @@ describe('worker adapter on hard tables', () => {
     expect(refused).toBeGreaterThan(10);
   });
 
+  it('every damaged or foreign project file of the corpus is refused by the worker with an InputError; the valid one opens', () => {
+    const files = readdirSync(CORPUS).filter((n) => n.startsWith('project-'));
+    expect(files.length).toBeGreaterThan(8);
+    for (const f of files) {
+      const opened = call(f, () => api.openProject({ text: readFileSync(join(CORPUS, f), 'utf8'), fileName: f }));
+      expect(opened !== null, f).toBe(f === 'project-valid.json');
+      if (opened) expect(nonFinite(opened)).toEqual([]);
+    }
+  });
+
   it('formula labels: every report CSV the UI exports is safe', () => {
     expect(exercise('formulas', formulaTableCsv()).loaded).toBe(true);
   });

@@ -205,4 +205,26 @@ describe('import properties', () => {
       { numRuns: 60, seed: 8112 },
     );
   });
+
+  it('the long layout (from,to,value) of a random table imports to the same doubles; its mutations import finite or are refused', () => {
+    const toLong = (grid: string[][]): string[] => {
+      const out = ['from,to,value'];
+      for (let r = 1; r < grid.length; r++) for (let c = 1; c < grid[0]!.length; c++) if (grid[r]![c] !== '') out.push(`${grid[r]![0]},${grid[0]![c]},${grid[r]![c]}`);
+      return out;
+    };
+    const ch = fc.oneof(fc.constantFrom('"', ',', '\n', 'x', '-', '', '1e999', 'NaN'), fc.string({ maxLength: 2 }));
+    fc.assert(
+      fc.property(gridTable, fc.array(fc.tuple(fc.double({ min: 0, max: 1, noNaN: true }), ch), { minLength: 1, maxLength: 3 }), (g, edits) => {
+        const lines = toLong(g.grid);
+        expectSameTable(imp(lines.join('\r\n') + '\r\n'), imp(toText(g.grid)));
+        let text = lines.join('\n') + '\n';
+        for (const [at, s] of edits) {
+          const k = Math.floor(at * text.length);
+          text = text.slice(0, k) + s + text.slice(k + 1);
+        }
+        refusalOf(() => expectFiniteTable(imp(text)), FILE);
+      }),
+      { numRuns: 100, seed: 8113 },
+    );
+  });
 });

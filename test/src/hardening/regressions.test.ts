@@ -53,3 +53,21 @@ describe('found by the hardening corpus', () => {
     expect(refusalOf(() => parseShockCsv('sector,amount\r\nCan\u0000ning,1\r\n', 'shock.csv'), 'shock.csv')?.code).toBe('binary');
   });
 });
+
+describe('found by the regional CLI property', () => {
+  it('an unclosed quote in a regional input is refused at its line instead of swallowing the file into one cell', async () => {
+    const { readCsvRows } = await import('../../../src/regional/csv-input.ts');
+    const e = refusalOf(() => readCsvRows('"sector,group\nFarming,Goods\nMaking,Goods\n', 'groups.csv'), 'groups.csv');
+    expect(e?.code).toBe('bad-quotes');
+    expect(e!.location).toEqual({ file: 'groups.csv', line: 1 });
+  });
+});
+
+describe('line breaks quoted from the file', () => {
+  it('a quoted cell holding line breaks is echoed on one line', () => {
+    const text = 'unit,A,B,Total output\r\nA,"1\n2\n3\n4",2,10\r\nB,1,3,10\r\n';
+    const e = refusalOf(() => importTable(text, { fileName: 'nl.csv' }), 'nl.csv');
+    expect(e?.code).toBe('non-numeric');
+    expect(formatLocated(e!)).toBe("nl.csv:2:2 (row 'A', column 'A'): '1\\n2\\n3\\n4' is not a number");
+  });
+});
