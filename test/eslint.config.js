@@ -45,7 +45,7 @@ export const importRules = {
 };
 
 export default tseslint.config(
-  { ignores: ['node_modules/**', 'dist/**', 'test-output/**', 'bench-results/**', '**/*.d.ts'] },
+  { ignores: ['node_modules/**', '.vite/**', 'dist/**', 'test-output/**', 'bench-results/**', '**/*.d.ts'] },
   ...tseslint.configs.recommended,
   ...pluginVue.configs['flat/recommended'],
   {
