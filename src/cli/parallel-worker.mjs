@@ -11,16 +11,18 @@ const gemm = new WebAssembly.Instance(module, { env: { mem: memory } }).exports.
 function runChunks() {
   const c = ctl[L.ARGS], ldc = ctl[L.ARGS + 1], a = ctl[L.ARGS + 2], lda = ctl[L.ARGS + 3];
   const b = ctl[L.ARGS + 4], ldb = ctl[L.ARGS + 5], m = ctl[L.ARGS + 6], n = ctl[L.ARGS + 7], k = ctl[L.ARGS + 8];
-  const tk = ctl[L.TILE_K], tn = ctl[L.TILE_N], rows = ctl[L.CHUNK_ROWS], chunks = ctl[L.CHUNKS];
+  const tk = ctl[L.TILE_K], tn = ctl[L.TILE_N], size = ctl[L.CHUNK], chunks = ctl[L.CHUNKS], byColumns = ctl[L.BY_COLUMNS] === 1;
   for (;;) {
     const q = Atomics.add(ctl, L.NEXT, 1);
     if (q >= chunks) return;
-    const i0 = q * rows;
-    const mm = Math.min(rows, m - i0);
+    const i0 = byColumns ? 0 : q * size;
+    const mm = byColumns ? m : Math.min(size, m - i0);
+    const jStart = byColumns ? q * size : 0;
+    const jEnd = byColumns ? Math.min(n, jStart + size) : n;
     for (let p0 = 0; p0 < k; p0 += tk) {
       const kk = Math.min(tk, k - p0);
-      for (let j0 = 0; j0 < n; j0 += tn) {
-        gemm(c + i0 * ldc + 8 * j0, ldc, a + i0 * lda + 8 * p0, lda, b + p0 * ldb + 8 * j0, ldb, mm, Math.min(tn, n - j0), kk);
+      for (let j0 = jStart; j0 < jEnd; j0 += tn) {
+        gemm(c + i0 * ldc + 8 * j0, ldc, a + i0 * lda + 8 * p0, lda, b + p0 * ldb + 8 * j0, ldb, mm, Math.min(tn, jEnd - j0), kk);
       }
     }
   }

@@ -8,15 +8,17 @@
  *
  * Protocol (one Int32Array on a SharedArrayBuffer): the caller writes a job (the gemm arguments, tile sizes and a row
  * chunking of C), assigns it to the helpers that have reported ready, bumps GEN and wakes them. Caller and helpers
- * then claim row chunks of C with an atomic counter until none are left — so a helper slowed by other processes
+ * then claim chunks of C (row ranges, or column ranges for short wide updates) with an atomic counter until none are left — so a helper slowed by other processes
  * simply takes fewer chunks — and the caller waits until every assigned helper has finished. Chunks are disjoint
- * rows of C; A and B are only read; so no two threads ever write the same entry.
+ * blocks of C; A and B are only read; so no two threads ever write the same entry.
  */
 import { instantiateGemm, type WasmGemm, type WasmKernel } from './wasm-gemm.ts';
 
 /** Slots of the control array (passed to helpers, so the worker script has no copy of its own). */
 export const CONTROL_LAYOUT = {
-  GEN: 0, STOP: 1, PENDING: 2, NEXT: 3, CHUNKS: 4, CHUNK_ROWS: 5, TILE_K: 6, TILE_N: 7,
+  GEN: 0, STOP: 1, PENDING: 2, NEXT: 3, CHUNKS: 4, CHUNK: 5, TILE_K: 6, TILE_N: 7,
+  /** 1 when chunks are column ranges of C (wide, short updates), 0 for row ranges. */
+  BY_COLUMNS: 17,
   /** 9 gemm arguments: c, ldc, a, lda, b, ldb (byte addresses and byte strides), m, n, k. */
   ARGS: 8,
   /** Per helper h: READY + h is 1 once the helper waits for jobs; ASSIGN + h is the GEN of its current job. */
@@ -88,7 +90,7 @@ export function splitGemm(
   m4: number, n4: number, k: number, tileK: number, tileN: number,
 ): boolean {
   const p = pool;
-  if (p === null || m4 < 16 || m4 * n4 * k < MIN_SPLIT_MULADDS) return false;
+  if (p === null || Math.max(m4, n4) < 32 || m4 * n4 * k < MIN_SPLIT_MULADDS) return false;
   const ctl = p.control;
   const gen = Atomics.load(ctl, L.GEN) + 1;
   let assigned = 0;
@@ -96,14 +98,19 @@ export function splitGemm(
     if (Atomics.load(ctl, L.READY + h) === 1) { Atomics.store(ctl, L.ASSIGN + h, gen); assigned++; }
   }
   if (assigned === 0) return false;
-  // About four chunks per thread, in whole 4-row tiles, so a late or slowed thread still gets a fair share.
+  // About eight chunks per thread, in whole 4-wide tiles, so a thread slowed or descheduled by other processes holds
+  // up the others by little. Short, wide updates (the back substitution of the inverse) are split by columns, so each
+  // thread reads only its part of B; tall ones by rows.
   const threads = assigned + 1;
-  const chunkRows = Math.max(4, Math.ceil(m4 / (4 * threads) / 4) * 4);
+  const byColumns = n4 > m4;
+  const extent = byColumns ? n4 : m4;
+  const chunk = Math.max(byColumns ? 16 : 8, Math.ceil(extent / (8 * threads) / 4) * 4);
   ctl[L.ARGS] = c; ctl[L.ARGS + 1] = ldc; ctl[L.ARGS + 2] = a; ctl[L.ARGS + 3] = lda;
   ctl[L.ARGS + 4] = b; ctl[L.ARGS + 5] = ldb; ctl[L.ARGS + 6] = m4; ctl[L.ARGS + 7] = n4; ctl[L.ARGS + 8] = k;
   ctl[L.TILE_K] = tileK; ctl[L.TILE_N] = tileN;
-  ctl[L.CHUNK_ROWS] = chunkRows;
-  ctl[L.CHUNKS] = Math.ceil(m4 / chunkRows);
+  ctl[L.CHUNK] = chunk;
+  ctl[L.CHUNKS] = Math.ceil(extent / chunk);
+  ctl[L.BY_COLUMNS] = byColumns ? 1 : 0;
   Atomics.store(ctl, L.NEXT, 0);
   Atomics.store(ctl, L.PENDING, assigned);
   splitJobs++;
@@ -125,16 +132,18 @@ export function splitGemm(
 export function runChunks(ctl: Int32Array, gemm: WasmGemm): void {
   const c = ctl[L.ARGS]!, ldc = ctl[L.ARGS + 1]!, a = ctl[L.ARGS + 2]!, lda = ctl[L.ARGS + 3]!;
   const b = ctl[L.ARGS + 4]!, ldb = ctl[L.ARGS + 5]!, m = ctl[L.ARGS + 6]!, n = ctl[L.ARGS + 7]!, k = ctl[L.ARGS + 8]!;
-  const tk = ctl[L.TILE_K]!, tn = ctl[L.TILE_N]!, rows = ctl[L.CHUNK_ROWS]!, chunks = ctl[L.CHUNKS]!;
+  const tk = ctl[L.TILE_K]!, tn = ctl[L.TILE_N]!, size = ctl[L.CHUNK]!, chunks = ctl[L.CHUNKS]!, byColumns = ctl[L.BY_COLUMNS] === 1;
   for (;;) {
     const q = Atomics.add(ctl, L.NEXT, 1);
     if (q >= chunks) return;
-    const i0 = q * rows;
-    const mm = Math.min(rows, m - i0);
+    const i0 = byColumns ? 0 : q * size;
+    const mm = byColumns ? m : Math.min(size, m - i0);
+    const jStart = byColumns ? q * size : 0;
+    const jEnd = byColumns ? Math.min(n, jStart + size) : n;
     for (let p0 = 0; p0 < k; p0 += tk) {
       const kk = Math.min(tk, k - p0);
-      for (let j0 = 0; j0 < n; j0 += tn) {
-        gemm(c + i0 * ldc + 8 * j0, ldc, a + i0 * lda + 8 * p0, lda, b + p0 * ldb + 8 * j0, ldb, mm, Math.min(tn, n - j0), kk);
+      for (let j0 = jStart; j0 < jEnd; j0 += tn) {
+        gemm(c + i0 * ldc + 8 * j0, ldc, a + i0 * lda + 8 * p0, lda, b + p0 * ldb + 8 * j0, ldb, mm, Math.min(tn, jEnd - j0), kk);
       }
     }
   }
