@@ -24,8 +24,8 @@ export default defineConfig({
   worker: { format: 'es' },
   // Pre-bundle up front so the first page load never triggers a dependency re-optimisation and reload.
   optimizeDeps: { include: ['vue', 'chart.js', 'papaparse', 'ml-matrix', 'zod'], entries: ['index.html', 'worker/engine.worker.ts'] },
-  // Our own dependency cache (gitignored), not one shared through node_modules with other tools.
-  cacheDir: fileURLToPath(new URL('../.vite/renderer', import.meta.url)),
+  // A dependency cache of its own, beside Vite's default one.
+  cacheDir: fileURLToPath(new URL('../node_modules/.vite/renderer', import.meta.url)),
   build: {
     outDir: fileURLToPath(new URL('../dist/renderer', import.meta.url)),
     emptyOutDir: true,

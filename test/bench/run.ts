@@ -1,7 +1,8 @@
 /**
  * `npm run bench`: dense kernels, and the whole job when its parts exist, on seeded invented matrices of
  * n = 50, 200, 500, 1000, 2000, side by side with ml-matrix and (when python3 has numpy) numpy/OpenBLAS.
- * Prints a table and writes JSON to bench-results/. Options: --sizes 50,200  --quick (fewer repeats).
+ * Prints a table and writes JSON to bench-results/. Options: --sizes 50,200  --quick (fewer repeats)  --no-app (skip the
+ * long-task run of the app in Chromium).
  * Speed is measured here only, never in unit tests.
  */
 import { mkdirSync, writeFileSync, readFileSync } from 'node:fs';
@@ -16,6 +17,7 @@ import { time, runsFor, type Timing } from './timing.ts';
 import { numpyAvailable, numpyInverse, type NumpyTiming } from './numpy.ts';
 import { benchJob, jobCsv, type JobRow } from './job.ts';
 import { cliJob, type CliJob } from './cli-job.ts';
+import { appLongTasks, type LongTasks } from './longtasks.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../src/cli/parallel.ts';
 
 const args = process.argv.slice(2);
@@ -110,6 +112,15 @@ for (const n of SIZES) {
   process.stderr.write(' done\n');
 }
 
+// Long main-thread tasks in the app, at the largest size (the table file the CLI job just used).
+const appN = Math.max(...SIZES);
+let app: LongTasks | { skipped: string } = { skipped: 'not run (--no-app)' };
+if (!args.includes('--no-app')) {
+  process.stderr.write(`app n=${appN}…`);
+  try { app = await appLongTasks(join(outDir, `invented-${appN}.csv`), appN); } catch (e) { app = { skipped: `failed: ${String(e).split('\n')[0]}` }; }
+  process.stderr.write(' done\n');
+}
+
 const T = HELPERS + 1;
 const best = (r: Row): number => Math.min(r.invOurs.medianMs, r.invThreads?.medianMs ?? Infinity);
 const header = ['n', 'LU', `LU ${T} thr`, 'LU JS kernel', 'LU unblocked', 'LU ml-matrix', 'inverse', `inverse ${T} thr`, 'inverse ml-matrix', 'inverse numpy', 'ours/numpy', 'ml-matrix/ours', 'residual', 'peak RSS'];
@@ -135,10 +146,10 @@ console.log(`LU = factorisation with partial pivoting; inverse = factorisation +
 for (const r of rows) if (r.invMlSkipped) console.log(`ml-matrix inverse at n=${r.n} ${r.invMlSkipped}.`);
 if (!numpyVersion) console.log('numpy columns empty: `python3 -c "import numpy"` failed on this machine.');
 
-const jobHeader = ['n', 'CSV', 'import', 'prepare (coefficients + LU)', 'one scenario'];
-const jobTable = jobs.map((j) => [String(j.n), `${j.csvMB.toFixed(1)} MB`, fmt(j.importMs.medianMs), fmt(j.prepareMs.medianMs), fmt(j.scenarioMs.medianMs)]);
+const jobHeader = ['n', 'CSV', 'import', 'prepare (coefficients + LU + bordering)', 'full analysis', 'one scenario'];
+const jobTable = jobs.map((j) => [String(j.n), `${j.csvMB.toFixed(1)} MB`, fmt(j.importMs.medianMs), fmt(j.prepareMs.medianMs), fmt(j.analysisMs.medianMs), fmt(j.scenarioMs.medianMs)]);
 printTable(jobHeader, jobTable);
-console.log('Whole job on invented tables written by writeTableCsv: import = importTable on the CSV text; one scenario = runScenario after preparation (a final-demand line in one sector).');
+console.log('Whole job on invented tables written by writeTableCsv, in process, 1 thread: import = importTable on the CSV text; full analysis = analyzeTable (defaults: spectrum only up to 400 sectors, no explicit inverse); one scenario = runScenario after preparation (a final-demand line in one sector).');
 const cliHeader = ['n', 'roundwise analyze --json', 'numpy script', 'ours/numpy', 'peak RSS ours', 'peak RSS numpy', 'max rel. diff'];
 const cliTable = clis.map((c) => [String(c.n), fmt(c.ours?.medianMs), fmt(c.numpy?.medianMs), ratio(c.ours?.medianMs, c.numpy?.medianMs),
   c.ours?.peakMB == null ? '—' : `${c.ours.peakMB.toFixed(0)} MB`, c.numpy?.peakMB == null ? '—' : `${c.numpy.peakMB.toFixed(0)} MB`,
@@ -146,8 +157,13 @@ const cliTable = clis.map((c) => [String(c.n), fmt(c.ours?.medianMs), fmt(c.nump
 printTable(cliHeader, cliTable);
 console.log('Process start to exit. numpy script = test/bench/numpy_job.py (loadtxt, two inv, the same multipliers); max rel. diff = largest relative difference between the two outputs over every multiplier and linkage.');
 for (const c of clis) if (c.note) console.log(`n=${c.n}: ${c.note}`);
+if ('skipped' in app) console.log(`App long tasks: ${app.skipped}.`);
+else {
+  console.log(`App at n=${app.n} (Chromium, Vite dev server): file chosen to multiplier table on screen ${fmt(app.totalMs)}; ${app.tasks.length} long task(s) (> 50 ms) on the main thread, ${app.over100} over 100 ms, longest ${fmt(app.maxMs)}.`);
+  for (const t of app.tasks) console.log(`  long task at +${fmt(t.startMs)}: ${fmt(t.durationMs)} (${t.phase})`);
+}
 
-const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis };
+const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis, app };
 const stamp = started.toISOString().replace(/[:.]/g, '-');
 writeFileSync(join(outDir, `bench-${stamp}.json`), JSON.stringify(json, null, 2));
 writeFileSync(join(outDir, 'latest.json'), JSON.stringify(json, null, 2));

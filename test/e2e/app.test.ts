@@ -129,6 +129,17 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await page.getByRole('button', { name: 'Show as table' }).first().click();
     expect(await page.locator('.chart-table table').first().textContent()).toMatch(/Food processing/);
     await page.getByRole('button', { name: 'Show chart' }).first().click();
+    // The in-window menu lists each command with its shortcut and is keyboard-driven.
+    await page.getByRole('button', { name: 'File' }).click();
+    const menu = page.getByRole('menu', { name: 'File' });
+    expect(await menu.textContent()).toMatch(/Import table….*Ctrl\+O.*Save project.*Ctrl\+S/);
+    await page.keyboard.press('ArrowDown');
+    expect(await page.evaluate(() => document.activeElement?.textContent)).toMatch(/Open project/);
+    await page.keyboard.press('Escape');
+    expect(await menu.count()).toBe(0);
+    await page.getByRole('button', { name: 'Edit' }).click();
+    await page.getByTestId('verdict').click();
+    expect(await page.getByRole('menu').count()).toBe(0);
   });
 
   it('imports a CSV through the file input, with a role changed before accepting', async () => {
@@ -251,7 +262,7 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     const col = (name: string) => header.findIndex((h) => h.startsWith(name));
     const checks: [string, (number | null)[]][] = [
       ['output Type I', a.multipliers.output.typeI], ['output Type II', a.multipliers.output.typeII],
-      ['income simple', a.multipliers.income.simple], ['income Type II', a.multipliers.income.typeII],
+      ['labour income simple', a.multipliers.income.simple], ['labour income Type II', a.multipliers.income.typeII],
       ['employment simple', a.multipliers.employment.simple], ['value added total', a.multipliers.valueAdded.total],
       ['backward linkage', a.linkages.backward], ['forward linkage', a.linkages.forward],
     ];

@@ -5,7 +5,7 @@
  */
 import { statSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { z } from 'zod';
+import { z } from '../../schema/zod.ts';
 import { formatLocated, InputError } from '../../diagnostics/errors.ts';
 import { analyzePrepared, type Analysis } from '../../model/analysis.ts';
 import { prepareModel } from '../../model/prepared.ts';
