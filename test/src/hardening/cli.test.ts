@@ -84,6 +84,23 @@ describe('roundwise scenario on bad input', () => {
     expectCliRefusal(await runCli(main, ['scenario', table, '--shock', shock, '--colour']), 'scenario');
   });
 
+  it('an output that cannot be written (a file where the folder should be) is a short refusal, for scenario and analyze', async () => {
+    const table = write('base.csv', BASE);
+    const shock = write('ok4.csv', 'sector,amount\r\nCanning,100\r\n');
+    const blocker = write('not-a-folder', 'x');
+    const runs = [
+      ['scenario', table, '--shock', shock, '--out', blocker],
+      ['scenario', table, '--shock', shock, '--project', join(blocker, 'study.json')],
+      ['analyze', table, '--out', blocker],
+    ];
+    for (const argv of runs) {
+      const r = await runCli(main, argv);
+      expectCliRefusal(r, argv[0]!);
+      expect(r.err).toMatch(/cannot write the (file|report) \(E[A-Z]+\)/);
+    }
+    expect(readFileSync(blocker, 'utf8')).toBe('x');
+  });
+
   it('a refused or foreign file at the --project path is not overwritten, byte for byte', async () => {
     const table = write('base.csv', BASE);
     const shock = write('ok3.csv', 'sector,amount\r\nCanning,100\r\n');
