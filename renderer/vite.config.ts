@@ -23,7 +23,9 @@ export default defineConfig({
   preview: { host: '127.0.0.1', port: Number.isInteger(port) && port >= 0 ? port : 5178, strictPort: true },
   worker: { format: 'es' },
   // Pre-bundle up front so the first page load never triggers a dependency re-optimisation and reload.
-  optimizeDeps: { include: ['vue', 'chart.js', 'papaparse', 'ml-matrix'], entries: ['index.html', 'worker/engine.worker.ts'] },
+  optimizeDeps: { include: ['vue', 'chart.js', 'papaparse', 'ml-matrix', 'zod'], entries: ['index.html', 'worker/engine.worker.ts'] },
+  // A dependency cache of its own, beside Vite's default one.
+  cacheDir: fileURLToPath(new URL('../node_modules/.vite/renderer', import.meta.url)),
   build: {
     outDir: fileURLToPath(new URL('../dist/renderer', import.meta.url)),
     emptyOutDir: true,

@@ -42,7 +42,7 @@ type Args<K extends Op> = Parameters<EngineApi[K]>[0];
 type Result<K extends Op> = Awaited<ReturnType<EngineApi[K]>>;
 
 /** Calls whose effect is the worker's state: replayed after a cancel. */
-const STATEFUL: ReadonlySet<string> = new Set(['loadSample', 'loadTable']);
+const STATEFUL: ReadonlySet<string> = new Set(['loadSample', 'loadTable', 'openProject']);
 
 export class EngineClient {
   private worker: Worker;

@@ -13,8 +13,8 @@ import type { Values } from '../../src/model/multipliers.ts';
 import { runScenario as engineRunScenario, spendingRounds, spreadPattern, structuralPaths, compareScenarios } from '../../src/scenario/index.ts';
 import type { Scenario, ScenarioLine, EffectSplit, Variable, ScenarioResult } from '../../src/scenario/types.ts';
 import { impactReport, roundsReport, pathReport, comparisonReport, scenarioMultiplierReport, type ScenarioReportContext } from '../../src/report/scenario.ts';
-import { reportFiles, type ReportFile } from '../../src/report/document.ts';
-import type { Cell } from '../../src/report/csv.ts';
+import type { ReportFile } from '../../src/report/document.ts';
+import { analysisReports } from '../../src/report/analysis.ts';
 import { createProject, parseProject, serializeProject, sourceInfo, type SourceInfo } from '../../src/project/index.ts';
 import { utf8Bytes } from '../../src/project/sha256.ts';
 import { formatLocated, InputError } from '../../src/diagnostics/errors.ts';
@@ -217,7 +217,8 @@ export interface PreviewView {
   columnRoles: readonly string[];
   /** First cells of the file, as read. */
   cells: string[][];
-  balance: { sector: string; inputs: number; output: number; gap: number; relative: number }[];
+  /** Purchases are null when the table has no value-added or import rows. */
+  balance: { sector: string; inputs: number | null; output: number; gap: number; relative: number }[];
   balanced: boolean;
   tolerance: number;
   outputSource: string | null;
@@ -238,7 +239,7 @@ function previewTable(src: TableSource): PreviewView {
     b.sectors.forEach((sector, j) => {
       const gaps = [b.columnGap?.[j], b.rowGap?.[j], b.totalGap?.[j]].filter((g): g is number => typeof g === 'number');
       const worst = gaps.reduce((w, g) => (Math.abs(g) > Math.abs(w) ? g : w), 0);
-      balance.push({ sector, inputs: b.purchases?.[j] ?? Number.NaN, output: b.output[j]!, gap: worst, relative: worst });
+      balance.push({ sector, inputs: finite(b.purchases?.[j]), output: b.output[j]!, gap: worst, relative: worst });
     });
     balance.sort((x, y) => Math.abs(y.relative) - Math.abs(x.relative));
   }
@@ -348,7 +349,8 @@ function paths(args: { scenario: ScenarioDraft; sector: string; closure: boolean
   const r = engineRunScenario(pm, scenarioOf(args.scenario));
   const dest = pm.coef.sectors.indexOf(args.sector);
   if (dest < 0) throw new Error(`unknown sector '${args.sector}'`);
-  const model = args.closure && pm.closed ? 'closed' : 'open';
+  // The scenario's own closure verdict: a household-closed model that is not productive is dropped there (with a note).
+  const model = args.closure && r.closure === 'household' ? 'closed' : 'open';
   const f = model === 'closed' ? Float64Array.from([...r.effectiveDemand, 0]) : r.effectiveDemand;
   const pa = structuralPaths(pm, f, dest, { model, maxPaths: 15 });
   return {
@@ -378,7 +380,7 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
   if (args.which === 'Z') values = Float64Array.from(table.Z);
   else if (args.which === 'A') values = Float64Array.from(pm.coef.A);
   else {
-    if (!current().full.viability.productive) throw new Error('the table is not productive, so the Leontief inverse is not shown');
+    if (!current().full.viability.productive) throw new InputError('not-productive', 'the table is not productive, so the Leontief inverse is not shown');
     // L column by column: one solve per column, only when the user asks for the grid.
     values = new Float64Array(n * n);
     const e = new Float64Array(n);
@@ -396,61 +398,30 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
 
 // ---- reports ----
 
-export type ReportKind = 'multipliers' | 'linkages' | 'coefficients' | 'scenario-impact' | 'scenario-rounds' | 'scenario-multipliers' | 'scenario-paths' | 'comparison';
+export type ReportKind = 'multipliers' | 'coefficients' | 'viability' | 'spectrum' | 'perron-vectors' | 'leontief-inverse' | 'scenario-impact' | 'scenario-rounds' | 'scenario-multipliers' | 'scenario-paths' | 'comparison';
 
 function context(): ScenarioReportContext {
   const { table, source } = current();
   return { tableName: table.name, date: new Date().toISOString(), ...(source ? { sourceFile: source.fileName, sourceHash: source.sha256 } : {}) };
 }
 
-function meta(title: string, modelType: string, notes: string[] = []): Parameters<typeof reportFiles>[1] {
-  const { table, source } = current();
-  return {
-    title, tableName: table.name, modelType, date: new Date().toISOString(), moneyUnit: table.moneyUnit, notes,
-    ...(source ? { sourceFile: source.fileName, sourceHash: source.sha256 } : {}),
-  };
-}
-
-/** The multiplier report: every measure straight from the engine's analysis (null where undefined). */
-function multiplierRows(a: Analysis, moneyUnit: string): Cell[][] {
-  const m = a.multipliers;
-  const head: Cell[] = [
-    'sector',
-    'output Type I (ratio)', 'output Type II (ratio)',
-    `income simple (${moneyUnit} per ${moneyUnit})`, 'income Type I (ratio)', `income total (${moneyUnit} per ${moneyUnit})`, 'income Type II (ratio)',
-    `employment simple (jobs per ${moneyUnit})`, 'employment Type I (ratio)', `employment total (jobs per ${moneyUnit})`, 'employment Type II (ratio)',
-    `value added simple (${moneyUnit} per ${moneyUnit})`, `value added total (${moneyUnit} per ${moneyUnit})`,
-    'backward linkage (index)', 'forward linkage (index)', 'key sector',
-  ];
-  const key = new Set(a.linkages.keySectors);
-  const rows: Cell[][] = [head];
-  a.sectors.forEach((s, j) => rows.push([
-    s,
-    m.output.typeI[j] ?? null, m.output.typeII[j] ?? null,
-    m.income.simple[j] ?? null, m.income.typeI[j] ?? null, m.income.total[j] ?? null, m.income.typeII[j] ?? null,
-    m.employment.simple[j] ?? null, m.employment.typeI[j] ?? null, m.employment.total[j] ?? null, m.employment.typeII[j] ?? null,
-    m.valueAdded.simple[j] ?? null, m.valueAdded.total[j] ?? null,
-    a.linkages.backward[j] ?? null, a.linkages.forward[j] ?? null, key.has(j) ? 'yes' : 'no',
-  ]));
-  return rows;
-}
-
 function report(args: { kind: ReportKind; scenario?: ScenarioDraft; scenarios?: ScenarioDraft[]; closure?: boolean; sector?: string }): ReportFile[] {
-  const { full, pm, table, analysis } = current();
+  const { full, pm, table, source } = current();
   const unit = table.moneyUnit;
   switch (args.kind) {
     case 'multipliers':
-      return reportFiles('multipliers', meta('Multipliers and linkages by sector', full.viability.closedProductive ? 'open (Type I) and household-closed (Type II)' : 'open (Type I); no household closure', analysis.notes), multiplierRows(full, unit));
-    case 'linkages': {
-      const rows: Cell[][] = [['sector', 'backward linkage (index)', 'forward linkage (index)', 'class']];
-      for (const r of analysis.multipliers) rows.push([r.sector, r.backward, r.forward, r.linkage]);
-      return reportFiles('linkages', meta('Backward and forward linkages (Rasmussen)', 'open (Type I)'), rows);
-    }
-    case 'coefficients': {
-      const n = pm.coef.n;
-      const rows: Cell[][] = [[`seller \\ buyer (${unit} per ${unit} of output)`, ...pm.coef.sectors]];
-      for (let i = 0; i < n; i++) rows.push([pm.coef.sectors[i]!, ...Array.from(pm.coef.A.subarray(i * n, (i + 1) * n))]);
-      return reportFiles('coefficients', meta('Technical coefficients A', 'open'), rows);
+    case 'coefficients':
+    case 'viability':
+    case 'spectrum':
+    case 'perron-vectors':
+    case 'leontief-inverse': {
+      // The same files the CLI writes (src/report/analysis.ts); the inverse is formed only when asked for.
+      if (args.kind === 'leontief-inverse') requireProductive();
+      const an = args.kind === 'leontief-inverse' ? analyzePrepared(pm, { inverse: true }) : full;
+      const files = analysisReports(an, { date: new Date().toISOString(), ...(source ? { sourceFile: source.fileName, sourceHash: source.sha256 } : {}) });
+      const mine = files.filter((f) => f.name === `${args.kind}.csv` || f.name === `${args.kind}.about.txt`);
+      if (!mine.length) throw new Error(args.kind === 'spectrum' ? (full.viability.spectrumNote ?? 'the spectrum was not computed') : `no ${args.kind} report for this table`);
+      return mine;
     }
     case 'comparison': {
       requireProductive();
@@ -468,7 +439,7 @@ function report(args: { kind: ReportKind; scenario?: ScenarioDraft; scenarios?: 
       if (args.kind === 'scenario-rounds') return roundsReport(r, spendingRounds(pm, r.effectiveDemand, r.openOutput, { maxRounds: 200 }), context(), `${base}-rounds`);
       const dest = pm.coef.sectors.indexOf(args.sector ?? '');
       const target = dest >= 0 ? dest : largest(r);
-      const model = args.closure && pm.closed ? 'closed' : 'open';
+      const model = args.closure && r.closure === 'household' ? 'closed' : 'open';
       const f = model === 'closed' ? Float64Array.from([...r.effectiveDemand, 0]) : r.effectiveDemand;
       return pathReport(r, structuralPaths(pm, f, target, { model }), context(), `${base}-paths`);
     }

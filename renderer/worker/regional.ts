@@ -68,8 +68,6 @@ export interface RegionalView {
   /** National technical coefficients a_ij and regional r_ij, n×n row-major (detailed sectors). */
   national: Float64Array;
   regional: Float64Array;
-  /** r_ij / a_ij where a_ij > 0 (the share of the input bought in the county), else 0. */
-  localShare: Float64Array;
   /** Largest national coefficient (the shaded grids share one scale). */
   maxCoefficient: number;
   notes: string[];
@@ -112,12 +110,8 @@ export function buildRegional(req: RegionalRequest): RegionalView {
   const A = res.nationalCoefficients;
   const R = res.coefficients;
 
-  const localShare = new Float64Array(n * n);
   let maxCoefficient = 0;
-  for (let k = 0; k < n * n; k++) {
-    if (A[k]! > maxCoefficient) maxCoefficient = A[k]!;
-    localShare[k] = A[k]! > 0 ? R[k]! / A[k]! : 0;
-  }
+  for (let k = 0; k < n * n; k++) if (A[k]! > maxCoefficient) maxCoefficient = A[k]!;
   const rows: RegionalSectorRow[] = sectors.map((sector, j) => {
     let nat = 0, loc = 0;
     for (let i = 0; i < n; i++) { nat += A[i * n + j]!; loc += R[i * n + j]!; }
@@ -192,7 +186,6 @@ export function buildRegional(req: RegionalRequest): RegionalView {
     totals: { regionalJobs: sum(res.regionalJobs), nationalJobs: sum(res.nationalJobs), output: sum(res.output), leakageValue: sum(res.leakageValue) },
     national: A,
     regional: R,
-    localShare,
     maxCoefficient,
     notes,
     warnings,

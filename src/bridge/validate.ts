@@ -3,13 +3,9 @@
  * these before touching a file; nothing from the renderer is trusted (a compromised page could send anything).
  * Pure and DOM/Node-free, so they are unit-tested in isolation and shared with the preload.
  */
-import { z } from 'zod';
+import { z } from '../schema/zod.ts';
 import type { ExportKind, FileKind, RecentEntry } from './contract.ts';
 import { MAX_SAVE_CHARS } from './files.ts';
-
-// The desktop window's CSP forbids eval; without this, zod probes `new Function` on first use and the refused
-// probe is reported as a CSP violation. Modules elsewhere that use zod in the renderer or worker need the same.
-z.config({ jitless: true });
 
 export type Validated<T> = { ok: true; value: T } | { ok: false; message: string };
 

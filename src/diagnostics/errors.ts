@@ -55,7 +55,8 @@ function escapeControls(s: string, keepNewline: boolean): string {
 /** One line for the user: "county.csv:12:4 (row 'Farming', column 'Mining'): negative intermediate flow -3.2". */
 export function formatLocated(err: { message: string; location?: Location }): string {
   const where = err.location ? escapeControls(formatLocation(err.location), false) : '';
-  const message = escapeControls(err.message, true);
+  // Text quoted from the file ('…') is escaped entirely; only the message's own line breaks, outside quotes, stay.
+  const message = err.message.split("'").map((part, k) => escapeControls(part, k % 2 === 0)).join("'");
   return where ? `${where}: ${message}` : message;
 }
 

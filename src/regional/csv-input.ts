@@ -23,6 +23,7 @@ export function readCsvRows(text: string, fileName: string): CsvRow[] {
   let start = 0;
   let line = 1;
   let counted = 0; // text[0, counted) has been scanned for line ends
+  let badQuoteLine: number | null = null;
   Papa.parse<string[]>(body, {
     header: false,
     skipEmptyLines: false,
@@ -30,6 +31,7 @@ export function readCsvRows(text: string, fileName: string): CsvRow[] {
     delimitersToGuess: [',', ';', '\t'],
     step: (res) => {
       for (; counted < start; counted++) if (body.charCodeAt(counted) === 10) line++;
+      if (badQuoteLine === null && res.errors.some((e) => e.type === 'Quotes')) badQuoteLine = line;
       const cells = res.data.map((c) => String(c).trim());
       if (cells.some((c) => c !== '')) rows.push({ cells, line });
       start = res.meta.cursor;
@@ -37,6 +39,8 @@ export function readCsvRows(text: string, fileName: string): CsvRow[] {
       if (body.charCodeAt(start) === 10) start++;
     },
   });
+  // An unclosed quote would swallow the rest of the file into one cell (as the table importer, refuse it).
+  if (badQuoteLine !== null) throw new InputError('bad-quotes', 'a quoted cell is not closed or a quote is misplaced (RFC 4180 §2)', { file: fileName, line: badQuoteLine });
   if (rows.length === 0) throw new InputError('empty', 'the file is empty', { file: fileName });
   return rows;
 }

@@ -4,6 +4,7 @@
  */
 import { InputError, type Location } from '../diagnostics/errors.ts';
 import { readCsvRows, parseNumberCell, isHeaderRow } from './csv-input.ts';
+import { toCsv } from '../report/csv.ts';
 
 export interface EmploymentEntry {
   sector: string;
@@ -55,4 +56,12 @@ export function parseEmploymentCsv(text: string, fileName: string): EmploymentIn
     return { sector, regional, national, line: r.line };
   });
   return { fileName, entries };
+}
+
+/**
+ * A starting employment file for a table: every sector with its national jobs from the table's employment row (blank
+ * when the table has none) and a blank county column for the planner to fill in.
+ */
+export function employmentTemplate(t: { sectors: string[]; employment: Float64Array | null }): string {
+  return toCsv([['sector', 'regional', 'national'], ...t.sectors.map((s, i) => [s, null, t.employment ? t.employment[i]! : null])]);
 }

@@ -83,7 +83,11 @@ function run(text: string, opts: ImportOptions, p: Progress): IOTable {
     },
   };
   const raw = isLong ? readLong(grid, rows, read) : readMatrix(grid, rows, read, opts.layout === 'coefficients' ? 'coefficients' : 'matrix');
-  if (opts.layout === undefined && raw.layout === 'matrix' && looksLikeCoefficients(raw)) raw.layout = 'coefficients';
+  let guessedFromNumbers = false;
+  if (opts.layout === undefined && raw.layout === 'matrix' && looksLikeCoefficients(raw)) {
+    raw.layout = 'coefficients';
+    guessedFromNumbers = !/coefficient|per unit/i.test(raw.corner);
+  }
   p.layout = raw.layout;
   if (raw.layout === 'coefficients') scaleCoefficients(raw);
   const table = finishTable(
@@ -92,6 +96,10 @@ function run(text: string, opts: ImportOptions, p: Progress): IOTable {
     (b) => (p.balance = b),
   );
   p.sectors = table.sectors;
+  // A flow table whose flows are all under 1 % of output reads the same way: say what was assumed, so it can be undone.
+  if (guessedFromNumbers) {
+    table.warnings.push({ code: 'coefficients-guessed', message: 'the block was read as technical coefficients (every column sums to at most 1, far below total output); if these are flows, import it with the matrix layout', location: { file } });
+  }
   return table;
 }
 

@@ -3,7 +3,7 @@
  * Labels are compared case-insensitively, with spaces collapsed and a trailing remark in parentheses ignored
  * ("Employment (jobs)" is "employment").
  */
-import { z } from 'zod';
+import { z } from '../schema/zod.ts';
 import { InputError, type Location } from '../diagnostics/errors.ts';
 import type { ColumnRole, RoleMap, RowRole } from './types.ts';
 

@@ -92,11 +92,16 @@ describe.skipIf(skipBrowser)('Start from a larger table, in the browser', () => 
     expect((await page.getByTestId('regional-perron').locator('.value').textContent())?.trim()).toBe(ratio(perron));
     await shot(page, 'regional-01-estimate');
     await page.getByTestId('regional-coefficients').scrollIntoViewIfNeeded();
-    await page.locator('[data-testid="regional-coefficients"] canvas.shaded').waitFor();
+    // National a and regional r side by side, on one scale.
+    await expect.poll(() => page.locator('[data-testid="regional-coefficients"] canvas.shaded').count()).toBe(2);
     await shot(page, 'regional-02-coefficients');
     await page.click('[data-coef="share"]');
     await page.getByTestId('regional-coef-table').click();
-    await page.locator('[data-testid="regional-coefficients"] .m-cell').first().waitFor();
+    const cell = page.locator('[data-testid="regional-coefficients"] .m-cell').first();
+    await cell.waitFor();
+    // Row 1, column 1 (Farming buying from Farming): r_11 / a_11 as a percentage.
+    const share = expected.coefficients[0]! / expected.nationalCoefficients[0]!;
+    expect((await cell.textContent())?.trim()).toBe(share.toLocaleString('en-US', { style: 'percent', minimumFractionDigits: 1, maximumFractionDigits: 1 }));
     await shot(page, 'regional-03-local-share-table');
   });
 

@@ -57,6 +57,21 @@ describe('engine client', () => {
     expect(w2.posted[0]!.args).toEqual({ text: 't', fileName: 'a.csv' });
   });
 
+  it('replays an opened project, the latest state-setting call, after a cancel', async () => {
+    const c = client();
+    const w1 = FakeWorker.made[0]!;
+    const load = c.call('loadSample', {});
+    w1.reply({ id: w1.posted[0]!.id, ok: true, value: {} });
+    await load;
+    const open = c.call('openProject', { text: '{}', fileName: 'p.roundwise' });
+    w1.reply({ id: w1.posted[1]!.id, ok: true, value: {} });
+    await open;
+    const slow = c.call('grid', { which: 'L' });
+    c.cancel();
+    await expect(slow).rejects.toBeInstanceOf(CancelledError);
+    expect(FakeWorker.made[1]!.posted.map((m) => m.op)).toEqual(['openProject']);
+  });
+
   it('passes a refusal on as a located message, not a stack trace', async () => {
     const c = client();
     const w = FakeWorker.made[0]!;

@@ -83,8 +83,23 @@ describe('worker adapter over the engine', () => {
     expect(files.map((f) => f.name)).toEqual(['multipliers.csv', 'multipliers.about.txt']);
     const rows = Papa.parse<string[]>(files[0]!.content.trim(), { skipEmptyLines: true }).data;
     const ref = analyzeTable(importTable(text('ridgeline-test.csv'), { fileName: 'ridgeline-test.csv' }));
-    const c = rows[0]!.indexOf('output Type II (ratio)');
+    const c = rows[0]!.findIndex((h) => h.startsWith('output Type II'));
+    expect(c).toBeGreaterThan(0);
     ref.sectors.forEach((s, j) => expect(Number(rows[j + 1]![c])).toBe(ref.multipliers.output.typeII[j]));
+  });
+
+  it('writes every report of the Export screen as a CSV with its .about.txt', () => {
+    api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
+    const kinds = ['multipliers', 'coefficients', 'leontief-inverse', 'viability', 'spectrum', 'perron-vectors', 'scenario-impact', 'scenario-multipliers', 'scenario-rounds', 'scenario-paths', 'comparison'] as const;
+    for (const kind of kinds) {
+      const files = api.report({ kind, scenario: SCENARIO, scenarios: [SCENARIO, { ...SCENARIO, name: 'Other' }], closure: true });
+      expect(files.length, kind).toBeGreaterThanOrEqual(2);
+      // Every CSV comes with its sidecar of the same base name, which carries the cautions.
+      for (const f of files.filter((x) => x.name.endsWith('.csv'))) {
+        const about = files.find((x) => x.name === f.name.replace(/\.csv$/, '.about.txt'));
+        expect(about?.content, f.name).toMatch(/Cautions/);
+      }
+    }
   });
 
   it('refuses a malformed file with its location in the preview, and follows a changed role', () => {

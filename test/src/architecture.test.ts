@@ -29,6 +29,10 @@ describe('import rules', () => {
   it('refuses the engine importing the UI', async () => {
     expect(await ruleIds("import { x } from '../../renderer/state.ts';\nexport const y = x;\n", 'src/model/bad.ts')).toContain('no-restricted-imports');
   });
+  it('routes zod through src/schema/zod.ts (jitless under the desktop CSP)', async () => {
+    expect(await ruleIds("import { z } from 'zod';\nexport const y = z;\n", 'src/table/bad.ts')).toContain('no-restricted-imports');
+    expect(await ruleIds("import { z } from '../schema/zod.ts';\nexport const y = z;\n", 'src/table/ok.ts')).toEqual([]);
+  });
   it('allows Node built-ins in the CLI and the engine in the renderer', async () => {
     expect(await ruleIds("import { readFileSync } from 'node:fs';\nexport const y = readFileSync;\n", 'src/cli/ok.ts')).toEqual([]);
     expect(await ruleIds("import { luFactor } from '../src/linalg/index.ts';\nexport const y = luFactor;\n", 'renderer/ok.ts')).toEqual([]);

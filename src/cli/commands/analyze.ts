@@ -74,6 +74,7 @@ export async function run(args: string[], io: CliIO): Promise<number> {
         out: { type: 'string' },
         'allow-negative': { type: 'boolean', default: false },
         tolerance: { type: 'string' },
+        help: { type: 'boolean', short: 'h', default: false },
       },
     });
   } catch (e) {
@@ -81,6 +82,10 @@ export async function run(args: string[], io: CliIO): Promise<number> {
     return 1;
   }
   const { values, positionals } = parsed;
+  if (values.help) {
+    io.stdout(`${USAGE}\n`);
+    return 0;
+  }
   if (positionals.length !== 1) {
     io.stderr(`roundwise analyze: ${positionals.length === 0 ? 'no table file given' : 'give exactly one table file'}\n${USAGE}\n`);
     return 1;

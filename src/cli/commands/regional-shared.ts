@@ -3,7 +3,7 @@ import { createHash } from 'node:crypto';
 import { join } from 'node:path';
 import { parseArgs, type ParseArgsConfig } from 'node:util';
 import { InputError } from '../../diagnostics/errors.ts';
-import type { RoleMap, RowRole, ColumnRole } from '../../table/types.ts';
+import { parseRoleMap, type RoleMap } from '../../table/index.ts';
 import { readText, writeFileAtomic } from '../io.ts';
 import type { ReportFile } from '../../report/document.ts';
 
@@ -51,34 +51,9 @@ export function sha256(text: string): string {
   return createHash('sha256').update(text, 'utf8').digest('hex');
 }
 
-const ROW_ROLES: RowRole[] = ['labourIncome', 'otherValueAdded', 'imports', 'employment', 'totalInput', 'ignore'];
-const COLUMN_ROLES: ColumnRole[] = ['householdConsumption', 'otherFinalDemand', 'totalOutput', 'ignore'];
-
-/** `--map MAP.json`: {"rows": {label: role}, "columns": {label: role}}, checked before it reaches the importer. */
+/** `--map MAP.json`, read and checked by the table importer's own role-map parser. */
 export function readRoleMap(path: string | undefined): Partial<RoleMap> | undefined {
-  if (path === undefined) return undefined;
-  let raw: unknown;
-  try {
-    raw = JSON.parse(readInput(path));
-  } catch (e) {
-    if (e instanceof InputError) throw e;
-    throw new InputError('map-json', 'the role map is not valid JSON', { file: path });
-  }
-  const out: Partial<RoleMap> = {};
-  const obj = raw as Record<string, unknown>;
-  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) throw new InputError('map-shape', 'the role map must be an object with "rows" and/or "columns"', { file: path });
-  for (const [key, allowed] of [['rows', ROW_ROLES], ['columns', COLUMN_ROLES]] as const) {
-    const part = obj[key];
-    if (part === undefined) continue;
-    if (typeof part !== 'object' || part === null || Array.isArray(part)) throw new InputError('map-shape', `"${key}" must map labels to roles`, { file: path });
-    for (const [label, role] of Object.entries(part)) {
-      if (!(allowed as readonly string[]).includes(String(role))) {
-        throw new InputError('map-role', `role '${String(role)}' for '${label}' is not one of ${allowed.join(', ')}`, { file: path, ...(key === 'rows' ? { rowLabel: label } : { columnLabel: label }) });
-      }
-    }
-    (out as Record<string, unknown>)[key] = part;
-  }
-  return out;
+  return path === undefined ? undefined : parseRoleMap(readInput(path), path);
 }
 
 /** Write every file of a result (all contents are built before the first write), each atomically. */

@@ -5,7 +5,7 @@
  */
 import { statSync } from 'node:fs';
 import { basename, join } from 'node:path';
-import { z } from 'zod';
+import { z } from '../../schema/zod.ts';
 import { formatLocated, InputError } from '../../diagnostics/errors.ts';
 import { analyzePrepared, type Analysis } from '../../model/analysis.ts';
 import { prepareModel } from '../../model/prepared.ts';
@@ -80,6 +80,15 @@ function readFileOrRefuse(path: string, limit?: (bytes: number, path: string) =>
 }
 
 const decoder = new TextDecoder('utf-8');
+
+/** An output that cannot be written (a file where a folder should be, no permission, full disk) is a located refusal. */
+function writeOrRefuse(path: string, content: string): void {
+  try {
+    writeFileAtomic(path, content);
+  } catch (e) {
+    throw new InputError('unwritable-output', `cannot write the file (${(e as { code?: string }).code ?? 'error'})`, { file: path });
+  }
+}
 
 function readRoleMap(path: string): Partial<RoleMap> {
   const text = decoder.decode(readFileOrRefuse(path));
@@ -234,7 +243,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     const files = [...scenarioReports(analysis, ctx), ...tableMultiplierReport(an, ctx)];
     for (const f of files) {
       const path = join(args.out, f.name);
-      writeFileAtomic(path, f.content);
+      writeOrRefuse(path, f.content);
       written.push(path);
     }
   }
@@ -243,7 +252,7 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     project.settings.activeScenario = scenario.name;
     if (args.paths !== undefined) project.settings.paths.destination = args.paths;
     refuseToOverwriteForeign(args.project);
-    writeFileAtomic(args.project, serializeProject(project));
+    writeOrRefuse(args.project, serializeProject(project));
     written.push(args.project);
   }
   if (args.json) io.stdout(`${JSON.stringify(scenarioJson(result, rounds, table.name, paths), null, 2)}\n`);

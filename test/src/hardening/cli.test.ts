@@ -84,6 +84,23 @@ describe('roundwise scenario on bad input', () => {
     expectCliRefusal(await runCli(main, ['scenario', table, '--shock', shock, '--colour']), 'scenario');
   });
 
+  it('an output that cannot be written (a file where the folder should be) is a short refusal, for scenario and analyze', async () => {
+    const table = write('base.csv', BASE);
+    const shock = write('ok4.csv', 'sector,amount\r\nCanning,100\r\n');
+    const blocker = write('not-a-folder', 'x');
+    const runs = [
+      ['scenario', table, '--shock', shock, '--out', blocker],
+      ['scenario', table, '--shock', shock, '--project', join(blocker, 'study.json')],
+      ['analyze', table, '--out', blocker],
+    ];
+    for (const argv of runs) {
+      const r = await runCli(main, argv);
+      expectCliRefusal(r, argv[0]!);
+      expect(r.err).toMatch(/cannot write the (file|report) \(E[A-Z]+\)/);
+    }
+    expect(readFileSync(blocker, 'utf8')).toBe('x');
+  });
+
   it('a refused or foreign file at the --project path is not overwritten, byte for byte', async () => {
     const table = write('base.csv', BASE);
     const shock = write('ok3.csv', 'sector,amount\r\nCanning,100\r\n');
@@ -115,5 +132,63 @@ describe('roundwise scenario on bad input', () => {
       expect(unsafeCells(text), f).toEqual([]);
       expect(nonFiniteText(text), f).toEqual([]);
     }
+  });
+});
+
+describe('roundwise analyze on bad input', () => {
+  it('random mutations of valid tables: exit 0 with finite JSON, or exit 2 with a short message', async () => {
+    const ch = fc.oneof(fc.constantFrom('"', ',', ';', '\n', '\u0000', 'x', '-', '', '1e999', 'NaN', '1e300'), fc.string({ maxLength: 2 }));
+    let refused = 0;
+    let accepted = 0;
+    await fc.assert(
+      fc.asyncProperty(gridTable, encoding, fc.array(fc.tuple(fc.double({ min: 0, max: 1, noNaN: true }), ch), { minLength: 0, maxLength: 3 }), async (g, enc, edits) => {
+        let text = toText(g.grid, enc);
+        for (const [at, s] of edits) {
+          const k = Math.floor(at * text.length);
+          text = text.slice(0, k) + s + text.slice(k + 1);
+        }
+        const r = await runCli(main, ['analyze', write('a.csv', text), '--json']);
+        if (r.code === 0) {
+          accepted++;
+          expect(nonFiniteText(r.out)).toEqual([]);
+          const j = JSON.parse(r.out) as { sectors: string[]; viability: { perronRoot: number | null } };
+          expect(j.sectors.length).toBeGreaterThan(0);
+          expect(typeof j.viability.perronRoot).toBe('number');
+          // Warnings go to stderr, one line each.
+          for (const line of r.err.split('\n').filter(Boolean)) expect(line.startsWith('roundwise analyze: warning: ')).toBe(true);
+        } else {
+          refused++;
+          expectCliRefusal(r, 'analyze');
+        }
+      }),
+      { numRuns: 60, seed: 8202 },
+    );
+    expect(refused).toBeGreaterThan(0);
+    expect(accepted).toBeGreaterThan(0);
+  });
+
+  it('every refused table of the corpus is refused by analyze with the importer\'s message', async () => {
+    const tables = readdirSync(CORPUS).filter((n) => n.startsWith('table-') && !/latin1-label|mixed-utf8|mixed-line-ends/.test(n));
+    for (const f of tables) {
+      const r = await runCli(main, ['analyze', join(CORPUS, f)]);
+      expectCliRefusal(r, 'analyze');
+      expect(r.err).toContain(f);
+    }
+  });
+
+  it('--out reports from a table with formula labels: every CSV cell safe, no NaN or Infinity written', async () => {
+    const out = join(dir, 'analysis-formulas');
+    const r = await runCli(main, ['analyze', write('formulas-a.csv', formulaTableCsv()), '--out', out]);
+    expect(r.code, r.err).toBe(0);
+    const csvs = readdirSync(out).filter((f) => f.endsWith('.csv'));
+    expect(csvs.length).toBeGreaterThanOrEqual(3);
+    let seen = 0;
+    for (const f of csvs) {
+      const text = readFileSync(join(out, f), 'utf8');
+      expect(unsafeCells(text), f).toEqual([]);
+      expect(nonFiniteText(text), f).toEqual([]);
+      if (text.includes("'+SUM(A1)")) seen++;
+    }
+    expect(seen).toBeGreaterThan(0);
   });
 });

@@ -31,6 +31,15 @@ describe('found by the property tests', () => {
     expect(t.layout).toBe('matrix');
     expect(Array.from(t.labourIncome[0]!.values)).toEqual([1, 1]);
   });
+
+  it('a flow table with flows far below output that is read as coefficients says so', () => {
+    // Scaling property, seed 8103, 1000 runs: flows of 0.01 against outputs of 2 were taken for coefficients silently.
+    const text = 'thousand dollars,A,B,Households,Total output\r\nA,0,0,2,2\r\nB,0,0.01,2,2.01\r\nLabor income,1,1,,\r\n';
+    const t = importTable(text, { fileName: 'tiny-flows.csv' });
+    expect(t.layout).toBe('coefficients');
+    expect(t.warnings.find((w) => w.code === 'coefficients-guessed')?.message).toMatch(/read as technical coefficients.*matrix layout/);
+    expect(importTable(text, { fileName: 'tiny-flows.csv', layout: 'matrix' }).warnings.map((w) => w.code)).not.toContain('coefficients-guessed');
+  });
 });
 
 describe('found by the hardening corpus', () => {
@@ -42,5 +51,23 @@ describe('found by the hardening corpus', () => {
     const utf16 = '\ufffd\ufffd' + 'sector,amount\r\n'.split('').join('\u0000') + '\u0000';
     expect(refusalOf(() => parseShockCsv(utf16, 'shock.csv'), 'shock.csv')?.code).toBe('utf16');
     expect(refusalOf(() => parseShockCsv('sector,amount\r\nCan\u0000ning,1\r\n', 'shock.csv'), 'shock.csv')?.code).toBe('binary');
+  });
+});
+
+describe('found by the regional CLI property', () => {
+  it('an unclosed quote in a regional input is refused at its line instead of swallowing the file into one cell', async () => {
+    const { readCsvRows } = await import('../../../src/regional/csv-input.ts');
+    const e = refusalOf(() => readCsvRows('"sector,group\nFarming,Goods\nMaking,Goods\n', 'groups.csv'), 'groups.csv');
+    expect(e?.code).toBe('bad-quotes');
+    expect(e!.location).toEqual({ file: 'groups.csv', line: 1 });
+  });
+});
+
+describe('line breaks quoted from the file', () => {
+  it('a quoted cell holding line breaks is echoed on one line', () => {
+    const text = 'unit,A,B,Total output\r\nA,"1\n2\n3\n4",2,10\r\nB,1,3,10\r\n';
+    const e = refusalOf(() => importTable(text, { fileName: 'nl.csv' }), 'nl.csv');
+    expect(e?.code).toBe('non-numeric');
+    expect(formatLocated(e!)).toBe("nl.csv:2:2 (row 'A', column 'A'): '1\\n2\\n3\\n4' is not a number");
   });
 });

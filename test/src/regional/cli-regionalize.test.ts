@@ -102,6 +102,12 @@ describe('roundwise regionalize', () => {
     expect((await cli('regionalize', f('three-nation.csv'), '--method', 'slq')).err).toMatch(/--employment is required/);
   });
 
+  it('--map goes through the table importer\'s role-map check', async () => {
+    const r = await cli('regionalize', f('three-nation.csv'), '--employment', f('three-employment.csv'), '--method', 'slq', '--map', f('bad-role-map.json'));
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/bad-role-map\.json:1:\d+: unknown row role for 'Employment \(jobs\)'/);
+  });
+
   it('--help describes every option', async () => {
     const r = await cli('regionalize', '--help');
     for (const o of ['--employment', '--method', '--delta', '--map', '--json', '--out', 'Flegg & Tohmo']) expect(r.out).toContain(o);

@@ -2,7 +2,7 @@
 // by hand from the published formulas (Miller & Blair 2009, ch. 8; Flegg & Webber 1997), then the table identities.
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { regionalize, parseEmploymentCsv, REGIONAL_IMPORT_LABEL, type EmploymentInput } from '../../../src/regional/index.ts';
+import { regionalize, parseEmploymentCsv, employmentTemplate, REGIONAL_IMPORT_LABEL, type EmploymentInput } from '../../../src/regional/index.ts';
 import { coefficients } from '../../../src/model/coefficients.ts';
 import { prepareModel, solveOpenTransposed } from '../../../src/model/prepared.ts';
 import { InputError, formatLocated } from '../../../src/diagnostics/errors.ts';
@@ -231,5 +231,15 @@ describe('negative exports and other final demand', () => {
 describe('files that are not employment CSVs', () => {
   it('binary content is refused before parsing', () => {
     expect(refusal(() => parseEmploymentCsv('PK\u0003\u0004\u0000\u0000junk', 'e.csv')).message).toMatch(/binary/);
+  });
+});
+
+describe('employment template', () => {
+  it('lists every sector with national jobs from the table and reads back once the county column is filled', () => {
+    const text = employmentTemplate(THREE);
+    expect(text).toBe('sector,regional,national\r\nFarming,,100\r\nMaking,,200\r\nServices,,700\r\n');
+    const filled = text.replace('Farming,,', 'Farming,20,').replace('Making,,', 'Making,10,').replace('Services,,', 'Services,70,');
+    expectClose(regionalize(THREE, parseEmploymentCsv(filled, 'e.csv'), { method: 'slq' }).slq, [2, 0.5, 1]);
+    expect(refusal(() => parseEmploymentCsv(text, 'e.csv')).location).toMatchObject({ line: 2, column: 2, rowLabel: 'Farming' });
   });
 });

@@ -2,7 +2,7 @@
 import { describe, it, expect } from 'vitest';
 import { InputError, formatLocated } from '../../../src/diagnostics/errors.ts';
 import { prepareModel } from '../../../src/model/prepared.ts';
-import { parseShockCsv, resolveShock, runScenario, spreadPattern, type Scenario } from '../../../src/scenario/index.ts';
+import { compareScenarios, parseShockCsv, resolveShock, runScenario, spreadPattern, type Scenario } from '../../../src/scenario/index.ts';
 import { county4 } from './tables.ts';
 
 const pm = prepareModel(county4());
@@ -84,5 +84,23 @@ describe('shock file and spending patterns', () => {
     const shock = resolveShock(pm, { name: 'v', lines });
     expect(Array.from(shock.df).reduce((a, b) => a + b, 0)).toBeCloseTo(700, 10);
     expect(shock.df[2]).toBeCloseTo(350, 10);
+  });
+});
+
+describe('comparison refusals', () => {
+  const one = runScenario(pm, { name: 'a', lines: [{ sector: 'Retail', amount: 10, kind: 'final-demand', localShare: 1 }] });
+  it('needs two scenarios on the same table', () => {
+    expect(refusal(() => compareScenarios([one])).code).toBe('compare-too-few');
+    const t = county4();
+    t.sectors = ['W', 'X', 'Y', 'Z'];
+    const other = runScenario(prepareModel(t), { name: 'b', lines: [{ sector: 'W', amount: 1, kind: 'final-demand', localShare: 1 }] });
+    expect(refusal(() => compareScenarios([one, other])).code).toBe('compare-different-tables');
+  });
+  it('differences are from the first scenario', () => {
+    const two = runScenario(pm, { name: 'b', lines: [{ sector: 'Retail', amount: 30, kind: 'final-demand', localShare: 1 }] });
+    const c = compareScenarios([one, two]);
+    expect(c.difference.output[0]!.every((v) => v === 0)).toBe(true);
+    // Linear model: tripling the shock triples the effect, so the difference is twice the first.
+    c.difference.output[1]!.forEach((d, i) => expect(d).toBeCloseTo(2 * one.effects.output.total[i]!, 10));
   });
 });
