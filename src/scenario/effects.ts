@@ -81,7 +81,12 @@ function closedUsable(pm: PreparedModel): boolean {
 /** Above this 1-norm condition estimate of I − A the results may have lost most of their digits (as the analysis warns). */
 const CONDITION_LIMIT = 1e12;
 
+// One estimate per prepared table: it costs several solves, and a planner runs many scenarios on one table.
+const conditionCache = new WeakMap<PreparedModel, number>();
+
 function conditionOfOpen(pm: PreparedModel): number {
+  const cached = conditionCache.get(pm);
+  if (cached !== undefined) return cached;
   const { A, n } = pm.coef;
   let norm = 0;
   for (let j = 0; j < n; j++) {
@@ -89,7 +94,9 @@ function conditionOfOpen(pm: PreparedModel): number {
     for (let i = 0; i < n; i++) col += Math.abs((i === j ? 1 : 0) - A[i * n + j]!);
     if (col > norm) norm = col;
   }
-  return conditionEstimate1(pm.openLU, norm);
+  const estimate = conditionEstimate1(pm.openLU, norm);
+  conditionCache.set(pm, estimate);
+  return estimate;
 }
 
 export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResult {
