@@ -1,46 +1,17 @@
 // IOTables built in code for the model tests (values are either from a named source or seeded random, never a reference).
 import type { IOTable } from '../../../src/table/types.ts';
+import { tableFromParts, type TableParts } from '../../support/io-table.ts';
 
 export function seeded(seed: number): () => number {
   let s = seed >>> 0;
   return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32);
 }
 
-export interface TableParts {
-  Z: number[][];
-  x: number[];
-  labour?: number[];
-  otherVA?: number[];
-  imports?: number[];
-  employment?: number[] | null;
-  households?: number[];
-  otherFD?: number[];
-  sectors?: string[];
-}
+export type { TableParts };
 
 /** A validated-looking IOTable from its parts (no import, no checks: the model must cope with what it is given). */
 export function makeTable(p: TableParts): IOTable {
-  const n = p.x.length;
-  const flat = new Float64Array(n * n);
-  p.Z.forEach((row, i) => row.forEach((v, j) => { flat[i * n + j] = v; }));
-  const vec = (label: string, v: number[] | undefined) => (v ? [{ label, values: Float64Array.from(v) }] : []);
-  return {
-    name: 'test table',
-    sectors: p.sectors ?? Array.from({ length: n }, (_, i) => `S${i + 1}`),
-    n,
-    Z: flat,
-    x: Float64Array.from(p.x),
-    labourIncome: vec('Labour income', p.labour),
-    otherValueAdded: vec('Other value added', p.otherVA),
-    imports: vec('Imports', p.imports),
-    employment: p.employment ? Float64Array.from(p.employment) : null,
-    householdConsumption: vec('Households', p.households),
-    otherFinalDemand: vec('Exports', p.otherFD),
-    moneyUnit: 'money',
-    layout: 'matrix',
-    roles: { rows: {}, columns: {} },
-    warnings: [],
-  };
+  return tableFromParts(p, { name: 'test table', labourLabel: 'Labour income', otherFDLabel: 'Exports', moneyUnit: 'money' });
 }
 
 /** A table whose coefficient matrix is exactly `a` (x = 1 in every sector, so Z = A), with household rows and columns. */

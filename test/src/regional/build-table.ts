@@ -1,43 +1,20 @@
 // Small IOTables built in code for the regional tests (the numbers are invented and balanced by hand).
-import type { IOTable, LabelledVector } from '../../../src/table/types.ts';
+import type { IOTable } from '../../../src/table/types.ts';
+import { tableFromParts, type TableParts } from '../../support/io-table.ts';
 
-export interface TableSpec {
-  name?: string;
-  sectors: string[];
-  Z: number[][];
-  x: number[];
-  labour?: number[];
-  otherVA?: number[];
-  imports?: number[];
-  employment?: number[] | null;
-  households?: number[];
-  otherFD?: number[];
-}
-
-const vec = (label: string, v: number[] | undefined): LabelledVector[] => (v ? [{ label, values: Float64Array.from(v) }] : []);
+export type TableSpec = TableParts & { sectors: string[] };
 
 export function buildTable(s: TableSpec): IOTable {
-  const n = s.sectors.length;
-  return {
-    name: s.name ?? 'test',
-    sectors: s.sectors,
-    n,
-    Z: Float64Array.from(s.Z.flat()),
-    x: Float64Array.from(s.x),
-    labourIncome: vec('Compensation of employees', s.labour),
-    otherValueAdded: vec('Other value added', s.otherVA),
-    imports: vec('Imports', s.imports),
-    employment: s.employment ? Float64Array.from(s.employment) : null,
-    householdConsumption: vec('Households', s.households),
-    otherFinalDemand: vec('Other final demand', s.otherFD),
+  return tableFromParts(s, {
+    name: 'test',
+    labourLabel: 'Compensation of employees',
+    otherFDLabel: 'Other final demand',
     moneyUnit: 'million dollars',
-    layout: 'matrix',
     roles: {
       rows: { 'Compensation of employees': 'labourIncome', 'Other value added': 'otherValueAdded', Imports: 'imports' },
       columns: { Households: 'householdConsumption', 'Other final demand': 'otherFinalDemand' },
     },
-    warnings: [],
-  };
+  });
 }
 
 /**

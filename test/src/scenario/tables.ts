@@ -3,40 +3,15 @@
  * (Input–Output Analysis, 2nd ed. 2009; recalled from memory). `county4` is invented (demo data, not a reference).
  */
 import type { IOTable } from '../../../src/table/types.ts';
+import { tableFromParts, type TableParts } from '../../support/io-table.ts';
 
-export interface TableSpec {
-  name?: string;
-  sectors: string[];
-  Z: number[][];
-  x: number[];
-  labour?: number[];
-  otherVA?: number[];
-  imports?: number[];
-  employment?: number[] | null;
-  household?: number[];
-  otherFD?: number[];
-}
+export type TableSpec = Omit<TableParts, 'households'> & { sectors: string[]; household?: number[] };
 
 export function makeTable(s: TableSpec): IOTable {
-  const n = s.sectors.length;
-  const vec = (label: string, v: number[] | undefined) => (v ? [{ label, values: Float64Array.from(v) }] : []);
-  return {
-    name: s.name ?? 'test table',
-    sectors: s.sectors,
-    n,
-    Z: Float64Array.from(s.Z.flat()),
-    x: Float64Array.from(s.x),
-    labourIncome: vec('Compensation of employees', s.labour),
-    otherValueAdded: vec('Other value added', s.otherVA),
-    imports: vec('Imports', s.imports),
-    employment: s.employment ? Float64Array.from(s.employment) : null,
-    householdConsumption: vec('Households', s.household),
-    otherFinalDemand: vec('Other final demand', s.otherFD),
-    moneyUnit: 'thousand dollars',
-    layout: 'matrix',
-    roles: { rows: {}, columns: {} },
-    warnings: [],
-  };
+  const { household, ...rest } = s;
+  return tableFromParts({ ...rest, ...(household ? { households: household } : {}) }, {
+    name: 'test table', labourLabel: 'Compensation of employees', otherFDLabel: 'Other final demand', moneyUnit: 'thousand dollars',
+  });
 }
 
 /** Miller & Blair 2009 §2.3: Z = [[150, 500], [200, 100]], x = [1000, 2000], value added [650, 1400] (recalled from memory). */
