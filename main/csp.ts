@@ -2,11 +2,14 @@
  * The Content-Security-Policy of the desktop window, sent as a response header with every file of the app origin
  * (main/app-protocol.ts), so it holds even if a page's own <meta> policy were removed. Scripts, workers, fetches and
  * fonts only from the app itself; no plugins, frames, forms or <base> rewriting.
+ * Scripts also allow 'wasm-unsafe-eval' (WebAssembly compilation only) for the engine's kernel.
  * Styles allow 'unsafe-inline' because Vue style bindings and chart.js set inline styles; scripts never do.
  */
 export const CSP_DIRECTIVES: Readonly<Record<string, readonly string[]>> = {
   'default-src': ["'none'"],
-  'script-src': ["'self'"],
+  // 'wasm-unsafe-eval' lets the engine compile its own WebAssembly kernel (src/linalg/wasm-gemm.ts); it does not
+  // allow eval or new Function for JavaScript (CSP Level 3).
+  'script-src': ["'self'", "'wasm-unsafe-eval'"],
   'worker-src': ["'self'"],
   'style-src': ["'self'", "'unsafe-inline'"],
   'img-src': ["'self'", 'data:', 'blob:'],

@@ -7,6 +7,7 @@ import { importTable, previewTable as enginePreview, ROW_ROLES, COLUMN_ROLES } f
 import type { IOTable, Layout, RoleMap } from '../../src/table/types.ts';
 import { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../../src/table/sample.ts';
 import { prepareModel, solveOpen, type PreparedModel } from '../../src/model/prepared.ts';
+import { luInverse } from '../../src/linalg/index.ts';
 import { analyzePrepared, type Analysis } from '../../src/model/analysis.ts';
 import type { ModeKind } from '../../src/model/spectrum.ts';
 import type { Values } from '../../src/model/multipliers.ts';
@@ -381,15 +382,9 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
   else if (args.which === 'A') values = Float64Array.from(pm.coef.A);
   else {
     if (!current().full.viability.productive) throw new InputError('not-productive', 'the table is not productive, so the Leontief inverse is not shown');
-    // L column by column: one solve per column, only when the user asks for the grid.
-    values = new Float64Array(n * n);
-    const e = new Float64Array(n);
-    for (let j = 0; j < n; j++) {
-      e.fill(0);
-      e[j] = 1;
-      const col = solveOpen(pm, e);
-      for (let i = 0; i < n; i++) values[i * n + j] = col[i]!;
-    }
+    // The explicit inverse, only when the user asks for the grid: the blocked inverse on the existing factorisation
+    // (about 1 s at 2,000 sectors) rather than n separate solves (about 20 s there).
+    values = luInverse(pm.openLU);
   }
   let max = 0;
   for (let k = 0; k < values.length; k++) if (values[k]! > max) max = values[k]!;

@@ -11,7 +11,8 @@ describe('Content-Security-Policy', () => {
   const d = directives(contentSecurityPolicy());
   it('denies by default and allows scripts and workers from the app only', () => {
     expect(d.get('default-src')).toEqual(["'none'"]);
-    expect(d.get('script-src')).toEqual(["'self'"]);
+    // Only our own scripts; WebAssembly compilation (CSP Level 3 'wasm-unsafe-eval') for the engine's kernel, no JS eval.
+    expect(d.get('script-src')).toEqual(["'self'", "'wasm-unsafe-eval'"]);
     expect(d.get('worker-src')).toEqual(["'self'"]);
     expect(d.get('connect-src')).toEqual(["'self'"]);
   });
