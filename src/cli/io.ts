@@ -1,6 +1,8 @@
 /** What a CLI command may touch: arguments, output streams and files. Kept small so commands are testable in-process. */
-import { readFileSync, writeFileSync, renameSync, mkdirSync, openSync, fsyncSync, closeSync, rmSync } from 'node:fs';
+import { readFileSync, writeFileSync, renameSync, mkdirSync, openSync, fsyncSync, closeSync, rmSync, statSync } from 'node:fs';
 import { dirname, join, basename } from 'node:path';
+import { InputError } from '../diagnostics/errors.ts';
+import { checkTableSize } from '../table/index.ts';
 
 export interface CliIO {
   stdout: (s: string) => void;
@@ -18,6 +20,34 @@ export function readText(path: string): string {
 
 export function readBytes(path: string): Uint8Array {
   return readFileSync(path);
+}
+
+function unreadable(e: unknown, path: string): InputError {
+  const code = (e as { code?: string }).code;
+  const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder, not a file' : code === 'EACCES' ? 'permission denied' : 'cannot be read';
+  return new InputError('unreadable-file', why, { file: path });
+}
+
+/**
+ * Every input file of every command (tables, shocks, role maps, employment, totals, groups): its size is checked
+ * against the importer's limit before anything is read, so an oversized file is never loaded into memory, and a
+ * missing or unreadable file is a located one-line refusal.
+ */
+export function readInputFile(path: string): Buffer {
+  let size: number;
+  try {
+    const st = statSync(path);
+    if (st.isDirectory()) throw Object.assign(new Error('folder'), { code: 'EISDIR' });
+    size = st.size;
+  } catch (e) {
+    throw unreadable(e, path);
+  }
+  checkTableSize(size, path);
+  try {
+    return readFileSync(path);
+  } catch (e) {
+    throw unreadable(e, path);
+  }
 }
 
 /**

@@ -6,13 +6,12 @@
 import { parseArgs } from 'node:util';
 import { createHash } from 'node:crypto';
 import { basename, join } from 'node:path';
-import { readFileSync, statSync } from 'node:fs';
 import { InputError, formatLocated } from '../../diagnostics/errors.ts';
-import { checkTableSize, importTable, parseRoleMap } from '../../table/index.ts';
+import { importTable, parseRoleMap } from '../../table/index.ts';
 import { analyzeTable, type Analysis } from '../../model/analysis.ts';
 import { analysisJson } from '../../report/analysis-json.ts';
 import { analysisReports } from '../../report/analysis.ts';
-import { writeFileAtomic, type CliIO } from '../io.ts';
+import { readInputFile, writeFileAtomic, type CliIO } from '../io.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
 
 /** From this many sectors the factorisation's updates are shared with helper threads (one per extra core). */
@@ -21,20 +20,6 @@ const PARALLEL_MIN_SECTORS = 500;
 const USAGE = 'usage: roundwise analyze TABLE.csv [--map MAP.json] [--json] [--out DIR] [--allow-negative] [--tolerance T]';
 
 /** The file's bytes; with `limit`, its size is checked first so that an oversized file is never read into memory. */
-function readInput(path: string, limit?: (bytes: number, path: string) => void): Buffer {
-  try {
-    if (limit) {
-      const size = statSync(path).size;
-      limit(size, path);
-    }
-    return readFileSync(path);
-  } catch (e) {
-    if (e instanceof InputError) throw e;
-    const code = (e as { code?: string }).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a folder, not a file' : code === 'EACCES' ? 'permission denied' : 'cannot be read';
-    throw new InputError('unreadable-file', why, { file: path });
-  }
-}
 
 function fmt(x: number | null, digits = 4): string {
   return x === null ? '—' : x.toFixed(digits);
@@ -100,11 +85,11 @@ export async function run(args: string[], io: CliIO): Promise<number> {
   }
   const path = positionals[0]!;
   const fileName = basename(path);
-  const roles = values.map !== undefined ? parseRoleMap(readInput(values.map).toString('utf8'), basename(values.map)) : undefined;
+  const roles = values.map !== undefined ? parseRoleMap(readInputFile(values.map).toString('utf8'), basename(values.map)) : undefined;
   // Only the table survives this block: the file's bytes and text (tens of MB for a large table) can be collected.
   let sourceHash: string | undefined;
   const table = (() => {
-    const bytes = readInput(path, checkTableSize);
+    const bytes = readInputFile(path);
     if (values.out !== undefined) sourceHash = createHash('sha256').update(bytes).digest('hex');
     return importTable(bytes.toString('utf8'), { fileName, allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
   })();

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { parseArgs, type ParseArgsConfig } from 'node:util';
 import { InputError } from '../../diagnostics/errors.ts';
 import { parseRoleMap, type RoleMap } from '../../table/index.ts';
-import { readText, writeFileAtomic } from '../io.ts';
+import { readInputFile, writeFileAtomic } from '../io.ts';
 import type { ReportFile } from '../../report/document.ts';
 
 type Options = NonNullable<ParseArgsConfig['options']>;
@@ -37,14 +37,9 @@ export function numberOption(value: string | undefined, name: string): number | 
   return v;
 }
 
+/** A small input file as UTF-8 text (the shared reader checks the size limit first). */
 export function readInput(path: string): string {
-  try {
-    return readText(path);
-  } catch (e) {
-    const code = (e as { code?: string }).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'it is a folder' : code === 'EACCES' ? 'permission denied' : 'it cannot be read';
-    throw new InputError('file-unreadable', `cannot read the file: ${why}`, { file: path });
-  }
+  return readInputFile(path).toString('utf8');
 }
 
 export function sha256(text: string): string {

@@ -3,7 +3,6 @@
  * Demand-shock effects by sector (direct / indirect / induced / total), spending rounds, implied multipliers;
  * optionally structural paths to one sector, and the study saved as a project file.
  */
-import { statSync } from 'node:fs';
 import { basename, join } from 'node:path';
 import { z } from '../../schema/zod.ts';
 import { formatLocated, InputError } from '../../diagnostics/errors.ts';
@@ -18,8 +17,8 @@ import { modelTypeOf, scenarioReports, SCENARIO_CAUTIONS, type ScenarioReportCon
 import {
   analyseScenario, parseShockCsv, VARIABLES, type EffectSplit, type PathAnalysis, type RoundsResult, type ScenarioResult,
 } from '../../scenario/index.ts';
-import { checkTableSize, importTable, type RoleMap } from '../../table/index.ts';
-import { readBytes, writeFileAtomic, type CliIO } from '../io.ts';
+import { importTable, type RoleMap } from '../../table/index.ts';
+import { readBytes, readInputFile, writeFileAtomic, type CliIO } from '../io.ts';
 
 interface Args {
   table: string;
@@ -56,29 +55,6 @@ export function parseArgs(argv: string[]): Args {
   return { ...opts, table: positional[0]!, shock: opts.shock } as Args;
 }
 
-function unreadable(e: unknown, path: string): InputError {
-  const code = (e as { code?: string }).code;
-  return new InputError('file-unreadable', code === 'ENOENT' ? 'file not found' : `cannot read the file (${code ?? 'error'})`, { file: path });
-}
-
-/** The file's bytes; with `limit`, its size is checked first so that an oversized file is never read into memory. */
-function readFileOrRefuse(path: string, limit?: (bytes: number, path: string) => void): Uint8Array {
-  if (limit) {
-    let size: number;
-    try {
-      size = statSync(path).size;
-    } catch (e) {
-      throw unreadable(e, path);
-    }
-    limit(size, path);
-  }
-  try {
-    return readBytes(path);
-  } catch (e) {
-    throw unreadable(e, path);
-  }
-}
-
 const decoder = new TextDecoder('utf-8');
 
 /** An output that cannot be written (a file where a folder should be, no permission, full disk) is a located refusal. */
@@ -91,7 +67,7 @@ function writeOrRefuse(path: string, content: string): void {
 }
 
 function readRoleMap(path: string): Partial<RoleMap> {
-  const text = decoder.decode(readFileOrRefuse(path));
+  const text = decoder.decode(readInputFile(path));
   let raw: unknown;
   try {
     raw = JSON.parse(text);
@@ -213,10 +189,10 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     return 0;
   }
   const args = parseArgs(argv);
-  const tableBytes = readFileOrRefuse(args.table, checkTableSize);
+  const tableBytes = readInputFile(args.table);
   const roles = args.map ? readRoleMap(args.map) : undefined;
   const table = importTable(decoder.decode(tableBytes), { fileName: args.table, ...(roles ? { roles } : {}) });
-  const scenario = parseShockCsv(decoder.decode(readFileOrRefuse(args.shock)), args.shock);
+  const scenario = parseShockCsv(decoder.decode(readInputFile(args.shock)), args.shock);
 
   const pm = prepareModel(table);
   // The table's own analysis: its viability verdict goes into the notes, its multipliers into the reports.

@@ -132,7 +132,7 @@ describe('roundwise scenario', () => {
     expect(noShock.err).toMatch(/--shock SHOCK\.csv is required/);
     const missing = await cli(join(dir, 'nope.csv'), '--shock', fx('shock.csv'));
     expect(missing.code).toBe(2);
-    expect(missing.err).toMatch(/nope\.csv: file not found/);
+    expect(missing.err).toMatch(/nope\.csv: no such file/);
     const badMap = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('shock.csv'));
     expect(badMap.code).toBe(2);
     expect(badMap.err).toMatch(/role map is not valid JSON/);

@@ -1,0 +1,44 @@
+// Every command reads its inputs through one reader (src/cli/io.ts readInputFile): a missing file, a folder and an
+// oversized file (a sparse file over the importer's stated limit, MAX_TABLE_BYTES) are located one-line refusals,
+// for a table and for the small side files alike (common practice, no source: the limit is the project's own).
+import { describe, it, expect, beforeAll, afterAll } from 'vitest';
+import { mkdtempSync, rmSync, writeFileSync, truncateSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { main } from '../../../src/cli/main.ts';
+import { MAX_TABLE_BYTES } from '../../../src/table/index.ts';
+
+let dir: string;
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'rw-read-'));
+  writeFileSync(join(dir, 'huge.csv'), '');
+  truncateSync(join(dir, 'huge.csv'), MAX_TABLE_BYTES + 1); // sparse: no disk space used
+});
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+async function run(...args: string[]) {
+  let out = '', err = '';
+  const code = await main(args, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
+  return { code, out, err };
+}
+
+describe('CLI input files', () => {
+  it('an oversized side file is refused by its size, before it is read', async () => {
+    const r = await run('regionalize', 'sample-data/national-table.csv', '--employment', join(dir, 'huge.csv'), '--method', 'slq');
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/huge\.csv.*limit/);
+    expect(r.err.trim().split('\n').length).toBeLessThanOrEqual(3);
+    const s = await run('scenario', 'sample-data/fernhollow-county.csv', '--shock', join(dir, 'huge.csv'));
+    expect(s.code).toBe(2);
+    expect(s.err).toMatch(/huge\.csv.*limit/);
+  });
+
+  it('a folder and a missing file are named as such', async () => {
+    const folder = await run('aggregate', dir, '--groups', 'sample-data/fernhollow-groups.csv');
+    expect(folder.code).toBe(2);
+    expect(folder.err).toMatch(/is a folder, not a file/);
+    const missing = await run('analyze', join(dir, 'absent.csv'));
+    expect(missing.code).toBe(2);
+    expect(missing.err).toMatch(/absent\.csv: no such file/);
+  });
+});
