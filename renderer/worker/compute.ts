@@ -125,6 +125,8 @@ function analyse(pm: PreparedModel): { analysis: AnalysisView; full: Analysis } 
       valueAddedII: at(m.valueAdded.total, j),
       employment: at(m.employment.simple, j),
       employmentII: at(m.employment.total, j),
+      employmentRatioI: at(m.employment.typeI, j),
+      employmentRatioII: at(m.employment.typeII, j),
       backward: b, forward: f,
       linkage: b === null || f === null ? 'undefined' : key.has(j) ? 'key' : b > 1 ? 'backward' : f > 1 ? 'forward' : 'weak',
     };

@@ -54,6 +54,9 @@ export interface MultiplierRow {
   valueAddedII: number | null;
   employment: number | null;
   employmentII: number | null;
+  /** Type I/II employment multipliers as ratios (total jobs per direct job). */
+  employmentRatioI: number | null;
+  employmentRatioII: number | null;
   backward: number | null;
   forward: number | null;
   /** 'key' (both linkages above average), 'backward', 'forward', 'weak', or 'undefined' when linkages cannot be computed. */
