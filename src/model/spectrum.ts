@@ -1,7 +1,8 @@
 /**
  * Full spectrum of A (small tables only) and the long-run behaviour of each eigen-mode. A demand impulse f spreads
  * round by round as A^t f; along an eigenvector the t-th round is λ^t times the first, so λ says what that component
- * does in the long run. Eigenvalues from ml-matrix's EigenvalueDecomposition (Hessenberg reduction and shifted QR,
+ * does in the long run (the modes of x(t+1) = A·x(t); Luenberger, Introduction to Dynamic Systems, 1979, ch. 5,
+ * recalled from memory). Eigenvalues from ml-matrix's EigenvalueDecomposition (Hessenberg reduction and shifted QR,
  * after EISPACK hqr2), O(n³): only for n ≤ SPECTRUM_MAX_SECTORS; larger tables use the Perron root alone.
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
