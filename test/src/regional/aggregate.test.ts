@@ -8,8 +8,8 @@ import { matrix, multiply, transpose } from 'mathjs';
 import { aggregateTable, parseGroupMapping } from '../../../src/regional/index.ts';
 import { coefficients } from '../../../src/model/coefficients.ts';
 import { prepareModel, solveOpen, solveOpenTransposed } from '../../../src/model/prepared.ts';
-import { InputError } from '../../../src/diagnostics/errors.ts';
 import { buildTable, expectClose, rows, type TableSpec } from './build-table.ts';
+import { refusal } from '../../support/refusal.ts';
 
 function randomSpec(n: number, seed: number): TableSpec {
   let s = seed;
@@ -28,16 +28,6 @@ function randomSpec(n: number, seed: number): TableSpec {
 }
 
 const MAP5 = 'sector,group\nS0,Primary\nS1,Making\nS2,Primary\nS3,Services\nS4,Making\n';
-
-function refusal(f: () => unknown): InputError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof InputError) return e;
-    throw e;
-  }
-  throw new Error('expected a refusal');
-}
 
 describe('aggregation', () => {
   const t = buildTable(randomSpec(5, 42));

@@ -6,20 +6,10 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { ras, rasFeasibility } from '../../../src/regional/index.ts';
-import { InputError } from '../../../src/diagnostics/errors.ts';
 import { expectClose } from './build-table.ts';
+import { refusal } from '../../support/refusal.ts';
 
 const f64 = (a: number[]) => Float64Array.from(a);
-
-function refusal(f: () => unknown): InputError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof InputError) return e;
-    throw e;
-  }
-  throw new Error('expected a refusal');
-}
 
 describe('worked examples', () => {
   it('2×2 with A⁰ = [[2,1],[1,2]], u = (4,6), v = (5,5): x11 solves 3a² − 37a + 80 = 0 (cross-product ratio 4)', () => {

@@ -5,21 +5,12 @@ import fc from 'fast-check';
 import { regionalize, parseEmploymentCsv, employmentTemplate, REGIONAL_IMPORT_LABEL, type EmploymentInput } from '../../../src/regional/index.ts';
 import { coefficients } from '../../../src/model/coefficients.ts';
 import { prepareModel, solveOpenTransposed } from '../../../src/model/prepared.ts';
-import { InputError, formatLocated } from '../../../src/diagnostics/errors.ts';
+import { formatLocated } from '../../../src/diagnostics/errors.ts';
 import { THREE, buildTable, expectClose } from './build-table.ts';
+import { refusal } from '../../support/refusal.ts';
 
 const EMP_CSV = 'sector,regional,national\nFarming,20,100\nMaking,10,200\nServices,70,700\n';
 const emp = (csv = EMP_CSV): EmploymentInput => parseEmploymentCsv(csv, 'emp.csv');
-
-function refusal(f: () => unknown): InputError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof InputError) return e;
-    throw e;
-  }
-  throw new Error('expected a refusal');
-}
 
 describe('SLQ regional table (hand computation)', () => {
   const res = regionalize(THREE, emp(), { method: 'slq' });

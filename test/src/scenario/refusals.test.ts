@@ -1,16 +1,12 @@
 // Every refusal named in the scenario requirements, with its location (shock-file line, sector label).
 import { describe, it, expect } from 'vitest';
-import { InputError, formatLocated } from '../../../src/diagnostics/errors.ts';
+import { formatLocated } from '../../../src/diagnostics/errors.ts';
 import { prepareModel } from '../../../src/model/prepared.ts';
 import { compareScenarios, parseShockCsv, resolveShock, runScenario, spreadPattern, type Scenario } from '../../../src/scenario/index.ts';
 import { county4 } from './tables.ts';
+import { refusal } from '../../support/refusal.ts';
 
 const pm = prepareModel(county4());
-
-function refusal(fn: () => unknown): InputError {
-  try { fn(); } catch (e) { if (e instanceof InputError) return e; throw e; }
-  throw new Error('expected a refusal');
-}
 
 describe('scenario refusals', () => {
   it('unknown sector, located at the shock-file line', () => {
