@@ -5,8 +5,8 @@
 import { reactive, watch } from 'vue';
 import { getBridge } from '../bridge/index.ts';
 import { engine, CancelledError, EngineError } from '../worker/client.ts';
-import type { AnalysisView, TableInfo } from '../worker/protocol.ts';
-import type { PreviewView, ScenarioView, ScenarioDraft, TableSource } from '../worker/compute.ts';
+import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, TableInfo, TableSource } from '../worker/protocol.ts';
+import type { ScenarioDraft } from '../worker/protocol.ts';
 import { History } from './history.ts';
 
 export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional';
@@ -31,8 +31,10 @@ export const app = reactive({
   scenarios: [] as ScenarioDraft[],
   selected: 0,
   results: [] as (ScenarioView | { error: string } | null)[],
-  /** Type II: include the household closure in scenario results and multipliers. */
+  /** Type II: include the household closure in scenario results and multipliers (the study's closure setting). */
   closure: true,
+  /** Sector the structural paths go to (the study's setting); null: the most affected sector not shocked itself. */
+  pathDestination: null as string | null,
   /** True while the scenario list is only the example the app made itself (replaced when the table changes). */
   starterOnly: false,
   dirty: false,
@@ -139,6 +141,7 @@ export async function useTable(source: TableSource): Promise<boolean> {
     app.analysis = r.analysis;
     app.importError = null;
     app.draft = null;
+    if (app.pathDestination !== null && !r.table.sectors.includes(app.pathDestination)) app.pathDestination = null;
     if (app.starterOnly) {
       app.scenarios = [r.starter];
       app.selected = 0;
@@ -196,6 +199,11 @@ export function redo(): void {
   markDirty(true);
 }
 
+/** The screen's choices as the study's settings. */
+export function choices(): StudyChoices {
+  return { closure: app.closure ? 'households' : 'none', destination: app.pathDestination };
+}
+
 let recomputeSeq = 0;
 /** Results follow the inputs: every change of scenarios, closure or table recomputes them (cheap solves). */
 export async function recomputeAll(): Promise<void> {
@@ -204,7 +212,7 @@ export async function recomputeAll(): Promise<void> {
   const out: (ScenarioView | { error: string } | null)[] = [];
   for (const s of app.scenarios) {
     try {
-      out.push(await engine().call('runScenario', { scenario: JSON.parse(JSON.stringify(s)) as ScenarioDraft, closure: app.closure }, 'Computing scenario effects…'));
+      out.push(await engine().call('runScenario', { scenario: JSON.parse(JSON.stringify(s)) as ScenarioDraft, choices: choices() }, 'Computing scenario effects…'));
     } catch (e) {
       if (e instanceof CancelledError) return;
       out.push({ error: messageOf(e) });

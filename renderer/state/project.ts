@@ -4,8 +4,8 @@
  */
 import { getBridge } from '../bridge/index.ts';
 import { engine, CancelledError } from '../worker/client.ts';
-import { app, markDirty, messageOf, recomputeAll, resetHistory, say } from './app.ts';
-import type { ScenarioDraft } from '../worker/compute.ts';
+import { app, choices, markDirty, messageOf, recomputeAll, resetHistory, say } from './app.ts';
+import type { ScenarioDraft } from '../worker/protocol.ts';
 
 function suggestedName(): string {
   if (app.project?.name) return app.project.name;
@@ -17,7 +17,7 @@ export async function projectText(): Promise<string> {
   return engine().call('saveProject', {
     name: (app.project?.name ?? app.table?.name ?? 'project').replace(/\.roundwise$/, ''),
     scenarios: JSON.parse(JSON.stringify(app.scenarios)) as ScenarioDraft[],
-    closure: app.closure,
+    choices: choices(),
     active: app.selected,
   }, 'Writing the project…');
 }
@@ -47,7 +47,8 @@ export async function applyProject(text: string, fileName: string, path?: string
     app.source = null;
     app.scenarios = r.scenarios;
     app.selected = r.active;
-    app.closure = r.closure;
+    app.closure = r.choices.closure === 'households';
+    app.pathDestination = r.choices.destination;
     app.importError = null;
     app.draft = null;
     app.project = { name: fileName, ...(path ? { path } : {}) };

@@ -4,8 +4,29 @@
  * reason, never NaN.
  */
 import type { api } from './compute.ts';
+import type { Closure, LinkageClass, MeasureKey, RoleMap, Scenario, Variable } from '../../src/study/index.ts';
 
 export type EngineApi = typeof api;
+
+/** A scenario as the screens edit it (lines still being typed included). */
+export type ScenarioDraft = Scenario;
+
+/** Where a table came from: enough to import it again (the study keeps its bytes and these settings). */
+export interface TableSource {
+  text: string;
+  fileName: string;
+  roles?: Partial<RoleMap>;
+  layout?: string | undefined;
+  /** Table name; defaults to the file name. */
+  name?: string;
+}
+
+/** The screen's choices that the study keeps in its settings. */
+export interface StudyChoices {
+  closure: Closure;
+  /** Sector the structural paths go to; null: the most affected sector not shocked itself. */
+  destination: string | null;
+}
 
 export interface Ratio {
   value: number | null;
@@ -43,24 +64,18 @@ export interface Verdict {
 export interface MultiplierRow {
   sector: string;
   index: number;
-  output: number | null;
-  outputII: number | null;
-  income: number | null;
-  incomeII: number | null;
-  /** Type I/II income multipliers as ratios (total income change per unit of direct income change). */
-  incomeRatioI: number | null;
-  incomeRatioII: number | null;
-  valueAdded: number | null;
-  valueAddedII: number | null;
-  employment: number | null;
-  employmentII: number | null;
-  /** Type I/II employment multipliers as ratios (total jobs per direct job). */
-  employmentRatioI: number | null;
-  employmentRatioII: number | null;
-  backward: number | null;
-  forward: number | null;
-  /** 'key' (both linkages above average), 'backward', 'forward', 'weak', or 'undefined' when linkages cannot be computed. */
-  linkage: 'key' | 'backward' | 'forward' | 'weak' | 'undefined';
+  /** Every multiplier and linkage index by its one name (src/report measures), null where undefined. */
+  values: Record<MeasureKey, number | null>;
+  /** Rasmussen class, or 'undefined' when the linkages cannot be computed. */
+  linkage: LinkageClass | 'undefined';
+}
+
+export interface MeasureView {
+  key: MeasureKey;
+  label: string;
+  unit: string;
+  model: 'open' | 'closed';
+  jobsPerMoney?: true;
 }
 
 export interface Eigen {
@@ -81,10 +96,10 @@ export interface AnalysisView {
   verdict: Verdict;
   perron: { value: number | null; lower: number | null; upper: number | null; reason?: string };
   hawkinsSimon: boolean | null;
-  /** Rounds of spending needed for 99 % of the total effect, or null with a reason. */
-  rounds99: Ratio;
-  /** Share of the total effect reached after each round, for a unit of demand spread as final demand. */
-  rounds: { round: number; added: number; cumulative: number }[];
+  /** The round by which 99 % of the open-model total is reached (round 0 = the demand itself), or null with a reason. */
+  reach99: Ratio;
+  /** One unit of final demand in every sector: output added in each round and the share of the open-model total reached. */
+  rounds: { round: number; added: number; reached: number }[];
   spectrum: Eigen[];
   spectrumNote?: string;
   blocks: Block[];
@@ -98,10 +113,80 @@ export interface AnalysisView {
   perronClosed: number | null;
   /** Condition estimate of I − A, or null. */
   condition: number | null;
+  measures: MeasureView[];
   multipliers: MultiplierRow[];
   hasTypeII: boolean;
+  /** Why there is no Type II model, or null. */
+  typeIIReason: string | null;
   /** Average output multipliers, for the headline. */
   meanOutput: number | null;
   meanOutputII: number | null;
   notes: string[];
+}
+
+export interface PreviewView {
+  fileName: string;
+  layout: string;
+  sectors: string[];
+  rows: { label: string; role: string }[];
+  columns: { label: string; role: string }[];
+  rowRoles: readonly string[];
+  columnRoles: readonly string[];
+  /** First cells of the file, as read. */
+  cells: string[][];
+  /** Purchases are null when the table has no value-added or import rows. */
+  balance: { sector: string; inputs: number | null; output: number; gap: number; relative: number }[];
+  balanced: boolean;
+  tolerance: number;
+  outputSource: string | null;
+  warnings: string[];
+  /** Why the file, as it stands, would be refused (located), or null. */
+  refusal: string | null;
+}
+
+export interface EffectView {
+  direct: number[];
+  indirect: number[];
+  induced: number[] | null;
+  total: number[];
+  totals: { direct: number; indirect: number; induced: number | null; total: number };
+  typeI: number | null;
+  typeII: number | null;
+}
+
+export interface ScenarioView {
+  name: string;
+  sectors: string[];
+  moneyUnit: string;
+  closure: 'household' | 'none';
+  /** Why there are no induced effects, or null when there are. */
+  inducedReason: string | null;
+  effects: Record<Variable, EffectView | null>;
+  /** Output of each round (open model) and the share of the open-model total reached after it. */
+  rounds: { round: number; output: number; reached: number }[];
+  /** The round by which 99 % of the open-model total is reached, or null. */
+  reach99: number | null;
+  roundsComputed: number;
+  /** Sectors whose output is fixed from outside: round 0 holds the demand that produces it, not the direct effect. */
+  roundZeroFixed: string[];
+  effectiveDemand: number[];
+  notes: string[];
+}
+
+export interface PathsView {
+  destination: string;
+  model: 'open' | 'closed';
+  total: number;
+  explainedShare: number | null;
+  truncated: boolean;
+  paths: { labels: string[]; contribution: number; share: number | null; direct: number; pathMultiplier: number }[];
+}
+
+export interface GridView {
+  which: 'Z' | 'A' | 'L';
+  n: number;
+  sectors: string[];
+  /** Row-major n×n values. */
+  values: Float64Array;
+  max: number;
 }

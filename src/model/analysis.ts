@@ -6,8 +6,8 @@
  */
 import type { Warning } from '../diagnostics/errors.ts';
 import type { IOTable } from '../table/types.ts';
-import { identityMinus, luInverse } from '../linalg/index.ts';
-import { conditionEstimate1, scaledResidual, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF } from '../linalg/checks.ts';
+import { conditionEstimate1, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF } from '../linalg/checks.ts';
+import { formLeontief } from './leontief.ts';
 import { coefficients } from './coefficients.ts';
 import { closedBorder, prepareModel, solveClosed, type PreparedModel } from './prepared.ts';
 import { sectorBlocks } from './graph.ts';
@@ -108,6 +108,12 @@ export interface Analysis {
   series: SeriesVerdict;
   multipliers: Multipliers;
   linkages: Linkages;
+  /**
+   * The one decision on which models results may use: the open model when the table is productive, the
+   * household-closed model when it is productive too; otherwise the reason. Multipliers, scenarios and every front
+   * end read it from here.
+   */
+  availability: Availability;
   /** Explicit L = (I − A)⁻¹, n×n row-major, only when asked for (`inverse: true`) and the table is productive. */
   leontief: Float64Array | null;
   checks: AccuracyChecks;
@@ -265,11 +271,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
       const r = openSolveResidual(A, n, Float64Array.from(linkages.rowSums as number[]), new Float64Array(n).fill(1), norm);
       residual = Number.isFinite(r) ? r : null;
     }
-    if (opts.inverse && productive) {
-      leontief = luInverse(openLU);
-      const r = scaledResidual(identityMinus(A, n), leontief, n);
-      inverseResidual = Number.isFinite(r) ? r : null;
-    }
+    if (opts.inverse && productive) ({ L: leontief, residual: inverseResidual } = formLeontief(pm));
     if (closed && closedProductive) {
       const m = closed.m;
       const ones = new Float64Array(m).fill(1);
@@ -346,6 +348,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     series,
     multipliers,
     linkages,
+    availability: avail,
     leontief,
     checks: { solveResidual: residual, inverseResidual, closedSolveResidual: closedResidual, condition, residualThreshold: RESIDUAL_THRESHOLD },
     warnings,

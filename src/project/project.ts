@@ -1,31 +1,41 @@
 /**
- * Project files: one JSON document per study — the imported table (with its source file name and SHA-256), the role
- * map, scenarios, spending patterns and settings. Results are never stored; `projectResults` recomputes them, and
- * load → save → results is bit-for-bit identical (numbers are written in shortest round-trip form, −0 kept).
+ * Project files: one JSON document per study — the source file as read (its bytes, name, SHA-256 and the import
+ * settings: layout, role map, options), the scenarios, spending patterns and settings (household closure, paths,
+ * rounds). Results are never stored. Loading re-imports the source bytes through the table importer, so a project
+ * passes exactly the validations a table file does, and compares the bytes with their recorded SHA-256; studies from
+ * older versions that kept only the imported numbers are checked by the importer's whole-table validations instead.
  * Loading refuses, with one clear message, a file that is empty, truncated, not JSON, not a Roundwise project,
  * from a newer version, or inconsistent; the caller keeps the file on disk untouched.
- * The save itself (temporary file, then rename) is the caller's: src/cli/io.ts `writeFileAtomic`, or the desktop shell.
+ * The save itself (temporary file, then rename) is the caller's: the CLI's writer or the desktop shell.
  */
-import { InputError } from '../diagnostics/errors.ts';
-import { prepareModel } from '../model/prepared.ts';
-import { runScenario } from '../scenario/effects.ts';
-import type { Scenario, ScenarioResult, SpendingPattern } from '../scenario/types.ts';
+import { InputError, type Warning } from '../diagnostics/errors.ts';
+import { importTable, type ImportOptions } from '../table/index.ts';
+import type { Scenario, SpendingPattern } from '../scenario/types.ts';
 import type { IOTable, LabelledVector } from '../table/types.ts';
 import { writeJson, type Json } from './json.ts';
 import {
-  DEFAULT_SETTINGS, PROJECT_FORMAT, PROJECT_VERSION, migrateV1, projectV1Schema, projectV2Schema, type ProjectV2Doc,
+  DEFAULT_SETTINGS, PROJECT_FORMAT, PROJECT_VERSION, migrateV1, migrateV2, projectV1Schema, projectV2Schema, projectV3Schema,
+  type ProjectV2Doc, type ProjectV3Doc,
 } from './schema.ts';
 import { sha256Hex } from './sha256.ts';
+import { fromBase64, toBase64 } from './base64.ts';
 
 export { PROJECT_FORMAT, PROJECT_VERSION } from './schema.ts';
 
-export type ProjectSettings = ProjectV2Doc['settings'];
+export type ProjectSettings = ProjectV3Doc['settings'];
+
+/** How a source file was imported: everything importTable needs besides the text and the file name. */
+export type ImportSettings = Omit<ImportOptions, 'fileName' | 'delimiter' | 'decimalMark' | 'moneyUnit'>;
 
 export interface SourceInfo {
   fileName: string;
   /** Lower-case hex SHA-256 of the source file's bytes. */
   sha256: string;
   bytes?: number;
+  /** The file's bytes as read, when the study has them (a study opened from a table file). */
+  content?: Uint8Array;
+  /** The import settings used on `content`. */
+  import?: ImportSettings;
 }
 
 export interface Project {
@@ -38,12 +48,21 @@ export interface Project {
   settings: ProjectSettings;
 }
 
-export function sourceInfo(fileName: string, bytes: Uint8Array): SourceInfo {
-  return { fileName, sha256: sha256Hex(bytes), bytes: bytes.length };
+const utf8 = new TextDecoder('utf-8');
+const strictUtf8 = new TextDecoder('utf-8', { fatal: true });
+
+/** Source information for a file's bytes; with `keep`, the bytes themselves travel with the study. */
+export function sourceInfo(fileName: string, bytes: Uint8Array, keep?: { import: ImportSettings }): SourceInfo {
+  return { fileName, sha256: sha256Hex(bytes), bytes: bytes.length, ...(keep ? { content: bytes, import: keep.import } : {}) };
+}
+
+/** Import a table from the source's own bytes and settings (the one way a kept source becomes a table). */
+export function importSource(source: SourceInfo & { content: Uint8Array }): IOTable {
+  return importTable(utf8.decode(source.content), { fileName: source.fileName, ...source.import });
 }
 
 export function defaultSettings(): ProjectSettings {
-  return { paths: { ...DEFAULT_SETTINGS.paths }, rounds: { ...DEFAULT_SETTINGS.rounds }, activeScenario: null };
+  return { closure: DEFAULT_SETTINGS.closure, paths: { ...DEFAULT_SETTINGS.paths }, rounds: { ...DEFAULT_SETTINGS.rounds }, activeScenario: null };
 }
 
 export function createProject(table: IOTable, opts: { name?: string; source?: SourceInfo | null; scenarios?: Scenario[]; patterns?: SpendingPattern[] } = {}): Project {
@@ -62,28 +81,59 @@ export function createProject(table: IOTable, opts: { name?: string; source?: So
 const arr = (v: Float64Array): number[] => Array.from(v);
 const labelledDoc = (vs: LabelledVector[]) => vs.map((v) => ({ label: v.label, values: arr(v.values) }));
 
-function toDoc(p: Project): ProjectV2Doc {
+function tableDoc(t: IOTable): NonNullable<ProjectV3Doc['table']> {
+  return {
+    name: t.name,
+    sectors: [...t.sectors],
+    moneyUnit: t.moneyUnit,
+    layout: t.layout,
+    Z: arr(t.Z),
+    x: arr(t.x),
+    labourIncome: labelledDoc(t.labourIncome),
+    otherValueAdded: labelledDoc(t.otherValueAdded),
+    imports: labelledDoc(t.imports),
+    employment: t.employment ? arr(t.employment) : null,
+    householdConsumption: labelledDoc(t.householdConsumption),
+    otherFinalDemand: labelledDoc(t.otherFinalDemand),
+    warnings: t.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.location ? { location: { ...w.location } } : {}) })),
+  };
+}
+
+function contentDoc(bytes: Uint8Array): { encoding: 'utf-8' | 'base64'; data: string } {
+  try {
+    return { encoding: 'utf-8', data: strictUtf8.decode(bytes) };
+  } catch {
+    return { encoding: 'base64', data: toBase64(bytes) };
+  }
+}
+
+function importDoc(s: ImportSettings | undefined): NonNullable<ProjectV3Doc['source']>['import'] {
+  const i = s ?? {};
+  return {
+    ...(i.layout !== undefined ? { layout: i.layout } : {}),
+    ...(i.roles !== undefined ? { roles: { rows: { ...(i.roles.rows ?? {}) }, columns: { ...(i.roles.columns ?? {}) } } } : {}),
+    ...(i.allowNegative !== undefined ? { allowNegative: i.allowNegative } : {}),
+    ...(i.balanceTolerance !== undefined ? { balanceTolerance: i.balanceTolerance } : {}),
+    ...(i.name !== undefined ? { name: i.name } : {}),
+  };
+}
+
+function toDoc(p: Project): ProjectV3Doc {
   const t = p.table;
+  const src = p.source;
   return {
     format: PROJECT_FORMAT,
-    version: 2,
+    version: 3,
     name: p.name,
-    source: p.source ? { fileName: p.source.fileName, sha256: p.source.sha256, ...(p.source.bytes !== undefined ? { bytes: p.source.bytes } : {}) } : null,
-    table: {
-      name: t.name,
-      sectors: [...t.sectors],
-      moneyUnit: t.moneyUnit,
-      layout: t.layout,
-      Z: arr(t.Z),
-      x: arr(t.x),
-      labourIncome: labelledDoc(t.labourIncome),
-      otherValueAdded: labelledDoc(t.otherValueAdded),
-      imports: labelledDoc(t.imports),
-      employment: t.employment ? arr(t.employment) : null,
-      householdConsumption: labelledDoc(t.householdConsumption),
-      otherFinalDemand: labelledDoc(t.otherFinalDemand),
-      warnings: t.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.location ? { location: { ...w.location } } : {}) })),
-    },
+    source: src ? {
+      fileName: src.fileName,
+      sha256: src.sha256,
+      ...(src.bytes !== undefined ? { bytes: src.bytes } : {}),
+      import: importDoc(src.import),
+      ...(src.content ? { content: contentDoc(src.content) } : {}),
+    } : null,
+    // The numbers only when the source bytes are not at hand: otherwise the table is re-imported from them.
+    ...(src?.content ? {} : { table: tableDoc(t) }),
     roles: { rows: { ...t.roles.rows }, columns: { ...t.roles.columns } },
     // Line origins (shock-file lines) describe where a line was typed, not the study: they are not saved.
     scenarios: p.scenarios.map((s) => ({
@@ -95,7 +145,7 @@ function toDoc(p: Project): ProjectV2Doc {
       })),
     })),
     patterns: p.patterns.map((pt) => ({ name: pt.name, shares: pt.shares.map((s) => ({ sector: s.sector, share: s.share })) })),
-    settings: { paths: { ...p.settings.paths }, rounds: { ...p.settings.rounds }, activeScenario: p.settings.activeScenario },
+    settings: { closure: p.settings.closure, paths: { ...p.settings.paths }, rounds: { ...p.settings.rounds }, activeScenario: p.settings.activeScenario },
   };
 }
 
@@ -177,8 +227,7 @@ function invalid(file: string, path: string, message: string): InputError {
   return new InputError('project-invalid', `the project file is damaged or was edited by hand: ${path}: ${message}`, { file });
 }
 
-function checkV2(d: ProjectV2Doc, file: string): void {
-  const t = d.table;
+function checkTableDoc(t: NonNullable<ProjectV3Doc['table']>, file: string): void {
   const n = t.sectors.length;
   if (new Set(t.sectors).size !== n) throw invalid(file, 'table.sectors', 'sector labels repeat');
   if (t.Z.length !== n * n) throw invalid(file, 'table.Z', `expected ${n * n} flows for ${n} sectors, found ${t.Z.length}`);
@@ -189,7 +238,10 @@ function checkV2(d: ProjectV2Doc, file: string): void {
       if (v.values.length !== n) throw invalid(file, `table.${key}[${k}].values`, `expected ${n} values, found ${v.values.length}`);
     });
   }
-  const known = new Set(t.sectors);
+}
+
+function checkSectors(d: ProjectV3Doc, sectors: readonly string[], file: string): void {
+  const known = new Set(sectors);
   d.scenarios.forEach((s, i) => s.lines.forEach((l, j) => {
     if (!known.has(l.sector)) throw invalid(file, `scenarios[${i}].lines[${j}].sector`, `unknown sector '${l.sector}'`);
   }));
@@ -198,11 +250,10 @@ function checkV2(d: ProjectV2Doc, file: string): void {
   }));
 }
 
-function fromDoc(d: ProjectV2Doc): Project {
-  const t = d.table;
+function tableFromDoc(t: NonNullable<ProjectV3Doc['table']>, roles: ProjectV3Doc['roles']): IOTable {
   const f64 = (v: number[]) => Float64Array.from(v);
   const labelledVec = (vs: { label: string; values: number[] }[]) => vs.map((v) => ({ label: v.label, values: f64(v.values) }));
-  const table: IOTable = {
+  return {
     name: t.name,
     sectors: t.sectors,
     n: t.sectors.length,
@@ -216,10 +267,55 @@ function fromDoc(d: ProjectV2Doc): Project {
     otherFinalDemand: labelledVec(t.otherFinalDemand),
     moneyUnit: t.moneyUnit,
     layout: t.layout,
-    roles: d.roles,
+    roles,
     warnings: t.warnings,
   };
-  return { name: d.name, source: d.source, table, scenarios: d.scenarios, patterns: d.patterns, settings: d.settings };
+}
+
+/** The source's bytes from the document, with their recorded hash checked (a mismatch is said, not hidden). */
+function sourceFromDoc(src: NonNullable<ProjectV3Doc['source']>, file: string): { source: SourceInfo; warning: Warning | null } {
+  const base: SourceInfo = { fileName: src.fileName, sha256: src.sha256, ...(src.bytes !== undefined ? { bytes: src.bytes } : {}), import: src.import as ImportSettings };
+  if (!src.content) return { source: base, warning: null };
+  const bytes = src.content.encoding === 'utf-8' ? new TextEncoder().encode(src.content.data) : fromBase64(src.content.data);
+  if (!bytes) throw invalid(file, 'source.content.data', 'not valid base64');
+  const actual = sha256Hex(bytes);
+  const warning: Warning | null = actual === src.sha256 ? null : {
+    code: 'source-changed',
+    message: `the table stored in this project does not match the SHA-256 recorded when it was saved (${src.sha256.slice(0, 12)}… recorded, ${actual.slice(0, 12)}… found): it was changed outside Roundwise; the stored table is used as it is now`,
+    location: { file },
+  };
+  return { source: { ...base, sha256: actual, bytes: bytes.length, content: bytes }, warning };
+}
+
+function fromDoc(d: ProjectV3Doc, file: string, notes: string[]): Project {
+  let source: SourceInfo | null = null;
+  let table: IOTable;
+  const found = d.source ? sourceFromDoc(d.source, file) : null;
+  if (found?.source.content) {
+    source = found.source;
+    try {
+      table = importSource(source as SourceInfo & { content: Uint8Array });
+    } catch (e) {
+      if (e instanceof InputError) {
+        throw new InputError('project-invalid', `the table stored in the project cannot be read: ${e.message}`, { ...e.location, file: `${file} (table ${source.fileName})` });
+      }
+      throw e;
+    }
+    if (found.warning) table.warnings.unshift(found.warning);
+  } else {
+    if (!d.table) throw invalid(file, 'table', 'the project holds neither the source file nor the table');
+    checkTableDoc(d.table, file);
+    source = found?.source ?? null;
+    table = tableFromDoc(d.table, d.roles);
+  }
+  for (const message of notes) table.warnings.push({ code: 'project-migrated', message, location: { file } });
+  checkSectors(d, table.sectors, file);
+  return { name: d.name, source, table, scenarios: d.scenarios, patterns: d.patterns, settings: d.settings };
+}
+
+function parsed<T>(r: { success: true; data: T } | { success: false; error: { issues: { path: PropertyKey[]; message: string }[] } }, file: string): T {
+  if (!r.success) throw invalid(file, pathText(r.error.issues[0]!.path), r.error.issues[0]!.message);
+  return r.data;
 }
 
 /**
@@ -238,26 +334,25 @@ export function parseProject(text: string, fileName = 'project'): Project {
   if (version > PROJECT_VERSION) {
     throw new InputError('project-newer', `the project was saved by a newer Roundwise (project version ${version}; this one reads up to ${PROJECT_VERSION}) — open it there, or update`, { file: fileName });
   }
-  let doc: ProjectV2Doc;
-  if (version === 1) {
-    const v1 = projectV1Schema.safeParse(raw);
-    if (!v1.success) throw invalid(fileName, pathText(v1.error.issues[0]!.path), v1.error.issues[0]!.message);
-    const n = v1.data.table.sectors.length;
-    const rows = v1.data.table.Z;
-    const bad = rows.findIndex((r) => r.length !== n);
-    if (rows.length !== n || bad >= 0) throw invalid(fileName, bad >= 0 ? `table.Z[${bad}]` : 'table.Z', `expected ${n} rows of ${n} flows`);
-    doc = migrateV1(v1.data);
+  const notes: string[] = [];
+  let doc: ProjectV3Doc;
+  if (version === 3) {
+    doc = parsed(projectV3Schema.safeParse(raw), fileName);
   } else {
-    const v2 = projectV2Schema.safeParse(raw);
-    if (!v2.success) throw invalid(fileName, pathText(v2.error.issues[0]!.path), v2.error.issues[0]!.message);
-    doc = v2.data;
+    let v2: ProjectV2Doc;
+    if (version === 1) {
+      const v1 = parsed(projectV1Schema.safeParse(raw), fileName);
+      const n = v1.table.sectors.length;
+      const rows = v1.table.Z;
+      const bad = rows.findIndex((r) => r.length !== n);
+      if (rows.length !== n || bad >= 0) throw invalid(fileName, bad >= 0 ? `table.Z[${bad}]` : 'table.Z', `expected ${n} rows of ${n} flows`);
+      v2 = migrateV1(v1);
+    } else {
+      v2 = parsed(projectV2Schema.safeParse(raw), fileName);
+    }
+    const m = migrateV2(v2);
+    doc = m.doc;
+    notes.push(m.note);
   }
-  checkV2(doc, fileName);
-  return fromDoc(doc);
-}
-
-/** Recompute every scenario of the project (results are never stored). */
-export function projectResults(p: Project): ScenarioResult[] {
-  const pm = prepareModel(p.table);
-  return p.scenarios.map((s) => runScenario(pm, s));
+  return fromDoc(doc, fileName, notes);
 }

@@ -1,12 +1,14 @@
 /**
- * Project file schemas, checked with zod on load. Version 2 is current; version 1 (the first layout: nested flow rows,
- * flat source fields, `roleMap`, `share` on scenario lines, no spending patterns) is migrated on load.
+ * Project file schemas, checked with zod on load. Version 3 is current: the study's source file itself (its bytes,
+ * hash and import settings) instead of the imported numbers, and the household closure as a setting of its own.
+ * Version 2 (imported numbers; closure only implied by the path model) and version 1 (nested flow rows, flat source
+ * fields, `roleMap`, `share` on scenario lines, no spending patterns) are migrated on load.
  * A new version: add its schema here, a `migrateVn` from the previous one, and bump PROJECT_VERSION.
  */
 import { z } from '../schema/zod.ts';
 
 export const PROJECT_FORMAT = 'roundwise-project';
-export const PROJECT_VERSION = 2;
+export const PROJECT_VERSION = 3;
 
 const num = z.number();
 const rowRole = z.enum(['labourIncome', 'otherValueAdded', 'imports', 'employment', 'totalInput', 'ignore']);
@@ -86,11 +88,87 @@ export const projectV1Schema = z.object({
 });
 export type ProjectV1Doc = z.infer<typeof projectV1Schema>;
 
-export const DEFAULT_SETTINGS: ProjectV2Doc['settings'] = {
-  paths: { destination: null, maxLength: 6, minShare: 1e-4, maxPaths: 20, model: 'open' },
-  rounds: { maxRounds: 200 },
+// ---- version 3 (current) ----
+const importSettings = z.object({
+  layout: z.enum(['matrix', 'long', 'coefficients']).optional(),
+  roles: roleMapSchema.partial().optional(),
+  allowNegative: z.boolean().optional(),
+  balanceTolerance: num.positive().optional(),
+  name: z.string().optional(),
+});
+/** The source file as read: UTF-8 text when the bytes are valid UTF-8, else base64 of the bytes. */
+const contentV3 = z.object({ encoding: z.enum(['utf-8', 'base64']), data: z.string() });
+export const settingsV3Schema = z.object({
+  closure: z.enum(['households', 'none']),
+  paths: z.object({
+    destination: z.string().nullable(),
+    maxLength: z.number().int().min(1).max(50),
+    minShare: num.min(0).max(1),
+    maxPaths: z.number().int().min(1).max(10_000),
+  }),
+  rounds: z.object({
+    maxRounds: z.number().int().min(1).max(10_000),
+    /** Relative tolerance of the analysis' rounds-to-tolerance certificate. */
+    tolerance: num.positive().lt(1),
+  }),
+  activeScenario: z.string().nullable(),
+});
+export const projectV3Schema = z.object({
+  format: z.literal(PROJECT_FORMAT),
+  version: z.literal(3),
+  name: z.string(),
+  source: z.object({
+    fileName: z.string(),
+    sha256: hash,
+    bytes: z.number().int().min(0).optional(),
+    import: importSettings,
+    content: contentV3.optional(),
+  }).nullable(),
+  /** The imported numbers, stored only when the source file itself is not (studies migrated from version 2). */
+  table: z.object(tableFields(z.array(num))).optional(),
+  roles: roleMapSchema,
+  scenarios: z.array(scenarioV2),
+  patterns: z.array(patternV2),
+  settings: settingsV3Schema,
+});
+export type ProjectV3Doc = z.infer<typeof projectV3Schema>;
+
+export const DEFAULT_SETTINGS: ProjectV3Doc['settings'] = {
+  closure: 'households',
+  paths: { destination: null, maxLength: 6, minShare: 1e-4, maxPaths: 20 },
+  rounds: { maxRounds: 200, tolerance: 1e-6 },
   activeScenario: null,
 };
+
+const DEFAULT_V2_SETTINGS: ProjectV2Doc['settings'] = {
+  paths: { ...DEFAULT_SETTINGS.paths, model: 'open' },
+  rounds: { maxRounds: DEFAULT_SETTINGS.rounds.maxRounds },
+  activeScenario: null,
+};
+
+/**
+ * v2 → v3: the numbers stay (no source bytes were kept), the closure becomes a setting. Version 2 recorded it only
+ * as the path model ('closed' when the app had households closed); 'open' was also what the command line wrote for a
+ * household-closed run, so the migrated closure is the path model read literally, and the study says so.
+ */
+export function migrateV2(d: ProjectV2Doc): { doc: ProjectV3Doc; note: string } {
+  const closure = d.settings.paths.model === 'closed' ? 'households' : 'none';
+  const { model: _model, ...paths } = d.settings.paths;
+  return {
+    doc: {
+      format: PROJECT_FORMAT,
+      version: 3,
+      name: d.name,
+      source: d.source ? { fileName: d.source.fileName, sha256: d.source.sha256, ...(d.source.bytes !== undefined ? { bytes: d.source.bytes } : {}), import: { roles: d.roles } } : null,
+      table: d.table,
+      roles: d.roles,
+      scenarios: d.scenarios,
+      patterns: d.patterns,
+      settings: { closure, paths, rounds: { ...d.settings.rounds, tolerance: DEFAULT_SETTINGS.rounds.tolerance }, activeScenario: d.settings.activeScenario },
+    },
+    note: `this project was saved by an earlier version that did not record the household closure separately; it was read as ${closure === 'households' ? 'on' : 'off'} from the saved path model — check the closure setting`,
+  };
+}
 
 /** v1 → v2: flatten the flow rows, gather the source fields, rename roleMap and share, add patterns and settings. */
 export function migrateV1(d: ProjectV1Doc): ProjectV2Doc {
@@ -107,10 +185,6 @@ export function migrateV1(d: ProjectV1Doc): ProjectV2Doc {
       lines: s.lines.map((l) => ({ sector: l.sector, amount: l.amount, kind: l.kind, localShare: l.share, ...(l.note !== undefined ? { note: l.note } : {}) })),
     })),
     patterns: [],
-    settings: structuredCloneSettings(DEFAULT_SETTINGS),
+    settings: { paths: { ...DEFAULT_V2_SETTINGS.paths }, rounds: { ...DEFAULT_V2_SETTINGS.rounds }, activeScenario: null },
   };
-}
-
-function structuredCloneSettings(s: ProjectV2Doc['settings']): ProjectV2Doc['settings'] {
-  return { paths: { ...s.paths }, rounds: { ...s.rounds }, activeScenario: s.activeScenario };
 }

@@ -5,7 +5,9 @@
 import type { Cell } from './csv.ts';
 import { reportFiles, type ReportFile, type ReportMeta } from './document.ts';
 import type { Analysis } from '../model/analysis.ts';
-import type { NullNote, Values } from '../model/multipliers.ts';
+import type { NullNote } from '../model/multipliers.ts';
+import { verdictOf } from './verdict.ts';
+import { LINKAGE_CLASS_NAMES, MEASURES, linkageClass, measureHeader, measureValues } from './measures.ts';
 
 export interface AnalysisReportContext {
   sourceFile?: string;
@@ -48,29 +50,12 @@ function meta(an: Analysis, ctx: AnalysisReportContext, title: string, extra: st
 }
 
 export function multiplierRows(an: Analysis): Cell[][] {
-  const m = an.multipliers;
-  const l = an.linkages;
-  const money = `${an.moneyUnit} per ${an.moneyUnit} of final demand`;
-  const jobs = `jobs per ${an.moneyUnit} of final demand`;
-  const cols: [string, Values][] = [
-    ['output Type I (per unit of final demand)', m.output.typeI],
-    ['output Type II (per unit of final demand)', m.output.typeII],
-    [`labour income simple (${money})`, m.income.simple],
-    ['labour income Type I (ratio)', m.income.typeI],
-    [`labour income total (${money})`, m.income.total],
-    ['labour income Type II (ratio)', m.income.typeII],
-    [`employment simple (${jobs})`, m.employment.simple],
-    ['employment Type I (ratio)', m.employment.typeI],
-    [`employment total (${jobs})`, m.employment.total],
-    ['employment Type II (ratio)', m.employment.typeII],
-    [`value added simple (${money})`, m.valueAdded.simple],
-    [`value added total (${money})`, m.valueAdded.total],
-    ['backward linkage (Rasmussen index)', l.backward],
-    ['forward linkage (Rasmussen index)', l.forward],
-  ];
-  const key = new Set(l.keySectors);
-  const rows: Cell[][] = [['sector', ...cols.map((c) => c[0]), 'key sector (both linkages above 1)']];
-  for (let j = 0; j < an.n; j++) rows.push([an.sectors[j]!, ...cols.map((c) => c[1][j] ?? null), key.has(j) ? 'yes' : 'no']);
+  const rows: Cell[][] = [['sector', ...MEASURES.map((m) => measureHeader(m, an.moneyUnit)), 'linkage class (Rasmussen)', 'key sector (both linkages above 1)']];
+  const columns = MEASURES.map((m) => measureValues(an, m.key));
+  for (let j = 0; j < an.n; j++) {
+    const cls = linkageClass(an, j);
+    rows.push([an.sectors[j]!, ...columns.map((c) => c[j] ?? null), cls === null ? null : LINKAGE_CLASS_NAMES[cls], cls === 'key' ? 'yes' : 'no']);
+  }
   return rows;
 }
 
@@ -141,7 +126,6 @@ export function viabilityRows(an: Analysis): Cell[][] {
   rows.push(['condition estimate of I − A (1-norm)', an.checks.condition, null, null, 'LAPACK-style estimate; above 1e12 the results lose most digits']);
   rows.push(['scaled residual of a solve', an.checks.solveResidual, null, null, `LAPACK xGET02 ratio; above ${an.checks.residualThreshold} the factorisation is suspect`]);
   rows.push(['scaled residual of a household-closed solve', an.checks.closedSolveResidual, null, null, `the same ratio for I − Ā, solved by bordering the open factorisation`]);
-  rows.push(['scaled residual of the inverse', an.checks.inverseResidual, null, null, `LAPACK xGET03 ratio; above ${an.checks.residualThreshold} the factorisation is suspect`]);
   return rows;
 }
 
@@ -160,20 +144,42 @@ export function perronVectorRows(an: Analysis): Cell[][] {
   return rows;
 }
 
-/** All analysis reports: multipliers, coefficients, leontief-inverse (when formed), viability, perron-vectors, spectrum (when computed). */
-export function analysisReports(an: Analysis, ctx: AnalysisReportContext): ReportFile[] {
-  const files: ReportFile[] = [
-    ...reportFiles('multipliers', meta(an, ctx, 'Multipliers and linkages by sector', [
-      'Multipliers after Miller & Blair, Input-Output Analysis, 2nd ed. 2009, ch. 6; linkages after Rasmussen 1956.',
-      'Blank cells are values that cannot be defined (see the notes below).',
-    ]), multiplierRows(an)),
-    ...reportFiles('coefficients', meta(an, ctx, 'Technical and per-unit-output coefficients'), coefficientRows(an)),
-  ];
-  const L = leontiefRows(an);
-  if (L) files.push(...reportFiles('leontief-inverse', meta(an, ctx, 'Leontief inverse (I - A)^-1'), L));
-  files.push(...reportFiles('viability', meta(an, ctx, 'Viability of the table'), viabilityRows(an)));
-  files.push(...reportFiles('perron-vectors', meta(an, ctx, 'Perron vectors of A'), perronVectorRows(an)));
-  const sp = spectrumRows(an);
-  if (sp) files.push(...reportFiles('spectrum', meta(an, ctx, 'Eigenvalues of A and their long-run modes'), sp));
-  return files;
+/** The analysis reports, in the order they are listed and written. */
+export const ANALYSIS_REPORT_KINDS = ['multipliers', 'coefficients', 'leontief-inverse', 'viability', 'perron-vectors', 'spectrum'] as const;
+export type AnalysisReportKind = (typeof ANALYSIS_REPORT_KINDS)[number];
+
+/**
+ * One analysis report as its CSV and sidecar; null when the analysis lacks it (the Leontief inverse when it was not
+ * formed, the spectrum when it was skipped).
+ */
+export function analysisReport(an: Analysis, kind: AnalysisReportKind, ctx: AnalysisReportContext): ReportFile[] | null {
+  switch (kind) {
+    case 'multipliers':
+      return reportFiles('multipliers', meta(an, ctx, 'Multipliers and linkages by sector', [
+        'Multipliers after Miller & Blair, Input-Output Analysis, 2nd ed. 2009, ch. 6; linkages after Rasmussen 1956.',
+        'Blank cells are values that cannot be defined (see the notes below).',
+      ]), multiplierRows(an));
+    case 'coefficients':
+      return reportFiles('coefficients', meta(an, ctx, 'Technical and per-unit-output coefficients'), coefficientRows(an));
+    case 'leontief-inverse': {
+      const L = leontiefRows(an);
+      const r = an.checks.inverseResidual;
+      return L && reportFiles('leontief-inverse', meta(an, ctx, 'Leontief inverse (I - A)^-1', [
+        `Accuracy: scaled residual of the inverse ${r ?? 'n/a'} (LAPACK xGET03 ratio; above ${an.checks.residualThreshold} the factorisation is suspect).`,
+      ]), L);
+    }
+    case 'viability':
+      return reportFiles('viability', meta(an, ctx, 'Viability of the table', verdictLines(an)), viabilityRows(an));
+    case 'perron-vectors':
+      return reportFiles('perron-vectors', meta(an, ctx, 'Perron vectors of A'), perronVectorRows(an));
+    case 'spectrum': {
+      const sp = spectrumRows(an);
+      return sp && reportFiles('spectrum', meta(an, ctx, 'Eigenvalues of A and their long-run modes'), sp);
+    }
+  }
+}
+
+function verdictLines(an: Analysis): string[] {
+  const v = verdictOf(an);
+  return [`Verdict: ${v.say}`, ...v.detail];
 }

@@ -4,8 +4,8 @@
  * Type I and Type II impact analysis (Miller & Blair 2009, ch. 6).
  */
 import { InputError } from '../diagnostics/errors.ts';
-import { conditionEstimate1 } from '../linalg/checks.ts';
-import { closedBorder, solveClosed, solveOpen, type PreparedModel } from '../model/prepared.ts';
+import { solveClosed, solveOpen, type PreparedModel } from '../model/prepared.ts';
+import type { Availability } from '../model/multipliers.ts';
 import { resolveShock } from './lines.ts';
 import { solveMixed } from './mixed.ts';
 import type { EffectSplit, EffectTotals, Ratio, Scenario, ScenarioMultiplier, ScenarioResult } from './types.ts';
@@ -49,67 +49,26 @@ function ratio(num: number, den: number): Ratio {
   return { value: num / den };
 }
 
-function multiplierOf(t: EffectTotals): ScenarioMultiplier {
+function multiplierOf(t: EffectTotals, noClosure: string): ScenarioMultiplier {
   return {
     typeI: ratio(t.direct + t.indirect, t.direct),
-    typeII: t.induced === null ? { value: null, reason: 'the table has no household closure' } : ratio(t.total, t.direct),
+    typeII: t.induced === null ? { value: null, reason: noClosure } : ratio(t.total, t.direct),
   };
 }
 
 /**
- * For A ≥ 0, ρ(A) < 1 exactly when y = (I − A)⁻¹·1 is positive: I − A is a Z-matrix, and a Z-matrix is a nonsingular
- * M-matrix iff some x > 0 has (I − A)x > 0 (Berman & Plemmons, Nonnegative Matrices in the Mathematical Sciences,
- * 1994, ch. 6; recalled from memory). One solve with the factorisation at hand. Null when A has negative entries.
+ * Which models a scenario may use: the open model when the table is productive, the household-closed one when the
+ * closed model is productive and the caller wants it. Decided once per table by the analysis (`Analysis.availability`)
+ * and the study's closure setting, never here, so a scenario can never use a model the analysis rejected.
  */
-function openProductive(pm: PreparedModel): boolean | null {
-  const { A, n } = pm.coef;
-  for (let k = 0; k < A.length; k++) if (A[k]! < 0) return null;
-  const y = solveOpen(pm, new Float64Array(n).fill(1));
-  for (let i = 0; i < n; i++) if (!(y[i]! > 0)) return false;
-  return true;
-}
+export type ScenarioModels = Availability;
 
-/**
- * The household-closed model is usable when its Schur complement s = 1 − ā_hh − h(I − A)⁻¹c is positive: with a
- * productive A ≥ 0 that is exactly ρ(Ā) < 1 (the M-matrix property above applied to the bordered matrix).
- */
-function closedUsable(pm: PreparedModel): boolean {
-  const b = closedBorder(pm);
-  return b !== null && b.s > 0;
-}
-
-/** Above this 1-norm condition estimate of I − A the results may have lost most of their digits (as the analysis warns). */
-const CONDITION_LIMIT = 1e12;
-
-// One estimate per prepared table: it costs several solves, and a planner runs many scenarios on one table.
-const conditionCache = new WeakMap<PreparedModel, number>();
-
-function conditionOfOpen(pm: PreparedModel): number {
-  const cached = conditionCache.get(pm);
-  if (cached !== undefined) return cached;
-  const { A, n } = pm.coef;
-  let norm = 0;
-  for (let j = 0; j < n; j++) {
-    let col = 0;
-    for (let i = 0; i < n; i++) col += Math.abs((i === j ? 1 : 0) - A[i * n + j]!);
-    if (col > norm) norm = col;
-  }
-  const estimate = conditionEstimate1(pm.openLU, norm);
-  conditionCache.set(pm, estimate);
-  return estimate;
-}
-
-export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResult {
+export function runScenario(pm: PreparedModel, scenario: Scenario, models: ScenarioModels): ScenarioResult {
   const shock = resolveShock(pm, scenario);
-  // The UI and projects call this directly, not only the CLI: a singular or unproductive table is a refusal,
-  // not a solver exception or a set of meaningless (negative) effects.
-  if (pm.openLU.singular) {
-    throw new InputError('singular', 'I − A is singular, so the table cannot carry a demand shock (check that every sector has inputs from outside the table, i.e. value added or imports)');
+  if (models.open !== true) {
+    throw new InputError('not-productive', `scenario effects are not defined: ${models.open}; check the table (its viability report says why)`);
   }
-  if (openProductive(pm) === false) {
-    throw new InputError('not-productive', 'the table is not productive (Perron root of A at least 1: the sectors together need more inputs than they produce), so a demand shock has no meaningful effects; see the viability test');
-  }
-  const useClosure = pm.closed !== null && closedUsable(pm);
+  const useClosure = pm.closed !== null && models.closed === true;
   const { n, sectors, h, otherVA, e } = pm.coef;
   const direct = Float64Array.from(shock.df);
   shock.fixed.forEach((j, r) => { direct[j] = shock.fixedOutput[r]!; });
@@ -117,6 +76,7 @@ export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResu
   const open = solveMixed((b) => solveOpen(pm, b), n, shock.df, shock.fixed, shock.fixedOutput);
   let closedOutput: Float64Array | null = null;
   let closedHouseholdIncome: number | null = null;
+  let closedDemand: Float64Array | null = null;
   if (pm.closed && useClosure) {
     const m = pm.closed.m;
     const fbar = new Float64Array(m);
@@ -124,6 +84,7 @@ export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResu
     const closed = solveMixed((b) => solveClosed(pm, b), m, fbar, shock.fixed, shock.fixedOutput);
     closedOutput = closed.x.slice(0, n);
     closedHouseholdIncome = closed.x[n]!;
+    closedDemand = closed.fEffective;
   }
 
   const va = new Float64Array(n);
@@ -141,13 +102,9 @@ export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResu
     employment: employment ? totalsOf(employment) : null,
   };
   const notes: string[] = [];
-  if (!pm.closed) notes.push('The table has no household income or household consumption, so there is no Type II model: induced effects are not available and totals are open-model (Type I) totals.');
-  else if (!useClosure) notes.push('The household-closed model is not productive (households re-spend at least all the income they earn locally), so there is no Type II model: induced effects are not available and totals are open-model (Type I) totals.');
+  const noClosure = models.closed === true ? 'the table has no household income or household consumption' : models.closed;
+  if (!useClosure) notes.push(`No induced effects: ${noClosure}. Totals are open-model (Type I) totals.`);
   if (!e) notes.push('The table has no employment row: employment effects are not available.');
-  const condition = conditionOfOpen(pm);
-  if (!(condition <= CONDITION_LIMIT)) {
-    notes.push(`I − A is ill-conditioned (condition estimate ${Number.isFinite(condition) ? condition.toExponential(2) : 'beyond range'}, limit ${CONDITION_LIMIT.toExponential(0)}): the effects may have lost most of their digits.`);
-  }
   for (let r = 0; r < shock.fixed.length; r++) {
     const j = shock.fixed[r]!;
     notes.push(`Output of '${sectors[j]}' is fixed from outside at ${shortNumber(shock.fixedOutput[r]!)} ${pm.table.moneyUnit} (mixed exogenous/endogenous model); the other sectors respond to its purchases.`);
@@ -162,13 +119,14 @@ export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResu
     closedOutput,
     closedHouseholdIncome,
     effectiveDemand: open.fEffective,
+    closedEffectiveDemand: closedDemand,
     effects: { output, valueAdded, income, employment },
     totals,
     multipliers: {
-      output: multiplierOf(totals.output),
-      valueAdded: multiplierOf(totals.valueAdded),
-      income: multiplierOf(totals.income),
-      employment: totals.employment ? multiplierOf(totals.employment) : null,
+      output: multiplierOf(totals.output, noClosure),
+      valueAdded: multiplierOf(totals.valueAdded, noClosure),
+      income: multiplierOf(totals.income, noClosure),
+      employment: totals.employment ? multiplierOf(totals.employment, noClosure) : null,
     },
     notes,
   };

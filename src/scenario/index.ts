@@ -7,4 +7,3 @@ export { spendingRounds, COVERAGE_TARGETS, type RoundsOptions, type RoundsResult
 export { structuralPaths, HOUSEHOLD_POLE_LABEL, type PathOptions, type PathAnalysis, type StructuralPath } from './paths.ts';
 export { compareScenarios, type ScenarioComparison } from './compare.ts';
 export { parseShockCsv } from './shock-csv.ts';
-export { analyseScenario, type ScenarioAnalysis } from './analysis.ts';

@@ -18,7 +18,9 @@ export const PATTERN_SUM_TOLERANCE = 1e-6;
 
 /**
  * Spread one amount over sectors by a spending pattern. The lines carry the pattern's name so the UI can show them
- * as one group; the local share applies to every line.
+ * as one group; the local share applies to every line. Shares within PATTERN_SUM_TOLERANCE of summing to 1 (a
+ * column's shares, or percentages typed to a few digits) are rescaled to sum to 1 exactly, so the lines add up to the
+ * amount; further off is refused.
  */
 export function spreadPattern(
   pattern: SpendingPattern,
@@ -40,7 +42,7 @@ export function spreadPattern(
   }
   return pattern.shares.map((s) => ({
     sector: s.sector,
-    amount: amount * s.share,
+    amount: amount * (s.share / sum),
     kind: 'final-demand' as LineKind,
     localShare: opts.localShare ?? 1,
     pattern: pattern.name,

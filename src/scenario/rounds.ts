@@ -31,8 +31,12 @@ export interface RoundsResult {
   coverage: number[];
   /** ‖round k‖₁ / ‖round k−1‖₁ for k ≥ 1 (index 0 is null); null where the previous round is zero. */
   ratio: (number | null)[];
-  /** Number of rounds (round 0 counted) needed to reach each coverage target, or null when not reached within maxRounds. */
-  reach: { target: number; rounds: number | null }[];
+  /**
+   * The round by which each coverage target is reached: the first k whose rounds 0..k cover the target share of the
+   * open-model total (round 0 is the initial demand), or null when not reached within maxRounds. This is the one way
+   * Roundwise counts rounds, on every screen, report and CLI line.
+   */
+  reach: { target: number; round: number | null }[];
   /** ‖A‖₁, the largest column sum of |A|. */
   normA: number;
   /** The a-priori bound on ‖x − S_K‖₁ after the computed rounds, or null when ‖A‖₁ ≥ 1. */
@@ -81,7 +85,7 @@ export function spendingRounds(pm: PreparedModel, f: Float64Array, x: Float64Arr
   }
   const reach = COVERAGE_TARGETS.map((target) => {
     const k = coverage.findIndex((c) => c >= target);
-    return { target, rounds: k < 0 ? null : k + 1 };
+    return { target, round: k < 0 ? null : k };
   });
   const normA = norm1(A, n);
   const K = rounds.length - 1;

@@ -100,6 +100,11 @@ export interface ScenarioResult {
    * their fixed output implies. Round 0 of the spending rounds and the origin of structural paths.
    */
   effectiveDemand: Float64Array;
+  /**
+   * The same for the household-closed model (length n + 1, households last, where the scenario puts no demand): the
+   * origin of structural paths in the closed model. Null without closure.
+   */
+  closedEffectiveDemand: Float64Array | null;
   effects: Record<'output' | 'valueAdded' | 'income', EffectSplit> & { employment: EffectSplit | null };
   totals: Record<'output' | 'valueAdded' | 'income', EffectTotals> & { employment: EffectTotals | null };
   multipliers: Record<'output' | 'valueAdded' | 'income', ScenarioMultiplier> & { employment: ScenarioMultiplier | null };

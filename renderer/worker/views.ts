@@ -1,0 +1,141 @@
+/**
+ * Shaping the study's results into what the screens show: plain, structured-clone-friendly views, sized for the
+ * screen, with null and a reason where a value cannot be computed (never NaN). No engine step is run here: every
+ * number comes from the prepared study (src/study).
+ */
+import {
+  formatLocated, linkageClass, MEASURES, measureValues, unitDemandRounds, tablePatterns,
+  type ModeKind, type PreparedStudy, type ScenarioOutcome, type IOTable, type EffectSplit, type EffectTotals, type ScenarioMultiplier, type Variable, type PathAnalysis,
+} from '../../src/study/index.ts';
+import type { AnalysisView, EffectView, Eigen, MultiplierRow, PathsView, ScenarioView, TableInfo } from './protocol.ts';
+
+const finite = (v: number | null | undefined): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
+
+/** Rounds listed on the screens (the reports carry all of them). */
+const ROUNDS_SHOWN = 40;
+
+export function tableInfo(t: IOTable, fileName: string): TableInfo {
+  let total = 0;
+  for (let j = 0; j < t.n; j++) total += t.x[j]!;
+  return {
+    name: t.name,
+    fileName,
+    n: t.n,
+    sectors: t.sectors,
+    moneyUnit: t.moneyUnit,
+    layout: t.layout,
+    hasEmployment: t.employment !== null,
+    hasHouseholds: t.labourIncome.length > 0 && t.householdConsumption.length > 0,
+    warnings: t.warnings.map((w) => formatLocated(w)),
+    output: Array.from(t.x),
+    totalOutput: total,
+    patterns: tablePatterns(t),
+    roles: { rows: { ...t.roles.rows }, columns: { ...t.roles.columns } },
+  };
+}
+
+const BEHAVIOUR: Record<ModeKind, string> = {
+  'collapse': 'gone after a few rounds',
+  'decay': 'dies out round by round',
+  'two-period-oscillation': 'flips sign every round and never dies out',
+  'steady': 'persists unchanged: never dies out',
+  'growth': 'grows every round',
+  'growth-sign-flips': 'grows while flipping sign',
+  'rotating-decay': 'swings back and forth while dying out',
+  'rotating-steady': 'swings forever at the same size',
+  'rotating-growth': 'swings with growing size',
+};
+
+export function analysisView(ps: PreparedStudy): AnalysisView {
+  const full = ps.analysis;
+  const { n, sectors } = full;
+  const v = full.viability;
+  const notes = [...full.multipliers.notes, ...full.linkages.notes].map((note) => {
+    const where = note.sectors === 'all' ? 'all sectors' : note.sectors.map((j) => sectors[j]).slice(0, 5).join(', ');
+    return `${note.measure} (${where}): ${note.reason}`;
+  });
+  const columns = MEASURES.map((m) => measureValues(full, m.key));
+  const multipliers: MultiplierRow[] = sectors.map((sector, j) => ({
+    sector, index: j,
+    values: Object.fromEntries(MEASURES.map((m, k) => [m.key, finite(columns[k]![j])])) as MultiplierRow['values'],
+    linkage: linkageClass(full, j) ?? 'undefined',
+  }));
+  const ur = unitDemandRounds(ps);
+  const reach99 = ur.rounds ? ur.rounds.reach.find((x) => x.target === 0.99)!.round : null;
+  const mean = (key: 'output.typeI' | 'output.typeII'): number | null => {
+    let s = 0;
+    for (const r of multipliers) { const x = r.values[key]; if (x === null) return null; s += x; }
+    return n ? s / n : null;
+  };
+  const [lower, upper] = v.perronRootBounds;
+  return {
+    verdict: ps.verdict,
+    perron: { value: finite(v.perronRoot), lower: finite(lower), upper: finite(upper), ...(v.perronConverged ? {} : { reason: 'the iteration stopped before the bounds met; they are still certified' }) },
+    hawkinsSimon: v.hawkinsSimon,
+    reach99: ur.rounds
+      ? (reach99 === null ? { value: null, reason: `not reached within ${ur.rounds.rounds.length} rounds` } : { value: reach99 })
+      : { value: null, reason: ur.reason },
+    rounds: ur.rounds ? ur.rounds.roundTotals.slice(0, ROUNDS_SHOWN).map((x, k) => ({ round: k, added: x, reached: ur.rounds.coverage[k]! })) : [],
+    spectrum: (v.spectrum ?? []).map((e): Eigen => ({ re: e.re, im: e.im, modulus: e.modulus, behaviour: BEHAVIOUR[e.kind] })),
+    ...(v.spectrumNote ? { spectrumNote: v.spectrumNote } : {}),
+    blocks: v.blocks.map((b) => ({ sectors: b.sectors.map((j) => sectors[j]!), cyclic: b.period !== null, period: b.period })),
+    reducible: !v.irreducible,
+    period: v.period,
+    roundsToTolerance: v.roundsToTolerance,
+    tolerance: v.tolerance,
+    perronClosed: finite(v.perronRootClosed),
+    condition: finite(full.checks.condition),
+    measures: MEASURES.map((m) => ({ key: m.key, label: m.label, unit: m.unit(full.moneyUnit), model: m.model, ...(m.jobsPerMoney ? { jobsPerMoney: true as const } : {}) })),
+    multipliers,
+    hasTypeII: full.availability.closed === true,
+    typeIIReason: full.availability.closed === true ? null : full.availability.closed,
+    meanOutput: mean('output.typeI'),
+    meanOutputII: mean('output.typeII'),
+    notes: [...notes, ...full.warnings.map((w) => formatLocated(w))],
+  };
+}
+
+function effectView(s: EffectSplit | null, t: EffectTotals | null, m: ScenarioMultiplier | null): EffectView | null {
+  if (!s || !t || !m) return null;
+  return {
+    direct: Array.from(s.direct),
+    indirect: Array.from(s.indirect),
+    induced: s.induced ? Array.from(s.induced) : null,
+    total: Array.from(s.total),
+    totals: { direct: t.direct, indirect: t.indirect, induced: t.induced, total: t.total },
+    typeI: finite(m.typeI.value),
+    typeII: finite(m.typeII.value),
+  };
+}
+
+export function scenarioView(o: ScenarioOutcome): ScenarioView {
+  const r = o.result;
+  const effects = {} as Record<Variable, EffectView | null>;
+  for (const v of ['output', 'valueAdded', 'income', 'employment'] as const) effects[v] = effectView(r.effects[v], r.totals[v], r.multipliers[v]);
+  const fixed = r.shock.fixed.map((j) => r.sectors[j]!);
+  return {
+    name: r.scenario,
+    sectors: r.sectors,
+    moneyUnit: r.moneyUnit,
+    closure: r.closure,
+    inducedReason: r.closure === 'household' ? null : r.multipliers.output.typeII.reason ?? 'no household closure',
+    effects,
+    rounds: o.rounds.roundTotals.slice(0, ROUNDS_SHOWN).map((x, k) => ({ round: k, output: x, reached: o.rounds.coverage[k] ?? 0 })),
+    reach99: o.rounds.reach.find((x) => x.target === 0.99)?.round ?? null,
+    roundsComputed: o.rounds.rounds.length,
+    roundZeroFixed: fixed,
+    effectiveDemand: Array.from(r.effectiveDemand),
+    notes: o.notes,
+  };
+}
+
+export function pathsView(p: PathAnalysis): PathsView {
+  return {
+    destination: p.destinationLabel,
+    model: p.model,
+    total: p.destinationTotal,
+    explainedShare: p.explainedShare,
+    truncated: p.truncated,
+    paths: p.paths.map((x) => ({ labels: x.labels, contribution: x.contribution, share: x.share, direct: x.direct, pathMultiplier: x.pathMultiplier })),
+  };
+}

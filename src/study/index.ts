@@ -1,0 +1,34 @@
+/**
+ * The application layer: a study (a source table, its settings and scenarios) and everything computed from it.
+ * The CLI commands and the app's worker reach the engine only through here.
+ */
+export {
+  studyFromTableFile, studyFromProjectFile, projectFileOf, withTable, scenarioNamed,
+  type Study, type StudySettings, type StudySource, type ImportSettings,
+} from './study.ts';
+export { prepareStudy, restudy, CLOSURE_OFF, type PreparedStudy, type PrepareOptions } from './prepare.ts';
+export { runStudyScenario, readyLines, defaultDestination, tracePaths, compareStudyScenarios, tablePatterns, type ScenarioOutcome, type OutcomeOptions } from './scenarios.ts';
+export { unitDemandRounds } from './rounds.ts';
+export {
+  REPORTS, buildReport, tableReport, scenarioReport, comparisonOf, tableReportSet, scenarioReportSet, reportUnavailable, scenarioSlug,
+  type ReportKind, type ReportEntry, type ScenarioReportKind,
+} from './reports.ts';
+export { studyAnalysisJson, scenarioJson } from './json.ts';
+
+// What the front ends need besides the study itself (they import engine code only through this file).
+export type Closure = import('./study.ts').StudySettings['closure'];
+export { formatLocated, isInputError, InputError, type Location, type Warning } from '../diagnostics/errors.ts';
+export { previewTable, ROW_ROLES, COLUMN_ROLES, type IOTable, type TablePreview, type RoleMap } from '../table/index.ts';
+export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../table/sample.ts';
+export { luInverse } from '../linalg/index.ts';
+export type { ModeKind } from '../model/index.ts';
+export {
+  CAUTIONS, SCENARIO_CAUTIONS, MEASURES, measureValues, linkageClass, LINKAGE_CLASS_NAMES, aboutText,
+  type ReportFile, type Measure, type MeasureKey, type LinkageClass, type Verdict,
+} from '../report/index.ts';
+export {
+  spreadPattern, VARIABLES, LINE_KINDS,
+  type Scenario, type ScenarioLine, type SpendingPattern, type LineKind, type Variable, type EffectSplit, type EffectTotals,
+  type ScenarioMultiplier, type ScenarioResult, type PathAnalysis, type RoundsResult,
+} from '../scenario/index.ts';
+export { utf8Bytes, sha256Hex } from '../project/index.ts';

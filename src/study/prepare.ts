@@ -1,0 +1,49 @@
+/**
+ * A study made ready to answer questions: one factorisation, one analysis, one verdict, and the models that
+ * scenarios may use. Every result of the study (multipliers, scenarios, rounds, paths, reports) is computed from
+ * this, so the CLI and the app cannot assemble the pipeline differently.
+ */
+import { analyzePrepared, prepareModel, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
+import { verdictOf, type Verdict } from '../report/index.ts';
+import type { Study } from './study.ts';
+
+export interface PreparedStudy {
+  study: Study;
+  pm: PreparedModel;
+  analysis: Analysis;
+  verdict: Verdict;
+  /** The models scenarios use: the analysis' availability, with the closure switched off when the study says so. */
+  models: Availability;
+}
+
+export const CLOSURE_OFF = 'the household closure is switched off for this study';
+
+export interface PrepareOptions {
+  /** Full spectrum of A ('auto': up to 400 sectors). */
+  spectrum?: AnalysisOptions['spectrum'];
+  /** Form the explicit Leontief inverse now (reports of it form it on demand otherwise). */
+  inverse?: boolean;
+}
+
+export function prepareStudy(study: Study, opts: PrepareOptions = {}): PreparedStudy {
+  const pm = prepareModel(study.table);
+  const analysis = analyzePrepared(pm, {
+    tolerance: study.settings.rounds.tolerance,
+    ...(opts.spectrum !== undefined ? { spectrum: opts.spectrum } : {}),
+    ...(opts.inverse ? { inverse: true } : {}),
+  });
+  return finish(study, pm, analysis);
+}
+
+/** The prepared study with new settings or scenarios but the same table: no new factorisation or analysis. */
+export function restudy(ps: PreparedStudy, study: Study): PreparedStudy {
+  if (study.table !== ps.study.table) return prepareStudy(study);
+  if (study.settings.rounds.tolerance !== ps.study.settings.rounds.tolerance) return prepareStudy(study);
+  return finish(study, ps.pm, ps.analysis);
+}
+
+function finish(study: Study, pm: PreparedModel, analysis: Analysis): PreparedStudy {
+  const a = analysis.availability;
+  const models: Availability = { open: a.open, closed: study.settings.closure === 'none' && a.closed === true ? CLOSURE_OFF : a.closed };
+  return { study, pm, analysis, verdict: verdictOf(analysis), models };
+}
