@@ -8,7 +8,7 @@ import { importTable } from '../../src/table/index.ts';
 import { writeTableCsv } from '../../src/table/write.ts';
 import { prepareModel } from '../../src/model/prepared.ts';
 import { analyzeTable } from '../../src/model/analysis.ts';
-import { runScenario } from '../../src/scenario/effects.ts';
+import { runScenario } from '../support/scenario.ts';
 import type { Scenario } from '../../src/scenario/types.ts';
 import type { IOTable } from '../../src/table/types.ts';
 import { inventedTable } from './table.ts';

@@ -14,7 +14,7 @@ import { DOWNLOADS, REPO, shot as photograph, skipBrowser, startSession, type Se
 import { importTable } from '../../src/table/index.ts';
 import { prepareModel } from '../../src/model/prepared.ts';
 import { analyzeTable } from '../../src/model/analysis.ts';
-import { runScenario } from '../../src/scenario/index.ts';
+import { runScenario } from '../support/scenario.ts';
 import type { Scenario } from '../../src/scenario/types.ts';
 import type { Download } from 'playwright-core';
 

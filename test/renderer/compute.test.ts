@@ -14,7 +14,7 @@ import { importTable } from '../../src/table/index.ts';
 import { SAMPLE_CSV, SAMPLE_FILE_NAME } from '../../src/table/sample.ts';
 import { analyzeTable } from '../../src/model/analysis.ts';
 import { prepareModel } from '../../src/model/prepared.ts';
-import { runScenario } from '../../src/scenario/index.ts';
+import { runScenario } from '../support/scenario.ts';
 import type { Scenario } from '../../src/scenario/types.ts';
 
 const FIX = fileURLToPath(new URL('../fixtures/e2e/', import.meta.url));

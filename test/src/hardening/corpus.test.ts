@@ -10,7 +10,8 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { formatLocated, InputError } from '../../../src/diagnostics/errors.ts';
 import { importTable } from '../../../src/table/index.ts';
-import { parseShockCsv, runScenario } from '../../../src/scenario/index.ts';
+import { parseShockCsv } from '../../../src/scenario/index.ts';
+import { runScenario } from '../../support/scenario.ts';
 import { prepareModel } from '../../../src/model/prepared.ts';
 import { parseProject, serializeProject } from '../../../src/project/index.ts';
 import { BASE, NO_JOBS_TABLE, projects, SHOCKS, TABLES } from '../../fixtures/hardening/make-corpus.ts';
@@ -68,8 +69,8 @@ const SHOCK_EXPECT: Record<string, string> = {
 const PROJECT_EXPECT: Record<string, string> = {
   'project-0-byte.json': 'project-0-byte.json: the project file is empty',
   'project-truncated.json': 'project-truncated.json: the project file ends early — it looks truncated (an interrupted copy or save); it was not changed',
-  'project-corrupt.json': `project-corrupt.json:13:16: ${NOT_JSON}`,
-  'project-newer.json': 'project-newer.json: the project was saved by a newer Roundwise (project version 99; this one reads up to 2) — open it there, or update',
+  'project-corrupt.json': `project-corrupt.json:14:16: ${NOT_JSON}`,
+  'project-newer.json': 'project-newer.json: the project was saved by a newer Roundwise (project version 99; this one reads up to 3) — open it there, or update',
   'project-foreign.json': 'project-foreign.json: this is not a Roundwise project file (it has no "format": "roundwise-project")',
   'project-is-a-table.json': `project-is-a-table.json:1:2: ${NOT_JSON}`,
   'project-utf16le-bom.json': `project-utf16le-bom.json:1:1: ${NOT_JSON}`,

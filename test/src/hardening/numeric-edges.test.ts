@@ -12,7 +12,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { main } from '../../../src/cli/main.ts';
 import { InputError } from '../../../src/diagnostics/errors.ts';
 import { prepareModel } from '../../../src/model/prepared.ts';
-import { analyseScenario, runScenario } from '../../../src/scenario/index.ts';
+import { runScenario } from '../../support/scenario.ts';
 import { analyzeTable } from '../../../src/model/analysis.ts';
 import { analysisJson } from '../../../src/report/analysis-json.ts';
 import { importTable } from '../../../src/table/index.ts';

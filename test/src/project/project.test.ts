@@ -3,10 +3,19 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../../../src/diagnostics/errors.ts';
 import {
-  createProject, parseProject, projectResults, serializeProject, sourceInfo, PROJECT_VERSION, utf8Bytes, type Project,
+  createProject, importSource, parseProject, serializeProject, sourceInfo, PROJECT_VERSION, utf8Bytes, type Project,
 } from '../../../src/project/index.ts';
+import { prepareModel } from '../../../src/model/prepared.ts';
 import type { ScenarioResult } from '../../../src/scenario/index.ts';
+import { writeTableCsv } from '../../../src/table/write.ts';
+import { runScenario } from '../../support/scenario.ts';
 import { county4 } from '../scenario/tables.ts';
+
+/** Every scenario of the project, recomputed (results are never stored). */
+function projectResults(p: Project): ScenarioResult[] {
+  const pm = prepareModel(p.table);
+  return p.scenarios.map((s) => runScenario(pm, s));
+}
 
 const fixture = (name: string) => readFileSync(fileURLToPath(new URL(`../../fixtures/scenario/${name}`, import.meta.url)), 'utf8');
 
@@ -65,7 +74,7 @@ describe('project files', () => {
     const doc = JSON.parse(text);
     expect(doc.format).toBe('roundwise-project');
     expect(doc.version).toBe(PROJECT_VERSION);
-    expect(doc.source).toEqual({ fileName: 'county.csv', sha256: sourceInfo('x', utf8Bytes('sector,Farms\n')).sha256, bytes: 13 });
+    expect(doc.source).toEqual({ fileName: 'county.csv', sha256: sourceInfo('x', utf8Bytes('sector,Farms\n')).sha256, bytes: 13, import: {} });
     expect(doc.roles.rows['Compensation of employees']).toBe('labourIncome');
     expect(doc.patterns[0].name).toBe('festival');
     expect(doc.settings.paths.destination).toBe('Farms');
@@ -75,12 +84,12 @@ describe('project files', () => {
     const p = parseProject(fixture('project-v1.json'), 'project-v1.json');
     expect(p.table.n).toBe(3);
     expect(Array.from(p.table.Z.slice(0, 3))).toEqual([50, 120, 10]);
-    expect(p.source).toEqual({ fileName: 'county.csv', sha256: '5f'.repeat(32) });
+    expect(p.source).toMatchObject({ fileName: 'county.csv', sha256: '5f'.repeat(32) });
     expect(p.table.roles.rows.Jobs).toBe('employment');
     expect(p.scenarios[0]!.lines[1]).toEqual({ sector: 'Shops', amount: 40, kind: 'final-demand', localShare: 0.6 });
     expect(p.settings.rounds.maxRounds).toBe(200);
     const saved = serializeProject(p);
-    expect(JSON.parse(saved).version).toBe(2);
+    expect(JSON.parse(saved).version).toBe(PROJECT_VERSION);
     const r1 = projectResults(p);
     const r2 = projectResults(parseProject(saved));
     resultsEqual(r1[0]!, r2[0]!);
@@ -102,9 +111,9 @@ describe('project files', () => {
     expect(refusal('{"hello": "world"}').code).toBe('project-foreign');
     expect(refusal('sector,Farms\nFarms,1\n').code).toBe('project-corrupt');
     expect(refusal('[1, 2]').code).toBe('project-foreign');
-    const newer = refusal(text.replace('"version": 2', '"version": 3'));
+    const newer = refusal(text.replace(`"version": ${PROJECT_VERSION}`, `"version": ${PROJECT_VERSION + 1}`));
     expect(newer.code).toBe('project-newer');
-    expect(newer.message).toMatch(/newer Roundwise \(project version 3; this one reads up to 2\)/);
+    expect(newer.message).toMatch(new RegExp(`newer Roundwise \\(project version ${PROJECT_VERSION + 1}; this one reads up to ${PROJECT_VERSION}\\)`));
   });
   it('refuses inconsistent content, naming the place', () => {
     const doc = JSON.parse(serializeProject(study()));
@@ -115,5 +124,68 @@ describe('project files', () => {
     expect(bad((d) => { d.source.sha256 = 'xyz'; }).message).toMatch(/source\.sha256/);
     expect(bad((d) => { d.version = 'two'; }).code).toBe('project-invalid');
     expect(bad((d) => { delete d.settings; }).message).toMatch(/settings/);
+  });
+  it('migrates a version 2 file: the closure becomes a setting read from the saved path model, and the study says so', () => {
+    const p = parseProject(fixture('project-v2.json'), 'project-v2.json');
+    expect(p.settings.closure).toBe('households');
+    expect(p.settings.paths).toEqual({ destination: 'Farms', maxLength: 6, minShare: 1e-4, maxPaths: 20 });
+    expect(p.table.warnings.map((w) => w.code)).toContain('project-migrated');
+    expect(p.table.warnings.find((w) => w.code === 'project-migrated')!.message).toMatch(/household closure .* read as on/);
+    const open = JSON.parse(fixture('project-v2.json'));
+    open.settings.paths.model = 'open';
+    expect(parseProject(JSON.stringify(open), 'open.json').settings.closure).toBe('none');
+  });
+});
+
+describe('project files that keep the source file', () => {
+  const csv = writeTableCsv(county4());
+  const bytes = utf8Bytes(csv);
+  const kept = () => {
+    const source = sourceInfo('county.csv', bytes, { import: { roles: { rows: {}, columns: { Exports: 'otherFinalDemand' } } } });
+    const p = createProject(importSource(source as typeof source & { content: Uint8Array }), { source });
+    p.settings.closure = 'none';
+    return p;
+  };
+
+  it('stores the bytes and import settings instead of the numbers, and re-imports them on load', () => {
+    const text = serializeProject(kept());
+    const doc = JSON.parse(text);
+    expect(doc.table).toBeUndefined();
+    expect(doc.source.content).toEqual({ encoding: 'utf-8', data: csv });
+    expect(doc.source.import.roles.columns.Exports).toBe('otherFinalDemand');
+    expect(doc.settings.closure).toBe('none');
+    const loaded = parseProject(text, 'study.json');
+    expect(loaded.settings.closure).toBe('none');
+    expect(Array.from(loaded.table.Z)).toEqual(Array.from(county4().Z));
+    expect(loaded.source!.sha256).toBe(sourceInfo('x', bytes).sha256);
+    expect(serializeProject(loaded)).toBe(text);
+  });
+  it('keeps bytes that are not UTF-8 exactly (base64), so their SHA-256 still matches', () => {
+    // The corner cell (the money unit) written in ISO 8859-1: "é" is the single byte 0xE9, not valid UTF-8.
+    const corner = csv.indexOf(',');
+    const latin1 = Uint8Array.from([...utf8Bytes('milliers de dollars canadiens'), 0xe9, ...bytes.slice(corner)]);
+    const source = sourceInfo('county.csv', latin1, { import: {} });
+    const p = createProject(importSource(source as typeof source & { content: Uint8Array }), { source });
+    const doc = JSON.parse(serializeProject(p));
+    expect(doc.source.content.encoding).toBe('base64');
+    const loaded = parseProject(serializeProject(p), 'study.json');
+    expect(Array.from(loaded.source!.content!)).toEqual(Array.from(latin1));
+    expect(loaded.table.warnings.some((w) => w.code === 'source-changed')).toBe(false);
+  });
+  it('says so when the stored table no longer matches its recorded SHA-256', () => {
+    const doc = JSON.parse(serializeProject(kept()));
+    doc.source.content.data = doc.source.content.data.replace('120', '121');
+    const loaded = parseProject(JSON.stringify(doc), 'edited.json');
+    const w = loaded.table.warnings.find((x) => x.code === 'source-changed');
+    expect(w?.message).toMatch(/does not match the SHA-256 recorded/);
+    expect(loaded.table.Z[0]).toBe(121);
+  });
+  it('refuses a stored table the importer refuses, with the importer\'s location', () => {
+    const doc = JSON.parse(serializeProject(kept()));
+    doc.source.content.data = doc.source.content.data.replace('120', '-120');
+    const e = refusal(JSON.stringify(doc));
+    expect(e.code).toBe('project-invalid');
+    expect(e.message).toMatch(/cannot be read: .*negative/);
+    expect(e.location.rowLabel).toBe('Farms');
   });
 });

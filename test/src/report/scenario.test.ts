@@ -3,7 +3,8 @@
 import { describe, it, expect } from 'vitest';
 import Papa from 'papaparse';
 import { prepareModel } from '../../../src/model/prepared.ts';
-import { compareScenarios, runScenario, spendingRounds, structuralPaths } from '../../../src/scenario/index.ts';
+import { compareScenarios, spendingRounds, structuralPaths } from '../../../src/scenario/index.ts';
+import { runScenario } from '../../support/scenario.ts';
 import {
   comparisonReport, impactReport, impactRows, pathReport, roundsReport, scenarioMultiplierReport, SCENARIO_CAUTIONS,
 } from '../../../src/report/scenario.ts';
@@ -38,7 +39,7 @@ describe('scenario reports', () => {
   const rounds = spendingRounds(pm, r.effectiveDemand, r.openOutput);
 
   it('impact report reads back to the same numbers, one row per sector plus a total row', () => {
-    const [csv, about] = impactReport(r, ctx);
+    const [csv, about] = impactReport(r, ctx, 'scenario-impact');
     expect(csv!.name).toBe('scenario-impact.csv');
     expect(about!.name).toBe('scenario-impact.about.txt');
     const rows = parse(csv!);
@@ -57,14 +58,14 @@ describe('scenario reports', () => {
     expect(rows.at(-1)![4]).toBe(r.totals.output.total);
   });
   it('formula-leading labels are prefixed with a quote; negative numbers stay numbers', () => {
-    const rows = parse(impactReport(r, ctx)[0]!);
+    const rows = parse(impactReport(r, ctx, 'scenario-impact')[0]!);
     expect(rows.map((row) => row[0])).toEqual(['sector', "'=SUM(A1:A9)", "'-Food processing", "'@Retail", 'Services, "other"', 'Total']);
     const services = rows[4]!;
     expect(typeof services[1]).toBe('number');
     expect(services[1]).toBe(-1e-7);
   });
   it('sidecar names table, source, model type, date, the scenario and all cautions', () => {
-    const about = impactReport(r, ctx)[1]!.content;
+    const about = impactReport(r, ctx, 'scenario-impact')[1]!.content;
     expect(about).toContain('Table: Invented county (demo)');
     expect(about).toContain('Source file: county.csv');
     expect(about).toContain(`Source SHA-256: ${'ab'.repeat(32)}`);
@@ -75,11 +76,15 @@ describe('scenario reports', () => {
     for (const c of [...CAUTIONS, ...SCENARIO_CAUTIONS]) expect(about).toContain(c);
   });
   it('rounds reports: by round and by sector, rectangular, same numbers back', () => {
-    const files = roundsReport(r, rounds, ctx);
+    const files = roundsReport(r, rounds, ctx, 'scenario-rounds');
     expect(files.map((f) => f.name)).toEqual(['scenario-rounds.csv', 'scenario-rounds.about.txt', 'scenario-rounds-by-sector.csv', 'scenario-rounds-by-sector.about.txt']);
     const byRound = parse(files[0]!);
-    expect(byRound).toHaveLength(rounds.rounds.length + 2);
-    byRound.slice(1, -1).forEach((row, k) => {
+    // header, one row per round, the sum of the rounds listed, the open-model total
+    expect(byRound).toHaveLength(rounds.rounds.length + 3);
+    expect(byRound.at(-2)![0]).toBe('Sum of the rounds listed');
+    expect(byRound.at(-1)![0]).toBe('Open-model total (all rounds)');
+    expect(byRound.at(-1)![1]).toBe(r.totals.output.direct + r.totals.output.indirect);
+    byRound.slice(1, -2).forEach((row, k) => {
       expect(row[0]).toBe(k);
       expect(row[1]).toBe(rounds.roundTotals[k]);
       expect(row[3]).toBe(rounds.coverage[k]);
@@ -89,23 +94,24 @@ describe('scenario reports', () => {
     expect(width).toBe(rounds.rounds.length + 3);
     for (const row of bySector) expect(row).toHaveLength(width);
     expect(bySector[2]![width - 1]).toBe(r.openOutput[1]);
-    expect(files[1]!.content).toMatch(/99\.9 %: \d+ rounds/);
+    expect(files[1]!.content).toMatch(/99\.9 % by round \d+/);
+    expect(files[1]!.content).toMatch(/Round 0 is the initial demand: .*fixed from outside \(-Food processing\)/);
   });
   it('multiplier, path and comparison reports are rectangular and carry the cautions', () => {
-    const mult = parse(scenarioMultiplierReport(r, ctx)[0]!);
+    const mult = parse(scenarioMultiplierReport(r, ctx, 'scenario-multipliers')[0]!);
     expect(mult[1]![0]).toBe('output');
     expect(mult[1]![6]).toBe(r.multipliers.output.typeI.value);
     const pa = structuralPaths(pm, r.effectiveDemand, 0, { maxPaths: 4 });
-    const paths = pathReport(r, pa, ctx);
+    const paths = pathReport(r, pa, ctx, 'scenario-paths');
     const prow = parse(paths[0]!);
     expect(prow).toHaveLength(pa.paths.length + 2);
     for (const row of prow) expect(row).toHaveLength(prow[0]!.length);
     expect(prow.at(-1)![9]).toBe(pa.explained);
     const r2 = runScenario(pm, { name: 'visitors only', lines: [{ sector: '@Retail', amount: 500, kind: 'final-demand', localShare: 1 }] });
-    const cmp = parse(comparisonReport(compareScenarios([r, r2]), r.moneyUnit, ctx)[0]!);
+    const cmp = parse(comparisonReport(compareScenarios([r, r2]), r.moneyUnit, ctx, 'scenario-comparison')[0]!);
     expect(cmp).toHaveLength(r.sectors.length + 2);
     expect(cmp[1]![2]).toBe(r2.effects.output.total[0]);
     expect(cmp[1]![3]).toBe(r2.effects.output.total[0]! - r.effects.output.total[0]!);
-    for (const f of [scenarioMultiplierReport(r, ctx)[1]!, paths[1]!]) expect(f.content).toContain(SCENARIO_CAUTIONS[3]!);
+    for (const f of [scenarioMultiplierReport(r, ctx, 'scenario-multipliers')[1]!, paths[1]!]) expect(f.content).toContain(SCENARIO_CAUTIONS[3]!);
   });
 });

@@ -3,7 +3,7 @@
 import { describe, it, expect } from 'vitest';
 import * as math from 'mathjs';
 import { prepareModel } from '../../../src/model/prepared.ts';
-import { runScenario } from '../../../src/scenario/index.ts';
+import { runScenario } from '../../support/scenario.ts';
 import type { IOTable } from '../../../src/table/types.ts';
 import { county4 } from './tables.ts';
 

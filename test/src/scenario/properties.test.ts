@@ -5,7 +5,8 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import * as math from 'mathjs';
 import { prepareModel } from '../../../src/model/prepared.ts';
-import { runScenario, type ScenarioLine } from '../../../src/scenario/index.ts';
+import { type ScenarioLine } from '../../../src/scenario/index.ts';
+import { runScenario } from '../../support/scenario.ts';
 import { makeTable } from './tables.ts';
 
 const n = 4;

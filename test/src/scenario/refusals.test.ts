@@ -2,7 +2,8 @@
 import { describe, it, expect } from 'vitest';
 import { formatLocated } from '../../../src/diagnostics/errors.ts';
 import { prepareModel } from '../../../src/model/prepared.ts';
-import { compareScenarios, parseShockCsv, resolveShock, runScenario, spreadPattern, type Scenario } from '../../../src/scenario/index.ts';
+import { compareScenarios, parseShockCsv, resolveShock, spreadPattern, type Scenario } from '../../../src/scenario/index.ts';
+import { runScenario } from '../../support/scenario.ts';
 import { county4 } from './tables.ts';
 import { refusal } from '../../support/refusal.ts';
 
