@@ -16,6 +16,11 @@ import { analyzeTable } from '../../src/model/analysis.ts';
 import { prepareModel } from '../../src/model/prepared.ts';
 import { runScenario } from '../support/scenario.ts';
 import type { Scenario } from '../../src/scenario/types.ts';
+import { REPORTS } from '../../src/study/index.ts';
+import type { StudyChoices } from '../../renderer/worker/protocol.ts';
+
+const ON: StudyChoices = { closure: 'households', destination: null };
+const OFF: StudyChoices = { closure: 'none', destination: null };
 
 const FIX = fileURLToPath(new URL('../fixtures/e2e/', import.meta.url));
 const text = (f: string) => readFileSync(join(FIX, f), 'utf8');
@@ -45,9 +50,10 @@ describe('worker adapter over the engine', () => {
     expect(r.analysis.perron.value).toBe(ref.viability.perronRoot);
     expect(r.analysis.verdict.productive).toBe(true);
     r.analysis.multipliers.forEach((m, j) => {
-      expect(m.output).toBe(ref.multipliers.output.typeI[j]);
-      expect(m.outputII).toBe(ref.multipliers.output.typeII[j]);
-      expect(m.employment).toBe(ref.multipliers.employment.simple[j]);
+      expect(m.values['output.typeI']).toBe(ref.multipliers.output.typeI[j]);
+      expect(m.values['output.typeII']).toBe(ref.multipliers.output.typeII[j]);
+      expect(m.values['income.total']).toBe(ref.multipliers.income.total[j]);
+      expect(m.values['employment.simple']).toBe(ref.multipliers.employment.simple[j]);
     });
     const bad = numbers(r.analysis).filter(([, x]) => !Number.isFinite(x));
     expect(bad).toEqual([]);
@@ -59,19 +65,19 @@ describe('worker adapter over the engine', () => {
     expect(r.analysis.verdict.say).toMatch(/not productive/);
     // A = [[0.6, 0.5], [0.5, 0.6]] has Perron root 1.1 (its largest eigenvalue, 0.6 + 0.5; hand computation).
     expect(r.analysis.perron.value).toBeCloseTo(1.1, 12);
-    expect(r.analysis.rounds99.value).toBeNull();
-    expect(r.analysis.rounds99.reason).toMatch(/not productive/);
-    expect(r.analysis.multipliers.every((m) => m.output === null && m.backward === null)).toBe(true);
+    expect(r.analysis.reach99.value).toBeNull();
+    expect(r.analysis.reach99.reason).toMatch(/not productive/);
+    expect(r.analysis.multipliers.every((m) => m.values['output.typeI'] === null && m.values['linkage.backward'] === null)).toBe(true);
     expect(numbers(r.analysis).filter(([, x]) => !Number.isFinite(x))).toEqual([]);
   });
 
   it('gives scenario effects equal to the engine\'s runScenario', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
-    const view = api.runScenario({ scenario: SCENARIO, closure: true });
+    const view = api.runScenario({ scenario: SCENARIO, choices: ON });
     const ref = runScenario(prepareModel(importTable(text('ridgeline-test.csv'), { fileName: 'ridgeline-test.csv' })), SCENARIO);
     expect(view.effects.output!.totals.total).toBe(ref.totals.output.total);
     expect(view.effects.income!.induced).toEqual(Array.from(ref.effects.income.induced!));
-    const open = api.runScenario({ scenario: SCENARIO, closure: false });
+    const open = api.runScenario({ scenario: SCENARIO, choices: OFF });
     expect(open.effects.output!.induced).toBeNull();
     expect(open.effects.output!.totals.total).toBeCloseTo(ref.totals.output.direct + ref.totals.output.indirect, 9);
     expect(numbers(view).filter(([, x]) => !Number.isFinite(x))).toEqual([]);
@@ -79,7 +85,7 @@ describe('worker adapter over the engine', () => {
 
   it('writes the multiplier report with the engine\'s numbers, bit for bit', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
-    const files = api.report({ kind: 'multipliers' });
+    const files = api.report({ kind: 'multipliers', scenarios: [], choices: ON });
     expect(files.map((f) => f.name)).toEqual(['multipliers.csv', 'multipliers.about.txt']);
     const rows = Papa.parse<string[]>(files[0]!.content.trim(), { skipEmptyLines: true }).data;
     const ref = analyzeTable(importTable(text('ridgeline-test.csv'), { fileName: 'ridgeline-test.csv' }));
@@ -90,9 +96,12 @@ describe('worker adapter over the engine', () => {
 
   it('writes every report of the Export screen as a CSV with its .about.txt', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
-    const kinds = ['multipliers', 'coefficients', 'leontief-inverse', 'viability', 'spectrum', 'perron-vectors', 'scenario-impact', 'scenario-multipliers', 'scenario-rounds', 'scenario-paths', 'comparison'] as const;
-    for (const kind of kinds) {
-      const files = api.report({ kind, scenario: SCENARIO, scenarios: [SCENARIO, { ...SCENARIO, name: 'Other' }], closure: true });
+    const scenarios = [SCENARIO, { ...SCENARIO, name: 'Other' }];
+    const listed = api.reports({ scenarios, choices: ON });
+    expect(listed.map((r) => r.kind)).toEqual(REPORTS.map((r) => r.kind));
+    expect(listed.filter((r) => r.unavailable !== null)).toEqual([]);
+    for (const { kind } of listed) {
+      const files = api.report({ kind, scenario: SCENARIO, scenarios, choices: ON });
       expect(files.length, kind).toBeGreaterThanOrEqual(2);
       // Every CSV comes with its sidecar of the same base name, which carries the cautions.
       for (const f of files.filter((x) => x.name.endsWith('.csv'))) {
@@ -115,19 +124,19 @@ describe('worker adapter over the engine', () => {
 
   it('saves and reopens a project with the same results', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
-    const before = api.runScenario({ scenario: SCENARIO, closure: true });
-    const saved = api.saveProject({ name: 'Test', scenarios: [SCENARIO], closure: true, active: 0 });
+    const before = api.runScenario({ scenario: SCENARIO, choices: ON });
+    const saved = api.saveProject({ name: 'Test', scenarios: [SCENARIO], choices: { closure: 'households', destination: 'Retail' }, active: 0 });
     api.loadSample({});
     const opened = api.openProject({ text: saved, fileName: 'test.roundwise' });
     expect(opened.scenarios).toEqual([SCENARIO]);
-    expect(opened.closure).toBe(true);
-    expect(api.runScenario({ scenario: opened.scenarios[0]!, closure: true })).toEqual(before);
+    expect(opened.choices).toEqual({ closure: 'households', destination: 'Retail' });
+    expect(api.runScenario({ scenario: opened.scenarios[0]!, choices: opened.choices })).toEqual(before);
   });
 
   it('will not save a scenario line whose sector is not in the table', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
     const wrong: Scenario = { name: 'Old', lines: [{ sector: 'Food processing', amount: 1, kind: 'final-demand', localShare: 1 }] };
-    expect(() => api.saveProject({ name: 'x', scenarios: [wrong], closure: true, active: 0 })).toThrow(/Food processing.*not in this table/);
+    expect(() => api.saveProject({ name: 'x', scenarios: [wrong], choices: ON, active: 0 })).toThrow(/Food processing.*not in this table/);
   });
 
   it('spreads an amount by a pattern read from a final-demand column', () => {
@@ -145,5 +154,78 @@ describe('worker adapter over the engine', () => {
     const state = reactive({ source: { text: 'a', roles: { rows: { x: 'ignore' } } }, list: [{ a: 1 }] });
     expect(() => structuredClone(state)).toThrow();
     expect(structuredClone(plain(state))).toEqual({ source: { text: 'a', roles: { rows: { x: 'ignore' } } }, list: [{ a: 1 }] });
+  });
+
+  describe('the screens and the exports say the same as the engine (they once disagreed)', () => {
+    const FIXED: Scenario = {
+      name: 'Fixed cannery',
+      lines: [
+        { sector: 'Cannery', amount: 400, kind: 'output', localShare: 1 },
+        { sector: 'Retail', amount: 150, kind: 'final-demand', localShare: 0.8 },
+      ],
+    };
+    const csvRows = (content: string) => Papa.parse<(string | number | null)[]>(content.trim(), { dynamicTyping: true, skipEmptyLines: true }).data;
+
+    it('paths to a sector add up to its total in the effects table, with a fixed-output line and households closed', () => {
+      api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
+      const choices: StudyChoices = { closure: 'households', destination: 'Orchards' };
+      const view = api.runScenario({ scenario: FIXED, choices });
+      const p = api.paths({ scenario: FIXED, choices });
+      expect(p.destination).toBe('Orchards');
+      expect(p.model).toBe('closed');
+      const j = view.sectors.indexOf('Orchards');
+      // The destination total is what every elementary path adds up to (Defourny & Thorbecke 1984): it must be the
+      // effects table's total, not a total of the open demand padded into the closed model.
+      expect(Math.abs(p.total - view.effects.output!.total[j]!)).toBeLessThan(1e-9 * Math.abs(p.total));
+    });
+
+    it('exports what the screen shows: closure off means no induced effect in the file, and the sidecar says why', () => {
+      api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
+      const view = api.runScenario({ scenario: FIXED, choices: OFF });
+      const files = api.report({ kind: 'scenario-impact', scenario: FIXED, scenarios: [FIXED], choices: OFF });
+      const rows = csvRows(files[0]!.content);
+      const total = rows.at(-1)!;
+      const header = rows[0]!;
+      expect(total[header.indexOf('output total (thousand dollars)')]).toBe(view.effects.output!.totals.total);
+      expect(total[header.indexOf('output induced (thousand dollars)')]).toBeNull();
+      expect(files[1]!.content).toMatch(/Model: open \(Type I\) input-output model; no induced effects \(the household closure is switched off/);
+    });
+
+    it('the exported paths go to the sector chosen on screen, never silently to another', () => {
+      api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
+      const choices: StudyChoices = { closure: 'households', destination: 'Timber' };
+      const files = api.report({ kind: 'scenario-paths', scenario: FIXED, scenarios: [FIXED], choices });
+      expect(files[1]!.content).toMatch(/Structural paths to Timber/);
+      const onScreen = api.paths({ scenario: FIXED, choices });
+      expect(csvRows(files[0]!.content)[1]![9]).toBe(onScreen.paths[0]!.contribution);
+    });
+
+    it('the Overview\'s shares reached are shares of the whole open-model total, counted by round from 0', () => {
+      const r = api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
+      const rounds = r.analysis.rounds;
+      // One unit of demand in every sector: the open-model total is Σ L·1, the sum of every entry of L (mathjs).
+      const ref = analyzeTable(importTable(text('ridgeline-test.csv'), { fileName: 'ridgeline-test.csv' }), { inverse: true });
+      const L = ref.leontief!;
+      let total = 0;
+      for (const v of L) total += v;
+      let cum = 0;
+      rounds.forEach((x) => {
+        cum += x.added;
+        expect(Math.abs(x.reached - cum / total)).toBeLessThan(1e-12);
+      });
+      expect(rounds.at(-1)!.reached).toBeLessThan(1);
+      const k = r.analysis.reach99.value!;
+      expect(rounds[k]!.reached).toBeGreaterThanOrEqual(0.99);
+      expect(rounds[k - 1]!.reached).toBeLessThan(0.99);
+    });
+
+    it('a project keeps the household closure: what the command line saved opens as it ran', () => {
+      api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
+      const closedRun = api.runScenario({ scenario: SCENARIO, choices: ON });
+      const saved = api.saveProject({ name: 'CLI-like', scenarios: [SCENARIO], choices: ON, active: 0 });
+      expect(JSON.parse(saved).settings.closure).toBe('households');
+      const opened = api.openProject({ text: saved, fileName: 'cli.roundwise' });
+      expect(api.runScenario({ scenario: SCENARIO, choices: opened.choices }).effects.output!.totals.total).toBe(closedRun.effects.output!.totals.total);
+    });
   });
 });

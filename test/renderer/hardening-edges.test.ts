@@ -7,7 +7,8 @@ import { readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { api, type ReportKind } from '../../renderer/worker/compute.ts';
+import { api } from '../../renderer/worker/compute.ts';
+import type { ReportKind } from '../../src/study/index.ts';
 import { InputError } from '../../src/diagnostics/errors.ts';
 import { EDGE_TABLES } from '../src/hardening/edge-tables.ts';
 import { formulaTableCsv, unsafeCells } from '../src/hardening/csv-safety.ts';
@@ -40,14 +41,15 @@ function exercise(name: string, text: string): { loaded: boolean } {
     if (g) expect(nonFinite(g), `${name} grid ${which}`).toEqual([]);
   }
   const scenario = loaded.starter;
-  for (const closure of [false, true]) {
-    const v = call(`${name} scenario`, () => api.runScenario({ scenario, closure }));
+  for (const closure of ['none', 'households'] as const) {
+    const choices = { closure, destination: loaded.table.sectors[0]! };
+    const v = call(`${name} scenario`, () => api.runScenario({ scenario, choices }));
     if (v) expect(nonFinite(v), `${name} scenario`).toEqual([]);
-    const p = call(`${name} paths`, () => api.paths({ scenario, sector: loaded.table.sectors[0]!, closure }));
+    const p = call(`${name} paths`, () => api.paths({ scenario, choices }));
     if (p) expect(nonFinite(p), `${name} paths (closure ${closure})`).toEqual([]);
   }
   for (const kind of KINDS) {
-    const files = call(`${name} report ${kind}`, () => api.report({ kind, scenario, scenarios: [scenario, scenario], closure: true }));
+    const files = call(`${name} report ${kind}`, () => api.report({ kind, scenario, scenarios: [scenario, { ...scenario, name: `${scenario.name} again` }], choices: { closure: 'households', destination: null } }));
     for (const f of files ?? []) {
       expect(nonFiniteText(f.content), `${name} ${f.name}`).toEqual([]);
       if (f.name.endsWith('.csv')) expect(unsafeCells(f.content), `${name} ${f.name}`).toEqual([]);
