@@ -4,9 +4,9 @@
  * linkages, accuracy checks, and warnings. The result holds only typed arrays, plain arrays and plain objects, so it
  * crosses a Web Worker boundary by structured clone and turns into JSON without loss (no NaN or Infinity anywhere).
  */
-import type { Warning } from '../diagnostics/errors.ts';
-import type { IOTable } from '../table/types.ts';
-import { conditionEstimate1, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF } from '../linalg/checks.ts';
+import type { Warning } from '../diagnostics/index.ts';
+import type { IOTable } from '../table/index.ts';
+import { conditionEstimate1, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF } from '../linalg/index.ts';
 import { formLeontief } from './leontief.ts';
 import { coefficients } from './coefficients.ts';
 import { closedBorder, prepareModel, solveClosed, type PreparedModel } from './prepared.ts';
@@ -165,6 +165,24 @@ function fmt(x: number): string {
   return x.toPrecision(6);
 }
 
+/**
+ * Sign of the closed model's Schur complement s = 1 − ā_hh − h·u (u = (I − A)⁻¹c), beyond rounding: s is positive
+ * only when it exceeds 16·n·ε times the size of its terms, 1 + |ā_hh| + Σ|h_i·u_i| (the rounding of a dot product of
+ * length n is at most γ_n times the sum of |terms|, Higham 2002, §3.1; the factor 16 covers the error u carries from
+ * the solve, which is backward stable with a similar constant). A closure with ρ(Ā) = 1 exactly then reads as not
+ * productive instead of giving induced effects of 1e16.
+ */
+export function closedSchurVerdict(pm: PreparedModel): { s: number; tolerance: number; positive: boolean } {
+  const b = closedBorder(pm);
+  if (!b) return { s: 0, tolerance: 0, positive: false };
+  const n = pm.coef.n;
+  const corner = b.closed.Abar[n * b.closed.m + n] ?? 0;
+  let size = 1 + Math.abs(corner);
+  for (let i = 0; i < n; i++) size += Math.abs(b.closed.hr[i]! * b.u[i]!);
+  const tolerance = 16 * n * UNIT_ROUNDOFF * size;
+  return { s: b.s, tolerance, positive: b.s > tolerance };
+}
+
 /** Analyse a validated table. */
 export function analyzeTable(table: IOTable, opts: AnalysisOptions = {}): Analysis {
   return analyzePrepared(prepareModel(table, coefficients(table)), opts);
@@ -238,17 +256,23 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     const pc = perronRoot(abar, closed.m, { ...opts.perron, rightOnly: true });
     perronRootClosed = pc.root;
     perronRootClosedBounds = [pc.lower, pc.upper];
-    const s = closedBorder(pm)?.s ?? 0;
-    closedProductive = productive && s > 0 && (negativeFlows || pc.upper < 1);
+    const closedSchur = closedSchurVerdict(pm);
+    // With A ≥ 0 productive and households' coefficients ≥ 0, ρ(Ā) < 1 exactly when s > 0 (the bordered matrix is
+    // a nonsingular M-matrix; Berman & Plemmons 1994, ch. 6, recalled from memory), so the sign of s decides, beyond
+    // its rounding; the power iteration's bounds may stay wide when Ā is nearly periodic. With negative flows the
+    // bound on ρ(|Ā|) must be below 1 as well.
+    closedProductive = productive && closedSchur.positive && (negativeFlows ? pc.upper < 1 : true);
     if (!productive) closedWhy = 'the open model is not productive';
     else if (!closedProductive) {
-      closedWhy = `the household-closed model is not productive (Perron root ${fmt(pc.root)}, bounds ${fmt(pc.lower)}–${fmt(pc.upper)}): households re-spend at least all they earn locally`;
+      closedWhy = `the household-closed model is not productive (Schur complement ${fmt(closedSchur.s)}${closedSchur.s > 0 ? `, within its rounding bound ${fmt(closedSchur.tolerance)}` : ''}; Perron root bounds ${fmt(pc.lower)}–${fmt(pc.upper)}): households re-spend at least all they earn locally`;
       warn('closed-not-productive', `${closedWhy}; Type II multipliers are not defined`);
     }
   }
 
   const avail: Availability = {
-    open: productive ? true : 'the table is not productive (Perron root of A not below 1)',
+    open: productive ? true : openLU.singular
+      ? 'I − A is singular (1 is an eigenvalue of A), so no finite Leontief inverse exists; check that every sector has value added or imports'
+      : 'the table is not productive (Perron root of A not below 1)',
     closed: closedWhy,
   };
   const multipliers = computeMultipliers(pm, avail);

@@ -1,8 +1,12 @@
-/** The model: coefficients, the prepared factorisation, viability, multipliers and linkages of one table. */
-export { analyzeTable, analyzePrepared, type Analysis, type AnalysisOptions, type Viability, type AccuracyChecks, type CoefficientsOut, type BlockInfo } from './analysis.ts';
-export { prepareModel, solveOpen, solveOpenTransposed, solveClosed, solveClosedTransposed, closedBorder, type PreparedModel, type ClosedBorder } from './prepared.ts';
-export { coefficients, type Coefficients } from './coefficients.ts';
-export type { Availability, Multipliers, Linkages, NullNote, Values } from './multipliers.ts';
-export { perronRoot } from './perron.ts';
-export type { Mode, ModeKind } from './spectrum.ts';
-export { formLeontief } from './leontief.ts';
+/** The model layer's public API: coefficients, the prepared (factored) model, analyses and their parts. */
+export * from './analysis.ts';
+export * from './closure.ts';
+export * from './coefficients.ts';
+export * from './graph.ts';
+export * from './hawkins.ts';
+export * from './multipliers.ts';
+export * from './perron.ts';
+export * from './prepared.ts';
+export * from './rounds.ts';
+export * from './spectrum.ts';
+export * from './leontief.ts';

@@ -6,3 +6,4 @@ export {
 export { migrateV1, migrateV2, type ProjectV1Doc, type ProjectV2Doc, type ProjectV3Doc } from './schema.ts';
 export { sha256Hex, utf8Bytes } from './sha256.ts';
 export { toBase64, fromBase64 } from './base64.ts';
+export { roleMapSchema } from './schema.ts';

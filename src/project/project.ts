@@ -8,10 +8,10 @@
  * from a newer version, or inconsistent; the caller keeps the file on disk untouched.
  * The save itself (temporary file, then rename) is the caller's: the CLI's writer or the desktop shell.
  */
-import { InputError, type Warning } from '../diagnostics/errors.ts';
+import { InputError, type Warning } from '../diagnostics/index.ts';
 import { importTable, type ImportOptions } from '../table/index.ts';
-import type { Scenario, SpendingPattern } from '../scenario/types.ts';
-import type { IOTable, LabelledVector } from '../table/types.ts';
+import type { Scenario, SpendingPattern } from '../scenario/index.ts';
+import type { IOTable, LabelledVector } from '../table/index.ts';
 import { writeJson, type Json } from './json.ts';
 import {
   DEFAULT_SETTINGS, PROJECT_FORMAT, PROJECT_VERSION, migrateV1, migrateV2, projectV1Schema, projectV2Schema, projectV3Schema,

@@ -2,10 +2,10 @@
  * Analysis reports: multipliers and linkages by sector, coefficients, the Leontief inverse, viability and the spectrum.
  * Each is a rectangular CSV with units in the header names plus an `.about.txt` sidecar with the cautions (document.ts).
  */
-import type { Cell } from './csv.ts';
+import type { Cell } from '../csv/index.ts';
 import { reportFiles, type ReportFile, type ReportMeta } from './document.ts';
-import type { Analysis } from '../model/analysis.ts';
-import type { NullNote } from '../model/multipliers.ts';
+import type { Analysis } from '../model/index.ts';
+import type { NullNote } from '../model/index.ts';
 import { verdictOf } from './verdict.ts';
 import { LINKAGE_CLASS_NAMES, MEASURES, linkageClass, measureHeader, measureValues } from './measures.ts';
 
@@ -182,4 +182,9 @@ export function analysisReport(an: Analysis, kind: AnalysisReportKind, ctx: Anal
 function verdictLines(an: Analysis): string[] {
   const v = verdictOf(an);
   return [`Verdict: ${v.say}`, ...v.detail];
+}
+
+/** Every analysis report the analysis holds (the Leontief inverse only when it was formed). */
+export function analysisReports(an: Analysis, ctx: AnalysisReportContext): ReportFile[] {
+  return ANALYSIS_REPORT_KINDS.flatMap((k) => analysisReport(an, k, ctx) ?? []);
 }

@@ -4,8 +4,8 @@
  * income per unit of final demand, `income.typeII` its ratio to the direct income). Definitions after Miller & Blair,
  * Input-Output Analysis, 2nd ed. 2009, ch. 6; linkage indices after Rasmussen 1956.
  */
-import type { Analysis } from '../model/analysis.ts';
-import type { Values } from '../model/multipliers.ts';
+import type { Analysis } from '../model/index.ts';
+import type { Values } from '../model/index.ts';
 
 export type MeasureKey =
   | 'output.typeI' | 'output.typeII'

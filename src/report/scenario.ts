@@ -3,12 +3,12 @@
  * employment), spending rounds, the scenario's implied multipliers, structural paths and scenario comparisons.
  * Each is a rectangular CSV with units in the header names plus an `.about.txt` sidecar (see document.ts).
  */
-import type { Cell } from './csv.ts';
+import type { Cell } from '../csv/index.ts';
 import { reportFiles, type ReportFile, type ReportMeta } from './document.ts';
-import type { PathAnalysis } from '../scenario/paths.ts';
-import { COVERAGE_TARGETS, type RoundsResult } from '../scenario/rounds.ts';
-import type { ScenarioComparison } from '../scenario/compare.ts';
-import { VARIABLES, type EffectSplit, type Scenario, type ScenarioResult, type Variable } from '../scenario/types.ts';
+import type { PathAnalysis } from '../scenario/index.ts';
+import { COVERAGE_TARGETS, type RoundsResult } from '../scenario/index.ts';
+import type { ScenarioComparison } from '../scenario/index.ts';
+import { VARIABLES, type EffectSplit, type Scenario, type ScenarioResult, type Variable } from '../scenario/index.ts';
 
 /** Cautions that belong to demand-shock scenarios in particular, added to the general ones of cautions.ts. */
 export const SCENARIO_CAUTIONS: readonly string[] = [

@@ -6,7 +6,7 @@
  * the long-run rate at which rounds shrink; it does not bound the first rounds, whose ratios depend on where the
  * demand starts (Miller & Blair 2009, §2.4 on the power series; Golub & Van Loan 2013, §7.3 on the power method).
  */
-import type { Analysis } from '../model/analysis.ts';
+import type { Analysis } from '../model/index.ts';
 
 export interface Verdict {
   /** true: productive; false: not productive; null: the tests disagree beyond rounding and cannot decide. */
@@ -48,7 +48,7 @@ export function verdictOf(an: Analysis): Verdict {
   if (v.productive) {
     const closed = an.availability.closed;
     detail.push(closed === true
-      ? `Households closed (Type II): the household-closed model is productive too (Perron root ${v.perronRootClosed === null ? 'n/a' : fixed(v.perronRootClosed)}), so induced effects are available.`
+      ? 'Households closed (Type II): the household-closed model is productive too, so induced effects are available.'
       : `No Type II model: ${closed}.`);
   }
   return { productive, say, detail };

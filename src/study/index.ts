@@ -3,7 +3,7 @@
  * The CLI commands and the app's worker reach the engine only through here.
  */
 export {
-  studyFromTableFile, studyFromProjectFile, projectFileOf, withTable, scenarioNamed,
+  studyFromTableFile, studyFromProjectFile, studyOfTable, projectFileOf, withTable, scenarioNamed,
   type Study, type StudySettings, type StudySource, type ImportSettings,
 } from './study.ts';
 export { prepareStudy, restudy, CLOSURE_OFF, type PreparedStudy, type PrepareOptions } from './prepare.ts';
@@ -17,13 +17,13 @@ export { studyAnalysisJson, scenarioJson } from './json.ts';
 
 // What the front ends need besides the study itself (they import engine code only through this file).
 export type Closure = import('./study.ts').StudySettings['closure'];
-export { formatLocated, isInputError, InputError, type Location, type Warning } from '../diagnostics/errors.ts';
+export { formatLocated, isInputError, InputError, type Location, type Warning } from '../diagnostics/index.ts';
 export { previewTable, ROW_ROLES, COLUMN_ROLES, type IOTable, type TablePreview, type RoleMap } from '../table/index.ts';
-export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../table/sample.ts';
+export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../table/index.ts';
 export { luInverse } from '../linalg/index.ts';
 export type { ModeKind } from '../model/index.ts';
 export {
-  CAUTIONS, SCENARIO_CAUTIONS, MEASURES, measureValues, linkageClass, LINKAGE_CLASS_NAMES, aboutText,
+  CAUTIONS, SCENARIO_CAUTIONS, MEASURES, measureValues, linkageClass, LINKAGE_CLASS_NAMES, aboutText, modelTypeOf, reachText,
   type ReportFile, type Measure, type MeasureKey, type LinkageClass, type Verdict,
 } from '../report/index.ts';
 export {

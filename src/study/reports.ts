@@ -3,7 +3,7 @@
  * that builds it. The CLI's --out and the app's Export screen list and write the same set from here, with the same
  * file names, headers and sidecars.
  */
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 import { formLeontief } from '../model/index.ts';
 import {
   analysisReport, comparisonReport, impactReport, inputsReport, pathReport, roundsReport, scenarioMultiplierReport,

@@ -3,7 +3,7 @@
  * rounds with the Perron root beside them, and structural paths traced in the same model as the effects, so the paths
  * to a sector add up to that sector's total in the effects table.
  */
-import { formatLocated, InputError } from '../diagnostics/errors.ts';
+import { formatLocated, InputError } from '../diagnostics/index.ts';
 import {
   compareScenarios, runScenario, spendingRounds, structuralPaths,
   type PathAnalysis, type RoundsResult, type Scenario, type ScenarioComparison, type ScenarioResult, type SpendingPattern,

@@ -3,7 +3,7 @@
  * paths, rounds) and its named scenarios. Studies are created from a table file or a project file, and saved as a
  * project file; every front end (CLI, app) goes through these functions, so a study means the same everywhere.
  */
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 import {
   createProject, importSource, parseProject, serializeProject, sourceInfo,
   type ImportSettings, type Project, type ProjectSettings, type SourceInfo,
@@ -20,6 +20,11 @@ export function studyFromTableFile(bytes: Uint8Array, fileName: string, settings
   const source = sourceInfo(fileName, bytes, { import: settings });
   const table = importSource(source as SourceInfo & { content: Uint8Array });
   return createProject(table, { source, ...(opts.name !== undefined ? { name: opts.name } : {}), ...(opts.scenarios ? { scenarios: opts.scenarios } : {}) });
+}
+
+/** A study of a table that exists only in memory (an estimate, a test table): no source bytes to keep. */
+export function studyOfTable(table: Study['table'], opts: { name?: string; scenarios?: Scenario[] } = {}): Study {
+  return createProject(table, { ...(opts.name !== undefined ? { name: opts.name } : {}), ...(opts.scenarios ? { scenarios: opts.scenarios } : {}) });
 }
 
 /** The study saved in a project file (any supported version). */

@@ -5,12 +5,12 @@
  * factorisation.
  */
 import { importTable } from '../../src/table/index.ts';
-import { writeTableCsv } from '../../src/table/write.ts';
-import { prepareModel } from '../../src/model/prepared.ts';
-import { analyzeTable } from '../../src/model/analysis.ts';
+import { writeTableCsv } from '../../src/table/index.ts';
+import { prepareModel } from '../../src/model/index.ts';
+import { analyzeTable } from '../../src/model/index.ts';
 import { runScenario } from '../support/scenario.ts';
-import type { Scenario } from '../../src/scenario/types.ts';
-import type { IOTable } from '../../src/table/types.ts';
+import type { Scenario } from '../../src/scenario/index.ts';
+import type { IOTable } from '../../src/table/index.ts';
 import { inventedTable } from './table.ts';
 import { time, type Timing } from './timing.ts';
 

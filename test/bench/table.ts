@@ -3,7 +3,7 @@
  * Z = A·diag(x) from inventedCoefficients, rounded to cents, balanced so that every row and column total equals
  * total output; labour income, other value added, imports, household consumption, other final demand, employment.
  */
-import type { IOTable } from '../../src/table/types.ts';
+import type { IOTable } from '../../src/table/index.ts';
 import { luFactor, luSolve, identityMinus } from '../../src/linalg/index.ts';
 import { inventedCoefficients, seeded } from './matrices.ts';
 

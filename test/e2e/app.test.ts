@@ -12,10 +12,10 @@ import type { Page } from 'playwright-core';
 import Papa from 'papaparse';
 import { DOWNLOADS, REPO, shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
 import { importTable } from '../../src/table/index.ts';
-import { prepareModel } from '../../src/model/prepared.ts';
-import { analyzeTable } from '../../src/model/analysis.ts';
+import { prepareModel } from '../../src/model/index.ts';
+import { analyzeTable } from '../../src/model/index.ts';
 import { runScenario } from '../support/scenario.ts';
-import type { Scenario } from '../../src/scenario/types.ts';
+import type { Scenario } from '../../src/scenario/index.ts';
 import type { Download } from 'playwright-core';
 
 const FIX = join(REPO, 'test', 'fixtures', 'e2e');

@@ -11,11 +11,11 @@ import { reactive } from 'vue';
 import { api } from '../../renderer/worker/compute.ts';
 import { plain } from '../../renderer/worker/client.ts';
 import { importTable } from '../../src/table/index.ts';
-import { SAMPLE_CSV, SAMPLE_FILE_NAME } from '../../src/table/sample.ts';
-import { analyzeTable } from '../../src/model/analysis.ts';
-import { prepareModel } from '../../src/model/prepared.ts';
+import { SAMPLE_CSV, SAMPLE_FILE_NAME } from '../../src/table/index.ts';
+import { analyzeTable } from '../../src/model/index.ts';
+import { prepareModel } from '../../src/model/index.ts';
 import { runScenario } from '../support/scenario.ts';
-import type { Scenario } from '../../src/scenario/types.ts';
+import type { Scenario } from '../../src/scenario/index.ts';
 import { REPORTS } from '../../src/study/index.ts';
 import type { StudyChoices } from '../../renderer/worker/protocol.ts';
 

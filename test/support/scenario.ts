@@ -1,10 +1,10 @@
 // Scenarios in tests: the engine's runScenario with the models the table's own analysis allows (households closed
 // when the closed model is productive), unless a test passes its own.
-import { analyzePrepared } from '../../src/model/analysis.ts';
-import type { PreparedModel } from '../../src/model/prepared.ts';
-import type { Availability } from '../../src/model/multipliers.ts';
-import { runScenario as engineRunScenario } from '../../src/scenario/effects.ts';
-import type { Scenario, ScenarioResult } from '../../src/scenario/types.ts';
+import { analyzePrepared } from '../../src/model/index.ts';
+import type { PreparedModel } from '../../src/model/index.ts';
+import type { Availability } from '../../src/model/index.ts';
+import { runScenario as engineRunScenario } from '../../src/scenario/index.ts';
+import type { Scenario, ScenarioResult } from '../../src/scenario/index.ts';
 
 const cache = new WeakMap<PreparedModel, Availability>();
 

@@ -4,13 +4,10 @@
  * print one JSON object (--json), and/or write CSV reports with their sidecar notes into DIR (--out).
  */
 import { parseArgs } from 'node:util';
-import { createHash } from 'node:crypto';
 import { basename, join } from 'node:path';
-import { InputError, formatLocated } from '../../diagnostics/errors.ts';
-import { importTable, parseRoleMap } from '../../table/index.ts';
-import { analyzeTable, type Analysis } from '../../model/analysis.ts';
-import { analysisJson } from '../../report/analysis-json.ts';
-import { analysisReports } from '../../report/analysis.ts';
+import { InputError, formatLocated } from '../../diagnostics/index.ts';
+import { parseRoleMap } from '../../table/index.ts';
+import { MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy } from '../../study/index.ts';
 import { readInputFile, writeFileAtomic, type CliIO } from '../io.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
 
@@ -19,29 +16,42 @@ const PARALLEL_MIN_SECTORS = 500;
 
 const USAGE = 'usage: roundwise analyze TABLE.csv [--map MAP.json] [--json] [--out DIR] [--allow-negative] [--tolerance T]';
 
-/** The file's bytes; with `limit`, its size is checked first so that an oversized file is never read into memory. */
-
 function fmt(x: number | null, digits = 4): string {
   return x === null ? '—' : x.toFixed(digits);
 }
 
-/** A short human summary: viability, then the multipliers table. */
-export function summary(an: Analysis): string {
+/** The measures the terminal summary shows, headed by the engine's own names (two lines: quantity, then form). */
+const SUMMARY_MEASURES = ['output.typeI', 'output.typeII', 'income.typeI', 'income.typeII', 'employment.typeI', 'employment.typeII', 'linkage.backward', 'linkage.forward'] as const;
+
+/** "labour income Type II" → ["labour income", "Type II"]; "backward linkage" → ["linkage", "backward"]. */
+function twoLines(label: string): [string, string] {
+  const m = /^(.*) (Type I+|simple|total)$/.exec(label);
+  if (m) return [m[1]!, m[2]!];
+  const [form = '', quantity = ''] = label.split(' ');
+  return [quantity, form];
+}
+
+/** A short human summary: the verdict in words, then the multipliers table. */
+export function summary(ps: PreparedStudy): string {
+  const an = ps.analysis;
   const v = an.viability;
   const lines = [
     `${an.tableName}: ${an.n} sectors, money unit ${an.moneyUnit || '(not stated)'}`,
-    `productive: ${v.productive ? 'yes' : 'NO'} (Perron root ${v.perronRoot.toFixed(6)}, certified ${v.perronRootBounds[0].toPrecision(10)}–${v.perronRootBounds[1].toPrecision(10)}; Hawkins–Simon ${v.hawkinsSimon ? 'holds' : 'fails'})`,
-    `structure: ${v.irreducible ? `irreducible, ${v.primitive ? 'primitive' : `period ${v.period}`}` : `reducible, ${v.blocks.length} blocks`}; household-closed Perron root ${v.perronRootClosed === null ? 'n/a' : v.perronRootClosed.toFixed(6)}; rounds to ${v.tolerance}: ${v.roundsToTolerance ?? 'does not converge'}`,
+    ps.verdict.say,
+    ...ps.verdict.detail.map((d) => `  ${d}`),
+    `structure: ${v.irreducible ? `irreducible, ${v.primitive ? 'primitive' : `period ${v.period}`}` : `reducible, ${v.blocks.length} blocks`}; rounds until less than ${v.tolerance} of any demand is left: ${v.roundsToTolerance ?? 'not certified'}`,
     '',
   ];
-  const m = an.multipliers;
-  const head = ['sector', 'output I', 'output II', 'income I', 'income II', 'jobs I', 'jobs II', 'backward', 'forward'];
+  const measures = SUMMARY_MEASURES.map((k) => MEASURES.find((m) => m.key === k)!);
   const width = Math.min(28, Math.max(6, ...an.sectors.map((s) => s.length)));
   const pad = (s: string, w: number) => (s.length > w ? s.slice(0, w - 1) + '…' : s.padEnd(w));
-  lines.push([pad(head[0]!, width), ...head.slice(1).map((h) => h.padStart(9))].join(' '));
+  const heads = measures.map((m) => twoLines(m.label));
+  const colWidth = Math.max(10, ...heads.flat().map((h) => h.length));
+  lines.push([pad('', width), ...heads.map((h) => h[0]!.padStart(colWidth))].join(' '));
+  lines.push([pad('sector', width), ...heads.map((h) => h[1]!.padStart(colWidth))].join(' '));
+  const cols = measures.map((m) => measureValues(an, m.key));
   for (let j = 0; j < an.n; j++) {
-    const cells = [m.output.typeI[j], m.output.typeII[j], m.income.typeI[j], m.income.typeII[j], m.employment.typeI[j], m.employment.typeII[j], an.linkages.backward[j], an.linkages.forward[j]];
-    lines.push([pad(an.sectors[j]!, width), ...cells.map((c) => fmt(c ?? null).padStart(9))].join(' '));
+    lines.push([pad(an.sectors[j]!, width), ...cols.map((c) => fmt(c[j] ?? null).padStart(colWidth))].join(' '));
   }
   if (an.linkages.keySectors.length) lines.push('', `key sectors: ${an.linkages.keySectors.map((i) => an.sectors[i]).join(', ')}`);
   return lines.join('\n') + '\n';
@@ -84,33 +94,23 @@ export async function run(args: string[], io: CliIO): Promise<number> {
     }
   }
   const path = positionals[0]!;
-  const fileName = basename(path);
   const roles = values.map !== undefined ? parseRoleMap(readInputFile(values.map).toString('utf8'), basename(values.map)) : undefined;
-  // Only the table survives this block: the file's bytes and text (tens of MB for a large table) can be collected.
-  let sourceHash: string | undefined;
-  const table = (() => {
-    const bytes = readInputFile(path);
-    if (values.out !== undefined) sourceHash = createHash('sha256').update(bytes).digest('hex');
-    return importTable(bytes.toString('utf8'), { fileName, allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
-  })();
-  const threaded = table.n >= PARALLEL_MIN_SECTORS && startParallelKernels() > 0;
-  let an: Analysis;
+  const study = studyFromTableFile(readInputFile(path), basename(path), { allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
+  if (tolerance !== undefined) study.settings.rounds.tolerance = tolerance;
+  const threaded = study.table.n >= PARALLEL_MIN_SECTORS && startParallelKernels() > 0;
+  let ps: PreparedStudy;
   try {
     if (threaded) await parallelKernelsReady(2000);
-    an = analyzeTable(table, { inverse: values.out !== undefined, ...(tolerance !== undefined ? { tolerance } : {}) });
+    ps = prepareStudy(study, { inverse: values.out !== undefined });
   } finally {
     if (threaded) await stopParallelKernels();
   }
 
-  for (const w of an.warnings) io.stderr(`roundwise analyze: warning: ${formatLocated(w)}\n`);
-  if (values.json) io.stdout(JSON.stringify(analysisJson(an)) + '\n');
-  else if (values.out === undefined) io.stdout(summary(an));
+  for (const w of ps.analysis.warnings) io.stderr(`roundwise analyze: warning: ${formatLocated(w)}\n`);
+  if (values.json) io.stdout(JSON.stringify(studyAnalysisJson(ps)) + '\n');
+  else if (values.out === undefined) io.stdout(summary(ps));
   if (values.out !== undefined) {
-    const files = analysisReports(an, {
-      sourceFile: fileName,
-      ...(sourceHash !== undefined ? { sourceHash } : {}),
-      date: new Date().toISOString(),
-    });
+    const files = tableReportSet(ps, new Date().toISOString(), { inverse: true });
     for (const f of files) {
       try {
         writeFileAtomic(join(values.out, f.name), f.content);

@@ -41,7 +41,7 @@ describe('README command-line examples', () => {
       expect(r.err.split('\n').filter((l) => !l.includes('warning')).join(''), line).toBe('');
       expect(r.code, line).toBe(0);
     }
-    expect(readdirSync(join(dir, 'reports'))).toEqual(expect.arrayContaining(['scenario-impact.csv', 'multipliers.csv']));
+    expect(readdirSync(join(dir, 'reports'))).toEqual(expect.arrayContaining(['fernhollow-food-plant-impact.csv', 'fernhollow-food-plant-inputs.csv', 'multipliers.csv']));
   });
 
   it('the food-plant shock fixes Food processing at exactly 300 direct jobs, and effects add up', async () => {

@@ -6,12 +6,12 @@
  */
 import { describe, expect, it } from 'vitest';
 import { importTable } from '../../../src/table/index.ts';
-import { writeTableCsv } from '../../../src/table/write.ts';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { writeTableCsv } from '../../../src/table/index.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import { compareScenarios, spendingRounds, structuralPaths } from '../../../src/scenario/index.ts';
 import { runScenario } from '../../support/scenario.ts';
-import { comparisonReport, impactReport, pathReport, roundsReport, scenarioMultiplierReport } from '../../../src/report/scenario.ts';
-import type { ReportFile } from '../../../src/report/document.ts';
+import { comparisonReport, impactReport, pathReport, roundsReport, scenarioMultiplierReport } from '../../../src/report/index.ts';
+import type { ReportFile } from '../../../src/report/index.ts';
 import { FORMULA_LABELS, formulaTableCsv, unsafeCells } from './csv-safety.ts';
 
 describe('CSV injection, end to end through the engine', () => {
@@ -33,8 +33,8 @@ describe('CSV injection, end to end through the engine', () => {
     const rounds = spendingRounds(pm, s1.effectiveDemand, s1.openOutput);
     const paths = structuralPaths(pm, s1.effectiveDemand, 1);
     const files: ReportFile[] = [
-      ...impactReport(s1, ctx), ...roundsReport(s1, rounds, ctx), ...scenarioMultiplierReport(s1, ctx), ...pathReport(s1, paths, ctx),
-      ...comparisonReport(compareScenarios([s1, s2]), table.moneyUnit, ctx),
+      ...impactReport(s1, ctx, 'impact'), ...roundsReport(s1, rounds, ctx, 'rounds'), ...scenarioMultiplierReport(s1, ctx, 'implied-multipliers'), ...pathReport(s1, paths, ctx, 'paths'),
+      ...comparisonReport(compareScenarios([s1, s2]), table.moneyUnit, ctx, 'comparison'),
       { name: 'table.csv', content: writeTableCsv(table) },
     ];
     const csvs = files.filter((f) => f.name.endsWith('.csv'));
@@ -45,7 +45,7 @@ describe('CSV injection, end to end through the engine', () => {
     // The labels are there, escaped, so the check above looked at them.
     const all = csvs.map((f) => f.content).join('\n');
     for (const l of [...FORMULA_LABELS.slice(0, 3), '=cmd|']) expect(all).toContain(`'${l.replace(/"/g, '""')}`);
-    expect(impactReport(s1, ctx)[0]!.content).toContain("'-2+3");
+    expect(impactReport(s1, ctx, 'impact')[0]!.content).toContain("'-2+3");
     // The written table reads back to the same labels (the importer removes the escaping quote).
     expect(importTable(writeTableCsv(table), { fileName: 'again.csv' }).sectors).toEqual(table.sectors);
   });

@@ -9,12 +9,13 @@ import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'n
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { main } from '../../../src/cli/main.ts';
-import { InputError } from '../../../src/diagnostics/errors.ts';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { main } from '../../../src/cli/index.ts';
+import { InputError } from '../../../src/diagnostics/index.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import { runScenario } from '../../support/scenario.ts';
-import { analyzeTable } from '../../../src/model/analysis.ts';
-import { analysisJson } from '../../../src/report/analysis-json.ts';
+import { analyzeTable } from '../../../src/model/index.ts';
+import { analysisJson } from '../../../src/report/index.ts';
+import { prepareStudy, runStudyScenario, studyOfTable } from '../../../src/study/index.ts';
 import { importTable } from '../../../src/table/index.ts';
 import { EDGE_TABLES } from './edge-tables.ts';
 import { expectCliRefusal, nonFinite, nonFiniteText, runCli } from './gen.ts';
@@ -53,7 +54,7 @@ async function expectFiniteAnalysis(name: keyof typeof EDGE_TABLES) {
 /** The scenario through the engine and through the CLI (--json and --out): all finite, every CSV free of NaN/Infinity text. */
 async function expectFiniteEverywhere(name: keyof typeof EDGE_TABLES) {
   const t = importTable(EDGE_TABLES[name], { fileName: `${name}.csv` });
-  const analysis = analyseScenario(prepareModel(t), { name: 's', lines: [{ sector: 'A', amount: 100, kind: 'final-demand', localShare: 1 }] }, { pathsTo: t.n - 1 });
+  const analysis = runStudyScenario(prepareStudy(studyOfTable(t)), { name: 's', lines: [{ sector: 'A', amount: 100, kind: 'final-demand', localShare: 1 }] }, { paths: t.sectors[t.n - 1]! });
   expect(nonFinite(analysis)).toEqual([]);
   const json = await scenarioCli(name, ['--json', '--paths', t.sectors[t.n - 1]!]);
   expect(json.code, json.err).toBe(0);
@@ -82,7 +83,7 @@ describe('numerical edges', () => {
   it('ρ(A) = 1 exactly: I − A is singular — scenarios are refused with an explanation; the analysis says not productive', async () => {
     const pm = prepareModel(importTable(EDGE_TABLES.rhoOne, { fileName: 'rhoOne.csv' }));
     expect(pm.openLU.singular).toBe(true);
-    expect(refusalCode(() => runScenario(pm, shockA))).toBe('singular');
+    expect(refusalCode(() => runScenario(pm, shockA))).toBe('not-productive');
     const r = await scenarioCli('rhoOne');
     expectCliRefusal(r, 'scenario');
     expect(r.err).toContain('I − A is singular');
@@ -105,7 +106,7 @@ describe('numerical edges', () => {
 
   it('nearly singular I − A (condition about 2e12): results finite, with an ill-conditioning warning in both', async () => {
     const { analysis, analysed } = await expectFiniteEverywhere('nearlySingular');
-    expect(analysis.result.notes.join('\n')).toMatch(/I − A is ill-conditioned \(condition estimate 2\.00e\+12, limit 1e\+12\)/);
+    expect(analysis.notes.join('\n')).toMatch(/I − A is ill-conditioned \(condition estimate 2\.00e\+12, limit 1e\+12\)/);
     expect(analysed.warnings).toMatch(/I − A is ill-conditioned \(condition estimate 2\.00e\+12/);
   });
 
@@ -120,7 +121,7 @@ describe('numerical edges', () => {
   it('periodic (period 2) and reducible matrices: results finite, spending rounds converge', async () => {
     for (const name of ['periodic', 'reducible'] as const) {
       const { analysis } = await expectFiniteEverywhere(name);
-      expect(analysis.rounds.reach.every((r) => r.rounds !== null), name).toBe(true);
+      expect(analysis.rounds.reach.every((r) => r.round !== null), name).toBe(true);
     }
   });
 

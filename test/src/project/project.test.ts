@@ -1,13 +1,13 @@
 import { describe, it, expect } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { InputError } from '../../../src/diagnostics/errors.ts';
+import { InputError } from '../../../src/diagnostics/index.ts';
 import {
   createProject, importSource, parseProject, serializeProject, sourceInfo, PROJECT_VERSION, utf8Bytes, type Project,
 } from '../../../src/project/index.ts';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import type { ScenarioResult } from '../../../src/scenario/index.ts';
-import { writeTableCsv } from '../../../src/table/write.ts';
+import { writeTableCsv } from '../../../src/table/index.ts';
 import { runScenario } from '../../support/scenario.ts';
 import { county4 } from '../scenario/tables.ts';
 

@@ -8,8 +8,8 @@ import { fileURLToPath } from 'node:url';
 import * as math from 'mathjs';
 import Papa from 'papaparse';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
-import { main } from '../../../src/cli/main.ts';
-import { parseProject, projectResults } from '../../../src/project/index.ts';
+import { main } from '../../../src/cli/index.ts';
+import { prepareStudy, runStudyScenario, studyFromProjectFile } from '../../../src/study/index.ts';
 
 const fx = (name: string) => fileURLToPath(new URL(`../../fixtures/scenario/${name}`, import.meta.url));
 
@@ -85,16 +85,17 @@ describe('roundwise scenario', () => {
     const { code } = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--out', out, '--paths', 'Farms');
     expect(code).toBe(0);
     const names = readdirSync(out).sort();
+    // The scenario is named after the shock file (shock.csv): its reports start with 'shock-'.
     expect(names).toEqual([
-      'multipliers.about.txt', 'multipliers.csv', 'scenario-impact.about.txt', 'scenario-impact.csv', 'scenario-multipliers.about.txt', 'scenario-multipliers.csv',
-      'scenario-paths.about.txt', 'scenario-paths.csv', 'scenario-rounds-by-sector.about.txt', 'scenario-rounds-by-sector.csv',
-      'scenario-rounds.about.txt', 'scenario-rounds.csv',
+      'multipliers.about.txt', 'multipliers.csv', 'shock-impact.about.txt', 'shock-impact.csv', 'shock-implied-multipliers.about.txt', 'shock-implied-multipliers.csv',
+      'shock-inputs.about.txt', 'shock-inputs.csv', 'shock-paths.about.txt', 'shock-paths.csv', 'shock-rounds-by-sector.about.txt', 'shock-rounds-by-sector.csv',
+      'shock-rounds.about.txt', 'shock-rounds.csv',
     ]);
-    const impact = Papa.parse<unknown[]>(readFileSync(join(out, 'scenario-impact.csv'), 'utf8'), { dynamicTyping: true, skipEmptyLines: true }).data;
+    const impact = Papa.parse<unknown[]>(readFileSync(join(out, 'shock-impact.csv'), 'utf8'), { dynamicTyping: true, skipEmptyLines: true }).data;
     expect(impact).toHaveLength(5);
     expect(impact[1]![0]).toBe('Farms');
     expect(impact[1]![4]).toBeCloseTo(reference(true)[0]!, 9);
-    const about = readFileSync(join(out, 'scenario-impact.about.txt'), 'utf8');
+    const about = readFileSync(join(out, 'shock-impact.about.txt'), 'utf8');
     expect(about).toMatch(/Source SHA-256: [0-9a-f]{64}/);
     expect(about).toContain('Source file: table.csv');
     expect(about).toMatch(/Produced: \d{4}-\d\d-\d\dT/);
@@ -103,10 +104,13 @@ describe('roundwise scenario', () => {
     const path = join(dir, 'study.json');
     const a = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--project', path, '--json');
     expect(a.code).toBe(0);
-    const p = parseProject(readFileSync(path, 'utf8'), path);
-    const [r] = projectResults(p);
-    expect(Array.from(r!.effects.output.total)).toEqual(JSON.parse(a.out).effects.output.total);
+    const p = studyFromProjectFile(readFileSync(path, 'utf8'), path);
+    const r = runStudyScenario(prepareStudy(p), p.scenarios[0]!).result;
+    expect(Array.from(r.effects.output.total)).toEqual(JSON.parse(a.out).effects.output.total);
     expect(p.source!.fileName).toBe('table.csv');
+    // The closure the command line ran with is in the study: the app opens it with households closed too.
+    expect(p.settings.closure).toBe('households');
+    expect(r.closure).toBe('household');
     // Saving again over a valid project is fine; over anything else it is refused and the file is left as it was.
     expect((await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--project', path)).code).toBe(0);
     const foreign = join(dir, 'notes.json');
@@ -136,5 +140,23 @@ describe('roundwise scenario', () => {
     const badMap = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('shock.csv'));
     expect(badMap.code).toBe(2);
     expect(badMap.err).toMatch(/role map is not valid JSON/);
+  });
+  it('--closure none leaves out induced effects and says why; the default uses the closure the table allows', async () => {
+    const none = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--closure', 'none', '--json');
+    expect(none.code, none.err).toBe(0);
+    const j = JSON.parse(none.out);
+    expect(j.closure).toBe('none');
+    expect(j.totals.output.induced).toBeNull();
+    expect(j.model).toMatch(/no induced effects \(the household closure is switched off/);
+    for (let i = 0; i < 3; i++) expect(j.effects.output.total[i]).toBeCloseTo(reference(false)[i]!, 9);
+    const bad = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--closure', 'maybe');
+    expect(bad.err).toMatch(/--closure must be households or none/);
+  });
+  it('--paths prints the path table in the summary, adding up in the model of the effects', async () => {
+    const { code, out } = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--paths', 'Farms');
+    expect(code).toBe(0);
+    expect(out).toMatch(/Structural paths to 'Farms' \(closed model\): output change there /);
+    expect(out).toMatch(/carries +share +path/);
+    expect(out).toMatch(/Mills > Farms/);
   });
 });
