@@ -64,10 +64,10 @@ function multiplierOf(t: EffectTotals, noClosure: string): ScenarioMultiplier {
 export type ScenarioModels = Availability;
 
 export function runScenario(pm: PreparedModel, scenario: Scenario, models: ScenarioModels): ScenarioResult {
-  const shock = resolveShock(pm, scenario);
   if (models.open !== true) {
     throw new InputError('not-productive', `scenario effects are not defined: ${models.open}; check the table (its viability report says why)`);
   }
+  const shock = resolveShock(pm, scenario);
   const useClosure = pm.closed !== null && models.closed === true;
   const { n, sectors, h, otherVA, e } = pm.coef;
   const direct = Float64Array.from(shock.df);
