@@ -11,7 +11,8 @@ export const importRules = {
   engine: {
     'no-restricted-imports': ['error', {
       patterns: [
-        { group: nodeModules, message: 'src/ is the pure engine: no Node built-ins outside src/cli.' },
+        { group: nodeModules, message: 'src/ is the pure engine: no Node built-ins outside src/cli and src/node-io.' },
+        { group: ['**/node-io', '**/node-io/**'], message: 'src/node-io is Node I/O for src/cli and main/ only; the engine stays pure.' },
         { group: ['electron', 'vue', 'chart.js', 'chart.js/*'], message: 'src/ is the pure engine: no UI or Electron packages.' },
         { group: ['zod'], message: "import z from src/schema/zod.ts (it sets jitless for the desktop CSP)." },
         { group: ['**/renderer', '**/renderer/**', '**/main/**'], message: 'src/ must not import renderer/ or main/ (imports go downward only).' },
@@ -23,7 +24,7 @@ export const importRules = {
     'no-restricted-imports': ['error', {
       patterns: [
         { group: ['electron', 'vue', 'chart.js'], message: 'The CLI is headless: no UI or Electron packages.' },
-        { group: ['**/renderer', '**/renderer/**', '**/main/**'], message: 'src/cli must not import renderer/ or main/.' },
+        { group: ['**/renderer', '**/renderer/**', '**/main/**'], message: 'src/cli and src/node-io must not import renderer/ or main/.' },
       ],
     }],
   },
@@ -31,6 +32,7 @@ export const importRules = {
     'no-restricted-imports': ['error', {
       patterns: [
         { group: [...nodeModules, 'electron'], message: 'renderer/ is browser code: reach the desktop only through the bridge (src/bridge).' },
+        { group: ['**/node-io', '**/node-io/**'], message: 'renderer/ is browser code: src/node-io is for src/cli and main/ only.' },
         { group: ['**/main', '**/main/**'], message: 'renderer/ must not import main/: use the typed bridge in src/bridge.' },
       ],
     }],
@@ -61,8 +63,8 @@ export default tseslint.config(
       'vue/html-self-closing': 'off',
     },
   },
-  { files: ['src/**/*.ts'], ignores: ['src/cli/**'], rules: importRules.engine },
-  { files: ['src/cli/**/*.{ts,mjs}'], rules: importRules.cli },
+  { files: ['src/**/*.ts'], ignores: ['src/cli/**', 'src/node-io/**'], rules: importRules.engine },
+  { files: ['src/cli/**/*.{ts,mjs}', 'src/node-io/**/*.ts'], rules: importRules.cli },
   { files: ['src/schema/zod.ts'], rules: { 'no-restricted-imports': 'off' } },
   { files: ['renderer/**/*.{ts,vue}'], ignores: ['renderer/vite.config.ts'], rules: importRules.renderer },
   { files: ['main/**/*.{ts,mjs}'], rules: importRules.main },

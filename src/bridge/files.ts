@@ -3,12 +3,14 @@
  * limit) and the browser bridge (file-input accept list, read limit) so both refuse the same files.
  */
 import type { ExportKind, FileKind } from './contract.ts';
+import { MAX_TABLE_BYTES } from '../table/index.ts';
 
 /**
- * Largest file either shell reads into memory (128 MiB). Bigger files are refused before they are read;
- * the importer may apply a lower limit of its own before parsing, using OpenedFile.size.
+ * Largest file either shell reads into memory: the one limit for every file the product reads (the importer's,
+ * 200 MiB; the CLI and the desktop shell read through src/node-io with the same number). Bigger files are refused
+ * before they are read.
  */
-export const MAX_OPEN_BYTES = 128 * 1024 * 1024;
+export const MAX_OPEN_BYTES = MAX_TABLE_BYTES;
 
 /** Largest content the UI may hand to a save or export (same limit, in UTF-16 code units or base64 characters). */
 export const MAX_SAVE_CHARS = 128 * 1024 * 1024;

@@ -37,4 +37,12 @@ describe('import rules', () => {
     expect(await ruleIds("import { readFileSync } from 'node:fs';\nexport const y = readFileSync;\n", 'src/cli/ok.ts')).toEqual([]);
     expect(await ruleIds("import { luFactor } from '../src/linalg/index.ts';\nexport const y = luFactor;\n", 'renderer/ok.ts')).toEqual([]);
   });
+  it('keeps src/node-io (Node file I/O) for the CLI and main/ only', async () => {
+    const fsImport = "import { readFileSync } from 'node:fs';\nexport const y = readFileSync;\n";
+    expect(await ruleIds(fsImport, 'src/node-io/ok.ts')).toEqual([]);
+    expect(await ruleIds("import { writeFileAtomic } from '../node-io/index.ts';\nexport const y = writeFileAtomic;\n", 'src/cli/ok.ts')).toEqual([]);
+    expect(await ruleIds("import { writeFileAtomic } from '../src/node-io/index.ts';\nexport const y = writeFileAtomic;\n", 'main/ok.ts')).toEqual([]);
+    expect(await ruleIds("import { writeFileAtomic } from '../node-io/index.ts';\nexport const y = writeFileAtomic;\n", 'src/model/bad.ts')).toContain('no-restricted-imports');
+    expect(await ruleIds("import { writeFileAtomic } from '../../src/node-io/index.ts';\nexport const y = writeFileAtomic;\n", 'renderer/state/bad.ts')).toContain('no-restricted-imports');
+  });
 });

@@ -54,14 +54,7 @@ export function readRoleMap(path: string | undefined): Partial<RoleMap> | undefi
 /** Write every file of a result (all contents are built before the first write), each atomically. */
 export function writeAll(dir: string, files: ReportFile[]): string[] {
   const paths = files.map((f) => join(dir, f.name));
-  files.forEach((f, k) => {
-    try {
-      writeFileAtomic(paths[k]!, f.content);
-    } catch (e) {
-      const code = (e as { code?: string }).code ?? 'error';
-      throw new InputError('out-unwritable', `cannot write the file (${code}); nothing after it was written`, { file: paths[k]! });
-    }
-  });
+  files.forEach((f, k) => writeFileAtomic(paths[k]!, f.content));
   return paths;
 }
 
