@@ -15,17 +15,17 @@ export function parseCommandArgs<O extends Options>(args: string[], options: O, 
     return parseArgs({ args, options, allowPositionals: true, strict: true });
   } catch (e) {
     const msg = e instanceof Error ? e.message.split('\n')[0]! : String(e);
-    throw new InputError('usage', `${msg}\n  usage: ${usage}`);
+    throw new InputError('usage', msg, {}, `usage: ${usage}`);
   }
 }
 
 export function requireOne(positionals: string[], what: string, usage: string): string {
-  if (positionals.length !== 1) throw new InputError('usage', `expected one ${what} file, got ${positionals.length}\n  usage: ${usage}`);
+  if (positionals.length !== 1) throw new InputError('usage', `expected one ${what} file, got ${positionals.length}`, {}, `usage: ${usage}`);
   return positionals[0]!;
 }
 
 export function requireOption(value: string | undefined, name: string, usage: string): string {
-  if (value === undefined || value === '') throw new InputError('usage', `--${name} is required\n  usage: ${usage}`);
+  if (value === undefined || value === '') throw new InputError('usage', `--${name} is required`, {}, `usage: ${usage}`);
   return value;
 }
 

@@ -33,7 +33,7 @@ interface Args {
 const USAGE = 'usage: roundwise scenario TABLE.csv --shock SHOCK.csv [--map MAP.json] [--json] [--out DIR] [--paths SECTOR] [--project FILE.json]';
 
 function usageError(message: string): InputError {
-  return new InputError('usage', `${message}\n${USAGE}`);
+  return new InputError('usage', message, {}, USAGE);
 }
 
 export function parseArgs(argv: string[]): Args {
