@@ -3,14 +3,13 @@
  * limit) and the browser bridge (file-input accept list, read limit) so both refuse the same files.
  */
 import type { ExportKind, FileKind } from './contract.ts';
-import { MAX_TABLE_BYTES } from '../table/index.ts';
 
 /**
- * Largest file either shell reads into memory: the one limit for every file the product reads (the importer's,
- * 200 MiB; the CLI and the desktop shell read through src/node-io with the same number). Bigger files are refused
- * before they are read.
+ * Largest file the product reads into memory, 200 MiB (a 2000-sector table is about 40 MB): the one limit for every
+ * file, in the browser bridge, in the CLI and the desktop shell (src/node-io) and in the table importer
+ * (MAX_TABLE_BYTES). Bigger files are refused before they are read.
  */
-export const MAX_OPEN_BYTES = MAX_TABLE_BYTES;
+export const MAX_OPEN_BYTES = 200 * 1024 * 1024;
 
 /** Largest content the UI may hand to a save or export (same limit, in UTF-16 code units or base64 characters). */
 export const MAX_SAVE_CHARS = 128 * 1024 * 1024;

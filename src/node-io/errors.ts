@@ -2,7 +2,7 @@
  * The one table of file-system failures in words (errno code → short reason), for the CLI and the desktop shell
  * alike: a refusal names the file and says what went wrong, never a raw errno dump or a stack trace.
  */
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 
 const REASONS: Record<string, string> = {
   ENOENT: 'no such file (it or its folder does not exist)',

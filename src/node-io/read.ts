@@ -8,13 +8,12 @@
  * (files under /proc report 0, a file can grow while it is read).
  */
 import { closeSync, constants, fstatSync, openSync, readSync } from 'node:fs';
-import { InputError } from '../diagnostics/errors.ts';
-import { MAX_TABLE_BYTES } from '../table/index.ts';
-import { formatBytes } from '../bridge/files.ts';
+import { InputError } from '../diagnostics/index.ts';
+import { formatBytes, MAX_OPEN_BYTES } from '../bridge/files.ts';
 import { fileError } from './errors.ts';
 
-/** Largest file read into memory: the importer's table limit, the same for every file and both shells. */
-export const MAX_INPUT_BYTES = MAX_TABLE_BYTES;
+/** Largest file read into memory: the product's one limit (src/bridge/files.ts), the same for every file. */
+export const MAX_INPUT_BYTES = MAX_OPEN_BYTES;
 
 /** Which file on disk a read came from, so that a later write can refuse to replace it. */
 export interface FileIdentity {

@@ -13,7 +13,7 @@
 import { randomBytes } from 'node:crypto';
 import { closeSync, fchmodSync, fsyncSync, lstatSync, mkdirSync, openSync, readdirSync, readlinkSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 import { errnoCode, fileError } from './errors.ts';
 import type { FileIdentity } from './read.ts';
 

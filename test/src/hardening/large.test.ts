@@ -58,7 +58,7 @@ describe('large inputs', () => {
 
 describe('the CLI and a file over the limit', () => {
   it('a 1 GiB table is refused by its size before it is read (scenario and analyze): exit 2, memory does not grow by the file', async () => {
-    const { main } = await import('../../../src/cli/main.ts');
+    const { main } = await import('../../../src/cli/index.ts');
     const { runCli, expectCliRefusal } = await import('./gen.ts');
     const { truncateSync } = await import('node:fs');
     const table = join(dir, 'sparse.csv');
@@ -71,7 +71,7 @@ describe('the CLI and a file over the limit', () => {
       const r = await runCli(main, argv);
       const grown = process.memoryUsage().rss - before;
       expectCliRefusal(r, argv[0]!);
-      expect(r.err).toMatch(new RegExp(`^roundwise ${argv[0]}: (.*/)?sparse\\.csv: file is 1024 MiB; the limit for a table is 200 MiB\n$`));
+      expect(r.err).toMatch(new RegExp(`^roundwise ${argv[0]}: (.*/)?sparse\\.csv: file is 1024\\.0 MB, larger than the 200\\.0 MB limit; nothing was read\n$`));
       expect(grown).toBeLessThan(200 * 1024 * 1024);
     }
   });
