@@ -6,7 +6,7 @@
  * older versions that kept only the imported numbers are checked by the importer's whole-table validations instead.
  * Loading refuses, with one clear message, a file that is empty, truncated, not JSON, not a Roundwise project,
  * from a newer version, or inconsistent; the caller keeps the file on disk untouched.
- * The save itself (temporary file, then rename) is the caller's: the CLI's writer or the desktop shell.
+ * The save itself (temporary file, then rename) is the caller's: `writeFileAtomic` of src/node-io (the CLI and the desktop shell both use it).
  */
 import { InputError, type Warning } from '../diagnostics/index.ts';
 import { importTable, type ImportOptions } from '../table/index.ts';

@@ -5,7 +5,7 @@
  */
 import { parseArgs } from 'node:util';
 import { basename, join } from 'node:path';
-import { InputError, formatLocated } from '../../diagnostics/index.ts';
+import { formatLocated } from '../../diagnostics/index.ts';
 import { parseRoleMap } from '../../table/index.ts';
 import { MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy } from '../../study/index.ts';
 import { readInputFile, writeFileAtomic, type CliIO } from '../io.ts';
@@ -111,13 +111,7 @@ export async function run(args: string[], io: CliIO): Promise<number> {
   else if (values.out === undefined) io.stdout(summary(ps));
   if (values.out !== undefined) {
     const files = tableReportSet(ps, new Date().toISOString(), { inverse: true });
-    for (const f of files) {
-      try {
-        writeFileAtomic(join(values.out, f.name), f.content);
-      } catch (e) {
-        throw new InputError('unwritable-output', `cannot write the report (${(e as { code?: string }).code ?? 'error'})`, { file: join(values.out, f.name) });
-      }
-    }
+    for (const f of files) writeFileAtomic(join(values.out, f.name), f.content);
     if (!values.json) io.stdout(`wrote ${files.length} files to ${values.out}\n`);
   }
   return 0;

@@ -13,7 +13,7 @@ import {
   CAUTIONS, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile,
   studyFromTableFile, tableReport, VARIABLES, type PreparedStudy, type ScenarioOutcome,
 } from '../../study/index.ts';
-import { readBytes, readInputFile, writeFileAtomic, type CliIO } from '../io.ts';
+import { readInputFile, writeFileAtomic, type CliIO } from '../io.ts';
 
 interface Args {
   table: string;
@@ -29,7 +29,7 @@ interface Args {
 const USAGE = 'usage: roundwise scenario TABLE.csv --shock SHOCK.csv [--map MAP.json] [--closure households|none] [--json] [--out DIR] [--paths SECTOR] [--project FILE.json]';
 
 function usageError(message: string): InputError {
-  return new InputError('usage', `${message}\n${USAGE}`);
+  return new InputError('usage', message, {}, USAGE);
 }
 
 export function parseArgs(argv: string[]): Args {
@@ -55,12 +55,8 @@ export function parseArgs(argv: string[]): Args {
 const decoder = new TextDecoder('utf-8');
 
 /** An output that cannot be written (a file where a folder should be, no permission, full disk) is a located refusal. */
-function writeOrRefuse(path: string, content: string): void {
-  try {
-    writeFileAtomic(path, content);
-  } catch (e) {
-    throw new InputError('unwritable-output', `cannot write the file (${(e as { code?: string }).code ?? 'error'})`, { file: path });
-  }
+function writeFileAtomic(path: string, content: string): void {
+  writeFileAtomic(path, content);
 }
 
 function readRoleMap(path: string): Partial<RoleMap> {
@@ -83,7 +79,7 @@ function readRoleMap(path: string): Partial<RoleMap> {
 function refuseToOverwriteForeign(path: string): void {
   let bytes: Uint8Array;
   try {
-    bytes = readBytes(path);
+    bytes = readInputFile(path);
   } catch {
     return; // nothing there yet
   }
@@ -148,13 +144,13 @@ export async function run(argv: string[], io: CliIO): Promise<number> {
     const files = [...scenarioReportSet(ps, outcome, date), ...tableReport(ps, 'multipliers', date)];
     for (const f of files) {
       const path = join(args.out, f.name);
-      writeOrRefuse(path, f.content);
+      writeFileAtomic(path, f.content);
       written.push(path);
     }
   }
   if (args.project !== undefined) {
     refuseToOverwriteForeign(args.project);
-    writeOrRefuse(args.project, projectFileOf(study));
+    writeFileAtomic(args.project, projectFileOf(study));
     written.push(args.project);
   }
   if (args.json) io.stdout(`${JSON.stringify(scenarioJson(ps, outcome), null, 2)}\n`);
