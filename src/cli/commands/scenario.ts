@@ -54,11 +54,6 @@ export function parseArgs(argv: string[]): Args {
 
 const decoder = new TextDecoder('utf-8');
 
-/** An output that cannot be written (a file where a folder should be, no permission, full disk) is a located refusal. */
-function writeFileAtomic(path: string, content: string): void {
-  writeFileAtomic(path, content);
-}
-
 function readRoleMap(path: string): Partial<RoleMap> {
   const text = decoder.decode(readInputFile(path));
   let raw: unknown;
