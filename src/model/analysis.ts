@@ -63,7 +63,10 @@ export interface Viability {
   perronRootClosed: number | null;
   perronRootClosedBounds: [number, number] | null;
   closedProductive: boolean | null;
-  /** Rounds after which less than `tolerance`·‖f‖∞ of any demand f is left unaccounted; null when the series diverges. */
+  /**
+   * Rounds after which less than `tolerance`·‖f‖∞ of any demand f is left unaccounted; null when the series diverges,
+   * is not certified, or needs more than MAX_ROUNDS rounds (`series.kind` says which, `series.reason` why).
+   */
   roundsToTolerance: number | null;
   tolerance: number;
   /** Eigenvalues of A by decreasing modulus with their long-run mode; null when skipped (see spectrumNote). */
@@ -290,7 +293,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     tolerance,
     negativeFlows ? 0 : perron.lower,
   );
-  if (productive && !series.converges) warn('series-uncertified', series.reason);
+  if (productive && !series.converges) warn(series.kind === 'too-slow' ? 'not-practically-convergent' : 'series-uncertified', series.reason);
 
   if (!perron.converged) {
     warn('perron-slow', `the Perron root iteration stopped before its tolerance; the certified bounds ${fmt(perron.lower)}–${fmt(perron.upper)} still hold`);

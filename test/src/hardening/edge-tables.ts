@@ -13,6 +13,9 @@ export const EDGE_TABLES = {
   rhoAbove: csv(HEAD, 'A,60,50,5,5,100', 'B,50,60,5,5,100', 'Labor income,1,1,,,'),
   // ρ(A) = 1 − 5e-13: I − A nearly singular (eigenvalues 1 and 5e-13, so a condition number about 2e12 > 1e12).
   nearlySingular: csv(HEAD, 'A,50,49.99999999995,0,0.00000000005,100', 'B,49.99999999995,50,0,0.00000000005,100', 'Labor income,0.00000000005,0.00000000005,,,'),
+  // A = [[0.5, 0.5 − 4e-15], [0.5 − 4e-15, 0.5]]: symmetric, eigenvalues 0.5 ± (0.5 − 4e-15), so ρ(A) = 1 − 4e-15:
+  // certified below 1, yet the power series would need about 10^16 rounds (condition of I − A about 2.5e14).
+  nearUnitRoot: csv(HEAD, 'A,50,49.9999999999996,0,0.0000000000004,100', 'B,49.9999999999996,50,0,0.0000000000004,100', 'Labor income,0.0000000000004,0.0000000000004,,,'),
   // A = 0, household row h = [0.5, 0.5], household column c = [1, 1]: the closed model has ρ(Ā) = √(h·c) = 1 exactly.
   closedSingular: csv(HEAD, 'A,0,0,100,0,100', 'B,0,0,100,0,100', 'Labor income,50,50,,,', 'Other value added,50,50,,,'),
   // A = [[0,0.5],[0.5,0]]: irreducible with period 2 (eigenvalues ±0.5).

@@ -109,6 +109,31 @@ describe('numerical edges', () => {
     expect(analysed.warnings).toMatch(/I − A is ill-conditioned \(condition estimate 2\.00e\+12/);
   });
 
+  it('Perron root certified below 1 but within about 4e-15 of it: analysis and scenario finish, and say the rounds are not practically convergent, with the numbers', async () => {
+    const { analysis, analysed } = await expectFiniteEverywhere('nearUnitRoot');
+    const v = analysed.an.viability;
+    // ρ(A) = 1 − 4e-15 (eigenvalues of a symmetric 2×2, 0.5 ± (0.5 − 4e-15)); the certified bounds enclose it below 1
+    expect(v.perronRootBounds[1]).toBeLessThan(1);
+    expect(1 - v.perronRootBounds[0]).toBeLessThan(1e-14);
+    expect(v.productive).toBe(true);
+    expect(v.roundsToTolerance).toBeNull();
+    const series = analysed.an.series;
+    expect(series.converges).toBe(false);
+    if (!series.converges) {
+      expect(series.kind).toBe('too-slow');
+      expect(series.roundsEstimate!).toBeGreaterThan(1e15); // log(1e-6·(1 − β))/log β with 1 − β ≈ 3.6e-15
+    }
+    const warn = analysed.an.warnings.find((w) => w.code === 'not-practically-convergent');
+    expect(warn?.message).toMatch(/not practically convergent: the rounds die out, but about 1\.\d+e\+16 rounds \(more than 1,000,000\)/);
+    expect(warn?.message).toMatch(/1 − β = 3\.\d+e-15/);
+    expect(analysed.warnings).toMatch(/not practically convergent/);
+    expect(analysed.warnings).toMatch(/I − A is ill-conditioned/);
+    expect(analysis.result.notes.join('\n')).toMatch(/I − A is ill-conditioned/);
+    // the scenario's own rounds stop at their cap instead of reaching 99.9 %
+    expect(analysis.rounds.rounds.length).toBe(200);
+    expect(analysis.rounds.reach.at(-1)!.rounds).toBeNull();
+  });
+
   it('household-closed model with ρ(Ā) = 1: open effects only, with a note; the analysis leaves Type II undefined', async () => {
     const { analysis, analysed } = await expectFiniteEverywhere('closedSingular');
     expect(analysis.result.closure).toBe('none');
