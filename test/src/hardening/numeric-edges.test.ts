@@ -138,8 +138,29 @@ describe('numerical edges', () => {
     const { analysis, analysed } = await expectFiniteEverywhere('closedSingular');
     expect(analysis.result.closure).toBe('none');
     expect(analysis.result.effects.output.induced).toBeNull();
-    expect(analysis.result.notes.join('\n')).toMatch(/household-closed model is not productive/);
+    expect(analysis.result.notes.join('\n')).toMatch(/no Type II model: the household-closed model is on the edge of productivity/);
     expect(analysed.json.viability).toMatchObject({ productive: true, closedProductive: false });
+  });
+
+  it('household consumption the only final demand (ρ(Ā) = 1 exactly, s of rounding size): scenario and analysis agree there is no Type II model; no induced effect anywhere', async () => {
+    // a scenario on a freshly prepared table (no analysis run on it first) decides the same way as the analysis
+    const pm = prepareModel(importTable(EDGE_TABLES.householdsOnly, { fileName: 'householdsOnly.csv' }));
+    const fresh = runScenario(pm, shockA);
+    expect(fresh.closure).toBe('none');
+    expect(fresh.effects.output.induced).toBeNull();
+    expect(fresh.notes.join('\n')).toMatch(/There is no Type II model: the household-closed model is on the edge of productivity \(Perron root bounds 0\.9{10,}\d*–1\.0{10,}\d*; Schur complement s = \S+, rounding bound \S+e-1\d\)/);
+    const { analysis, analysed, json } = await expectFiniteEverywhere('householdsOnly');
+    expect(analysis.result.closure).toBe('none');
+    expect(analysed.an.viability).toMatchObject({ productive: true, closedProductive: false, closedModel: { usable: false, status: 'within-rounding' } });
+    expect(analysed.an.multipliers.output.typeII.every((m) => m === null)).toBe(true);
+    expect(analysed.warnings).toMatch(/household-closed model is on the edge of productivity/);
+    const cm = analysed.an.viability.closedModel;
+    expect(Math.abs(cm.schur!)).toBeLessThanOrEqual(cm.schurRoundingBound!);
+    // the CLI: no induced effect, and nothing near the size a division by a rounding-size s gives (10^17 before)
+    const totals = json.totals as Record<string, { induced: number | null; total: number }>;
+    expect(totals.output!.induced).toBeNull();
+    for (const v of Object.values(totals)) if (v) expect(Math.abs(v.total)).toBeLessThan(1e4);
+    expect(json.closure).toBe('none');
   });
 
   it('periodic (period 2) and reducible matrices: results finite, spending rounds converge', async () => {
