@@ -8,6 +8,7 @@ import { conditionEstimate1 } from '../linalg/checks.ts';
 import { solveClosed, solveOpen, type PreparedModel } from '../model/prepared.ts';
 import { closedModelDecision } from '../model/closed-model.ts';
 import { resolveShock } from './lines.ts';
+import { checkShock, shockNotes } from './shock-checks.ts';
 import { solveMixed } from './mixed.ts';
 import type { EffectSplit, EffectTotals, Ratio, Scenario, ScenarioMultiplier, ScenarioResult } from './types.ts';
 
@@ -150,7 +151,7 @@ export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResu
     const j = shock.fixed[r]!;
     notes.push(`Output of '${sectors[j]}' is fixed from outside at ${shortNumber(shock.fixedOutput[r]!)} ${pm.table.moneyUnit} (mixed exogenous/endogenous model); the other sectors respond to its purchases.`);
   }
-  return {
+  const result: ScenarioResult = {
     scenario: scenario.name,
     sectors: pm.coef.sectors,
     moneyUnit: pm.table.moneyUnit,
@@ -170,4 +171,6 @@ export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResu
     },
     notes,
   };
+  result.notes.push(...shockNotes(checkShock(pm, scenario, result)));
+  return result;
 }
