@@ -3,10 +3,9 @@
  * open total) and total (closed model), for output, value added, labour income and employment — the usual split of
  * Type I and Type II impact analysis (Miller & Blair 2009, ch. 6).
  */
-import { InputError } from '../diagnostics/errors.ts';
-import { conditionEstimate1 } from '../linalg/checks.ts';
-import { solveClosed, solveOpen, type PreparedModel } from '../model/prepared.ts';
-import { closedModelDecision } from '../model/closed-model.ts';
+import { InputError } from '../diagnostics/index.ts';
+import { conditionEstimate1 } from '../linalg/index.ts';
+import { closedModelDecision, solveClosed, solveOpen, type PreparedModel } from '../model/index.ts';
 import { resolveShock } from './lines.ts';
 import { checkShock, shockNotes } from './shock-checks.ts';
 import { solveMixed } from './mixed.ts';

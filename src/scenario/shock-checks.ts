@@ -10,8 +10,8 @@
  *   although its own change is not (the other lines need more from the sector than its fixed output gives, and the
  *   model balances that with a final-demand cut there).
  */
-import { formatLocated, InputError, type Location, type Warning } from '../diagnostics/errors.ts';
-import type { PreparedModel } from '../model/prepared.ts';
+import { formatLocated, InputError, type Location, type Warning } from '../diagnostics/index.ts';
+import type { PreparedModel } from '../model/index.ts';
 import type { EffectSplit, Scenario, ScenarioLine, ScenarioResult } from './types.ts';
 
 /** For messages: six significant digits, exponent form where a plain one would be unreadable. */
