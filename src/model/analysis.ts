@@ -10,6 +10,7 @@ import { conditionEstimate1, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF } from '../linalg
 import { formLeontief } from './leontief.ts';
 import { coefficients } from './coefficients.ts';
 import { closedBorder, prepareModel, solveClosed, type PreparedModel } from './prepared.ts';
+import { decideClosedModel, rememberClosedModelDecision, type ClosedModelDecision } from './closed-model.ts';
 import { sectorBlocks } from './graph.ts';
 import { perronRoot, type PerronOptions } from './perron.ts';
 import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
@@ -62,8 +63,14 @@ export interface Viability {
   /** ρ(Ā) of the household-closed model; null without closure. */
   perronRootClosed: number | null;
   perronRootClosedBounds: [number, number] | null;
+  /** The closed model is usable (`closedModel.usable`); null without closure. */
   closedProductive: boolean | null;
-  /** Rounds after which less than `tolerance`·‖f‖∞ of any demand f is left unaccounted; null when the series diverges. */
+  /** The one closed-model decision (closed-model.ts): status, reason, Schur complement and its rounding bound. */
+  closedModel: ClosedModelDecision;
+  /**
+   * Rounds after which less than `tolerance`·‖f‖∞ of any demand f is left unaccounted; null when the series diverges,
+   * is not certified, or needs more than MAX_ROUNDS rounds (`series.kind` says which, `series.reason` why).
+   */
   roundsToTolerance: number | null;
   tolerance: number;
   /** Eigenvalues of A by decreasing modulus with their long-run mode; null when skipped (see spectrumNote). */
@@ -165,24 +172,6 @@ function fmt(x: number): string {
   return x.toPrecision(6);
 }
 
-/**
- * Sign of the closed model's Schur complement s = 1 − ā_hh − h·u (u = (I − A)⁻¹c), beyond rounding: s is positive
- * only when it exceeds 16·n·ε times the size of its terms, 1 + |ā_hh| + Σ|h_i·u_i| (the rounding of a dot product of
- * length n is at most γ_n times the sum of |terms|, Higham 2002, §3.1; the factor 16 covers the error u carries from
- * the solve, which is backward stable with a similar constant). A closure with ρ(Ā) = 1 exactly then reads as not
- * productive instead of giving induced effects of 1e16.
- */
-export function closedSchurVerdict(pm: PreparedModel): { s: number; tolerance: number; positive: boolean } {
-  const b = closedBorder(pm);
-  if (!b) return { s: 0, tolerance: 0, positive: false };
-  const n = pm.coef.n;
-  const corner = b.closed.Abar[n * b.closed.m + n] ?? 0;
-  let size = 1 + Math.abs(corner);
-  for (let i = 0; i < n; i++) size += Math.abs(b.closed.hr[i]! * b.u[i]!);
-  const tolerance = 16 * n * UNIT_ROUNDOFF * size;
-  return { s: b.s, tolerance, positive: b.s > tolerance };
-}
-
 /** Analyse a validated table. */
 export function analyzeTable(table: IOTable, opts: AnalysisOptions = {}): Analysis {
   return analyzePrepared(prepareModel(table, coefficients(table)), opts);
@@ -244,30 +233,23 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     warn('productivity-noise', verdictNote);
   }
 
-  // Closed model.
+  // Closed model: decided once here (closed-model.ts); scenarios on this prepared table read the same decision.
   let perronRootClosed: number | null = null;
   let perronRootClosedBounds: [number, number] | null = null;
-  let closedProductive: boolean | null = null;
-  let closedWhy: true | string = true;
-  if (!closed) {
-    closedWhy = 'the table has no household income row or no household consumption column, so there is no household closure (Type II)';
-  } else {
+  if (closed) {
     const abar = negativeFlows ? absolute(closed.Abar) : closed.Abar;
     const pc = perronRoot(abar, closed.m, { ...opts.perron, rightOnly: true });
     perronRootClosed = pc.root;
     perronRootClosedBounds = [pc.lower, pc.upper];
-    const closedSchur = closedSchurVerdict(pm);
-    // With A ≥ 0 productive and households' coefficients ≥ 0, ρ(Ā) < 1 exactly when s > 0 (the bordered matrix is
-    // a nonsingular M-matrix; Berman & Plemmons 1994, ch. 6, recalled from memory), so the sign of s decides, beyond
-    // its rounding; the power iteration's bounds may stay wide when Ā is nearly periodic. With negative flows the
-    // bound on ρ(|Ā|) must be below 1 as well.
-    closedProductive = productive && closedSchur.positive && (negativeFlows ? pc.upper < 1 : true);
-    if (!productive) closedWhy = 'the open model is not productive';
-    else if (!closedProductive) {
-      closedWhy = `the household-closed model is not productive (Schur complement ${fmt(closedSchur.s)}${closedSchur.s > 0 ? `, within its rounding bound ${fmt(closedSchur.tolerance)}` : ''}; Perron root bounds ${fmt(pc.lower)}–${fmt(pc.upper)}): households re-spend at least all they earn locally`;
-      warn('closed-not-productive', `${closedWhy}; Type II multipliers are not defined`);
-    }
   }
+  const closedModel = decideClosedModel({
+    hasClosure: closed !== null, openProductive: productive, border: closedBorder(pm), closedBounds: perronRootClosedBounds, negativeFlows,
+  });
+  rememberClosedModelDecision(pm, closedModel);
+  const closedProductive = closed ? closedModel.usable : null;
+  const closedWhy: true | string = closedModel.usable ? true : closedModel.reason!;
+  if (productive && closed && !closedModel.usable) warn('closed-not-productive', `${closedModel.reason}; Type II multipliers are not defined`);
+  if (closedModel.accuracyNote) warn('closed-ill-conditioned', closedModel.accuracyNote);
 
   const avail: Availability = {
     open: productive ? true : openLU.singular
@@ -316,7 +298,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     tolerance,
     negativeFlows ? 0 : perron.lower,
   );
-  if (productive && !series.converges) warn('series-uncertified', series.reason);
+  if (productive && !series.converges) warn(series.kind === 'too-slow' ? 'not-practically-convergent' : 'series-uncertified', series.reason);
 
   if (!perron.converged) {
     warn('perron-slow', `the Perron root iteration stopped before its tolerance; the certified bounds ${fmt(perron.lower)}–${fmt(perron.upper)} still hold`);
@@ -346,6 +328,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     perronRootClosed,
     perronRootClosedBounds,
     closedProductive,
+    closedModel,
     roundsToTolerance: series.converges ? series.roundsToTolerance : null,
     tolerance,
     spectrum: modes,

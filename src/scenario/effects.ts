@@ -7,6 +7,7 @@ import { InputError } from '../diagnostics/index.ts';
 import { solveClosed, solveOpen, type PreparedModel } from '../model/index.ts';
 import type { Availability } from '../model/index.ts';
 import { resolveShock } from './lines.ts';
+import { checkShock, shockNotes } from './shock-checks.ts';
 import { solveMixed } from './mixed.ts';
 import type { EffectSplit, EffectTotals, Ratio, Scenario, ScenarioMultiplier, ScenarioResult } from './types.ts';
 
@@ -109,7 +110,7 @@ export function runScenario(pm: PreparedModel, scenario: Scenario, models: Scena
     const j = shock.fixed[r]!;
     notes.push(`Output of '${sectors[j]}' is fixed from outside at ${shortNumber(shock.fixedOutput[r]!)} ${pm.table.moneyUnit} (mixed exogenous/endogenous model); the other sectors respond to its purchases.`);
   }
-  return {
+  const result: ScenarioResult = {
     scenario: scenario.name,
     sectors: pm.coef.sectors,
     moneyUnit: pm.table.moneyUnit,
@@ -130,4 +131,6 @@ export function runScenario(pm: PreparedModel, scenario: Scenario, models: Scena
     },
     notes,
   };
+  result.notes.push(...shockNotes(checkShock(pm, scenario, result)));
+  return result;
 }
