@@ -10,7 +10,7 @@ import { fileURLToPath } from 'node:url';
 import { electronConfig } from '../electron.config.ts';
 import { CHANNELS, type MenuCommand } from '../src/bridge/contract.ts';
 import { createAppHandler } from './app-protocol.ts';
-import { createBridgeHost, type Dialogs } from './bridge-host.ts';
+import { createBridgeHost, REPLACE_BUTTONS, replacePrompt, type Dialogs } from './bridge-host.ts';
 import { CLOSE_PROMPT, closeAction } from './close-guard.ts';
 import { guarded, type Channel } from './ipc-guard.ts';
 import { menuTemplate } from './menu.ts';
@@ -69,6 +69,11 @@ function registerIpc(): ReturnType<typeof createBridgeHost> {
       const opts = { title, defaultPath, filters, properties: ['createDirectory' as const, 'showOverwriteConfirmation' as const] };
       const r = win ? await dialog.showSaveDialog(win, opts) : await dialog.showSaveDialog(opts);
       return r.canceled || !r.filePath ? null : r.filePath;
+    },
+    async confirmReplace(path) {
+      const opts = { type: 'warning' as const, noLink: true, ...replacePrompt(path), buttons: [...REPLACE_BUTTONS], defaultId: 1, cancelId: 1 };
+      const r = win ? await dialog.showMessageBox(win, opts) : await dialog.showMessageBox(opts);
+      return r.response === 0;
     },
   };
   const host = createBridgeHost({ dialogs, userDataDir: app.getPath('userData'), documentsDir: app.getPath('documents') });

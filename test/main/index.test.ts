@@ -2,6 +2,9 @@
 // of test/main's pure modules must actually be applied. Reference: Electron security checklist
 // (https://www.electronjs.org/docs/latest/tutorial/security), items 3–5, 7, 12–15, 17, 18.
 import { describe, it, expect, vi, beforeAll } from 'vitest';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { CHANNELS } from '../../src/bridge/contract.ts';
 import { APP_ENTRY_URL } from '../../main/navigation.ts';
 import { windowOptions } from '../../main/window-options.ts';
@@ -55,7 +58,7 @@ const fake = vi.hoisted(() => {
       quit: vi.fn(),
     },
     BrowserWindow: FakeWindow,
-    dialog: { showMessageBoxSync: vi.fn(() => 2), showOpenDialog: vi.fn(), showSaveDialog: vi.fn() },
+    dialog: { showMessageBoxSync: vi.fn(() => 2), showMessageBox: vi.fn(async () => ({ response: 1 })), showOpenDialog: vi.fn(), showSaveDialog: vi.fn() },
     ipcMain: { handle: vi.fn((ch: string, fn: Fn) => { ipcHandlers.set(ch, fn); }) },
     Menu: { buildFromTemplate: vi.fn((t: unknown) => t), setApplicationMenu: vi.fn() },
     protocol: { registerSchemesAsPrivileged: vi.fn(), handle: vi.fn() },
@@ -144,6 +147,23 @@ describe('main process', () => {
     expect(close()).toBe(true);
     expect(w.close).toHaveBeenCalledTimes(1);
     await fake.ipcHandlers.get(CHANNELS.setDirty)!(own, false);
+  });
+
+  it('asks with a native question before an added extension replaces a file', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'roundwise-index-'));
+    try {
+      const own = { senderFrame: { url: APP_ENTRY_URL, parent: null } };
+      writeFileSync(join(dir, 'county.csv'), 'keep me');
+      e.dialog.showSaveDialog.mockResolvedValueOnce({ canceled: false, filePath: join(dir, 'county') }).mockResolvedValueOnce({ canceled: true });
+      e.dialog.showMessageBox.mockResolvedValueOnce({ response: 1 }); // Cancel
+      expect(await fake.ipcHandlers.get(CHANNELS.exportFile)!(own, 'report', 'csv', 'a,b\n')).toEqual({ ok: true, value: null });
+      const [, opts] = e.dialog.showMessageBox.mock.calls.at(-1) as unknown as [unknown, { message: string; buttons: string[] }];
+      expect(opts.message).toBe('"county.csv" already exists. Replace it?');
+      expect(opts.buttons).toEqual(['Replace', 'Cancel']);
+      expect(readFileSync(join(dir, 'county.csv'), 'utf8')).toBe('keep me');
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 
   it('installs a native menu that sends commands to the window', () => {
