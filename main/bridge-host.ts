@@ -12,7 +12,8 @@ import { EXPORT_TYPES, OPEN_EXTENSIONS, OPEN_FILTER_NAMES, PROJECT_EXTENSION, pr
 import { sanitizeFileName, stripDataUrl } from '../src/bridge/validate.ts';
 import { InputError } from '../src/diagnostics/errors.ts';
 import { PROJECT_FORMAT } from '../src/project/index.ts';
-import { AutosaveStore, readTextLimited, RecentStore, writeFileAtomic } from './file-store.ts';
+import { readTextLimited, RecentStore, writeFileAtomic } from './file-store.ts';
+import { RecoveryStore } from './recovery-store.ts';
 
 export interface DialogFilter {
   name: string;
@@ -64,24 +65,28 @@ export interface BridgeHost {
   exportFile(name: string, kind: ExportKind, content: string): Promise<SavedFile | null>;
   recentProjects(): Promise<RecentEntry[]>;
   openRecent(ref: string): Promise<OpenedFile | null>;
-  setDirty(dirty: boolean): void;
-  autosave(content: string | null): void;
-  recoverAutosave(): OpenedFile | null;
-  /** Unsaved changes, as last reported by the UI. */
-  isDirty(): boolean;
-  /** The window is closing on purpose (clean, or the user chose to discard): the recovery copy is not needed. */
-  closedCleanly(): void;
+  /** The rest is per window (`windowId`: the sender's web contents id): dirty flags and recovery copies. */
+  setDirty(windowId: number, dirty: boolean): void;
+  /** Unsaved changes in the window, as last reported by its UI. */
+  isDirty(windowId: number): boolean;
+  autosave(windowId: number, content: string | null): void;
+  recoverAutosave(windowId: number): OpenedFile | null;
+  discardRecovered(windowId: number): void;
+  /** A new page was loaded in the window (a reload after a renderer crash): the old page's copy may now be offered. */
+  pageLoaded(windowId: number): void;
+  /** The window is closing on purpose (clean, or the user chose to discard): its recovery copy is not needed. */
+  closedCleanly(windowId: number): void;
 }
 
 export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
   const recent = new RecentStore(deps.userDataDir, deps.now);
-  const recovery = new AutosaveStore(deps.userDataDir);
+  const recovery = new RecoveryStore(deps.userDataDir);
   /**
    * Project files the renderer may save to by path: picked in a project save dialog or opened as a project this
    * session (the recent list also counts). Files picked in an open dialog are only read: never added here.
    */
   const writable = new Set<string>();
-  let dirty = false;
+  const dirty = new Map<number, boolean>();
 
   const mayWrite = (abs: string): boolean => writable.has(abs) || recent.list().some((e) => resolve(e.ref) === abs);
 
@@ -176,23 +181,29 @@ export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
       }
     },
 
-    setDirty(value) {
-      dirty = value;
+    setDirty(windowId, value) {
+      dirty.set(windowId, value);
     },
 
-    autosave(content) {
-      if (content === null) recovery.clear();
-      else recovery.write(content);
+    isDirty: (windowId) => dirty.get(windowId) === true,
+
+    autosave(windowId, content) {
+      if (content === null) recovery.clear(windowId);
+      else recovery.write(windowId, content);
     },
 
-    recoverAutosave() {
-      return recovery.read();
+    recoverAutosave: (windowId) => recovery.claim(windowId),
+
+    discardRecovered: (windowId) => recovery.discardOffered(windowId),
+
+    pageLoaded(windowId) {
+      dirty.delete(windowId);
+      recovery.pageLoaded(windowId);
     },
 
-    isDirty: () => dirty,
-
-    closedCleanly() {
-      recovery.clear();
+    closedCleanly(windowId) {
+      dirty.delete(windowId);
+      recovery.closed(windowId);
     },
   };
 }

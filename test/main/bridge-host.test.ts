@@ -163,17 +163,29 @@ describe('bridge host', () => {
     }
   });
 
-  it('keeps a recovery copy while dirty and drops it on a clean close', async () => {
+  it('keeps one recovery copy per window, offered to one window only after the app dies', async () => {
     const h = host();
-    h.setDirty(true);
-    expect(h.isDirty()).toBe(true);
-    h.autosave('{"unsaved":1}');
-    // a crash: the next session finds the copy
-    expect(host().recoverAutosave()?.text).toBe('{"unsaved":1}');
-    h.closedCleanly();
-    expect(host().recoverAutosave()).toBeNull();
-    h.autosave('{"unsaved":2}');
-    h.autosave(null);
-    expect(existsSync(join(dir, 'user-data', 'recovery', 'unsaved-project.roundwise'))).toBe(false);
+    h.setDirty(1, true);
+    expect(h.isDirty(1)).toBe(true);
+    expect(h.isDirty(2)).toBe(false);
+    h.autosave(1, '{"window":1}');
+    h.autosave(2, '{"window":2}');
+    expect(h.recoverAutosave(3)).toBeNull(); // both copies belong to windows still open
+    // the app dies; the next run offers each copy to one window only
+    const next = host();
+    const a = next.recoverAutosave(1)?.text;
+    const b = next.recoverAutosave(2)?.text;
+    expect([a, b].sort()).toEqual(['{"window":1}', '{"window":2}']);
+    expect(next.recoverAutosave(3)).toBeNull();
+    next.discardRecovered(1);
+    expect(host().recoverAutosave(1)?.text).toBe(b); // the other one is still there
+    h.closedCleanly(1);
+    h.autosave(2, null);
   });
+
+  it('says why, when the recovery copy cannot be written', () => {
+    writeFileSync(join(dir, 'user-data'), 'a file where the folder should be');
+    expect(() => host().autosave(1, '{"unsaved":1}')).toThrowError(/could not write the file/);
+  });
+
 });
