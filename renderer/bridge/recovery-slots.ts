@@ -9,7 +9,7 @@
  */
 import { del, entries, get, set, type UseStore } from 'idb-keyval';
 import type { OpenedFile } from '../../src/bridge/contract.ts';
-import { InputError } from '../../src/diagnostics/errors.ts';
+import { InputError } from '../../src/diagnostics/index.ts';
 
 /** sessionStorage key: the id of this tab's current page's copy. */
 export const TAB_PAGE_KEY = 'roundwise:recovery-page';

@@ -5,7 +5,7 @@
  * kept as typed: the copy is what was on screen, not what a save would accept.
  * Copies written by the first versions (a plain project file) are read too.
  */
-import { z } from '../../src/schema/zod.ts';
+import { z } from '../../src/schema/index.ts';
 import { PROJECT_FORMAT } from '../../src/project/index.ts';
 import type { ScenarioDraft } from '../worker/compute.ts';
 

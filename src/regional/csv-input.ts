@@ -3,8 +3,8 @@
  * a plain labelled matrix) with papaparse, keeping the 1-based file line of every row for located messages.
  */
 import Papa from 'papaparse';
-import { InputError } from '../diagnostics/errors.ts';
-import { checkTableSize } from '../table/text.ts';
+import { InputError } from '../diagnostics/index.ts';
+import { checkTableSize } from '../table/index.ts';
 
 export interface CsvRow {
   /** Trimmed cells. */

@@ -2,9 +2,9 @@
  * Employment by sector for regionalization: a CSV `sector,regional,national` (jobs in the county and in the nation).
  * The national column may be left out when the national table has an employment row; the table's row is used then.
  */
-import { InputError, type Location } from '../diagnostics/errors.ts';
+import { InputError, type Location } from '../diagnostics/index.ts';
 import { readCsvRows, parseNumberCell, isHeaderRow } from './csv-input.ts';
-import { toCsv } from '../report/csv.ts';
+import { toCsv } from '../csv/index.ts';
 
 export interface EmploymentEntry {
   sector: string;

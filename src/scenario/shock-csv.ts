@@ -3,9 +3,8 @@
  * kind defaults to final-demand, local_share to 1. Parsed with papaparse; refusals name the file line and column.
  */
 import Papa from 'papaparse';
-import { InputError } from '../diagnostics/errors.ts';
-import { recordStartLines } from '../table/grid.ts';
-import { checkNotBinary } from '../table/text.ts';
+import { InputError } from '../diagnostics/index.ts';
+import { recordStartLines, checkNotBinary } from '../table/index.ts';
 import { LINE_KINDS, type LineKind, type Scenario, type ScenarioLine } from './types.ts';
 
 const COLUMNS = ['sector', 'amount', 'kind', 'local_share', 'note'] as const;

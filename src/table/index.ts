@@ -2,7 +2,7 @@
  * Table import: CSV text → validated IOTable, and a preview of the same import that never throws (for the UI's
  * "accept this table?" step). Formats are described in README (section "CSV formats").
  */
-import { formatLocated, InputError, isInputError, type Location, type Warning } from '../diagnostics/errors.ts';
+import { formatLocated, InputError, isInputError, type Location, type Warning } from '../diagnostics/index.ts';
 import type { ColumnRole, IOTable, Layout, RoleMap, RowRole } from './types.ts';
 import { buildGrid } from './grid.ts';
 import { contentRows, readMatrix, type ReadOptions } from './matrix.ts';
@@ -159,3 +159,8 @@ export function previewTable(text: string, opts: ImportOptions): TablePreview {
     };
   }
 }
+
+export { checkNotBinary } from './text.ts';
+export { recordStartLines } from './grid.ts';
+export { writeTableCsv, writtenRoleMap } from './write.ts';
+export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from './sample.ts';

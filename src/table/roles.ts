@@ -3,8 +3,8 @@
  * Labels are compared case-insensitively, with spaces collapsed and a trailing remark in parentheses ignored
  * ("Employment (jobs)" is "employment").
  */
-import { z } from '../schema/zod.ts';
-import { InputError, type Location } from '../diagnostics/errors.ts';
+import { z } from '../schema/index.ts';
+import { InputError, type Location } from '../diagnostics/index.ts';
 import type { ColumnRole, RoleMap, RowRole } from './types.ts';
 
 export const ROW_ROLES: readonly RowRole[] = ['labourIncome', 'otherValueAdded', 'imports', 'employment', 'totalInput', 'ignore'];

@@ -3,7 +3,7 @@
  * coefficients layouts. A label that appears both as a row and as a column is a sector, unless the label is a
  * recognised non-sector label ("Total", "Households", …) or the role map names it.
  */
-import type { Location, Warning } from '../diagnostics/errors.ts';
+import type { Location, Warning } from '../diagnostics/index.ts';
 import type { ColumnRole, Layout, RoleMap, RowRole } from './types.ts';
 import { suggestColumnRole, suggestRowRole } from './roles.ts';
 import type { DecimalMark } from './numbers.ts';
@@ -30,7 +30,7 @@ export interface Classified {
   warnings: Warning[];
 }
 
-/** Strip the leading apostrophe that CSV-injection escaping puts before =, +, -, @ (src/report/csv.ts), and outer spaces. */
+/** Strip the leading apostrophe that CSV-injection escaping puts before =, +, -, @ (src/csv/write.ts), and outer spaces. */
 export function cleanLabel(s: string): string {
   const t = s.trim();
   return /^'[=+\-@\t\r]/.test(t) ? t.slice(1) : t;

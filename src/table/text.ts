@@ -2,7 +2,7 @@
  * What the raw text is before any cell is read: its size, byte-order mark, whether it is text at all,
  * its delimiter and its decimal mark.
  */
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 import type { DecimalMark } from './numbers.ts';
 
 /** Largest table accepted, refused before parsing: 200 MiB (a 2000-sector table is about 40 MB). */

@@ -8,11 +8,11 @@
  *   Total input:  column sums of the money rows, final-demand column sums, grand total
  *
  * Numbers are written in the shortest form that reads back to the same double (ECMAScript Number::toString),
- * text cells through src/report/csv.ts (RFC 4180 quoting, CSV-injection escaping, which the importer undoes); a text
+ * text cells through src/csv/ (RFC 4180 quoting, CSV-injection escaping, which the importer undoes); a text
  * cell holding ';' or a tab is quoted as well, so that delimiter detection on the header line cannot be misled.
  * The totals row is derived, written to 15 significant digits so that a table balanced in decimal shows exact totals.
  */
-import { formatCell, type Cell } from '../report/csv.ts';
+import { formatCell, type Cell } from '../csv/index.ts';
 import type { IOTable, RoleMap } from './types.ts';
 
 const TOTAL_OUTPUT = 'Total output';

@@ -7,8 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createBridgeHost, looksLikeProject, type Dialogs } from '../../main/bridge-host.ts';
 import { createProject, serializeProject } from '../../src/project/index.ts';
-import { importTable } from '../../src/table/index.ts';
-import { SAMPLE_CSV } from '../../src/table/sample.ts';
+import { importTable, SAMPLE_CSV } from '../../src/table/index.ts';
 
 let dir: string;
 let picks: (string | null)[];

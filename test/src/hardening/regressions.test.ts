@@ -2,9 +2,9 @@
  * Defects found by the hardening property tests, each pinned by the smallest input that showed it.
  */
 import { describe, expect, it } from 'vitest';
-import { formatLocated, InputError } from '../../../src/diagnostics/errors.ts';
+import { formatLocated, InputError } from '../../../src/diagnostics/index.ts';
 import { importTable } from '../../../src/table/index.ts';
-import { parseShockCsv } from '../../../src/scenario/shock-csv.ts';
+import { parseShockCsv } from '../../../src/scenario/index.ts';
 import { refusalOf } from './gen.ts';
 
 describe('found by the property tests', () => {
@@ -56,7 +56,7 @@ describe('found by the hardening corpus', () => {
 
 describe('found by the regional CLI property', () => {
   it('an unclosed quote in a regional input is refused at its line instead of swallowing the file into one cell', async () => {
-    const { readCsvRows } = await import('../../../src/regional/csv-input.ts');
+    const { readCsvRows } = await import('../../../src/regional/index.ts');
     const e = refusalOf(() => readCsvRows('"sector,group\nFarming,Goods\nMaking,Goods\n', 'groups.csv'), 'groups.csv');
     expect(e?.code).toBe('bad-quotes');
     expect(e!.location).toEqual({ file: 'groups.csv', line: 1 });
