@@ -5,7 +5,7 @@
  * works only for a project picked in a save dialog this session, opened as a project, or on the recent list — and
  * only with content that is a Roundwise project.
  */
-import { lstatSync } from 'node:fs';
+import { closeSync, lstatSync, openSync, readSync } from 'node:fs';
 import { basename, dirname, resolve } from 'node:path';
 import type { ExportKind, FileKind, OpenedFile, RecentEntry, SavedFile } from '../src/bridge/contract.ts';
 import { EXPORT_TYPES, OPEN_EXTENSIONS, OPEN_FILTER_NAMES, PROJECT_EXTENSION, projectFileName, withExtension } from '../src/bridge/files.ts';
@@ -44,6 +44,28 @@ export function replacePrompt(path: string): { message: string; detail: string }
     message: `"${basename(path)}" already exists. Replace it?`,
     detail: `The folder ${dirname(path)} already has a file named "${basename(path)}". Replacing it overwrites what it holds.`,
   };
+}
+
+/**
+ * True when `path` is missing (a saved project was moved away: saving recreates it) or begins like a project. A save
+ * by path replaces only a project: a recent-list entry that now names some other file is not written over.
+ */
+function missingOrProject(path: string): boolean {
+  let fd: number;
+  try {
+    fd = openSync(path, 'r');
+  } catch (err) {
+    return (err as { code?: string }).code === 'ENOENT';
+  }
+  try {
+    const head = Buffer.alloc(200);
+    const n = readSync(fd, head, 0, head.length, 0);
+    return PROJECT_HEAD.test(head.subarray(0, n).toString('utf8'));
+  } catch {
+    return false;
+  } finally {
+    closeSync(fd);
+  }
 }
 
 /** True when something (a file, a folder, even a dangling link) is at `path`. */
@@ -136,7 +158,7 @@ export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
       let target: string;
       if (path !== undefined) {
         target = resolve(path);
-        if (!mayWrite(target)) {
+        if (!mayWrite(target) || !missingOrProject(target)) {
           throw new InputError('path-not-granted', 'this file was not opened or saved as a project; use Save As', { file: basename(path) });
         }
         requireProject(content, basename(target));

@@ -154,6 +154,20 @@ describe('bridge host', () => {
     expect(existsSync(join(dir, 'other.roundwise'))).toBe(false);
   });
 
+  it('saves by path only over a project, even for a path on the recent list', async () => {
+    const p = join(dir, 'plan.roundwise');
+    writeFileSync(p, project(1));
+    const h = host();
+    picks = [p];
+    await h.openFile('project');
+    writeFileSync(p, 'Sector,A\nA,1\n'); // since replaced by something else
+    await expect(h.saveProject('plan', project(2), p)).rejects.toThrowError(/not opened or saved as a project/);
+    expect(readFileSync(p, 'utf8')).toBe('Sector,A\nA,1\n');
+    unlinkSync(p); // moved away: saving puts it back
+    await expect(h.saveProject('plan', project(3), p)).resolves.toMatchObject({ path: p });
+    expect(readFileSync(p, 'utf8')).toBe(project(3));
+  });
+
   it('recognises what the project writer writes, and nothing else', () => {
     const t = importTable(SAMPLE_CSV, { fileName: 'sample.csv' });
     expect(looksLikeProject(serializeProject(createProject(t)))).toBe(true);
