@@ -3,8 +3,7 @@
  * user-data folder (crash-recovery copies: recovery-store.ts). Node only (no Electron), so test/main exercises it
  * on a temp folder.
  */
-import { unlinkSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
+import { basename, join } from 'node:path';
 import type { OpenedFile, RecentEntry } from '../src/bridge/contract.ts';
 import { addRecent, parseRecentList } from '../src/bridge/validate.ts';
 import { MAX_INPUT_BYTES, readFileLimited, removeStaleTemps, writeFileAtomic } from '../src/node-io/index.ts';

@@ -198,7 +198,7 @@ describe('bridge host', () => {
 
   it('says why, when the recovery copy cannot be written', () => {
     writeFileSync(join(dir, 'user-data'), 'a file where the folder should be');
-    expect(() => host().autosave(1, '{"unsaved":1}')).toThrowError(/could not write the file/);
+    expect(() => host().autosave(1, '{"unsaved":1}')).toThrowError(/cannot write: a part of the path is not a folder/);
   });
 
 });
