@@ -62,6 +62,8 @@ export const ERROR_CODES = [
   'pattern-empty',
   'pattern-share-range',
   'pattern-share-sum',
+  'shock-not-finite',
+  'effects-not-finite',
   'compare-different-tables',
   'compare-too-few',
   // Regional tables, RAS and aggregation (src/regional)
