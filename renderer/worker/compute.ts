@@ -120,6 +120,16 @@ function saveProject(args: { name: string; scenarios: ScenarioDraft[]; choices: 
   return projectFileOf({ ...study, name: args.name, settings: { ...study.settings, activeScenario: args.scenarios[args.active]?.name ?? null } });
 }
 
+/**
+ * The table, its source and the settings as a project with no scenarios, for the crash-recovery copy: no save-time
+ * checks, so a scenario line that no longer matches the table can never stop the copy. The scenarios travel beside
+ * it as the UI holds them (renderer/state/recovery-copy.ts).
+ */
+function recoveryBase(args: { name: string; choices: StudyChoices }): string {
+  const { study } = studyAt(args.choices);
+  return projectFileOf({ ...study, name: args.name, scenarios: [] });
+}
+
 function openProject(args: { text: string; fileName: string }): { table: TableInfo; analysis: AnalysisView; scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string } {
   const study = studyFromProjectFile(args.text, args.fileName);
   const loaded = load(study);
@@ -145,6 +155,7 @@ export const api = {
   reports,
   report,
   saveProject,
+  recoveryBase,
   openProject,
   ...regionalApi,
 };

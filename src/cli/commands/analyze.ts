@@ -1,20 +1,16 @@
 /**
- * `roundwise analyze TABLE.csv [--map MAP.json] [--json] [--out DIR] [--allow-negative] [--tolerance T]`:
- * import a table, run the whole analysis (coefficients, viability, multipliers, linkages) and print a summary,
- * print one JSON object (--json), and/or write CSV reports with their sidecar notes into DIR (--out).
+ * `roundwise analyze TABLE.csv`: a study of one table — coefficients, viability (the verdict in words), multipliers and
+ * linkages; print a summary or one JSON object, and write the table's reports with their sidecars into --out DIR.
  */
-import { parseArgs } from 'node:util';
-import { basename, join } from 'node:path';
-import { formatLocated } from '../../diagnostics/index.ts';
-import { parseRoleMap } from '../../table/index.ts';
-import { MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy } from '../../study/index.ts';
-import { readInputFile, writeFileAtomic, type CliIO } from '../io.ts';
+import { formatLocated, visibleText } from '../../diagnostics/index.ts';
+import {
+  MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy, type PrepareOptions, type Study,
+} from '../../study/index.ts';
+import { defineCommand } from '../command.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
 
 /** From this many sectors the factorisation's updates are shared with helper threads (one per extra core). */
 const PARALLEL_MIN_SECTORS = 500;
-
-const USAGE = 'usage: roundwise analyze TABLE.csv [--map MAP.json] [--json] [--out DIR] [--allow-negative] [--tolerance T]';
 
 function fmt(x: number | null, digits = 4): string {
   return x === null ? '—' : x.toFixed(digits);
@@ -36,14 +32,15 @@ export function summary(ps: PreparedStudy): string {
   const an = ps.analysis;
   const v = an.viability;
   const lines = [
-    `${an.tableName}: ${an.n} sectors, money unit ${an.moneyUnit || '(not stated)'}`,
+    `${visibleText(an.tableName)}: ${an.n} sectors, money unit ${visibleText(an.moneyUnit) || '(not stated)'}`,
     ps.verdict.say,
     ...ps.verdict.detail.map((d) => `  ${d}`),
     `structure: ${v.irreducible ? `irreducible, ${v.primitive ? 'primitive' : `period ${v.period}`}` : `reducible, ${v.blocks.length} blocks`}; rounds until less than ${v.tolerance} of any demand is left: ${v.roundsToTolerance ?? 'not certified'}`,
     '',
   ];
   const measures = SUMMARY_MEASURES.map((k) => MEASURES.find((m) => m.key === k)!);
-  const width = Math.min(28, Math.max(6, ...an.sectors.map((s) => s.length)));
+  const sectors = an.sectors.map((s) => visibleText(s));
+  const width = Math.min(28, Math.max(6, ...sectors.map((s) => s.length)));
   const pad = (s: string, w: number) => (s.length > w ? s.slice(0, w - 1) + '…' : s.padEnd(w));
   const heads = measures.map((m) => twoLines(m.label));
   const colWidth = Math.max(10, ...heads.flat().map((h) => h.length));
@@ -51,68 +48,45 @@ export function summary(ps: PreparedStudy): string {
   lines.push([pad('sector', width), ...heads.map((h) => h[1]!.padStart(colWidth))].join(' '));
   const cols = measures.map((m) => measureValues(an, m.key));
   for (let j = 0; j < an.n; j++) {
-    lines.push([pad(an.sectors[j]!, width), ...cols.map((c) => fmt(c[j] ?? null).padStart(colWidth))].join(' '));
+    lines.push([pad(sectors[j]!, width), ...cols.map((c) => fmt(c[j] ?? null).padStart(colWidth))].join(' '));
   }
-  if (an.linkages.keySectors.length) lines.push('', `key sectors: ${an.linkages.keySectors.map((i) => an.sectors[i]).join(', ')}`);
+  if (an.linkages.keySectors.length) lines.push('', `key sectors: ${an.linkages.keySectors.map((i) => sectors[i]).join(', ')}`);
   return lines.join('\n') + '\n';
 }
 
-export async function run(args: string[], io: CliIO): Promise<number> {
-  let parsed;
-  try {
-    parsed = parseArgs({
-      args,
-      allowPositionals: true,
-      options: {
-        map: { type: 'string' },
-        json: { type: 'boolean', default: false },
-        out: { type: 'string' },
-        'allow-negative': { type: 'boolean', default: false },
-        tolerance: { type: 'string' },
-        help: { type: 'boolean', short: 'h', default: false },
-      },
-    });
-  } catch (e) {
-    io.stderr(`roundwise analyze: ${(e as Error).message.split('\n')[0]}\n${USAGE}\n`);
-    return 1;
-  }
-  const { values, positionals } = parsed;
-  if (values.help) {
-    io.stdout(`${USAGE}\n`);
-    return 0;
-  }
-  if (positionals.length !== 1) {
-    io.stderr(`roundwise analyze: ${positionals.length === 0 ? 'no table file given' : 'give exactly one table file'}\n${USAGE}\n`);
-    return 1;
-  }
-  let tolerance: number | undefined;
-  if (values.tolerance !== undefined) {
-    tolerance = Number(values.tolerance);
-    if (!(tolerance > 0 && tolerance < 1)) {
-      io.stderr(`roundwise analyze: --tolerance must be a number between 0 and 1, got '${values.tolerance}'\n`);
-      return 1;
-    }
-  }
-  const path = positionals[0]!;
-  const roles = values.map !== undefined ? parseRoleMap(readInputFile(values.map).toString('utf8'), basename(values.map)) : undefined;
-  const study = studyFromTableFile(readInputFile(path), basename(path), { allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
-  if (tolerance !== undefined) study.settings.rounds.tolerance = tolerance;
+/** The engine part of the command: the prepared study (helper threads for large tables). */
+export async function prepare(study: Study, opts: PrepareOptions = {}): Promise<PreparedStudy> {
   const threaded = study.table.n >= PARALLEL_MIN_SECTORS && startParallelKernels() > 0;
-  let ps: PreparedStudy;
   try {
     if (threaded) await parallelKernelsReady(2000);
-    ps = prepareStudy(study, { inverse: values.out !== undefined });
+    return prepareStudy(study, opts);
   } finally {
     if (threaded) await stopParallelKernels();
   }
-
-  for (const w of ps.analysis.warnings) io.stderr(`roundwise analyze: warning: ${formatLocated(w)}\n`);
-  if (values.json) io.stdout(JSON.stringify(studyAnalysisJson(ps)) + '\n');
-  else if (values.out === undefined) io.stdout(summary(ps));
-  if (values.out !== undefined) {
-    const files = tableReportSet(ps, new Date().toISOString(), { inverse: true });
-    for (const f of files) writeFileAtomic(join(values.out, f.name), f.content);
-    if (!values.json) io.stdout(`wrote ${files.length} files to ${values.out}\n`);
-  }
-  return 0;
 }
+
+export const analyze = defineCommand({
+  name: 'analyze',
+  summary: 'coefficients, viability (Hawkins–Simon, Perron root with bounds), Type I and II multipliers and linkages of a table',
+  positional: { name: 'TABLE.csv', help: 'the flow table (matrix or long layout; comma, semicolon or tab; decimal point or comma)' },
+  options: {
+    map: { type: 'string', value: 'MAP.json', help: 'role overrides for the table\'s rows and columns ({"rows": {label: role}, "columns": {label: role}})' },
+    'allow-negative': { type: 'boolean', help: 'accept negative flows (e.g. subsidies or stock changes) instead of refusing them' },
+    tolerance: { type: 'number', value: 'T', help: 'rounds to tolerance: count spending rounds until less than T of any demand is left (0 < T < 1; default 1e-6)', check: (t) => (t > 0 && t < 1 ? null : 'must be a number between 0 and 1') },
+  },
+  outHelp: 'write multipliers, coefficients, Leontief inverse, viability, Perron vectors and spectrum (n ≤ 400) as CSV, each with an .about.txt',
+  notes: ['Warnings (e.g. an unproductive table) go to stderr; an unproductive table is analysed (exit 0), its multipliers left blank.'],
+  async run({ input, values }, ctx) {
+    const roles = ctx.roleMap(values.map);
+    const file = ctx.input(input);
+    const study = studyFromTableFile(file.bytes, file.name, { allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
+    if (values.tolerance !== undefined) study.settings.rounds.tolerance = values.tolerance;
+    const ps = await prepare(study, { inverse: values.out !== undefined });
+    for (const w of ps.analysis.warnings) ctx.warn(formatLocated(w));
+    return {
+      summary: () => summary(ps),
+      json: () => studyAnalysisJson(ps),
+      ...(values.out !== undefined ? { reports: tableReportSet(ps, ctx.date, { inverse: true }) } : {}),
+    };
+  },
+});
