@@ -4,7 +4,8 @@
  * and Input–Output Change, 1970; Miller & Blair, Input–Output Analysis, 2nd ed. 2009, §7.4). Each iteration scales
  * every row to its total, then every column to its total. Zeros stay zero (cells are only ever multiplied).
  * Before iterating, infeasible targets are refused: totals that disagree, a positive total on an all-zero row or column,
- * and any other zero pattern that cannot carry the totals (feasibility.ts).
+ * and any other zero pattern that cannot carry the totals (feasibility.ts). Not converging within the cap is refused
+ * too (RasConvergenceError, carrying the convergence report), so no front end can use a half-balanced matrix.
  */
 import { InputError } from '../diagnostics/index.ts';
 import { rasFeasibility } from './feasibility.ts';
@@ -38,6 +39,20 @@ export interface RasResult {
   history: number[];
   tolerance: number;
   maxIterations: number;
+}
+
+/** RAS stopped at its iteration cap with a gap above the tolerance: refused, with the report of how far it got. */
+export class RasConvergenceError extends InputError {
+  readonly report: RasResult;
+  constructor(report: RasResult, file: string | undefined) {
+    super(
+      'ras-not-converged',
+      `RAS did not converge within ${report.maxIterations} iterations (largest relative gap ${Number(Math.max(report.rowGap, report.columnGap).toPrecision(3))} > ${report.tolerance}); ` +
+        'slow convergence means the totals force some cells toward zero: raise the iteration cap or loosen the tolerance, or check the totals',
+      file !== undefined ? { file } : {},
+    );
+    this.report = report;
+  }
 }
 
 export const RAS_DEFAULT_TOLERANCE = 1e-10;
@@ -150,5 +165,7 @@ export function ras(a0: Float64Array, m: number, n: number, u: Float64Array, v: 
     [rowGap, columnGap] = gaps();
     history.push(Math.max(rowGap, columnGap));
   }
-  return { rows: m, columns: n, matrix: a, r, s, iterations, converged: Math.max(rowGap, columnGap) <= tolerance, rowGap, columnGap, history, tolerance, maxIterations };
+  const report: RasResult = { rows: m, columns: n, matrix: a, r, s, iterations, converged: Math.max(rowGap, columnGap) <= tolerance, rowGap, columnGap, history, tolerance, maxIterations };
+  if (!report.converged) throw new RasConvergenceError(report, opts.fileName);
+  return report;
 }
