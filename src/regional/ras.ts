@@ -57,6 +57,8 @@ export class RasConvergenceError extends InputError {
 
 export const RAS_DEFAULT_TOLERANCE = 1e-10;
 export const RAS_DEFAULT_MAX_ITERATIONS = 10_000;
+/** The largest iteration cap a caller may ask for (so every run ends in reasonable time). */
+export const RAS_MAX_ITERATIONS = 1_000_000;
 
 /** |sum − target| / target, or / grand total for a zero target. */
 function relGap(sum: number, target: number, total: number): number {
@@ -116,7 +118,9 @@ export function ras(a0: Float64Array, m: number, n: number, u: Float64Array, v: 
   const tolerance = opts.tolerance ?? RAS_DEFAULT_TOLERANCE;
   const maxIterations = opts.maxIterations ?? RAS_DEFAULT_MAX_ITERATIONS;
   if (!(tolerance > 0) || !Number.isFinite(tolerance)) throw new InputError('ras-tolerance', `the tolerance must be a positive number (got ${tolerance})`, {});
-  if (!Number.isInteger(maxIterations) || maxIterations < 1) throw new InputError('ras-iterations', `the iteration cap must be a positive whole number (got ${maxIterations})`, {});
+  if (!Number.isInteger(maxIterations) || maxIterations < 1 || maxIterations > RAS_MAX_ITERATIONS) {
+    throw new InputError('ras-iterations', `the iteration cap must be a whole number from 1 to ${RAS_MAX_ITERATIONS.toLocaleString('en-US')} (got ${maxIterations})`, {});
+  }
   checkInputs(a0, m, n, u, v, opts, tolerance);
 
   let total = 0;
