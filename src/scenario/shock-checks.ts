@@ -112,11 +112,10 @@ export function checkShock(pm: PreparedModel, scenario: Scenario, r: ScenarioRes
 
   // Fixed sectors whose implied final demand runs negative although their own change is not.
   const scale = Math.max(...Array.from(direct, Math.abs));
-  const closedDemand = impliedClosedDemand(pm, r);
   shock.fixed.forEach((j, k) => {
     const target = shock.fixedOutput[k]!;
     if (target < 0) return;
-    for (const [model, demand] of [['open', r.effectiveDemand], ['household-closed', closedDemand]] as const) {
+    for (const [model, demand] of [['open', r.effectiveDemand], ['household-closed', r.closedEffectiveDemand]] as const) {
       const mu = demand ? demand[j]! : 0;
       if (!(mu < -1e-12 * scale)) continue;
       warn('implied-demand-negative', j, `'${sectors[j]}' is fixed at a change of ${amountText(target)} ${unit}, but in the ${model} model the rest of the scenario needs ${amountText(target - mu)} ${unit} of it; the model meets that with a final-demand change of ${amountText(mu)} ${unit} at '${sectors[j]}' (its other buyers take less)`);
@@ -124,23 +123,6 @@ export function checkShock(pm: PreparedModel, scenario: Scenario, r: ScenarioRes
     }
   });
   return warnings;
-}
-
-/** f̄ = (I − Ā)·x̄ at the fixed sectors: the closed model's implied demand there (null without closure). */
-function impliedClosedDemand(pm: PreparedModel, r: ScenarioResult): Float64Array | null {
-  const closed = pm.closed;
-  if (!closed || !r.closedOutput || r.closedHouseholdIncome === null) return null;
-  const m = closed.m;
-  const xbar = new Float64Array(m);
-  xbar.set(r.closedOutput);
-  xbar[m - 1] = r.closedHouseholdIncome;
-  const f = Float64Array.from(r.shock.df);
-  for (const i of r.shock.fixed) {
-    let s = xbar[i]!;
-    for (let j = 0; j < m; j++) s -= closed.Abar[i * m + j]! * xbar[j]!;
-    f[i] = s;
-  }
-  return f;
 }
 
 /** The warnings as the one-line notes every front end shows (file line and sector first). */
