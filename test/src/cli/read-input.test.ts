@@ -43,6 +43,22 @@ describe('CLI input files', () => {
     expect(missing.code).toBe(2);
     expect(missing.err).toMatch(/absent\.csv: no such file/);
   });
+  it('devices and FIFOs as table, --map or --project are refused at once, without reading or blocking', async () => {
+    const { execFileSync } = await import('node:child_process');
+    const fifo = join(dir, 'pipe.csv');
+    execFileSync('mkfifo', [fifo]);
+    const runs = [
+      ['analyze', fifo],
+      ['analyze', 'sample-data/fernhollow-county.csv', '--map', '/dev/zero'],
+      ['scenario', 'sample-data/fernhollow-county.csv', '--shock', 'sample-data/fernhollow-food-plant.csv', '--project', '/dev/zero'],
+    ];
+    for (const args of runs) {
+      const r = await run(...args);
+      expect(r.code, r.err).toBe(2);
+      expect(r.err).toMatch(/not a regular file/);
+    }
+  });
+
   it('writes through the shared Node I/O writer', () => {
     expect(writeFileAtomic).toBe(nodeIo.writeFileAtomic);
   });
