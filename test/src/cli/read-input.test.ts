@@ -1,4 +1,4 @@
-// Every command reads its inputs through one reader (src/cli/io.ts readInputFile): a missing file, a folder and an
+// Every command reads its inputs through one reader (src/node-io readFileLimited, via the run context): a missing file, a folder and an
 // oversized file (a sparse file over the importer's stated limit, MAX_TABLE_BYTES) are located one-line refusals,
 // for a table and for the small side files alike (common practice, no source: the limit is the project's own).
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
@@ -6,8 +6,6 @@ import { mkdtempSync, rmSync, writeFileSync, truncateSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { main } from '../../../src/cli/main.ts';
-import { writeFileAtomic } from '../../../src/cli/io.ts';
-import * as nodeIo from '../../../src/node-io/index.ts';
 import { MAX_TABLE_BYTES } from '../../../src/table/index.ts';
 
 let dir: string;
@@ -57,9 +55,5 @@ describe('CLI input files', () => {
       expect(r.code, r.err).toBe(2);
       expect(r.err).toMatch(/not a regular file/);
     }
-  });
-
-  it('writes through the shared Node I/O writer', () => {
-    expect(writeFileAtomic).toBe(nodeIo.writeFileAtomic);
   });
 });
