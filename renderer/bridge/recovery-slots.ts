@@ -7,9 +7,9 @@
  * Without Web Locks (a page not served from a secure context) only this tab's previous page's copy is offered,
  * known from sessionStorage.
  */
+import { InputError } from '../../src/study/index.ts';
 import { del, entries, get, set, type UseStore } from 'idb-keyval';
 import type { OpenedFile } from '../../src/bridge/contract.ts';
-import { InputError } from '../../src/diagnostics/index.ts';
 
 /** sessionStorage key: the id of this tab's current page's copy. */
 export const TAB_PAGE_KEY = 'roundwise:recovery-page';

@@ -2,9 +2,9 @@
  * Exports through the bridge: a save dialog on the desktop, a download in browser mode.
  * Reports are built by the engine (in the worker) as a rectangular CSV plus its `.about.txt` sidecar.
  */
+import { type ReportFile } from '../../src/study/index.ts';
 import type { Chart } from 'chart.js';
 import { getBridge } from '../bridge/index.ts';
-import type { ReportFile } from '../../src/report/index.ts';
 import { say } from './app.ts';
 
 export async function exportChartPng(chart: Chart, base: string): Promise<void> {

@@ -5,8 +5,8 @@
  * kept as typed: the copy is what was on screen, not what a save would accept.
  * Copies written by the first versions (a plain project file) are read too.
  */
+import { PROJECT_FORMAT } from '../../src/study/index.ts';
 import { z } from '../../src/schema/index.ts';
-import { PROJECT_FORMAT } from '../../src/project/index.ts';
 import type { ScenarioDraft } from '../worker/protocol.ts';
 
 export const RECOVERY_FORMAT = 'roundwise-recovery';

@@ -3,13 +3,10 @@
  * δ, the estimate the engine returned, and the last refusal. The estimate is only a preview: the table in use changes
  * when the planner presses "Use this table", which loads the estimate's CSV like any imported file.
  */
+import { type LqMethod, DEFAULT_FLQ_DELTA, EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV, GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME } from '../../src/study/index.ts';
 import { reactive } from 'vue';
 import { engine, CancelledError } from '../worker/client.ts';
 import type { RegionalFile, RegionalView } from '../worker/regional.ts';
-import {
-  type LqMethod, DEFAULT_FLQ_DELTA, EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV,
-  GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME,
-} from '../../src/regional/index.ts';
 import { app, messageOf, say, useTable } from './app.ts';
 import { exportReportFiles } from './exporting.ts';
 

@@ -1,18 +1,10 @@
 /**
- * The worker's adapter for building a county table from a larger one: regionalize (SLQ, CILQ or FLQ), optionally
- * balance to known county totals (RAS) and merge sectors by a grouping, and return plain views for the screen plus the
- * finished table as CSV text (writeTableCsv). Stateless: "Use this table" loads that CSV like any imported file
+ * The worker's side of the "Larger table" screen: the study layer's county estimate (src/study estimate.ts:
+ * regionalize, optional RAS and grouping, the estimate judged by the same verdict as any table) shaped into plain
+ * views, plus the finished table as CSV text. Stateless: "Use this table" loads that CSV like any imported file
  * (`loadTable`), so projects, re-imports and the worker's replay after Cancel treat it as an ordinary table.
  */
-import { importTable, writeTableCsv, type IOTable } from '../../src/table/index.ts';
-import { coefficients, perronRoot } from '../../src/model/index.ts';
-import {
-  aggregateTable, AGGREGATION_BIAS_NOTE, balanceTable, DEFAULT_FLQ_DELTA, LQ_METHODS, parseEmploymentCsv, parseGroupMapping, parseTotals,
-  regionalize, type LqMethod,
-} from '../../src/regional/index.ts';
-import { aboutText } from '../../src/report/index.ts';
-import { sha256Hex, utf8Bytes } from '../../src/project/index.ts';
-import { formatLocated, InputError } from '../../src/diagnostics/index.ts';
+import { estimateCountyTable, formatLocated, utf8Bytes, type LqMethod } from '../../src/study/index.ts';
 
 /** One input file as the user chose it (or a bundled sample's text). */
 export interface RegionalFile {
@@ -72,12 +64,7 @@ export interface RegionalView {
   balance: { iterations: number; converged: boolean; gap: number } | null;
   groups: { names: string[]; members: string[][]; bias: { group: string; spread: [number, number] | null; groupMultiplier: number | null }[] } | null;
   /** The finished county table (after the optional steps). */
-  result: { name: string; n: number; fileName: string; csv: string; about: string; perron: number | null; perronUpper: number | null; productive: boolean | null };
-}
-
-function slugOf(fileName: string): string {
-  const base = fileName.replace(/^.*[\\/]/, '').replace(/\.[^.]*$/, '').replace(/[-_ ]?employment$/i, '');
-  return base.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'county';
+  result: { name: string; n: number; fileName: string; csv: string; about: string; perron: number | null; perronUpper: number | null; productive: boolean | null; verdict: string };
 }
 
 function sum(v: ArrayLike<number>): number {
@@ -86,27 +73,22 @@ function sum(v: ArrayLike<number>): number {
   return s;
 }
 
-function viability(t: IOTable): { perron: number | null; upper: number | null; productive: boolean | null } {
-  try {
-    const p = perronRoot(coefficients(t).A, t.n);
-    const root = Number.isFinite(p.root) ? p.root : null;
-    return { perron: root, upper: Number.isFinite(p.upper) ? p.upper : null, productive: p.upper < 1 ? true : p.lower >= 1 ? false : null };
-  } catch {
-    return { perron: null, upper: null, productive: null };
-  }
-}
+const asFile = (f: RegionalFile) => ({ bytes: utf8Bytes(f.text), fileName: f.fileName });
 
 export function buildRegional(req: RegionalRequest): RegionalView {
-  if (!(LQ_METHODS as readonly string[]).includes(req.method)) throw new InputError('usage', `the method must be SLQ, CILQ or FLQ (got '${String(req.method)}')`, {});
-  const national = importTable(req.national.text, { fileName: req.national.fileName });
-  const emp = parseEmploymentCsv(req.employment.text, req.employment.fileName);
-  const delta = req.method === 'flq' ? req.delta : DEFAULT_FLQ_DELTA;
-  const res = regionalize(national, emp, { method: req.method, delta });
+  const est = estimateCountyTable({
+    national: asFile(req.national),
+    employment: asFile(req.employment),
+    method: req.method,
+    delta: req.delta,
+    ...(req.balance ? { balance: { rows: asFile(req.balance.rows), columns: asFile(req.balance.columns) } } : {}),
+    ...(req.groups ? { groups: asFile(req.groups) } : {}),
+  });
+  const res = est.regional;
   const { sectors } = res;
   const n = sectors.length;
   const A = res.nationalCoefficients;
   const R = res.coefficients;
-
   let maxCoefficient = 0;
   for (let k = 0; k < n * n; k++) if (A[k]! > maxCoefficient) maxCoefficient = A[k]!;
   const rows: RegionalSectorRow[] = sectors.map((sector, j) => {
@@ -125,51 +107,10 @@ export function buildRegional(req: RegionalRequest): RegionalView {
       leakageValue: res.leakageValue[j]!,
     };
   });
-
-  let table = res.table;
-  const notes = [...res.notes];
-  const warnings = res.warnings.map((w) => formatLocated(w));
-  let balance: RegionalView['balance'] = null;
-  if (req.balance) {
-    const sales = parseTotals(req.balance.rows.text, req.balance.rows.fileName, sectors, 'sector');
-    const purchases = parseTotals(req.balance.columns.text, req.balance.columns.fileName, sectors, 'sector');
-    const b = balanceTable(table, { sales, purchases, fileName: req.balance.rows.fileName });
-    table = { ...b.table, name: `${res.table.name}, balanced by RAS` };
-    notes.push(...b.notes);
-    warnings.push(...b.warnings.map((w) => formatLocated(w)));
-    balance = { iterations: b.ras.iterations, converged: b.ras.converged, gap: Math.max(b.ras.rowGap, b.ras.columnGap) };
-  }
-  let groups: RegionalView['groups'] = null;
-  if (req.groups) {
-    const g = aggregateTable(table, parseGroupMapping(req.groups.text, req.groups.fileName));
-    table = g.table;
-    notes.push(...g.notes.filter((x) => x !== AGGREGATION_BIAS_NOTE), AGGREGATION_BIAS_NOTE);
-    groups = {
-      names: g.groups,
-      members: g.members,
-      bias: g.bias.map((b) => {
-        const m = b.memberMultipliers?.filter((v) => Number.isFinite(v)) ?? [];
-        return { group: b.group, spread: m.length ? [Math.min(...m), Math.max(...m)] : null, groupMultiplier: b.groupMultiplier !== null && Number.isFinite(b.groupMultiplier) ? b.groupMultiplier : null };
-      }),
-    };
-  }
-
-  const csv = writeTableCsv(table);
-  const steps = `${req.method}${req.balance ? '-ras' : ''}${req.groups ? '-grouped' : ''}`;
-  const fileName = `${slugOf(req.employment.fileName)}-${steps}-estimate.csv`;
-  const modelType = `county table estimated from a larger one (${req.method.toUpperCase()} location quotients${req.method === 'flq' ? `, δ = ${delta}` : ''}${req.balance ? ', balanced by RAS' : ''}${req.groups ? ', sectors grouped' : ''})`;
-  const about = aboutText({
-    title: 'County input–output table estimated from a larger table',
-    tableName: table.name,
-    sourceFile: req.national.fileName,
-    sourceHash: sha256Hex(utf8Bytes(req.national.text)),
-    modelType,
-    date: new Date().toISOString(),
-    moneyUnit: table.moneyUnit,
-    notes: [...notes, ...warnings],
-  });
-  const v = viability(table);
-
+  const b = est.balance;
+  const g = est.grouping;
+  const v = est.judged.analysis.viability;
+  const finite = (x: number) => (Number.isFinite(x) ? x : null);
   return {
     method: res.method,
     delta: res.delta,
@@ -177,18 +118,28 @@ export function buildRegional(req: RegionalRequest): RegionalView {
     jobShare: sum(res.nationalJobs) > 0 ? sum(res.regionalJobs) / sum(res.nationalJobs) : 0,
     sectors,
     n,
-    moneyUnit: national.moneyUnit,
+    moneyUnit: est.national.moneyUnit,
     rows,
     absent: res.absent,
     totals: { regionalJobs: sum(res.regionalJobs), nationalJobs: sum(res.nationalJobs), output: sum(res.output), leakageValue: sum(res.leakageValue) },
     national: A,
     regional: R,
     maxCoefficient,
-    notes,
-    warnings,
-    balance,
-    groups,
-    result: { name: table.name, n: table.n, fileName, csv, about, perron: v.perron, perronUpper: v.upper, productive: v.productive },
+    notes: est.notes,
+    warnings: [...res.warnings, ...(b?.warnings ?? [])].map((w) => formatLocated(w)),
+    balance: b ? { iterations: b.ras.iterations, converged: b.ras.converged, gap: Math.max(b.ras.rowGap, b.ras.columnGap) } : null,
+    groups: g ? {
+      names: g.groups,
+      members: g.members,
+      bias: g.bias.map((x) => {
+        const m = x.memberMultipliers?.filter((y) => Number.isFinite(y)) ?? [];
+        return { group: x.group, spread: m.length ? [Math.min(...m), Math.max(...m)] as [number, number] : null, groupMultiplier: x.groupMultiplier !== null && Number.isFinite(x.groupMultiplier) ? x.groupMultiplier : null };
+      }),
+    } : null,
+    result: {
+      name: est.table.name, n: est.table.n, fileName: est.fileName, csv: est.csv, about: est.about,
+      perron: finite(v.perronRoot), perronUpper: finite(v.perronRootBounds[1]), productive: est.judged.verdict.productive, verdict: est.judged.verdict.say,
+    },
   };
 }
 

@@ -14,6 +14,7 @@ export {
   type ReportKind, type ReportEntry, type ScenarioReportKind,
 } from './reports.ts';
 export { studyAnalysisJson, scenarioJson } from './json.ts';
+export { estimateCountyTable, type CountyEstimate, type EstimateRequest, type EstimateFile } from './estimate.ts';
 
 // What the front ends need besides the study itself (they import engine code only through this file).
 export type Closure = import('./study.ts').StudySettings['closure'];
@@ -27,8 +28,19 @@ export {
   type ReportFile, type Measure, type MeasureKey, type LinkageClass, type Verdict,
 } from '../report/index.ts';
 export {
-  spreadPattern, VARIABLES, LINE_KINDS,
+  spreadPattern, parseShockCsv, VARIABLES, LINE_KINDS,
   type Scenario, type ScenarioLine, type SpendingPattern, type LineKind, type Variable, type EffectSplit, type EffectTotals,
   type ScenarioMultiplier, type ScenarioResult, type PathAnalysis, type RoundsResult,
 } from '../scenario/index.ts';
 export { utf8Bytes, sha256Hex } from '../project/index.ts';
+
+// The table-building commands (regionalize, balance, aggregate) and the app's "Larger table" screen use these steps.
+export {
+  DEFAULT_FLQ_DELTA, LQ_METHODS, REGIONAL_SAMPLE_NOTE, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME, EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV, GROUPS_SAMPLE_FILE_NAME, aggregateTable, balanceTable, parseGroupMapping, parseLabelledMatrix,
+  parseTotals, ras, RAS_DEFAULT_MAX_ITERATIONS, RAS_DEFAULT_TOLERANCE,
+  type LqMethod, type RegionalResult, type AggregationResult, type RasResult, type LabelledMatrix,
+} from '../regional/index.ts';
+export { importTable, writeTableCsv } from '../table/index.ts';
+export { reportFiles, type ReportMeta, type Cell } from '../report/index.ts';
+export { visibleText } from '../diagnostics/index.ts';
+export { PROJECT_FORMAT } from '../project/index.ts';

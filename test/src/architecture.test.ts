@@ -41,10 +41,10 @@ describe('import rules', () => {
     expect(await ruleIds("import { z } from 'zod';\nexport const y = z;\n", 'src/cli/bad.ts')).toContain('no-restricted-imports');
     expect(await ruleIds("import { z } from '../schema/index.ts';\nexport const y = z;\n", 'src/table/ok.ts')).toEqual([]);
   });
-  it('allows Node built-ins and process in the CLI and the engine in the renderer', async () => {
+  it('allows Node built-ins and process in the CLI and the study layer in the renderer', async () => {
     expect(await ruleIds("import { readFileSync } from 'node:fs';\nexport const y = readFileSync;\n", 'src/cli/ok.ts')).toEqual([]);
     expect(await ruleIds('export const y = process.argv;\n', 'src/cli/ok.ts')).toEqual([]);
-    expect(await ruleIds(importing('../src/linalg/index.ts'), 'renderer/ok.ts')).toEqual([]);
+    expect(await ruleIds(importing('../src/study/index.ts'), 'renderer/ok.ts')).toEqual([]);
   });
 });
 
@@ -115,8 +115,8 @@ describe('folders are entered through their index.ts', () => {
   });
 });
 
-describe('front ends through one engine layer (prepared, switched on by FRONT_END_ENGINE)', () => {
-  // The same rule as eslint.config.js builds, restricted to src/study as it will be once the study layer is complete.
+describe('front ends through one engine layer (FRONT_END_ENGINE)', () => {
+  // The same rule as eslint.config.js builds, with only src/study and src/bridge allowed.
   const studyOnly = new ESLint({
     cwd: root,
     overrideConfigFile: true,
@@ -136,8 +136,10 @@ describe('front ends through one engine layer (prepared, switched on by FRONT_EN
     expect(await ruleIds(importingType('../src/model/index.ts'), 'renderer/ok.ts', studyOnly)).toEqual([]);
     expect(await ruleIds(importing('../io.ts'), 'src/cli/commands/ok.ts', studyOnly)).toEqual([]);
   });
-  it('is not switched on yet: the UI may still import other engine folders', async () => {
-    expect(await ruleIds(importing('../src/model/index.ts'), 'renderer/ok.ts')).toEqual([]);
+  it('is switched on in the repository\'s own config: the UI and the CLI commands reach the engine only through src/study', async () => {
+    expect(await ruleIds(importing('../src/model/index.ts'), 'renderer/bad.ts')).toContain('@typescript-eslint/no-restricted-imports');
+    expect(await ruleIds(importing('../../table/index.ts'), 'src/cli/commands/bad.ts')).toContain('@typescript-eslint/no-restricted-imports');
+    expect(await ruleIds(importing('../../study/index.ts'), 'src/cli/commands/ok.ts')).toEqual([]);
   });
   it('keeps src/node-io (Node file I/O) for the CLI and main/ only', async () => {
     const fsImport = "import { readFileSync } from 'node:fs';\nexport const y = readFileSync;\n";

@@ -2,9 +2,7 @@
  * `roundwise aggregate TABLE.csv --groups GROUPS.csv`: merges sectors into groups (src/regional/aggregate.ts) and
  * reports the aggregation bias.
  */
-import { CAUTIONS, aboutText, reportFiles } from '../../report/index.ts';
-import { importTable, writeTableCsv } from '../../table/index.ts';
-import { aggregateTable, parseGroupMapping, type AggregationResult } from '../../regional/index.ts';
+import { CAUTIONS, aboutText, reportFiles, importTable, writeTableCsv, aggregateTable, parseGroupMapping, type AggregationResult } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
 import { num, textTable } from '../terminal.ts';
 

@@ -2,9 +2,8 @@
  * `roundwise analyze TABLE.csv`: a study of one table — coefficients, viability (the verdict in words), multipliers and
  * linkages; print a summary or one JSON object, and write the table's reports with their sidecars into --out DIR.
  */
-import { formatLocated, visibleText } from '../../diagnostics/index.ts';
 import {
-  MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy, type PrepareOptions, type Study,
+  MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy, type PrepareOptions, type Study, formatLocated, visibleText,
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';

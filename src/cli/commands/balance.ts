@@ -2,10 +2,7 @@
  * `roundwise balance MATRIX.csv --rows ROWS.csv --columns COLS.csv`: RAS scales a non-negative labelled matrix (or,
  * with --table, a whole table's intermediate flows) to given row and column totals (src/regional/ras.ts).
  */
-import { InputError } from '../../diagnostics/index.ts';
-import { CAUTIONS, reportFiles, aboutText, type ReportFile } from '../../report/index.ts';
-import { importTable, writeTableCsv } from '../../table/index.ts';
-import { balanceTable, parseLabelledMatrix, parseTotals, ras, RAS_DEFAULT_MAX_ITERATIONS, RAS_DEFAULT_TOLERANCE, type RasResult, type LabelledMatrix } from '../../regional/index.ts';
+import { InputError, CAUTIONS, reportFiles, aboutText, type ReportFile, importTable, writeTableCsv, balanceTable, parseLabelledMatrix, parseTotals, ras, RAS_DEFAULT_MAX_ITERATIONS, RAS_DEFAULT_TOLERANCE, type RasResult, type LabelledMatrix } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
 import { num } from '../terminal.ts';
 

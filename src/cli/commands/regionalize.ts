@@ -2,9 +2,9 @@
  * `roundwise regionalize NATIONAL.csv --employment EMP.csv --method slq|cilq|flq`: estimates a county table from a
  * national one with location quotients (src/regional).
  */
-import { CAUTIONS, aboutText, reportFiles, type ReportMeta, type ReportFile } from '../../report/index.ts';
-import { importTable, writeTableCsv } from '../../table/index.ts';
-import { LQ_METHODS, parseEmploymentCsv, regionalize as regionalizeTable, type LqMethod, type RegionalResult } from '../../regional/index.ts';
+import {
+  CAUTIONS, aboutText, estimateCountyTable, reportFiles, LQ_METHODS, type LqMethod, type RegionalResult, type ReportMeta, type ReportFile, type Verdict, DEFAULT_FLQ_DELTA,
+} from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
 import { num, textTable } from '../terminal.ts';
 
@@ -31,11 +31,11 @@ export function regionalJson(res: RegionalResult) {
   };
 }
 
-function outputFiles(res: RegionalResult, meta: Omit<ReportMeta, 'title'>): ReportFile[] {
+function outputFiles(res: RegionalResult, csv: string, verdict: Verdict, meta: Omit<ReportMeta, 'title'>): ReportFile[] {
   const n = res.sectors.length;
   const unit = res.table.moneyUnit || 'money';
   const notes = [...res.notes, ...res.warnings.map((w) => w.message)];
-  const tableAbout = { name: 'regional-table.about.txt', content: aboutText({ ...meta, title: 'Regional input-output table (estimated)', notes }) };
+  const tableAbout = { name: 'regional-table.about.txt', content: aboutText({ ...meta, title: 'Regional input-output table (estimated)', notes: [...notes, `Verdict on the estimate: ${verdict.say}`] }) };
   const lq = reportFiles('location-quotients', { ...meta, title: 'Location quotients and import leakage by sector', notes }, [
     ['Sector', 'County jobs', 'National jobs', 'SLQ', 'Absent', `County output (${unit})`, 'Import leakage per unit of output', `Import leakage (${unit})`],
     ...res.sectors.map((s, i) => [s, res.regionalJobs[i]!, res.nationalJobs[i]!, res.slq[i]!, res.absent.includes(s) ? 'yes' : 'no', res.output[i]!, res.leakage[i]!, res.leakageValue[i]!]),
@@ -44,10 +44,10 @@ function outputFiles(res: RegionalResult, meta: Omit<ReportMeta, 'title'>): Repo
     ['Selling sector \\ buying sector', ...res.sectors],
     ...res.sectors.map((s, i) => [s, ...Array.from(res.coefficients.subarray(i * n, (i + 1) * n))]),
   ]);
-  return [{ name: 'regional-table.csv', content: writeTableCsv(res.table) }, tableAbout, ...lq, ...coef];
+  return [{ name: 'regional-table.csv', content: csv }, tableAbout, ...lq, ...coef];
 }
 
-function summary(res: RegionalResult): string {
+function summary(res: RegionalResult, verdict: Verdict): string {
   const unit = res.table.moneyUnit || 'money';
   const lines = [
     `County table estimated with ${res.method.toUpperCase()}${res.lambda !== null ? ` (δ = ${res.delta}, λ* = ${num(res.lambda)})` : ''}.`,
@@ -59,6 +59,7 @@ function summary(res: RegionalResult): string {
     '',
     res.absent.length ? `Absent sectors (no county jobs; supply nothing locally): ${res.absent.join('; ')}` : 'No absent sectors.',
     res.comparison.note,
+    `Verdict on the estimate: ${verdict.say}`,
     ...res.warnings.map((w) => `warning: ${w.location?.rowLabel ? `'${w.location.rowLabel}': ` : ''}${w.message}`),
     '',
     'Cautions:',
@@ -84,9 +85,15 @@ export const regionalize = defineCommand({
     if (values.delta !== undefined && method !== 'flq') throw ctx.usageError('--delta applies to --method flq only');
     const roles = ctx.roleMap(values.map);
     const file = ctx.input(input);
-    const national = importTable(file.text, { fileName: input, ...(roles ? { roles } : {}) });
-    const emp = parseEmploymentCsv(ctx.input(values.employment).text, values.employment);
-    const res = regionalizeTable(national, emp, { method, ...(values.delta !== undefined ? { delta: values.delta } : {}) });
+    const est = estimateCountyTable({
+      national: { bytes: file.bytes, fileName: input },
+      ...(roles ? { nationalRoles: roles } : {}),
+      employment: { bytes: ctx.input(values.employment).bytes, fileName: values.employment },
+      method,
+      delta: values.delta ?? DEFAULT_FLQ_DELTA,
+    }, ctx.date);
+    const res = est.regional;
+    const verdict = est.judged.verdict;
     const meta = {
       tableName: res.table.name,
       sourceFile: file.name,
@@ -96,9 +103,9 @@ export const regionalize = defineCommand({
       moneyUnit: res.table.moneyUnit,
     };
     return {
-      summary: () => summary(res),
-      json: () => regionalJson(res),
-      reports: outputFiles(res, meta),
+      summary: () => summary(res, verdict),
+      json: () => ({ ...regionalJson(res), verdict }),
+      reports: outputFiles(res, est.csv, verdict, meta),
     };
   },
 });

@@ -3,12 +3,9 @@
  * induced / total effects by sector, spending rounds, implied multipliers; optionally structural paths to one sector,
  * and the study saved as a project file. Everything is computed by src/study, as in the app.
  */
-import { InputError, visibleText } from '../../diagnostics/index.ts';
-import { parseShockCsv } from '../../scenario/index.ts';
 import { readFileLimited } from '../../node-io/index.ts';
 import {
-  CAUTIONS, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile,
-  tableReport, studyFromTableFile, VARIABLES, type Closure, type PreparedStudy, type ScenarioOutcome,
+  CAUTIONS, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile, tableReport, studyFromTableFile, VARIABLES, type Closure, type PreparedStudy, type ScenarioOutcome, InputError, visibleText, parseShockCsv,
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
 

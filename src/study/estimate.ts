@@ -1,0 +1,99 @@
+/**
+ * A county table estimated from a larger one, in one pipeline for every front end: regionalize with location
+ * quotients (SLQ, CILQ or FLQ), optionally balance to known county totals by RAS (non-convergence is refused, with the
+ * convergence report, by the RAS step itself), optionally merge sectors by a grouping; then judge the estimate with the
+ * same analysis and verdict as any study. The finished table is returned as the CSV the table writer makes, so a front
+ * end uses it like any imported file.
+ */
+import { InputError } from '../diagnostics/index.ts';
+import {
+  aggregateTable, AGGREGATION_BIAS_NOTE, balanceTable, DEFAULT_FLQ_DELTA, LQ_METHODS, parseEmploymentCsv, parseGroupMapping, parseTotals,
+  regionalize, type AggregationResult, type LqMethod, type RegionalResult, type TableBalanceResult,
+} from '../regional/index.ts';
+import { aboutText } from '../report/index.ts';
+import { sha256Hex } from '../project/index.ts';
+import { importTable, writeTableCsv, type IOTable, type RoleMap } from '../table/index.ts';
+import { prepareStudy, type PreparedStudy } from './prepare.ts';
+import { studyOfTable } from './study.ts';
+
+/** One input file as read: its bytes (hashed as they are) and its name. */
+export interface EstimateFile {
+  bytes: Uint8Array;
+  fileName: string;
+}
+
+export interface EstimateRequest {
+  national: EstimateFile;
+  /** Role overrides for the national table's rows and columns. */
+  nationalRoles?: Partial<RoleMap>;
+  employment: EstimateFile;
+  method: LqMethod;
+  /** FLQ δ; ignored by SLQ and CILQ. */
+  delta: number;
+  /** Known county intermediate sales (rows) and purchases (columns), `sector,total`: balance the estimate by RAS. */
+  balance?: { rows: EstimateFile; columns: EstimateFile } | null;
+  /** `sector,group`: merge the county table's sectors into groups. */
+  groups?: EstimateFile | null;
+}
+
+export interface CountyEstimate {
+  national: IOTable;
+  regional: RegionalResult;
+  balance: TableBalanceResult | null;
+  grouping: AggregationResult | null;
+  /** The finished county table (after the optional steps), its CSV, a file name and its sidecar. */
+  table: IOTable;
+  csv: string;
+  fileName: string;
+  about: string;
+  /** Notes of every step, in order (the aggregation-bias note last when sectors were grouped). */
+  notes: string[];
+  /** The finished table judged as any study's table: the same analysis and verdict. */
+  judged: PreparedStudy;
+}
+
+const utf8 = new TextDecoder('utf-8');
+const text = (f: EstimateFile) => utf8.decode(f.bytes);
+
+function slugOf(fileName: string): string {
+  const base = fileName.replace(/^.*[\\/]/, '').replace(/\.[^.]*$/, '').replace(/[-_ ]?employment$/i, '');
+  return base.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'county';
+}
+
+export function estimateCountyTable(req: EstimateRequest, date = new Date().toISOString()): CountyEstimate {
+  if (!(LQ_METHODS as readonly string[]).includes(req.method)) throw new InputError('usage', `the method must be SLQ, CILQ or FLQ (got '${String(req.method)}')`);
+  const national = importTable(text(req.national), { fileName: req.national.fileName, ...(req.nationalRoles ? { roles: req.nationalRoles } : {}) });
+  const delta = req.method === 'flq' ? req.delta : DEFAULT_FLQ_DELTA;
+  const regional = regionalize(national, parseEmploymentCsv(text(req.employment), req.employment.fileName), { method: req.method, delta });
+  let table = regional.table;
+  const notes = [...regional.notes];
+  let balance: TableBalanceResult | null = null;
+  if (req.balance) {
+    const sales = parseTotals(text(req.balance.rows), req.balance.rows.fileName, regional.sectors, 'sector');
+    const purchases = parseTotals(text(req.balance.columns), req.balance.columns.fileName, regional.sectors, 'sector');
+    balance = balanceTable(table, { sales, purchases, fileName: req.balance.rows.fileName });
+    table = { ...balance.table, name: `${regional.table.name}, balanced by RAS` };
+    notes.push(...balance.notes);
+  }
+  let grouping: AggregationResult | null = null;
+  if (req.groups) {
+    grouping = aggregateTable(table, parseGroupMapping(text(req.groups), req.groups.fileName));
+    table = grouping.table;
+    notes.push(...grouping.notes.filter((x) => x !== AGGREGATION_BIAS_NOTE), AGGREGATION_BIAS_NOTE);
+  }
+  const csv = writeTableCsv(table);
+  const steps = `${req.method}${req.balance ? '-ras' : ''}${req.groups ? '-grouped' : ''}`;
+  const judged = prepareStudy(studyOfTable(table), { spectrum: false });
+  const warnings = [...regional.warnings, ...(balance?.warnings ?? [])].map((w) => w.message);
+  const about = aboutText({
+    title: 'County input–output table estimated from a larger table',
+    tableName: table.name,
+    sourceFile: req.national.fileName,
+    sourceHash: sha256Hex(req.national.bytes),
+    modelType: `county table estimated from a larger one (${req.method.toUpperCase()} location quotients${req.method === 'flq' ? `, δ = ${delta}` : ''}${req.balance ? ', balanced by RAS' : ''}${req.groups ? ', sectors grouped' : ''})`,
+    date,
+    moneyUnit: table.moneyUnit,
+    notes: [...notes, ...warnings, `Verdict on the estimate: ${judged.verdict.say}`],
+  });
+  return { national, regional, balance, grouping, table, csv, fileName: `${slugOf(req.employment.fileName)}-${steps}-estimate.csv`, about, notes, judged };
+}
