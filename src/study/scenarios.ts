@@ -22,11 +22,11 @@ export interface ScenarioOutcome {
 }
 
 /**
- * Lines that carry no input yet (no sector chosen; a zero final-demand amount, which changes nothing) are left out
- * of a draft. A zero output or jobs line stays: it holds that sector's output unchanged (mixed model).
+ * Lines still being typed (no sector chosen yet) are left out of a scenario; every other line counts, a zero amount
+ * included (a zero output or jobs line holds that sector's output unchanged in the mixed model).
  */
 export function readyLines(s: Scenario): Scenario {
-  return { ...s, lines: s.lines.filter((l) => l.sector !== '' && !(l.kind === 'final-demand' && l.amount === 0)) };
+  return s.lines.every((l) => l.sector !== '') ? s : { ...s, lines: s.lines.filter((l) => l.sector !== '') };
 }
 
 export interface OutcomeOptions {
@@ -36,7 +36,7 @@ export interface OutcomeOptions {
 
 export function runStudyScenario(ps: PreparedStudy, scenario: Scenario, opts: OutcomeOptions = {}): ScenarioOutcome {
   const { pm, analysis, study } = ps;
-  const result = runScenario(pm, scenario, ps.models);
+  const result = runScenario(pm, readyLines(scenario), ps.models);
   const rounds = spendingRounds(pm, result.effectiveDemand, result.openOutput, { maxRounds: study.settings.rounds.maxRounds, perronRoot: analysis.viability.perronRoot });
   const want = opts.paths ?? null;
   const dest = want === null ? null : want === 'default' ? (study.settings.paths.destination ?? study.table.sectors[defaultDestination(result)]!) : want;
