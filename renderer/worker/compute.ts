@@ -230,10 +230,6 @@ export interface PreviewView {
   refusal: string | null;
 }
 
-function firstCells(text: string): string[][] {
-  return text.split(/\r?\n/, 14).filter((l) => l.trim() !== '').slice(0, 12).map((l) => l.split(/[,;\t]/).slice(0, 10));
-}
-
 function previewTable(src: TableSource): PreviewView {
   const p = enginePreview(src.text, importOptions(src));
   const b = p.balance;
@@ -254,7 +250,7 @@ function previewTable(src: TableSource): PreviewView {
     columns: p.columns.filter((c) => c.role !== 'sector').map((c) => ({ label: c.label, role: c.role })),
     rowRoles: ROW_ROLES,
     columnRoles: COLUMN_ROLES,
-    cells: firstCells(src.text),
+    cells: p.cells,
     balance: balance.slice(0, 8),
     balanced: b?.balanced ?? false,
     tolerance: b?.tolerance ?? 0.001,

@@ -9,5 +9,4 @@ export * from './ras.ts';
 export * from './feasibility.ts';
 export * from './aggregate.ts';
 export * from './matrix-csv.ts';
-export { readCsvRows, parseNumberCell } from './csv-input.ts';
 export * from './balance-table.ts';

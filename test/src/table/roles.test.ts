@@ -125,7 +125,7 @@ describe('parseRoleMap', () => {
   });
   it('refuses unknown keys', () => {
     const e = refusal('{"row": {}}');
-    expect(e.message).toBe('unknown key \'row\': a role map has only "rows" and "columns"');
+    expect(e.message).toBe('unknown key \'row\': a role map has only "rows", "columns" and "sectors"');
     expect(e.location).toEqual({ file: 'map.json', line: 1, column: 2 });
   });
   it('refuses a map that is not an object of objects', () => {
