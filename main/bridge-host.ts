@@ -8,7 +8,7 @@ import { basename, extname, resolve } from 'node:path';
 import type { ExportKind, FileKind, OpenedFile, RecentEntry, SavedFile } from '../src/bridge/contract.ts';
 import { EXPORT_TYPES, OPEN_EXTENSIONS, OPEN_FILTER_NAMES, PROJECT_EXTENSION, projectFileName, withExtension } from '../src/bridge/files.ts';
 import { sanitizeFileName, stripDataUrl } from '../src/bridge/validate.ts';
-import { InputError } from '../src/diagnostics/errors.ts';
+import { InputError } from '../src/diagnostics/index.ts';
 import { AutosaveStore, readTextLimited, RecentStore, writeFileAtomic } from './file-store.ts';
 
 export interface DialogFilter {

@@ -1,5 +1,5 @@
 /** Short, located messages for file-system failures (no stack traces, no raw errno dumps). */
-import { InputError } from '../src/diagnostics/errors.ts';
+import { InputError } from '../src/diagnostics/index.ts';
 
 const REASONS: Record<string, string> = {
   ENOENT: 'the file or its folder does not exist',

@@ -5,7 +5,7 @@
 import { closeSync, fsyncSync, openSync, readFileSync, renameSync, statSync, unlinkSync, writeSync, mkdirSync, readdirSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 import { randomBytes } from 'node:crypto';
-import { InputError } from '../src/diagnostics/errors.ts';
+import { InputError } from '../src/diagnostics/index.ts';
 import type { OpenedFile, RecentEntry } from '../src/bridge/contract.ts';
 import { MAX_OPEN_BYTES, formatBytes } from '../src/bridge/files.ts';
 import { addRecent, parseRecentList } from '../src/bridge/validate.ts';

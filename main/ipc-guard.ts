@@ -4,7 +4,7 @@
  * (src/bridge/validate.ts). Handlers reply with an IpcResult, so refusals reach the UI as one located line.
  */
 import type { IpcMainInvokeEvent } from 'electron';
-import { isInputError } from '../src/diagnostics/errors.ts';
+import { isInputError } from '../src/diagnostics/index.ts';
 import type { IpcResult } from '../src/bridge/ipc.ts';
 import { validateArgs, type ArgsOf, type argSchemas } from '../src/bridge/validate.ts';
 import { isAppUrl } from './navigation.ts';

@@ -8,7 +8,7 @@ import { contextBridge, ipcRenderer } from 'electron';
 import { CHANNELS, type MenuCommand, type RoundwiseBridge } from '../src/bridge/contract.ts';
 import { isMenuCommand, unwrapIpcResult } from '../src/bridge/ipc.ts';
 import { isTextEditing } from '../src/bridge/shortcuts.ts';
-import { InputError, formatLocated } from '../src/diagnostics/errors.ts';
+import { InputError, formatLocated } from '../src/diagnostics/index.ts';
 
 /**
  * contextBridge copies an Error's message only (not code or location), so a refusal crosses as an Error whose

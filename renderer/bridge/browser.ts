@@ -8,7 +8,7 @@ import type { ExportKind, FileKind, MenuCommand, OpenedFile, RecentEntry, Roundw
 import { EXPORT_TYPES, MAX_OPEN_BYTES, OPEN_EXTENSIONS, formatBytes, projectFileName, withExtension } from '../../src/bridge/files.ts';
 import { commandForKey, isTextEditing } from '../../src/bridge/shortcuts.ts';
 import { addRecent, parseRecentList, sanitizeFileName } from '../../src/bridge/validate.ts';
-import { InputError } from '../../src/diagnostics/errors.ts';
+import { InputError } from '../../src/diagnostics/index.ts';
 
 /** localStorage keys; project copies are stored under PROJECT_PREFIX + file name. */
 export const STORAGE_KEYS = {

@@ -4,7 +4,7 @@
  */
 import type { Chart } from 'chart.js';
 import { getBridge } from '../bridge/index.ts';
-import type { ReportFile } from '../../src/report/document.ts';
+import type { ReportFile } from '../../src/report/index.ts';
 import { say } from './app.ts';
 
 export async function exportChartPng(chart: Chart, base: string): Promise<void> {

@@ -6,11 +6,10 @@
 import { reactive } from 'vue';
 import { engine, CancelledError } from '../worker/client.ts';
 import type { RegionalFile, RegionalView } from '../worker/regional.ts';
-import type { LqMethod } from '../../src/regional/quotients.ts';
-import { DEFAULT_FLQ_DELTA } from '../../src/regional/quotients.ts';
 import {
-  EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV, GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME,
-} from '../../src/regional/sample.ts';
+  type LqMethod, DEFAULT_FLQ_DELTA, EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV,
+  GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME,
+} from '../../src/regional/index.ts';
 import { app, messageOf, say, useTable } from './app.ts';
 import { exportReportFiles } from './exporting.ts';
 

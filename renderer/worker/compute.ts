@@ -3,22 +3,26 @@
  * Pure functions over module state (the current table and its prepared model), so it also runs under Node in
  * test/renderer without a browser.
  */
-import { importTable, previewTable as enginePreview, ROW_ROLES, COLUMN_ROLES } from '../../src/table/index.ts';
-import type { IOTable, Layout, RoleMap } from '../../src/table/types.ts';
-import { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../../src/table/sample.ts';
-import { prepareModel, solveOpen, type PreparedModel } from '../../src/model/prepared.ts';
+import {
+  importTable, previewTable as enginePreview, ROW_ROLES, COLUMN_ROLES, type IOTable, type Layout, type RoleMap,
+  SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE,
+} from '../../src/table/index.ts';
+import {
+  prepareModel, solveOpen, type PreparedModel, analyzePrepared, type Analysis, type ModeKind, type Values,
+} from '../../src/model/index.ts';
 import { luInverse } from '../../src/linalg/index.ts';
-import { analyzePrepared, type Analysis } from '../../src/model/analysis.ts';
-import type { ModeKind } from '../../src/model/spectrum.ts';
-import type { Values } from '../../src/model/multipliers.ts';
-import { runScenario as engineRunScenario, spendingRounds, spreadPattern, structuralPaths, compareScenarios } from '../../src/scenario/index.ts';
-import type { Scenario, ScenarioLine, EffectSplit, Variable, ScenarioResult } from '../../src/scenario/types.ts';
-import { impactReport, roundsReport, pathReport, comparisonReport, scenarioMultiplierReport, type ScenarioReportContext } from '../../src/report/scenario.ts';
-import type { ReportFile } from '../../src/report/document.ts';
-import { analysisReports } from '../../src/report/analysis.ts';
-import { createProject, parseProject, serializeProject, sourceInfo, type SourceInfo } from '../../src/project/index.ts';
-import { utf8Bytes } from '../../src/project/sha256.ts';
-import { formatLocated, InputError } from '../../src/diagnostics/errors.ts';
+import {
+  runScenario as engineRunScenario, spendingRounds, spreadPattern, structuralPaths, compareScenarios, type Scenario,
+  type ScenarioLine, type EffectSplit, type Variable, type ScenarioResult,
+} from '../../src/scenario/index.ts';
+import {
+  impactReport, roundsReport, pathReport, comparisonReport, scenarioMultiplierReport, type ScenarioReportContext,
+  type ReportFile, analysisReports,
+} from '../../src/report/index.ts';
+import {
+  createProject, parseProject, serializeProject, sourceInfo, type SourceInfo, utf8Bytes,
+} from '../../src/project/index.ts';
+import { formatLocated, InputError } from '../../src/diagnostics/index.ts';
 import type { AnalysisView, Eigen, MultiplierRow, TableInfo } from './protocol.ts';
 import { regionalApi } from './regional.ts';
 

@@ -3,7 +3,7 @@
  * The engine's home in the browser: every import, analysis, scenario and report runs here, off the UI thread.
  * The worker holds the current table and its prepared model; the UI holds only what it shows.
  */
-import { isInputError, formatLocated } from '../../src/diagnostics/errors.ts';
+import { isInputError, formatLocated } from '../../src/diagnostics/index.ts';
 import { api } from './compute.ts';
 import type { RpcRequest, RpcResponse } from './rpc.ts';
 

@@ -4,18 +4,15 @@
  * finished table as CSV text (writeTableCsv). Stateless: "Use this table" loads that CSV like any imported file
  * (`loadTable`), so projects, re-imports and the worker's replay after Cancel treat it as an ordinary table.
  */
-import { importTable } from '../../src/table/index.ts';
-import { writeTableCsv } from '../../src/table/write.ts';
-import type { IOTable } from '../../src/table/types.ts';
-import { coefficients } from '../../src/model/coefficients.ts';
-import { perronRoot } from '../../src/model/perron.ts';
+import { importTable, writeTableCsv, type IOTable } from '../../src/table/index.ts';
+import { coefficients, perronRoot } from '../../src/model/index.ts';
 import {
   aggregateTable, AGGREGATION_BIAS_NOTE, balanceTable, DEFAULT_FLQ_DELTA, LQ_METHODS, parseEmploymentCsv, parseGroupMapping, parseTotals,
   regionalize, type LqMethod,
 } from '../../src/regional/index.ts';
-import { aboutText } from '../../src/report/document.ts';
-import { sha256Hex, utf8Bytes } from '../../src/project/sha256.ts';
-import { formatLocated, InputError } from '../../src/diagnostics/errors.ts';
+import { aboutText } from '../../src/report/index.ts';
+import { sha256Hex, utf8Bytes } from '../../src/project/index.ts';
+import { formatLocated, InputError } from '../../src/diagnostics/index.ts';
 
 /** One input file as the user chose it (or a bundled sample's text). */
 export interface RegionalFile {

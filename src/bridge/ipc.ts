@@ -3,7 +3,7 @@
  * than as thrown exceptions, because Electron reduces a thrown error to "Error invoking remote method …: …";
  * the preload turns a refusal back into an InputError so the UI shows one located line, never a stack trace.
  */
-import { InputError, type Location } from '../diagnostics/errors.ts';
+import { InputError, type Location } from '../diagnostics/index.ts';
 import type { MenuCommand } from './contract.ts';
 
 export interface IpcFailure {

@@ -3,7 +3,7 @@
  * these before touching a file; nothing from the renderer is trusted (a compromised page could send anything).
  * Pure and DOM/Node-free, so they are unit-tested in isolation and shared with the preload.
  */
-import { z } from '../schema/zod.ts';
+import { z } from '../schema/index.ts';
 import type { ExportKind, FileKind, RecentEntry } from './contract.ts';
 import { MAX_SAVE_CHARS } from './files.ts';
 

@@ -1,7 +1,7 @@
 /** What a CLI command may touch: arguments, output streams and files. Kept small so commands are testable in-process. */
 import { readFileSync, writeFileSync, renameSync, mkdirSync, openSync, fsyncSync, closeSync, rmSync, statSync } from 'node:fs';
 import { dirname, join, basename } from 'node:path';
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 import { checkTableSize } from '../table/index.ts';
 
 export interface CliIO {

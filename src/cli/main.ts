@@ -2,7 +2,7 @@
  * The batch CLI: `roundwise <command> …`. This folder is the one place in src/ allowed Node built-ins.
  * Refused input (InputError) prints a short located message and exits 2; no stack trace reaches the user.
  */
-import { formatLocated, isInputError } from '../diagnostics/errors.ts';
+import { formatLocated, isInputError } from '../diagnostics/index.ts';
 import { processIO, type CliIO } from './io.ts';
 import * as analyze from './commands/analyze.ts';
 import * as scenario from './commands/scenario.ts';

@@ -5,7 +5,7 @@
  */
 import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
-import { attachHelpers, createParallelKernel, detachHelpers, readyHelpers, CONTROL_LAYOUT } from '../linalg/parallel.ts';
+import { attachHelpers, createParallelKernel, detachHelpers, readyHelpers, CONTROL_LAYOUT } from '../linalg/index.ts';
 
 let workers: Worker[] = [];
 

@@ -4,10 +4,11 @@
  * linkages, accuracy checks, and warnings. The result holds only typed arrays, plain arrays and plain objects, so it
  * crosses a Web Worker boundary by structured clone and turns into JSON without loss (no NaN or Infinity anywhere).
  */
-import type { Warning } from '../diagnostics/errors.ts';
-import type { IOTable } from '../table/types.ts';
-import { identityMinus, luInverse } from '../linalg/index.ts';
-import { conditionEstimate1, scaledResidual, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF } from '../linalg/checks.ts';
+import type { Warning } from '../diagnostics/index.ts';
+import type { IOTable } from '../table/index.ts';
+import {
+  identityMinus, luInverse, conditionEstimate1, scaledResidual, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF,
+} from '../linalg/index.ts';
 import { coefficients } from './coefficients.ts';
 import { closedBorder, prepareModel, solveClosed, type PreparedModel } from './prepared.ts';
 import { sectorBlocks } from './graph.ts';

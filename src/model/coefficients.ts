@@ -2,7 +2,7 @@
  * Technical coefficients and per-unit-output coefficients (Miller & Blair, Input–Output Analysis, 2nd ed. 2009, §2.2):
  * a_ij = z_ij / x_j; labour-income, other value-added, import and employment coefficients are the rows divided by x_j.
  */
-import type { IOTable, LabelledVector } from '../table/types.ts';
+import type { IOTable, LabelledVector } from '../table/index.ts';
 
 export interface Coefficients {
   n: number;

@@ -14,7 +14,7 @@
  * so each closed solve costs one open solve plus O(n). det(I − Ā) = det(B)·s, so the closed system is singular
  * exactly when s = 0, and for a productive open model s > 0 exactly when the closed model is productive.
  */
-import type { IOTable } from '../table/types.ts';
+import type { IOTable } from '../table/index.ts';
 import { coefficients, type Coefficients } from './coefficients.ts';
 import { closeHouseholds, type ClosedCoefficients } from './closure.ts';
 import { identityMinus, luFactor, luSolve, luSolveTransposed, type LU } from '../linalg/index.ts';

@@ -5,3 +5,4 @@ export {
 } from './project.ts';
 export { migrateV1, type ProjectV1Doc, type ProjectV2Doc } from './schema.ts';
 export { sha256Hex, utf8Bytes } from './sha256.ts';
+export { roleMapSchema } from './schema.ts';

@@ -6,11 +6,10 @@
  * from a newer version, or inconsistent; the caller keeps the file on disk untouched.
  * The save itself (temporary file, then rename) is the caller's: src/cli/io.ts `writeFileAtomic`, or the desktop shell.
  */
-import { InputError } from '../diagnostics/errors.ts';
-import { prepareModel } from '../model/prepared.ts';
-import { runScenario } from '../scenario/effects.ts';
-import type { Scenario, ScenarioResult, SpendingPattern } from '../scenario/types.ts';
-import type { IOTable, LabelledVector } from '../table/types.ts';
+import { InputError } from '../diagnostics/index.ts';
+import { prepareModel } from '../model/index.ts';
+import { runScenario, type Scenario, type ScenarioResult, type SpendingPattern } from '../scenario/index.ts';
+import type { IOTable, LabelledVector } from '../table/index.ts';
 import { writeJson, type Json } from './json.ts';
 import {
   DEFAULT_SETTINGS, PROJECT_FORMAT, PROJECT_VERSION, migrateV1, projectV1Schema, projectV2Schema, type ProjectV2Doc,

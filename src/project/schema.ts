@@ -3,7 +3,7 @@
  * flat source fields, `roleMap`, `share` on scenario lines, no spending patterns) is migrated on load.
  * A new version: add its schema here, a `migrateVn` from the previous one, and bump PROJECT_VERSION.
  */
-import { z } from '../schema/zod.ts';
+import { z } from '../schema/index.ts';
 
 export const PROJECT_FORMAT = 'roundwise-project';
 export const PROJECT_VERSION = 2;

@@ -9,9 +9,9 @@
  * same input structure (Theil 1957; Morimoto 1970; recalled from memory). The report shows, per group, the spread of
  * the members' Type I output multipliers against the group's multiplier.
  */
-import { InputError } from '../diagnostics/errors.ts';
-import { prepareModel, solveOpenTransposed } from '../model/prepared.ts';
-import type { IOTable, LabelledVector } from '../table/types.ts';
+import { InputError } from '../diagnostics/index.ts';
+import { prepareModel, solveOpenTransposed } from '../model/index.ts';
+import type { IOTable, LabelledVector } from '../table/index.ts';
 import { checkFieldCount, cleanLabel, readSmallCsv } from '../table/index.ts';
 
 export interface GroupMappingEntry {

@@ -5,8 +5,8 @@
  * columns then share x_i − u_i and the value-added and import rows share x_j − v_j in their original proportions
  * (an even split when a sector had none), and jobs keep their jobs-per-output coefficient.
  */
-import { InputError, type Warning } from '../diagnostics/errors.ts';
-import type { IOTable, LabelledVector } from '../table/types.ts';
+import { InputError, type Warning } from '../diagnostics/index.ts';
+import type { IOTable, LabelledVector } from '../table/index.ts';
 import { ras, type RasOptions, type RasResult } from './ras.ts';
 
 export interface TableTargets {

@@ -3,10 +3,10 @@
  * The national column may be left out when the national table has an employment row; the table's row is used then.
  * Read with the tables' dialect rules (src/table readSmallCsv); a value beyond the third field is refused.
  */
-import { InputError, type Location } from '../diagnostics/errors.ts';
+import { InputError, type Location } from '../diagnostics/index.ts';
 import { checkFieldCount, cleanLabel, readNumberCell, readSmallCsv, type DecimalMark } from '../table/index.ts';
 import { isHeaderRow } from './header-row.ts';
-import { toCsv } from '../report/csv.ts';
+import { toCsv } from '../csv/index.ts';
 
 export interface EmploymentEntry {
   sector: string;

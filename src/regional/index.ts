@@ -10,3 +10,4 @@ export * from './feasibility.ts';
 export * from './aggregate.ts';
 export * from './matrix-csv.ts';
 export * from './balance-table.ts';
+export * from './sample.ts';

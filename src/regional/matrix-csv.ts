@@ -3,7 +3,7 @@
  * (the corner cell may hold any text) and a row label in the first cell of every other row; a totals CSV has one
  * `label,total` line per row or column (header optional). Blank matrix cells are zero.
  */
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 import { checkFieldCount, cleanLabel, readNumberCell, readSmallCsv, type SmallCsv } from '../table/index.ts';
 import { isHeaderRow } from './header-row.ts';
 

@@ -6,7 +6,7 @@
  * Before iterating, infeasible targets are refused: totals that disagree, a positive total on an all-zero row or column,
  * and any other zero pattern that cannot carry the totals (feasibility.ts).
  */
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 import { rasFeasibility } from './feasibility.ts';
 
 export interface RasOptions {

@@ -9,9 +9,9 @@
  * - household consumption per unit of household income regionalized with min(SLQ_i, 1);
  * - exports and other final demand: what is left of county output after local intermediate and household use.
  */
-import { InputError, type Warning } from '../diagnostics/errors.ts';
-import { coefficients } from '../model/coefficients.ts';
-import type { IOTable, LabelledVector, RoleMap } from '../table/types.ts';
+import { InputError, type Warning } from '../diagnostics/index.ts';
+import { coefficients } from '../model/index.ts';
+import type { IOTable, LabelledVector, RoleMap } from '../table/index.ts';
 import type { EmploymentInput } from './employment.ts';
 import { DEFAULT_FLQ_DELTA, flqLambda, quotientMatrix, regionalCoefficients, simpleLQ, type LqMethod } from './quotients.ts';
 

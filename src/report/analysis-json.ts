@@ -3,8 +3,7 @@
  * "Command line" section; arrays in sector order; a value that is not defined is null (with its reason in
  * `nullReasons`), never NaN or Infinity.
  */
-import type { Analysis } from '../model/analysis.ts';
-import type { NullNote, Values } from '../model/multipliers.ts';
+import type { Analysis, NullNote, Values } from '../model/index.ts';
 
 type Json = null | boolean | number | string | Json[] | { [k: string]: Json };
 

@@ -2,10 +2,9 @@
  * Analysis reports: multipliers and linkages by sector, coefficients, the Leontief inverse, viability and the spectrum.
  * Each is a rectangular CSV with units in the header names plus an `.about.txt` sidecar with the cautions (document.ts).
  */
-import type { Cell } from './csv.ts';
+import type { Cell } from '../csv/index.ts';
 import { reportFiles, type ReportFile, type ReportMeta } from './document.ts';
-import type { Analysis } from '../model/analysis.ts';
-import type { NullNote, Values } from '../model/multipliers.ts';
+import type { Analysis, NullNote, Values } from '../model/index.ts';
 
 export interface AnalysisReportContext {
   sourceFile?: string;

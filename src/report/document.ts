@@ -5,7 +5,7 @@
  * into a sidecar text file of the same base name: `multipliers.csv` + `multipliers.about.txt`.
  */
 import { CAUTIONS } from './cautions.ts';
-import { toCsv, type Cell } from './csv.ts';
+import { toCsv, type Cell } from '../csv/index.ts';
 
 export interface ReportMeta {
   /** What the report is, e.g. "Multipliers by sector". */

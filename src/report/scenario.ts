@@ -3,13 +3,11 @@
  * employment), spending rounds, the scenario's implied multipliers, structural paths and scenario comparisons.
  * Each is a rectangular CSV with units in the header names plus an `.about.txt` sidecar (see document.ts).
  */
-import type { Cell } from './csv.ts';
+import type { Cell } from '../csv/index.ts';
 import { reportFiles, type ReportFile, type ReportMeta } from './document.ts';
-import type { PathAnalysis } from '../scenario/paths.ts';
-import type { RoundsResult } from '../scenario/rounds.ts';
-import type { ScenarioComparison } from '../scenario/compare.ts';
-import type { EffectSplit, ScenarioResult, Variable } from '../scenario/types.ts';
-import type { ScenarioAnalysis } from '../scenario/analysis.ts';
+import type {
+  PathAnalysis, RoundsResult, ScenarioComparison, EffectSplit, ScenarioResult, Variable, ScenarioAnalysis,
+} from '../scenario/index.ts';
 
 /** Cautions that belong to demand-shock scenarios in particular, added to the general ones of cautions.ts. */
 export const SCENARIO_CAUTIONS: readonly string[] = [

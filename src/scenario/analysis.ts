@@ -1,6 +1,5 @@
 /** One call for what a scenario screen or export needs: effects, spending rounds and (optionally) structural paths. */
-import type { PreparedModel } from '../model/prepared.ts';
-import { perronRoot } from '../model/perron.ts';
+import { type PreparedModel, perronRoot } from '../model/index.ts';
 import { runScenario } from './effects.ts';
 import { structuralPaths, type PathAnalysis, type PathOptions } from './paths.ts';
 import { spendingRounds, type RoundsOptions, type RoundsResult } from './rounds.ts';

@@ -1,5 +1,5 @@
 /** Several scenarios on the same table, side by side, with each one's difference from the first (the baseline). */
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 import type { EffectTotals, ScenarioResult, Variable } from './types.ts';
 
 export interface ScenarioComparison {

@@ -3,9 +3,9 @@
  * open total) and total (closed model), for output, value added, labour income and employment — the usual split of
  * Type I and Type II impact analysis (Miller & Blair 2009, ch. 6).
  */
-import { InputError } from '../diagnostics/errors.ts';
-import { conditionEstimate1 } from '../linalg/checks.ts';
-import { closedBorder, solveClosed, solveOpen, type PreparedModel } from '../model/prepared.ts';
+import { InputError } from '../diagnostics/index.ts';
+import { conditionEstimate1 } from '../linalg/index.ts';
+import { closedBorder, solveClosed, solveOpen, type PreparedModel } from '../model/index.ts';
 import { resolveShock } from './lines.ts';
 import { solveMixed } from './mixed.ts';
 import type { EffectSplit, EffectTotals, Ratio, Scenario, ScenarioMultiplier, ScenarioResult } from './types.ts';

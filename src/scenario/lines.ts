@@ -1,8 +1,8 @@
 /**
  * Scenario lines → the shock the solvers see, with every refusal located (shock-file line, sector label).
  */
-import { InputError, type Location } from '../diagnostics/errors.ts';
-import type { PreparedModel } from '../model/prepared.ts';
+import { InputError, type Location } from '../diagnostics/index.ts';
+import type { PreparedModel } from '../model/index.ts';
 import type { LineKind, ResolvedShock, Scenario, ScenarioLine, SpendingPattern } from './types.ts';
 
 function where(line: ScenarioLine | undefined, sector?: string): Location {

@@ -17,7 +17,9 @@
  * partial path's own feedback — is below `minShare`·|x_d|; `maxVisits` caps the work.
  */
 import { luDeterminant, luFactor } from '../linalg/index.ts';
-import { solveClosed, solveClosedTransposed, solveOpen, solveOpenTransposed, type PreparedModel } from '../model/prepared.ts';
+import {
+  solveClosed, solveClosedTransposed, solveOpen, solveOpenTransposed, type PreparedModel,
+} from '../model/index.ts';
 
 export interface PathOptions {
   /** Longest path followed, in arcs. Default 6. */

@@ -9,7 +9,7 @@
  * shock with a non-zero Perron component (power method; Golub & Van Loan 2013, §7.3).
  */
 import { matVec, norm1 } from '../linalg/index.ts';
-import type { PreparedModel } from '../model/prepared.ts';
+import type { PreparedModel } from '../model/index.ts';
 
 export const COVERAGE_TARGETS = [0.9, 0.99, 0.999] as const;
 

@@ -4,7 +4,7 @@
  * comma, semicolon or tab, decimal comma, thousands separators, quotes, "sep=" line); refusals name the file line and
  * field. A value beyond the header's fields is refused ("A,1,000" is not the amount 1).
  */
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 import { checkFieldCount, cleanLabel, numberCell, readSmallCsv } from '../table/index.ts';
 import { LINE_KINDS, type LineKind, type Scenario, type ScenarioLine } from './types.ts';
 

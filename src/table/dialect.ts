@@ -13,7 +13,7 @@
  *   usual reason for choosing ';', where the point groups thousands), the point in tab files — and a warning says how
  *   the numbers were read and how to force the other reading.
  */
-import { InputError, type Warning } from '../diagnostics/errors.ts';
+import { InputError, type Warning } from '../diagnostics/index.ts';
 import type { DecimalMark } from './numbers.ts';
 import type { Delimiter } from './text.ts';
 

@@ -3,7 +3,7 @@
  * refusals that need whole rows or columns (non-positive output that buys inputs, negative jobs, overflowing sums),
  * empty sectors dropped, and the balance report.
  */
-import { InputError, type Location, type Warning } from '../diagnostics/errors.ts';
+import { InputError, type Location, type Warning } from '../diagnostics/index.ts';
 import { showNumber } from './numbers.ts';
 import type { RawTable } from './structure.ts';
 import type { FinalDemandIncome, IOTable, LabelledVector } from './types.ts';

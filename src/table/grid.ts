@@ -10,7 +10,7 @@
  * Both grids are checked against each other by test/src/table/grid.test.ts.
  */
 import Papa from 'papaparse';
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 import type { Delimiter } from './text.ts';
 import { scanPlain } from './numbers.ts';
 

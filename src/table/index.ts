@@ -4,7 +4,7 @@
  * public parts: the small-CSV reader for shock, employment, group and totals files (same dialect rules), the table
  * writer, and `validateTable` for tables that did not come through the importer.
  */
-import { formatLocated, InputError, isInputError, type Location, type Warning } from '../diagnostics/errors.ts';
+import { formatLocated, InputError, isInputError, type Location, type Warning } from '../diagnostics/index.ts';
 import type { ColumnRole, IOTable, Layout, RoleMap, RowRole } from './types.ts';
 import { buildGrid } from './grid.ts';
 import { contentRows, readMatrix, type ReadOptions } from './matrix.ts';
@@ -29,6 +29,7 @@ export { suggestRoles, suggestRowRole, suggestColumnRole, parseRoleMap, normalis
 export { validateTable, type ValidateOptions } from './validate.ts';
 export { readSmallCsv, checkFieldCount, readNumberCell, numberCell, type SmallCsv, type SmallCsvRow, type SmallCsvOptions } from './small-csv.ts';
 export { writeTableCsv, writtenRoleMap } from './write.ts';
+export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from './sample.ts';
 
 /** Rows and fields of the file that the preview returns as parsed (the UI shows them as "the file as read"). */
 export const PREVIEW_ROWS = 12;

@@ -23,7 +23,7 @@ export function normaliseText(s: string): string {
 
 /**
  * A label as kept: normalised (above), and without the leading apostrophe that CSV-injection escaping puts before
- * =, +, -, @ (src/report/csv.ts).
+ * =, +, -, @ (src/csv/write.ts).
  */
 export function cleanLabel(s: string): string {
   const t = normaliseText(s);

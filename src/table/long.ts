@@ -3,7 +3,7 @@
  * other `from` labels are value-added, import, employment or total rows, other `to` labels final-demand or total
  * columns. A pair that does not occur is 0; a pair that occurs twice is refused.
  */
-import { InputError, type Location } from '../diagnostics/errors.ts';
+import { InputError, type Location } from '../diagnostics/index.ts';
 import type { Grid } from './grid.ts';
 import { checkWidth, headerWidth, negativeFlow, readCell, readLabel, type ReadOptions } from './matrix.ts';
 import { normaliseLabel } from './roles.ts';

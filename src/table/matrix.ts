@@ -2,7 +2,7 @@
  * The labelled-matrix layout (also the coefficients layout, which has the same shape): first record = column labels
  * after a corner cell, first field of every other record = row label.
  */
-import { InputError, type Location } from '../diagnostics/errors.ts';
+import { InputError, type Location } from '../diagnostics/index.ts';
 import type { Grid } from './grid.ts';
 import { parseNumberText, showNumber, type DecimalMark } from './numbers.ts';
 import { classify, type Classified, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';

@@ -3,8 +3,8 @@
  * Labels are compared as cleaned (labels.ts), case-insensitively, with a trailing remark in parentheses ignored
  * ("Employment (jobs)" is "employment").
  */
-import { z } from '../schema/zod.ts';
-import { InputError, type Location } from '../diagnostics/errors.ts';
+import { z } from '../schema/index.ts';
+import { InputError, type Location } from '../diagnostics/index.ts';
 import type { ColumnRole, RoleMap, RowRole } from './types.ts';
 import { cleanLabel } from './labels.ts';
 

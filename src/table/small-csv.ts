@@ -8,7 +8,7 @@
  * semicolon file), a small file is refused at that number rather than read with a warning — these files are typed by
  * hand, the fix is one keystroke, and a scenario or employment file has no place to show a warning.
  */
-import { InputError, type Location } from '../diagnostics/errors.ts';
+import { InputError, type Location } from '../diagnostics/index.ts';
 import { ambiguousMarkRefusal, delimiterHint, resolveDialect, type Dialect, type DialectOptions } from './dialect.ts';
 import { buildGrid } from './grid.ts';
 import { parseNumberText, showNumber, type DecimalMark } from './numbers.ts';

@@ -4,7 +4,7 @@
  * recognised non-sector label ("Total", "Households", …) or the role map names it; the role map's "sectors" or a
  * "(sector)" mark make it a sector whatever its words. Labels that look like a sector gone astray are warned about.
  */
-import type { Location, Warning } from '../diagnostics/errors.ts';
+import type { Location, Warning } from '../diagnostics/index.ts';
 import type { ColumnRole, Layout, RoleMap, RowRole } from './types.ts';
 import { isKnownLabel, suggestColumnRole, suggestRowRole } from './roles.ts';
 import type { DecimalMark } from './numbers.ts';

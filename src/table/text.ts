@@ -2,7 +2,7 @@
  * What the raw text is before any cell is read: its size, byte-order mark and whether it is text at all.
  * Its delimiter and decimal mark are dialect.ts's.
  */
-import { InputError } from '../diagnostics/errors.ts';
+import { InputError } from '../diagnostics/index.ts';
 
 /** Largest table accepted, refused before parsing: 200 MiB (a 2000-sector table is about 40 MB). */
 export const MAX_TABLE_BYTES = 200 * 1024 * 1024;

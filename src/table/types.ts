@@ -5,7 +5,7 @@
  * Convention: Z[i*n + j] is the flow from selling sector i (row) to buying sector j (column),
  * in money per year; x[j] is total output of sector j.
  */
-import type { Warning } from '../diagnostics/errors.ts';
+import type { Warning } from '../diagnostics/index.ts';
 
 /** What a non-sector row of the source table means. */
 export type RowRole = 'labourIncome' | 'otherValueAdded' | 'imports' | 'employment' | 'totalInput' | 'ignore';

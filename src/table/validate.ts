@@ -3,7 +3,7 @@
  * did not come through `importTable` (a project file's stored table), and finish.ts applies the shared ones to every
  * import. Refusals are InputErrors located by row and column label (there is no file line for a stored table).
  */
-import { InputError, type Location } from '../diagnostics/errors.ts';
+import { InputError, type Location } from '../diagnostics/index.ts';
 import { showNumber } from './numbers.ts';
 import { cleanLabel, matchKey } from './labels.ts';
 import type { IOTable, LabelledVector } from './types.ts';

@@ -18,12 +18,12 @@
  *   would be read as one (they differ only in case or spacing) are refused.
  *
  * Numbers are written in the shortest form that reads back to the same double (ECMAScript Number::toString),
- * text cells through src/report/csv.ts (RFC 4180 quoting, CSV-injection escaping, which the importer undoes); a text
+ * text cells through src/csv/write.ts (RFC 4180 quoting, CSV-injection escaping, which the importer undoes); a text
  * cell holding ';' or a tab is quoted as well, so that delimiter detection on the header line cannot be misled.
  * The totals row is derived, written to 15 significant digits so that a table balanced in decimal shows exact totals.
  */
-import { formatCell, type Cell } from '../report/csv.ts';
-import { InputError } from '../diagnostics/errors.ts';
+import { formatCell, type Cell } from '../csv/index.ts';
+import { InputError } from '../diagnostics/index.ts';
 import { cleanLabel, matchKey, SECTOR_MARK_TEXT, splitSectorMark } from './labels.ts';
 import { suggestColumnRole, suggestRowRole } from './roles.ts';
 import type { ColumnRole, IOTable, LabelledVector, RoleMap, RowRole } from './types.ts';

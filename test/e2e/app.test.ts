@@ -8,15 +8,12 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Page } from 'playwright-core';
+import type { Page, Download } from 'playwright-core';
 import Papa from 'papaparse';
 import { DOWNLOADS, REPO, shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
 import { importTable } from '../../src/table/index.ts';
-import { prepareModel } from '../../src/model/prepared.ts';
-import { analyzeTable } from '../../src/model/analysis.ts';
-import { runScenario } from '../../src/scenario/index.ts';
-import type { Scenario } from '../../src/scenario/types.ts';
-import type { Download } from 'playwright-core';
+import { prepareModel, analyzeTable } from '../../src/model/index.ts';
+import { runScenario, type Scenario } from '../../src/scenario/index.ts';
 
 const FIX = join(REPO, 'test', 'fixtures', 'e2e');
 const TEST_CSV = join(FIX, 'ridgeline-test.csv');

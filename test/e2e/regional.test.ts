@@ -10,13 +10,14 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Download, Page } from 'playwright-core';
 import { DOWNLOADS, shot, skipBrowser, startSession, type Session } from './harness.ts';
-import { importTable } from '../../src/table/index.ts';
-import { writeTableCsv } from '../../src/table/write.ts';
-import { analyzeTable } from '../../src/model/analysis.ts';
-import { prepareModel } from '../../src/model/prepared.ts';
+import { importTable, writeTableCsv } from '../../src/table/index.ts';
+import { analyzeTable, prepareModel } from '../../src/model/index.ts';
 import { runScenario } from '../../src/scenario/index.ts';
-import { aggregateTable, balanceTable, flqLambda, parseEmploymentCsv, parseGroupMapping, regionalize } from '../../src/regional/index.ts';
-import { EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV, GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME } from '../../src/regional/sample.ts';
+import {
+  aggregateTable, balanceTable, flqLambda, parseEmploymentCsv, parseGroupMapping, regionalize, EMPLOYMENT_SAMPLE_CSV,
+  EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV, GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV,
+  NATIONAL_SAMPLE_FILE_NAME,
+} from '../../src/regional/index.ts';
 
 let s: Session;
 let page: Page;

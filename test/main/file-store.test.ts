@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { AutosaveStore, RecentStore, readTextLimited, removeStaleTemps, writeFileAtomic } from '../../main/file-store.ts';
-import { InputError } from '../../src/diagnostics/errors.ts';
+import { InputError } from '../../src/diagnostics/index.ts';
 import { MAX_RECENT } from '../../src/bridge/validate.ts';
 
 let dir: string;

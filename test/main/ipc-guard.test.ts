@@ -2,7 +2,7 @@
 // messages"; the bridge contract (src/bridge/contract.ts) for argument shapes.
 import { describe, it, expect } from 'vitest';
 import { guarded, senderProblem } from '../../main/ipc-guard.ts';
-import { InputError } from '../../src/diagnostics/errors.ts';
+import { InputError } from '../../src/diagnostics/index.ts';
 
 const top = (url: string) => ({ senderFrame: { url, parent: null } });
 const own = top('app://roundwise/index.html');

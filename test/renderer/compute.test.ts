@@ -10,12 +10,9 @@ import Papa from 'papaparse';
 import { reactive } from 'vue';
 import { api } from '../../renderer/worker/compute.ts';
 import { plain } from '../../renderer/worker/client.ts';
-import { importTable } from '../../src/table/index.ts';
-import { SAMPLE_CSV, SAMPLE_FILE_NAME } from '../../src/table/sample.ts';
-import { analyzeTable } from '../../src/model/analysis.ts';
-import { prepareModel } from '../../src/model/prepared.ts';
-import { runScenario } from '../../src/scenario/index.ts';
-import type { Scenario } from '../../src/scenario/types.ts';
+import { importTable, SAMPLE_CSV, SAMPLE_FILE_NAME } from '../../src/table/index.ts';
+import { analyzeTable, prepareModel } from '../../src/model/index.ts';
+import { runScenario, type Scenario } from '../../src/scenario/index.ts';
 
 const FIX = fileURLToPath(new URL('../fixtures/e2e/', import.meta.url));
 const text = (f: string) => readFileSync(join(FIX, f), 'utf8');

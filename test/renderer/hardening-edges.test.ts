@@ -8,7 +8,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { api, type ReportKind } from '../../renderer/worker/compute.ts';
-import { InputError } from '../../src/diagnostics/errors.ts';
+import { InputError } from '../../src/diagnostics/index.ts';
 import { EDGE_TABLES } from '../src/hardening/edge-tables.ts';
 import { formulaTableCsv, unsafeCells } from '../src/hardening/csv-safety.ts';
 import { nonFinite, nonFiniteText } from '../src/hardening/gen.ts';

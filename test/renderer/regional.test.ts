@@ -10,10 +10,13 @@ import { fileURLToPath } from 'node:url';
 import { api } from '../../renderer/worker/compute.ts';
 import { buildRegional, type RegionalRequest } from '../../renderer/worker/regional.ts';
 import { importTable } from '../../src/table/index.ts';
-import { analyzeTable } from '../../src/model/analysis.ts';
-import { aggregateTable, balanceTable, flqLambda, parseEmploymentCsv, parseGroupMapping, regionalize } from '../../src/regional/index.ts';
-import { EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV, GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME } from '../../src/regional/sample.ts';
-import { formatLocated, isInputError } from '../../src/diagnostics/errors.ts';
+import { analyzeTable } from '../../src/model/index.ts';
+import {
+  aggregateTable, balanceTable, flqLambda, parseEmploymentCsv, parseGroupMapping, regionalize, EMPLOYMENT_SAMPLE_CSV,
+  EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV, GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV,
+  NATIONAL_SAMPLE_FILE_NAME,
+} from '../../src/regional/index.ts';
+import { formatLocated, isInputError } from '../../src/diagnostics/index.ts';
 
 const FIX = fileURLToPath(new URL('../fixtures/regional/', import.meta.url));
 const fix = (f: string) => ({ text: readFileSync(join(FIX, f), 'utf8'), fileName: f });

@@ -1,6 +1,6 @@
 // One builder for IOTables made in code by the tests (no import, no checks: the engine must cope with what it is
 // given). Each test area keeps its own wrapper with its own labels and unit, so its tables read as before.
-import type { IOTable, LabelledVector, RoleMap } from '../../src/table/types.ts';
+import type { IOTable, LabelledVector, RoleMap } from '../../src/table/index.ts';
 
 export interface TableParts {
   name?: string;

@@ -1,5 +1,5 @@
 // The InputError a call throws; anything else it throws is re-thrown, and no throw at all fails the test.
-import { InputError } from '../../src/diagnostics/errors.ts';
+import { InputError } from '../../src/diagnostics/index.ts';
 
 export function refusal(f: () => unknown): InputError {
   try {

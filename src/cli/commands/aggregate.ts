@@ -2,10 +2,8 @@
  * `roundwise aggregate TABLE.csv --groups GROUPS.csv [--map MAP.json] [--json] [--out DIR]`
  * Merges sectors into groups (src/regional/aggregate.ts) and reports the aggregation bias.
  */
-import { CAUTIONS } from '../../report/cautions.ts';
-import { aboutText, reportFiles } from '../../report/document.ts';
-import { importTable } from '../../table/index.ts';
-import { writeTableCsv } from '../../table/write.ts';
+import { CAUTIONS, aboutText, reportFiles } from '../../report/index.ts';
+import { importTable, writeTableCsv } from '../../table/index.ts';
 import { aggregateTable, parseGroupMapping, type AggregationResult } from '../../regional/index.ts';
 import type { CliIO } from '../io.ts';
 import { num, parseCommandArgs, readInput, readRoleMap, requireOne, requireOption, sha256, textTable, writeAll } from './regional-shared.ts';

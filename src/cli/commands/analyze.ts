@@ -6,11 +6,10 @@
 import { parseArgs } from 'node:util';
 import { createHash } from 'node:crypto';
 import { basename, join } from 'node:path';
-import { InputError, formatLocated } from '../../diagnostics/errors.ts';
+import { InputError, formatLocated } from '../../diagnostics/index.ts';
 import { importTable, parseRoleMap } from '../../table/index.ts';
-import { analyzeTable, type Analysis } from '../../model/analysis.ts';
-import { analysisJson } from '../../report/analysis-json.ts';
-import { analysisReports } from '../../report/analysis.ts';
+import { analyzeTable, type Analysis } from '../../model/index.ts';
+import { analysisJson, analysisReports } from '../../report/index.ts';
 import { readInputFile, writeFileAtomic, type CliIO } from '../io.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
 

@@ -2,12 +2,9 @@
  * `roundwise balance MATRIX.csv --rows ROWS.csv --columns COLS.csv [--tolerance 1e-10] [--max-iterations 10000] [--json] [--out DIR]`
  * RAS: scales a non-negative labelled matrix to given row and column totals (src/regional/ras.ts).
  */
-import { InputError } from '../../diagnostics/errors.ts';
-import { CAUTIONS } from '../../report/cautions.ts';
-import { reportFiles } from '../../report/document.ts';
-import { importTable } from '../../table/index.ts';
-import { writeTableCsv } from '../../table/write.ts';
-import { aboutText } from '../../report/document.ts';
+import { InputError } from '../../diagnostics/index.ts';
+import { CAUTIONS, reportFiles, aboutText } from '../../report/index.ts';
+import { importTable, writeTableCsv } from '../../table/index.ts';
 import { balanceTable, parseLabelledMatrix, parseTotals, ras, RAS_DEFAULT_MAX_ITERATIONS, RAS_DEFAULT_TOLERANCE, type RasResult, type LabelledMatrix } from '../../regional/index.ts';
 import type { CliIO } from '../io.ts';
 import { num, numberOption, parseCommandArgs, readInput, readRoleMap, requireOne, requireOption, sha256, writeAll } from './regional-shared.ts';

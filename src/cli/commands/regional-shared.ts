@@ -2,10 +2,10 @@
 import { createHash } from 'node:crypto';
 import { join } from 'node:path';
 import { parseArgs, type ParseArgsConfig } from 'node:util';
-import { InputError } from '../../diagnostics/errors.ts';
+import { InputError } from '../../diagnostics/index.ts';
 import { parseRoleMap, type RoleMap } from '../../table/index.ts';
 import { readInputFile, writeFileAtomic } from '../io.ts';
-import type { ReportFile } from '../../report/document.ts';
+import type { ReportFile } from '../../report/index.ts';
 
 type Options = NonNullable<ParseArgsConfig['options']>;
 

@@ -2,11 +2,9 @@
  * `roundwise regionalize NATIONAL.csv --employment EMP.csv --method slq|cilq|flq [--delta 0.3] [--map MAP.json] [--json] [--out DIR]`
  * Estimates a county table from a national one with location quotients (src/regional).
  */
-import { InputError } from '../../diagnostics/errors.ts';
-import { CAUTIONS } from '../../report/cautions.ts';
-import { aboutText, reportFiles, type ReportMeta, type ReportFile } from '../../report/document.ts';
-import { importTable } from '../../table/index.ts';
-import { writeTableCsv } from '../../table/write.ts';
+import { InputError } from '../../diagnostics/index.ts';
+import { CAUTIONS, aboutText, reportFiles, type ReportMeta, type ReportFile } from '../../report/index.ts';
+import { importTable, writeTableCsv } from '../../table/index.ts';
 import { LQ_METHODS, parseEmploymentCsv, regionalize, type LqMethod, type RegionalResult } from '../../regional/index.ts';
 import type { CliIO } from '../io.ts';
 import { num, numberOption, parseCommandArgs, readInput, readRoleMap, requireOne, requireOption, sha256, textTable, writeAll } from './regional-shared.ts';

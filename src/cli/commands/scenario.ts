@@ -4,16 +4,14 @@
  * optionally structural paths to one sector, and the study saved as a project file.
  */
 import { basename, join } from 'node:path';
-import { z } from '../../schema/zod.ts';
-import { formatLocated, InputError } from '../../diagnostics/errors.ts';
-import { analyzePrepared, type Analysis } from '../../model/analysis.ts';
-import { prepareModel } from '../../model/prepared.ts';
-import { analysisNotes, multiplierRows } from '../../report/analysis.ts';
-import { reportFiles, type ReportFile } from '../../report/document.ts';
-import { createProject, parseProject, serializeProject, sha256Hex } from '../../project/index.ts';
-import { roleMapSchema } from '../../project/schema.ts';
-import { CAUTIONS } from '../../report/cautions.ts';
-import { modelTypeOf, scenarioReports, SCENARIO_CAUTIONS, type ScenarioReportContext } from '../../report/scenario.ts';
+import { z } from '../../schema/index.ts';
+import { formatLocated, InputError } from '../../diagnostics/index.ts';
+import { analyzePrepared, type Analysis, prepareModel } from '../../model/index.ts';
+import {
+  analysisNotes, multiplierRows, reportFiles, type ReportFile, CAUTIONS, modelTypeOf, scenarioReports,
+  SCENARIO_CAUTIONS, type ScenarioReportContext,
+} from '../../report/index.ts';
+import { createProject, parseProject, serializeProject, sha256Hex, roleMapSchema } from '../../project/index.ts';
 import {
   analyseScenario, parseShockCsv, VARIABLES, type EffectSplit, type PathAnalysis, type RoundsResult, type ScenarioResult,
 } from '../../scenario/index.ts';

@@ -7,8 +7,8 @@ import { join } from 'node:path';
 import Papa from 'papaparse';
 import { main } from '../../../src/cli/main.ts';
 import { importTable } from '../../../src/table/index.ts';
-import { analyzeTable } from '../../../src/model/analysis.ts';
-import { CAUTIONS } from '../../../src/report/cautions.ts';
+import { analyzeTable } from '../../../src/model/index.ts';
+import { CAUTIONS } from '../../../src/report/index.ts';
 
 const SAMPLE = 'sample-data/fernhollow-county.csv';
 let dir: string;

@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
-import { main } from '../../../src/cli/main.ts';
+import { main } from '../../../src/cli/index.ts';
 import { ACCEPTED, BASE } from '../../fixtures/hardening/make-corpus.ts';
 import { encoding, expectCliRefusal, gridTable, nonFiniteText, runCli, toText } from './gen.ts';
 import { FORMULA_LABELS, formulaTableCsv, unsafeCells } from './csv-safety.ts';

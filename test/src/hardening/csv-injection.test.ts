@@ -5,12 +5,12 @@
  * quote; only numbers may begin with '-' or '+'.
  */
 import { describe, expect, it } from 'vitest';
-import { importTable } from '../../../src/table/index.ts';
-import { writeTableCsv } from '../../../src/table/write.ts';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { importTable, writeTableCsv } from '../../../src/table/index.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import { compareScenarios, runScenario, spendingRounds, structuralPaths } from '../../../src/scenario/index.ts';
-import { comparisonReport, impactReport, pathReport, roundsReport, scenarioMultiplierReport } from '../../../src/report/scenario.ts';
-import type { ReportFile } from '../../../src/report/document.ts';
+import {
+  comparisonReport, impactReport, pathReport, roundsReport, scenarioMultiplierReport, type ReportFile,
+} from '../../../src/report/index.ts';
 import { FORMULA_LABELS, formulaTableCsv, unsafeCells } from './csv-safety.ts';
 
 describe('CSV injection, end to end through the engine', () => {

@@ -6,8 +6,8 @@
  */
 import fc from 'fast-check';
 import { expect } from 'vitest';
-import { InputError, formatLocated } from '../../../src/diagnostics/errors.ts';
-import type { IOTable } from '../../../src/table/types.ts';
+import { InputError, formatLocated } from '../../../src/diagnostics/index.ts';
+import type { IOTable } from '../../../src/table/index.ts';
 
 /** Invented sector names that no role suggestion recognises. */
 export const SECTOR_POOL = [

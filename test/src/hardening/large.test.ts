@@ -58,7 +58,7 @@ describe('large inputs', () => {
 
 describe('the CLI and a file over the limit', () => {
   it('a 1 GiB table is refused by its size before it is read (scenario and analyze): exit 2, memory does not grow by the file', async () => {
-    const { main } = await import('../../../src/cli/main.ts');
+    const { main } = await import('../../../src/cli/index.ts');
     const { runCli, expectCliRefusal } = await import('./gen.ts');
     const { truncateSync } = await import('node:fs');
     const table = join(dir, 'sparse.csv');

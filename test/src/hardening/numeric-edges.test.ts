@@ -9,12 +9,11 @@ import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'n
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { main } from '../../../src/cli/main.ts';
-import { InputError } from '../../../src/diagnostics/errors.ts';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { main } from '../../../src/cli/index.ts';
+import { InputError } from '../../../src/diagnostics/index.ts';
+import { prepareModel, analyzeTable } from '../../../src/model/index.ts';
 import { analyseScenario, runScenario } from '../../../src/scenario/index.ts';
-import { analyzeTable } from '../../../src/model/analysis.ts';
-import { analysisJson } from '../../../src/report/analysis-json.ts';
+import { analysisJson } from '../../../src/report/index.ts';
 import { importTable } from '../../../src/table/index.ts';
 import { EDGE_TABLES } from './edge-tables.ts';
 import { expectCliRefusal, nonFinite, nonFiniteText, runCli } from './gen.ts';

@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
-import { main } from '../../../src/cli/main.ts';
+import { main } from '../../../src/cli/index.ts';
 import { nonFiniteText, runCli } from './gen.ts';
 
 const FIX = fileURLToPath(new URL('../../fixtures/regional/', import.meta.url));

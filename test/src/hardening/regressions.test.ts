@@ -2,9 +2,9 @@
  * Defects found by the hardening property tests, each pinned by the smallest input that showed it.
  */
 import { describe, expect, it } from 'vitest';
-import { formatLocated, InputError } from '../../../src/diagnostics/errors.ts';
+import { formatLocated, InputError } from '../../../src/diagnostics/index.ts';
 import { importTable } from '../../../src/table/index.ts';
-import { parseShockCsv } from '../../../src/scenario/shock-csv.ts';
+import { parseShockCsv } from '../../../src/scenario/index.ts';
 import { refusalOf } from './gen.ts';
 
 describe('found by the property tests', () => {

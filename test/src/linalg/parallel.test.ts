@@ -5,7 +5,7 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { luFactor, luInverse, luSolveMany } from '../../../src/linalg/index.ts';
 import { luFactorReference, luInverseReference } from '../../../src/linalg/lu-reference.ts';
 import { splitJobCount, sharedKernel } from '../../../src/linalg/parallel.ts';
-import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../../src/cli/parallel.ts';
+import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../../src/cli/index.ts';
 
 function seeded(seed: number): () => number {
   let s = seed >>> 0;

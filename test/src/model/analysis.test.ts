@@ -3,8 +3,7 @@ import { describe, it, expect } from 'vitest';
 import Papa from 'papaparse';
 import { analyzeTable, analyzePrepared } from '../../../src/model/analysis.ts';
 import { prepareModel, solveOpen } from '../../../src/model/prepared.ts';
-import { analysisJson } from '../../../src/report/analysis-json.ts';
-import { analysisReports } from '../../../src/report/analysis.ts';
+import { analysisJson, analysisReports } from '../../../src/report/index.ts';
 import { randomEconomy, tableFromA } from './tables.ts';
 
 describe('Analysis', () => {

@@ -1,5 +1,5 @@
 // IOTables built in code for the model tests (values are either from a named source or seeded random, never a reference).
-import type { IOTable } from '../../../src/table/types.ts';
+import type { IOTable } from '../../../src/table/index.ts';
 import { tableFromParts, type TableParts } from '../../support/io-table.ts';
 
 export function seeded(seed: number): () => number {

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { InputError } from '../../../src/diagnostics/errors.ts';
+import { InputError } from '../../../src/diagnostics/index.ts';
 import {
   createProject, parseProject, projectResults, serializeProject, sourceInfo, PROJECT_VERSION, utf8Bytes, type Project,
 } from '../../../src/project/index.ts';

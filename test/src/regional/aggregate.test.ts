@@ -6,8 +6,7 @@ import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { matrix, multiply, transpose } from 'mathjs';
 import { aggregateTable, parseGroupMapping } from '../../../src/regional/index.ts';
-import { coefficients } from '../../../src/model/coefficients.ts';
-import { prepareModel, solveOpen, solveOpenTransposed } from '../../../src/model/prepared.ts';
+import { coefficients, prepareModel, solveOpen, solveOpenTransposed } from '../../../src/model/index.ts';
 import { buildTable, expectClose, rows, type TableSpec } from './build-table.ts';
 import { refusal } from '../../support/refusal.ts';
 

@@ -6,8 +6,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { balanceTable } from '../../../src/regional/index.ts';
 import { importTable } from '../../../src/table/index.ts';
-import { main } from '../../../src/cli/main.ts';
-import { InputError } from '../../../src/diagnostics/errors.ts';
+import { main } from '../../../src/cli/index.ts';
+import { InputError } from '../../../src/diagnostics/index.ts';
 import { THREE, expectClose } from './build-table.ts';
 
 const f64 = (a: number[]) => Float64Array.from(a);

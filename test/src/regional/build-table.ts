@@ -1,5 +1,5 @@
 // Small IOTables built in code for the regional tests (the numbers are invented and balanced by hand).
-import type { IOTable } from '../../../src/table/types.ts';
+import type { IOTable } from '../../../src/table/index.ts';
 import { tableFromParts, type TableParts } from '../../support/io-table.ts';
 
 export type TableSpec = TableParts & { sectors: string[] };

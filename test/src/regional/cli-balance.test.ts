@@ -3,7 +3,7 @@ import { describe, it, expect, beforeAll } from 'vitest';
 import { mkdtempSync, readFileSync, existsSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../../src/cli/main.ts';
+import { main } from '../../../src/cli/index.ts';
 import { parseLabelledMatrix } from '../../../src/regional/index.ts';
 
 const FIX = join(import.meta.dirname, '../../fixtures/regional');

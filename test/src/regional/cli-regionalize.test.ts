@@ -4,9 +4,9 @@ import { describe, it, expect, beforeAll } from 'vitest';
 import { mkdtempSync, readFileSync, readdirSync, existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../../src/cli/main.ts';
+import { main } from '../../../src/cli/index.ts';
 import { importTable } from '../../../src/table/index.ts';
-import { coefficients } from '../../../src/model/coefficients.ts';
+import { coefficients } from '../../../src/model/index.ts';
 import { expectClose } from './build-table.ts';
 
 const FIX = join(import.meta.dirname, '../../fixtures/regional');

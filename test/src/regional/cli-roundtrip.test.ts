@@ -2,13 +2,12 @@
 // output multipliers are the column sums of (I − R)⁻¹ of the regional coefficients R printed by `--json`
 // (Miller & Blair 2009, §2.3 and §6.2), the inverse taken independently with mathjs.
 import { describe, it, expect } from 'vitest';
-import { mkdtempSync } from 'node:fs';
+import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { readFileSync } from 'node:fs';
 import { inv, matrix, multiply, subtract, identity, transpose } from 'mathjs';
 import { importTable } from '../../../src/table/index.ts';
-import { main } from '../../../src/cli/main.ts';
+import { main } from '../../../src/cli/index.ts';
 
 const SAMPLE = join(import.meta.dirname, '../../../sample-data');
 const FIX = join(import.meta.dirname, '../../fixtures/regional');

@@ -3,9 +3,8 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { regionalize, parseEmploymentCsv, employmentTemplate, REGIONAL_IMPORT_LABEL, type EmploymentInput } from '../../../src/regional/index.ts';
-import { coefficients } from '../../../src/model/coefficients.ts';
-import { prepareModel, solveOpenTransposed } from '../../../src/model/prepared.ts';
-import { formatLocated } from '../../../src/diagnostics/errors.ts';
+import { coefficients, prepareModel, solveOpenTransposed } from '../../../src/model/index.ts';
+import { formatLocated } from '../../../src/diagnostics/index.ts';
 import { THREE, buildTable, expectClose } from './build-table.ts';
 import { refusal } from '../../support/refusal.ts';
 

@@ -2,7 +2,7 @@
 // rectangular rows, formula-leading text escaped per OWASP "CSV Injection" guidance.
 import { describe, it, expect } from 'vitest';
 import Papa from 'papaparse';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import { compareScenarios, runScenario, spendingRounds, structuralPaths } from '../../../src/scenario/index.ts';
 import {
   comparisonReport, impactReport, impactRows, pathReport, roundsReport, scenarioMultiplierReport, SCENARIO_CAUTIONS,

@@ -1,7 +1,7 @@
 // analyseScenario: structural paths from a scenario with a fixed-output line, in both systems, must add up to that
 // system's output change at the destination when every elementary path is listed (Defourny & Thorbecke 1984).
 import { describe, it, expect } from 'vitest';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import { analyseScenario, type Scenario } from '../../../src/scenario/index.ts';
 import { county4 } from './tables.ts';
 

@@ -8,7 +8,7 @@ import { fileURLToPath } from 'node:url';
 import * as math from 'mathjs';
 import Papa from 'papaparse';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
-import { main } from '../../../src/cli/main.ts';
+import { main } from '../../../src/cli/index.ts';
 import { parseProject, projectResults } from '../../../src/project/index.ts';
 
 const fx = (name: string) => fileURLToPath(new URL(`../../fixtures/scenario/${name}`, import.meta.url));

@@ -1,6 +1,6 @@
 import { describe, it, expect } from 'vitest';
 import * as math from 'mathjs';
-import { prepareModel, type PreparedModel } from '../../../src/model/prepared.ts';
+import { prepareModel, type PreparedModel } from '../../../src/model/index.ts';
 import { runScenario } from '../../../src/scenario/index.ts';
 import { county4, millerBlair2 } from './tables.ts';
 

@@ -2,9 +2,9 @@
 // partitioned system (I − A_ee)·x_e = f_e + A_ex·x_x with mathjs.
 import { describe, it, expect } from 'vitest';
 import * as math from 'mathjs';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import { runScenario } from '../../../src/scenario/index.ts';
-import type { IOTable } from '../../../src/table/types.ts';
+import type { IOTable } from '../../../src/table/index.ts';
 import { county4 } from './tables.ts';
 
 function fullMatrix(t: IOTable, closed: boolean): number[][] {

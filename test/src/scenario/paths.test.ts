@@ -2,7 +2,7 @@
 // sum of the total influences of all elementary paths from o to d, and the path multiplier is Δ_p/Δ (their definitions).
 import { describe, it, expect } from 'vitest';
 import * as math from 'mathjs';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import { structuralPaths } from '../../../src/scenario/index.ts';
 import { county4, makeTable } from './tables.ts';
 

@@ -4,7 +4,7 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import * as math from 'mathjs';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import { runScenario, type ScenarioLine } from '../../../src/scenario/index.ts';
 import { makeTable } from './tables.ts';
 

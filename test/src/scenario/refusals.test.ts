@@ -1,7 +1,7 @@
 // Every refusal named in the scenario requirements, with its location (shock-file line, sector label).
 import { describe, it, expect } from 'vitest';
-import { formatLocated } from '../../../src/diagnostics/errors.ts';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { formatLocated } from '../../../src/diagnostics/index.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import { compareScenarios, parseShockCsv, resolveShock, runScenario, spreadPattern, type Scenario } from '../../../src/scenario/index.ts';
 import { county4 } from './tables.ts';
 import { refusal } from '../../support/refusal.ts';

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import * as math from 'mathjs';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
-import { prepareModel } from '../../../src/model/prepared.ts';
+import { prepareModel } from '../../../src/model/index.ts';
 import { runScenario, spendingRounds } from '../../../src/scenario/index.ts';
 import { county4 } from './tables.ts';
 

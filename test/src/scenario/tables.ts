@@ -2,7 +2,7 @@
  * IOTables built in code for the scenario tests. The Miller & Blair two-sector table is their §2.3 example
  * (Input–Output Analysis, 2nd ed. 2009; recalled from memory). `county4` is invented (demo data, not a reference).
  */
-import type { IOTable } from '../../../src/table/types.ts';
+import type { IOTable } from '../../../src/table/index.ts';
 import { tableFromParts, type TableParts } from '../../support/io-table.ts';
 
 export type TableSpec = Omit<TableParts, 'households'> & { sectors: string[]; household?: number[] };

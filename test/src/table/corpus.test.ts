@@ -4,7 +4,7 @@ import { describe, it, expect } from 'vitest';
 import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { importTable, previewTable } from '../../../src/table/index.ts';
-import { InputError } from '../../../src/diagnostics/errors.ts';
+import { InputError } from '../../../src/diagnostics/index.ts';
 
 const dir = fileURLToPath(new URL('../../fixtures/table/corpus/', import.meta.url));
 /** A refusal (code and formatted message), an import with these warning codes, or (null) a clean import. */

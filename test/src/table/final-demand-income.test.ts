@@ -5,7 +5,7 @@
 import { describe, it, expect } from 'vitest';
 import { Matrix, inverse } from 'ml-matrix';
 import { importTable, previewTable, writeTableCsv } from '../../../src/table/index.ts';
-import { analyzeTable } from '../../../src/model/analysis.ts';
+import { analyzeTable } from '../../../src/model/index.ts';
 import { BASE } from './helpers.ts';
 
 /** BASE with a Government final-demand column that pays 12 of labour income and buys nothing from the sectors. */

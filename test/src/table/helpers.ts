@@ -1,6 +1,6 @@
 // Shared helpers for the table tests.
 import { expect } from 'vitest';
-import { InputError, type Location } from '../../../src/diagnostics/errors.ts';
+import { InputError, type Location } from '../../../src/diagnostics/index.ts';
 import { importTable, type ImportOptions } from '../../../src/table/index.ts';
 
 /** A small balanced table (invented, for tests): rows sell to columns; every row and column adds up. */

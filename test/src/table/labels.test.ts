@@ -5,7 +5,7 @@
 import { describe, it, expect } from 'vitest';
 import { importTable, previewTable, writeTableCsv, cleanLabel, matchKey, type IOTable } from '../../../src/table/index.ts';
 import { aggregateTable, parseGroupMapping, parseEmploymentCsv, regionalize } from '../../../src/regional/index.ts';
-import { analyzeTable } from '../../../src/model/analysis.ts';
+import { analyzeTable } from '../../../src/model/index.ts';
 import { BASE } from './helpers.ts';
 
 const clean = importTable(BASE, { fileName: 'base.csv' });

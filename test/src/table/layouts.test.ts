@@ -4,7 +4,7 @@
 import { describe, it, expect } from 'vitest';
 import { importTable, previewTable, type IOTable } from '../../../src/table/index.ts';
 import { SAMPLE_CSV } from '../../../src/table/sample.ts';
-import { toCsv, type Cell } from '../../../src/report/csv.ts';
+import { toCsv, type Cell } from '../../../src/csv/index.ts';
 
 const m = importTable(SAMPLE_CSV, { fileName: 'sample.csv' });
 const { n, sectors } = m;

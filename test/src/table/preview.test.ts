@@ -3,7 +3,7 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { importTable, previewTable } from '../../../src/table/index.ts';
-import { InputError } from '../../../src/diagnostics/errors.ts';
+import { InputError } from '../../../src/diagnostics/index.ts';
 import { BASE, replaceOnce } from './helpers.ts';
 
 describe('previewTable', () => {

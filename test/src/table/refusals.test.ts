@@ -3,7 +3,7 @@
 import { describe, it, expect } from 'vitest';
 import { BASE, expectRefusal, replaceOnce } from './helpers.ts';
 import { checkTableSize, importTable, MAX_TABLE_BYTES } from '../../../src/table/index.ts';
-import { InputError } from '../../../src/diagnostics/errors.ts';
+import { InputError } from '../../../src/diagnostics/index.ts';
 
 describe('table import refusals', () => {
   it('refuses a file over the size limit before parsing', () => {

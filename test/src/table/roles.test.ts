@@ -2,7 +2,7 @@
 // role-map file (`--map map.json`) is validated with located messages.
 import { describe, it, expect } from 'vitest';
 import { importTable, parseRoleMap, previewTable, suggestColumnRole, suggestRoles, suggestRowRole } from '../../../src/table/index.ts';
-import { InputError } from '../../../src/diagnostics/errors.ts';
+import { InputError } from '../../../src/diagnostics/index.ts';
 import { BASE, replaceOnce } from './helpers.ts';
 
 const variants = (l: string): string[] => [l, l.toLowerCase(), l.toUpperCase(), `  ${l}  `];

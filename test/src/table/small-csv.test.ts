@@ -5,7 +5,7 @@ import { describe, it, expect } from 'vitest';
 import { MAX_TABLE_BYTES, readSmallCsv } from '../../../src/table/index.ts';
 import { parseShockCsv } from '../../../src/scenario/index.ts';
 import { parseEmploymentCsv, parseGroupMapping, parseLabelledMatrix, parseTotals } from '../../../src/regional/index.ts';
-import { formatLocated } from '../../../src/diagnostics/errors.ts';
+import { formatLocated } from '../../../src/diagnostics/index.ts';
 import { refusal } from '../../support/refusal.ts';
 
 const located = (f: () => unknown): string => formatLocated(refusal(f));

@@ -2,7 +2,7 @@
 // project file's stored table): every refusal the importer makes for such a table is made again, located by label.
 import { describe, it, expect } from 'vitest';
 import { importTable, validateTable, type IOTable } from '../../../src/table/index.ts';
-import { formatLocated } from '../../../src/diagnostics/errors.ts';
+import { formatLocated } from '../../../src/diagnostics/index.ts';
 import { SAMPLE_CSV } from '../../../src/table/sample.ts';
 import { refusal } from '../../support/refusal.ts';
 import { BASE } from './helpers.ts';
