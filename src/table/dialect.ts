@@ -110,26 +110,69 @@ export function guessDelimiter(text: string): { delimiter: Delimiter; note: stri
 /** What one cell says about the decimal mark. */
 type Evidence = { proves: DecimalMark } | { ambiguous: true } | null;
 
+const isDigit = (c: number): boolean => c >= 48 && c <= 57;
+/** Spaces, no-break spaces, apostrophes and quotes: grouping or quoting, no evidence either way. */
+const isFiller = (c: number): boolean => c === 32 || c === 9 || c === 13 || c === 34 || c === 39 || c === 0xa0 || c === 0x202f;
+
 /**
- * Evidence from one cell's text (spaces and apostrophes, which only group digits, are ignored; a sign and an exponent
- * are allowed). Thousands groups have 1–3 digits, not starting with 0, before the first separator and exactly three
- * after each; anything else shows the mark is a decimal mark.
+ * Evidence from the cell text[start, end) (spaces and apostrophes, which only group digits, and quotes are ignored; a
+ * sign and an exponent are allowed). Thousands groups have 1–3 digits, not starting with 0, before the first separator
+ * and exactly three after each; anything else shows the mark is a decimal mark. Reads char codes in place: a large
+ * file with a mark in every cell is scanned without making a string per cell.
  */
-export function markEvidence(cell: string): Evidence {
-  const s = cell.replace(/[\s\u00a0\u202f']/g, '').replace(/^[+\-\u2212]/, '').replace(/[eE][+-]?\d+$/, '');
-  if (!/^[.,]?\d[\d.,]*$/.test(s) || /[.,]$/.test(s)) return null;
-  const points = s.split('.').length - 1;
-  const commas = s.split(',').length - 1;
+function evidenceAt(text: string, start: number, end: number): Evidence {
+  let a = start;
+  let b = end;
+  while (a < b && isFiller(text.charCodeAt(a))) a++;
+  while (b > a && isFiller(text.charCodeAt(b - 1))) b--;
+  const s0 = text.charCodeAt(a);
+  if (s0 === 43 || s0 === 45 || s0 === 0x2212) a++;
+  // An exponent at the end: "1.5e3", "2,5E-2".
+  let e = b - 1;
+  while (e > a && isDigit(text.charCodeAt(e))) e--;
+  if (e < b - 1) {
+    let m = e;
+    const sign = text.charCodeAt(m);
+    if ((sign === 43 || sign === 45) && m > a) m--;
+    const ch = text.charCodeAt(m);
+    if ((ch === 101 || ch === 69) && m > a) b = m;
+  }
+  if (a >= b || !isDigit(text.charCodeAt(b - 1))) return null;
+  let points = 0;
+  let commas = 0;
+  let lastPoint = -1;
+  let lastComma = -1;
+  let intDigits = 0; // digits before the first mark
+  let firstDigit = -1;
+  let fracDigits = 0; // digits after the last mark
+  for (let i = a; i < b; i++) {
+    const c = text.charCodeAt(i);
+    if (isDigit(c)) {
+      if (points + commas === 0) {
+        if (firstDigit < 0) firstDigit = c;
+        intDigits++;
+      } else fracDigits++;
+    } else if (c === 46) {
+      points++;
+      lastPoint = i;
+      fracDigits = 0;
+    } else if (c === 44) {
+      commas++;
+      lastComma = i;
+      fracDigits = 0;
+    } else if (c !== 32 && c !== 39 && c !== 0xa0 && c !== 0x202f) return null;
+  }
   if (points === 0 && commas === 0) return null;
-  if (points > 0 && commas > 0) return { proves: s.lastIndexOf('.') > s.lastIndexOf(',') ? '.' : ',' };
+  if (points > 0 && commas > 0) return { proves: lastPoint > lastComma ? '.' : ',' };
   const mark: DecimalMark = points > 0 ? '.' : ',';
-  const other: DecimalMark = mark === '.' ? ',' : '.';
-  if (points + commas > 1) return { proves: other }; // two separators of one kind: thousands groups
-  const at = s.indexOf(mark);
-  const int = s.slice(0, at);
-  const frac = s.slice(at + 1);
-  if (int === '' || frac.length !== 3 || int.length > 3 || int[0] === '0') return { proves: mark };
+  if (points + commas > 1) return { proves: mark === '.' ? ',' : '.' }; // two separators of one kind: thousands groups
+  if (intDigits === 0 || fracDigits !== 3 || intDigits > 3 || firstDigit === 48) return { proves: mark };
   return { ambiguous: true };
+}
+
+/** Evidence from one cell's text (see evidenceAt). */
+export function markEvidence(cell: string): Evidence {
+  return evidenceAt(cell, 0, cell.length);
 }
 
 export interface MarkGuess {
@@ -140,37 +183,63 @@ export interface MarkGuess {
   ambiguous: { text: string; line: number; field: number } | null;
 }
 
-/** Decimal mark of a file with the given delimiter (see the file comment). Stops at the first cell that decides. */
+/** File line and 1-based field of a character offset (counted once, for a message). */
+function place(text: string, offset: number, delimiter: string, eol: string): { line: number; field: number } {
+  let line = 1;
+  for (let i = text.indexOf(eol); i >= 0 && i < offset; i = text.indexOf(eol, i + 1)) line++;
+  const lineStart = text.lastIndexOf(eol, offset - 1) + 1;
+  let field = 1;
+  for (let i = text.indexOf(delimiter, lineStart); i >= 0 && i < offset; i = text.indexOf(delimiter, i + 1)) field++;
+  return { line, field };
+}
+
+const cellText = (text: string, start: number, end: number): string => text.slice(start, end).trim().replace(/^"|"$/g, '');
+
+/**
+ * Decimal mark of a file with the given delimiter (see the file comment). Only cells holding a point or a comma can
+ * decide, so the scan jumps from mark to mark (native indexOf) and stops at the first cell that decides.
+ */
 export function guessDecimalMark(text: string, delimiter: Delimiter): MarkGuess {
   if (delimiter === ',') return { mark: '.', from: 'delimiter', note: 'decimal point (the file is comma-separated)', ambiguous: null };
   const fallback: DecimalMark = delimiter === ';' ? ',' : '.';
-  let ambiguous: MarkGuess['ambiguous'] = null;
+  const eol = text.indexOf('\n') >= 0 ? '\n' : '\r'; // lone CR line ends only in a file without LF (as grid.ts)
+  let ambiguousAt = -1;
+  let ambiguousEnd = -1;
   const len = text.length;
-  let start = 0;
-  for (let line = 1; start < len; line++) {
-    let end = text.indexOf('\n', start);
-    if (end < 0) end = len;
-    let from = start;
-    for (let field = 1; from <= end; field++) {
-      let to = text.indexOf(delimiter, from);
-      if (to < 0 || to > end) to = end;
-      const raw = text.slice(from, to);
-      if (/\d/.test(raw)) {
-        const cell = raw.replace(/^\s*"?|"?\s*$/g, '');
-        const e = markEvidence(cell);
-        if (e && 'proves' in e) {
-          const name = e.proves === ',' ? 'decimal comma' : 'decimal point';
-          return { mark: e.proves, from: 'numbers', note: `${name}: '${cell}' (line ${line}) can only be read with a ${name}`, ambiguous: null };
-        }
-        if (e && ambiguous === null) ambiguous = { text: cell, line, field };
-      }
-      from = to + 1;
+  let nextPoint = text.indexOf('.');
+  let nextComma = text.indexOf(',');
+  let pos = 0;
+  // The line holding the current mark, [lineStart, lineEnd): found once per line, not once per cell.
+  let lineStart = 0;
+  let lineEnd = -1;
+  for (;;) {
+    if (nextPoint >= 0 && nextPoint < pos) nextPoint = text.indexOf('.', pos);
+    if (nextComma >= 0 && nextComma < pos) nextComma = text.indexOf(',', pos);
+    const at = nextPoint < 0 ? nextComma : nextComma < 0 ? nextPoint : Math.min(nextPoint, nextComma);
+    if (at < 0) break;
+    if (at > lineEnd) {
+      lineStart = text.lastIndexOf(eol, at) + 1;
+      lineEnd = text.indexOf(eol, at);
+      if (lineEnd < 0) lineEnd = len;
     }
-    start = end + 1;
+    const start = Math.max(text.lastIndexOf(delimiter, at) + 1, lineStart);
+    let end = text.indexOf(delimiter, at);
+    if (end < 0 || end > lineEnd) end = lineEnd;
+    const e = evidenceAt(text, start, end);
+    if (e && 'proves' in e) {
+      const name = e.proves === ',' ? 'decimal comma' : 'decimal point';
+      return { mark: e.proves, from: 'numbers', note: `${name}: '${cellText(text, start, end)}' (line ${place(text, start, delimiter, eol).line}) can only be read with a ${name}`, ambiguous: null };
+    }
+    if (e && ambiguousAt < 0) {
+      ambiguousAt = start;
+      ambiguousEnd = end;
+    }
+    pos = end + 1;
   }
   const name = fallback === ',' ? 'decimal comma' : 'decimal point';
   const why = delimiter === ';' ? 'usual in semicolon-separated files' : 'usual in tab-separated files';
-  if (ambiguous === null) return { mark: fallback, from: 'guessed', note: `${name} (${why}; no number in the file has a decimal mark)`, ambiguous: null };
+  if (ambiguousAt < 0) return { mark: fallback, from: 'guessed', note: `${name} (${why}; no number in the file has a decimal mark)`, ambiguous: null };
+  const ambiguous = { text: cellText(text, ambiguousAt, ambiguousEnd), ...place(text, ambiguousAt, delimiter, eol) };
   return { mark: fallback, from: 'guessed', note: `guessed ${name} (${why}): no number shows which mark is meant, and '${ambiguous.text}' (line ${ambiguous.line}) reads both ways`, ambiguous };
 }
 
