@@ -8,7 +8,7 @@
  * semicolon file), a small file is refused at that number rather than read with a warning — these files are typed by
  * hand, the fix is one keystroke, and a scenario or employment file has no place to show a warning.
  */
-import { InputError, type Location } from '../diagnostics/index.ts';
+import { InputError, type ErrorCode, type Location } from '../diagnostics/index.ts';
 import { ambiguousMarkRefusal, delimiterHint, resolveDialect, type Dialect, type DialectOptions } from './dialect.ts';
 import { buildGrid } from './grid.ts';
 import { parseNumberText, showNumber, type DecimalMark } from './numbers.ts';
@@ -72,7 +72,7 @@ export function readNumberCell(cell: string, mark: DecimalMark): number | null {
  * A cell as a finite number, or a located refusal naming what it should be (`what`: "amount", "county jobs" …).
  * Blank cells are refused too; callers that allow them check first.
  */
-export function numberCell(cell: string, mark: DecimalMark, what: string, code: string, where: Location): number {
+export function numberCell(cell: string, mark: DecimalMark, what: string, code: ErrorCode, where: Location): number {
   const p = parseNumberText(cell, mark);
   if (p.problem === null) return p.value;
   const shown = cell.length > 24 ? `${cell.slice(0, 24)}…` : cell;

@@ -37,7 +37,7 @@ describe('writeFileAtomic', () => {
     const p = join(dir, 'county.roundwise');
     writeFileAtomic(p, 'previous');
     expect(() => writeFileAtomic(p, 'new', { beforeRename: () => { throw Object.assign(new Error('disk'), { code: 'ENOSPC' }); } }))
-      .toThrowError(/could not write the file: the disk is full/);
+      .toThrowError(/cannot write: the disk is full/);
     expect(readFileSync(p, 'utf8')).toBe('previous');
     expect(readdirSync(dir)).toEqual(['county.roundwise']);
   });
@@ -82,8 +82,8 @@ describe('readTextLimited', () => {
     expect(() => readTextLimited(p, 1024)).toThrowError(/2\.0 KB, larger than the 1\.0 KB limit/);
   });
   it('refuses folders and missing files with short messages', () => {
-    expect(() => readTextLimited(dir)).toThrowError(/not a regular file/);
-    expect(() => readTextLimited(join(dir, 'nope.csv'))).toThrowError(/does not exist/);
+    expect(() => readTextLimited(dir)).toThrowError(/is a folder, not a file/);
+    expect(() => readTextLimited(join(dir, 'nope.csv'))).toThrowError(/no such file/);
   });
 });
 

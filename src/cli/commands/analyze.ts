@@ -6,7 +6,7 @@
 import { parseArgs } from 'node:util';
 import { createHash } from 'node:crypto';
 import { basename, join } from 'node:path';
-import { InputError, formatLocated } from '../../diagnostics/index.ts';
+import { formatLocated } from '../../diagnostics/index.ts';
 import { importTable, parseRoleMap } from '../../table/index.ts';
 import { analyzeTable, type Analysis } from '../../model/index.ts';
 import { analysisJson, analysisReports } from '../../report/index.ts';
@@ -110,13 +110,7 @@ export async function run(args: string[], io: CliIO): Promise<number> {
       ...(sourceHash !== undefined ? { sourceHash } : {}),
       date: new Date().toISOString(),
     });
-    for (const f of files) {
-      try {
-        writeFileAtomic(join(values.out, f.name), f.content);
-      } catch (e) {
-        throw new InputError('unwritable-output', `cannot write the report (${(e as { code?: string }).code ?? 'error'})`, { file: join(values.out, f.name) });
-      }
-    }
+    for (const f of files) writeFileAtomic(join(values.out, f.name), f.content);
     if (!values.json) io.stdout(`wrote ${files.length} files to ${values.out}\n`);
   }
   return 0;

@@ -15,17 +15,17 @@ export function parseCommandArgs<O extends Options>(args: string[], options: O, 
     return parseArgs({ args, options, allowPositionals: true, strict: true });
   } catch (e) {
     const msg = e instanceof Error ? e.message.split('\n')[0]! : String(e);
-    throw new InputError('usage', `${msg}\n  usage: ${usage}`);
+    throw new InputError('usage', msg, {}, `usage: ${usage}`);
   }
 }
 
 export function requireOne(positionals: string[], what: string, usage: string): string {
-  if (positionals.length !== 1) throw new InputError('usage', `expected one ${what} file, got ${positionals.length}\n  usage: ${usage}`);
+  if (positionals.length !== 1) throw new InputError('usage', `expected one ${what} file, got ${positionals.length}`, {}, `usage: ${usage}`);
   return positionals[0]!;
 }
 
 export function requireOption(value: string | undefined, name: string, usage: string): string {
-  if (value === undefined || value === '') throw new InputError('usage', `--${name} is required\n  usage: ${usage}`);
+  if (value === undefined || value === '') throw new InputError('usage', `--${name} is required`, {}, `usage: ${usage}`);
   return value;
 }
 
@@ -54,14 +54,7 @@ export function readRoleMap(path: string | undefined): Partial<RoleMap> | undefi
 /** Write every file of a result (all contents are built before the first write), each atomically. */
 export function writeAll(dir: string, files: ReportFile[]): string[] {
   const paths = files.map((f) => join(dir, f.name));
-  files.forEach((f, k) => {
-    try {
-      writeFileAtomic(paths[k]!, f.content);
-    } catch (e) {
-      const code = (e as { code?: string }).code ?? 'error';
-      throw new InputError('out-unwritable', `cannot write the file (${code}); nothing after it was written`, { file: paths[k]! });
-    }
-  });
+  files.forEach((f, k) => writeFileAtomic(paths[k]!, f.content));
   return paths;
 }
 

@@ -16,7 +16,7 @@ import {
   analyseScenario, parseShockCsv, VARIABLES, type EffectSplit, type PathAnalysis, type RoundsResult, type ScenarioResult,
 } from '../../scenario/index.ts';
 import { importTable, type RoleMap } from '../../table/index.ts';
-import { readBytes, readInputFile, writeFileAtomic, type CliIO } from '../io.ts';
+import { readInputFile, writeFileAtomic, type CliIO } from '../io.ts';
 
 interface Args {
   table: string;
@@ -31,7 +31,7 @@ interface Args {
 const USAGE = 'usage: roundwise scenario TABLE.csv --shock SHOCK.csv [--map MAP.json] [--json] [--out DIR] [--paths SECTOR] [--project FILE.json]';
 
 function usageError(message: string): InputError {
-  return new InputError('usage', `${message}\n${USAGE}`);
+  return new InputError('usage', message, {}, USAGE);
 }
 
 export function parseArgs(argv: string[]): Args {
@@ -57,11 +57,7 @@ const decoder = new TextDecoder('utf-8');
 
 /** An output that cannot be written (a file where a folder should be, no permission, full disk) is a located refusal. */
 function writeOrRefuse(path: string, content: string): void {
-  try {
-    writeFileAtomic(path, content);
-  } catch (e) {
-    throw new InputError('unwritable-output', `cannot write the file (${(e as { code?: string }).code ?? 'error'})`, { file: path });
-  }
+  writeFileAtomic(path, content);
 }
 
 function readRoleMap(path: string): Partial<RoleMap> {
@@ -103,7 +99,7 @@ function tableMultiplierReport(an: Analysis, ctx: ScenarioReportContext): Report
 function refuseToOverwriteForeign(path: string): void {
   let bytes: Uint8Array;
   try {
-    bytes = readBytes(path);
+    bytes = readInputFile(path);
   } catch {
     return; // nothing there yet
   }

@@ -6,6 +6,8 @@ import { mkdtempSync, rmSync, writeFileSync, truncateSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { main } from '../../../src/cli/main.ts';
+import { writeFileAtomic } from '../../../src/cli/io.ts';
+import * as nodeIo from '../../../src/node-io/index.ts';
 import { MAX_TABLE_BYTES } from '../../../src/table/index.ts';
 
 let dir: string;
@@ -40,5 +42,8 @@ describe('CLI input files', () => {
     const missing = await run('analyze', join(dir, 'absent.csv'));
     expect(missing.code).toBe(2);
     expect(missing.err).toMatch(/absent\.csv: no such file/);
+  });
+  it('writes through the shared Node I/O writer', () => {
+    expect(writeFileAtomic).toBe(nodeIo.writeFileAtomic);
   });
 });
