@@ -23,7 +23,6 @@ export const ERROR_CODES = [
   'ipc-refused',
   'ipc-invalid',
   'internal',
-  'bad-map',
   // Table import (src/table)
   'binary',
   'utf16',

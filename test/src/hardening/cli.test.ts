@@ -79,9 +79,10 @@ describe('roundwise scenario on bad input', () => {
     const table = write('base.csv', BASE);
     expectCliRefusal(await runCli(main, ['scenario', join(dir, 'nope.csv'), '--shock', shock]), 'scenario');
     expectCliRefusal(await runCli(main, ['scenario', dir, '--shock', shock]), 'scenario');
-    expectCliRefusal(await runCli(main, ['scenario', table]), 'scenario');
-    expectCliRefusal(await runCli(main, ['scenario', table, '--shock']), 'scenario');
-    expectCliRefusal(await runCli(main, ['scenario', table, '--shock', shock, '--colour']), 'scenario');
+    // Usage mistakes exit 1 (README "Command line"), refused input 2.
+    expectCliRefusal(await runCli(main, ['scenario', table]), 'scenario', 1);
+    expectCliRefusal(await runCli(main, ['scenario', table, '--shock']), 'scenario', 1);
+    expectCliRefusal(await runCli(main, ['scenario', table, '--shock', shock, '--colour']), 'scenario', 1);
   });
 
   it('an output that cannot be written (a file where the folder should be) is a short refusal, for scenario and analyze', async () => {
