@@ -275,7 +275,8 @@ export function guessedMarkWarning(g: MarkGuess, fileName: string): Warning | nu
     code: 'decimal-mark-guessed',
     message:
       `the decimal mark was guessed: no number in the file shows whether '${a.sep}' is a decimal mark or groups thousands, ` +
-      `so '${a.sep}' was read as a ${a.role} ('${a.cell}' is ${a.value}); if '${a.cell}' means ${a.otherValue}, import again with the decimal mark ${a.otherMark}`,
+      `so '${a.sep}' was read as a ${a.role} ('${a.cell}' is ${a.value}); if '${a.cell}' means ${a.otherValue}, import again with the decimal mark ${a.otherMark} ` +
+      `(command line: --decimal-mark ${a.otherMark === "'.'" ? 'point' : 'comma'})`,
     location: { file: fileName, line: g.ambiguous.line, column: g.ambiguous.field },
   };
 }
@@ -298,15 +299,17 @@ export function ambiguousMarkRefusal(g: MarkGuess, fileName: string): InputError
 
 /**
  * Appended to a refusal about field counts when the delimiter was guessed and `sample` (the offending record, or the
- * header and it) holds another candidate delimiter: what was assumed and how to force the other one.
+ * header and it) holds another candidate delimiter: what was assumed and how to force the other one. Tables can also
+ * be given the delimiter when imported (`table`); small input files only by their "sep=" line.
  */
-export function delimiterHint(d: Dialect | null, sample: string): string {
+export function delimiterHint(d: Dialect | null, sample: string, table = false): string {
   if (!d || d.delimiterFrom !== 'guessed') return '';
   const others = ([',', ';', '\t'] as const).filter((x) => x !== d.delimiter && sample.includes(x));
   if (others.length === 0) return '';
   const force = others.map((x) => (x === '\t' ? 'sep= followed by a tab' : `sep=${x}`)).join(' or ');
   const names = others.map((x) => `'${x === '\t' ? 'tab' : x}'`).join(' or ');
-  return ` (fields were split at each ${DELIMITER_NAMES[d.delimiter]}, the delimiter guessed from the first lines; if the file uses ${names}, make its first line ${force}, or choose the delimiter when importing)`;
+  const option = table ? `, or choose the delimiter when importing (command line: --delimiter ${others.map((x) => DELIMITER_NAMES[x]).join(' or ')})` : '';
+  return ` (fields were split at each ${DELIMITER_NAMES[d.delimiter]}, the delimiter guessed from the first lines; if the file uses ${names}, make its first line ${force}${option})`;
 }
 
 export interface DialectOptions {

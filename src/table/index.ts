@@ -112,7 +112,7 @@ function run(text: string, opts: ImportOptions, p: Progress): IOTable {
     // A row with the wrong number of fields is often a wrong delimiter guess: say what was assumed and how to force it.
     if (isInputError(e) && e.code === 'ragged-row') {
       const sample = `${lineAt(d.text, grid.line(rows[0]!))}\n${lineAt(d.text, e.location.line ?? 0)}`;
-      throw new InputError(e.code, e.message + delimiterHint(p.dialect, sample), e.location, e.hint);
+      throw new InputError(e.code, e.message + delimiterHint(p.dialect, sample, true), e.location, e.hint);
     }
     throw e;
   }

@@ -4,6 +4,7 @@
  */
 import { formatLocated, visibleText } from '../../diagnostics/index.ts';
 import { importTable, type IOTable } from '../../table/index.ts';
+import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { analyzeTable, type Analysis } from '../../model/index.ts';
 import { analysisJson, analysisReports } from '../../report/index.ts';
 import { defineCommand } from '../command.ts';
@@ -58,6 +59,7 @@ export const analyze = defineCommand({
     map: { type: 'string', value: 'MAP.json', help: 'role overrides for the table\'s rows and columns ({"rows": {label: role}, "columns": {label: role}})' },
     'allow-negative': { type: 'boolean', help: 'accept negative flows (e.g. subsidies or stock changes) instead of refusing them' },
     tolerance: { type: 'number', value: 'T', help: 'rounds to tolerance: count spending rounds until less than T of any demand is left (0 < T < 1; default 1e-6)', check: (t) => (t > 0 && t < 1 ? null : 'must be a number between 0 and 1') },
+    ...TABLE_DIALECT_OPTIONS,
   },
   outHelp: 'write multipliers, coefficients, Leontief inverse, viability, Perron vectors and spectrum (n ≤ 400) as CSV, each with an .about.txt',
   notes: ['Warnings (e.g. an unproductive table) go to stderr; an unproductive table is analysed (exit 0), its multipliers left blank.'],
@@ -70,7 +72,7 @@ export const analyze = defineCommand({
       const file = ctx.input(input);
       fileName = file.name;
       if (values.out !== undefined) sourceHash = file.sha256;
-      return importTable(file.text, { fileName, allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
+      return importTable(file.text, { fileName, ...tableDialect(values), allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
     })();
     const an = await runAnalysis(table, { inverse: values.out !== undefined, ...(values.tolerance !== undefined ? { tolerance: values.tolerance } : {}) });
     for (const w of an.warnings) ctx.warn(formatLocated(w));

@@ -4,6 +4,7 @@
  */
 import { CAUTIONS, aboutText, reportFiles, type ReportMeta, type ReportFile } from '../../report/index.ts';
 import { importTable, writeTableCsv } from '../../table/index.ts';
+import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { LQ_METHODS, parseEmploymentCsv, regionalize as regionalizeTable, type LqMethod, type RegionalResult } from '../../regional/index.ts';
 import { defineCommand } from '../command.ts';
 import { num, textTable } from '../terminal.ts';
@@ -75,6 +76,7 @@ export const regionalize = defineCommand({
     method: { type: 'string', value: 'M', required: true, choices: LQ_METHODS, help: 'slq (simple), cilq (cross-industry) or flq (Flegg) location quotients' },
     delta: { type: 'number', value: 'D', help: 'FLQ exponent δ, 0 to 1 (default 0.3; Flegg & Tohmo 2013 report 0.25–0.35 fitting survey tables)', check: (d) => (d >= 0 && d <= 1 ? null : 'must lie between 0 and 1') },
     map: { type: 'string', value: 'MAP.json', help: 'role overrides for the national table\'s rows and columns' },
+    ...TABLE_DIALECT_OPTIONS,
   },
   outHelp: 'write regional-table.csv (reads back with roundwise analyze), location-quotients.csv and regional-coefficients.csv, each with an .about.txt of notes and cautions',
   async run({ input, values }, ctx) {
@@ -82,7 +84,7 @@ export const regionalize = defineCommand({
     if (values.delta !== undefined && method !== 'flq') throw ctx.usageError('--delta applies to --method flq only');
     const roles = ctx.roleMap(values.map);
     const file = ctx.input(input);
-    const national = importTable(file.text, { fileName: input, ...(roles ? { roles } : {}) });
+    const national = importTable(file.text, { fileName: input, ...tableDialect(values), ...(roles ? { roles } : {}) });
     const emp = parseEmploymentCsv(ctx.input(values.employment).text, values.employment);
     const res = regionalizeTable(national, emp, { method, ...(values.delta !== undefined ? { delta: values.delta } : {}) });
     const meta = {

@@ -14,7 +14,8 @@ import {
   analyseScenario, parseShockCsv, VARIABLES, type EffectSplit, type PathAnalysis, type RoundsResult, type Scenario,
   type ScenarioAnalysis, type ScenarioResult,
 } from '../../scenario/index.ts';
-import { importTable, type IOTable } from '../../table/index.ts';
+import { importTable, matchKey, type IOTable } from '../../table/index.ts';
+import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { readFileLimited } from '../../node-io/index.ts';
 import { defineCommand } from '../command.ts';
 
@@ -132,7 +133,8 @@ function computeScenario(table: IOTable, scenario: Scenario, pathsTo: string | u
   }
   let destination: number | null = null;
   if (pathsTo !== undefined) {
-    destination = table.sectors.indexOf(pathsTo);
+    // The sector as the importer keeps labels (NFC, no invisible characters, case ignored), as shock files are read.
+    destination = table.sectors.findIndex((s) => matchKey(s) === matchKey(pathsTo));
     if (destination < 0) throw new InputError('unknown-sector', `--paths: unknown sector '${pathsTo}'`, { rowLabel: pathsTo });
   }
   const analysis = analyseScenario(pm, scenario, { pathsTo: destination, rounds: { perronRoot: an.viability.perronRoot } });
@@ -153,12 +155,13 @@ export const scenario = defineCommand({
     map: { type: 'string', value: 'MAP.json', help: 'role overrides for the table\'s rows and columns' },
     paths: { type: 'string', value: 'SECTOR', help: 'add the structural paths that carry the effect to SECTOR' },
     project: { type: 'string', value: 'FILE.json', help: 'save the study (table, shock, settings) as a project file the app opens; an existing file is replaced only if it is a Roundwise project' },
+    ...TABLE_DIALECT_OPTIONS,
   },
   outHelp: 'write scenario-impact, scenario-rounds, scenario-rounds-by-sector, scenario-multipliers, multipliers (and scenario-paths with --paths) as CSV, each with an .about.txt',
   async run({ input, values }, ctx) {
     const tableFile = ctx.input(input);
     const roles = ctx.roleMap(values.map);
-    const table = importTable(tableFile.text, { fileName: input, ...(roles ? { roles } : {}) });
+    const table = importTable(tableFile.text, { fileName: input, ...tableDialect(values), ...(roles ? { roles } : {}) });
     const scenario = parseShockCsv(ctx.input(values.shock).text, values.shock);
     const { an, analysis } = computeScenario(table, scenario, values.paths, input);
     const { result, rounds, paths } = analysis;
@@ -168,7 +171,7 @@ export const scenario = defineCommand({
     if (values.project !== undefined) {
       const project = createProject(table, { source: { fileName: tableFile.name, sha256: reportCtx.sourceHash!, bytes: tableFile.bytes.length }, scenarios: [scenario] });
       project.settings.activeScenario = scenario.name;
-      if (values.paths !== undefined) project.settings.paths.destination = values.paths;
+      if (values.paths !== undefined) project.settings.paths.destination = table.sectors.find((s) => matchKey(s) === matchKey(values.paths!)) ?? values.paths;
       refuseToOverwriteForeign(values.project);
       files.push({ path: values.project, content: serializeProject(project) });
     }

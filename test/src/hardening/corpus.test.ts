@@ -37,7 +37,7 @@ const TABLE_EXPECT: Record<string, string> = {
   'table-json.csv': 'table-json.csv:1: the file has a header but no rows of numbers',
   'table-excel-error.csv': "table-excel-error.csv:4:3 (row 'Services', column 'Canning'): '#DIV/0!' is not a number",
   'table-dash-for-zero.csv': "table-dash-for-zero.csv:3:2 (row 'Canning', column 'Orchards'): '-' is not a number",
-  'table-mixed-delimiters.csv': "table-mixed-delimiters.csv:4:1 (row 'Services;15;30;20;100;35;200'): row has 1 field, the header has 7 (fields were split at each comma, the delimiter guessed from the first lines; if the file uses ';', make its first line sep=;, or choose the delimiter when importing)",
+  'table-mixed-delimiters.csv': "table-mixed-delimiters.csv:4:1 (row 'Services;15;30;20;100;35;200'): row has 1 field, the header has 7 (fields were split at each comma, the delimiter guessed from the first lines; if the file uses ';', make its first line sep=;, or choose the delimiter when importing (command line: --delimiter semicolon))",
   'table-excel-sep-pipe.csv': "table-excel-sep-pipe.csv:1: the first line 'sep=|' names '|' as the delimiter; Roundwise reads comma-, semicolon- or tab-separated files",
   'table-percent.csv': "table-percent.csv:2:2 (row 'Orchards', column 'Orchards'): '10 %' is not a number",
   'table-currency.csv': "table-currency.csv:2:2 (row 'Orchards', column 'Orchards'): '$10' is not a number",

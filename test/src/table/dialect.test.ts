@@ -39,7 +39,7 @@ describe('decimal mark', () => {
     expect(Array.from(p.table!.Z)).toEqual([1234, 2000, 1000, 1000]);
     expect(p.warnings.map((w) => w.code)).toEqual(['decimal-mark-guessed']);
     expect(p.warnings[0]!.message).toBe(
-      "the decimal mark was guessed: no number in the file shows whether '.' is a decimal mark or groups thousands, so '.' was read as a thousands separator ('1.234' is 1234); if '1.234' means 1.234, import again with the decimal mark '.'",
+      "the decimal mark was guessed: no number in the file shows whether '.' is a decimal mark or groups thousands, so '.' was read as a thousands separator ('1.234' is 1234); if '1.234' means 1.234, import again with the decimal mark '.' (command line: --decimal-mark point)",
     );
     expect(p.warnings[0]!.location).toEqual({ file: 'amb.csv', line: 2, column: 2 });
     // Forcing the other reading: the numbers are decimals and nothing is guessed.
@@ -52,7 +52,7 @@ describe('decimal mark', () => {
   it('commas that all read both ways in a semicolon file ("1,500") are warned about too', () => {
     const p = previewTable('x;A;Total output\nA;1,500;3\n', { fileName: 'c.csv' });
     expect(p.table!.Z[0]).toBe(1.5);
-    expect(p.warnings[0]!.message).toContain("so ',' was read as a decimal mark ('1,500' is 1.5); if '1,500' means 1500, import again with the decimal mark '.'");
+    expect(p.warnings[0]!.message).toContain("so ',' was read as a decimal mark ('1,500' is 1.5); if '1,500' means 1500, import again with the decimal mark '.' (command line: --decimal-mark point)");
   });
 
   it('integers only: nothing to decide, nothing to warn about', () => {
@@ -107,7 +107,7 @@ describe('delimiter', () => {
     const text = BASE.replace('Services,5,20,30,60,35,150', 'Services;5;20;30;60;35;150');
     const p = previewTable(text, { fileName: 'mixed.csv' });
     expect(p.refusal?.formatted).toBe(
-      "mixed.csv:4:1 (row 'Services;5;20;30;60;35;150'): row has 1 field, the header has 7 (fields were split at each comma, the delimiter guessed from the first lines; if the file uses ';', make its first line sep=;, or choose the delimiter when importing)",
+      "mixed.csv:4:1 (row 'Services;5;20;30;60;35;150'): row has 1 field, the header has 7 (fields were split at each comma, the delimiter guessed from the first lines; if the file uses ';', make its first line sep=;, or choose the delimiter when importing (command line: --delimiter semicolon))",
     );
     // Without another delimiter in sight the message stays short.
     expect(previewTable(BASE.replace('Services,5,20,30,60,35,150', 'Services,5,20,30,60,35'), { fileName: 'r.csv' }).refusal?.message).toBe('row has 6 fields, the header has 7');
