@@ -1,9 +1,9 @@
 /**
- * Files on disk for the desktop shell: atomic writes, size-limited reads, the recent-projects list and the
- * crash-recovery copy in the user-data folder. Node only (no Electron), so test/main exercises it on a temp folder.
+ * Files on disk for the desktop shell: atomic writes, size-limited reads and the recent-projects list in the
+ * user-data folder (crash-recovery copies: recovery-store.ts). Node only (no Electron), so test/main exercises it
+ * on a temp folder.
  */
-import { unlinkSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
+import { basename, join } from 'node:path';
 import type { OpenedFile, RecentEntry } from '../src/bridge/contract.ts';
 import { addRecent, parseRecentList } from '../src/bridge/validate.ts';
 import { MAX_INPUT_BYTES, readFileLimited, removeStaleTemps, writeFileAtomic } from '../src/node-io/index.ts';
@@ -52,36 +52,6 @@ export class RecentStore {
       writeFileAtomic(this.file, `${JSON.stringify(list, null, 2)}\n`);
     } catch {
       // The list is a convenience: failing to store it must not fail the open or save that triggered it.
-    }
-  }
-}
-
-/** The crash-recovery copy of an unsaved project, in the user-data folder. */
-export class AutosaveStore {
-  readonly file: string;
-  constructor(userDataDir: string) {
-    this.file = join(userDataDir, 'recovery', 'unsaved-project.roundwise');
-  }
-
-  write(content: string): void {
-    writeFileAtomic(this.file, content);
-  }
-
-  clear(): void {
-    try {
-      unlinkSync(this.file);
-    } catch {
-      // already gone
-    }
-    removeStaleTemps(dirname(this.file), this.file);
-  }
-
-  read(): OpenedFile | null {
-    try {
-      const f = readTextLimited(this.file);
-      return { name: 'Recovered project', text: f.text, size: f.size };
-    } catch {
-      return null;
     }
   }
 }

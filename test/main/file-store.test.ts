@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import { AutosaveStore, RecentStore, readTextLimited, removeStaleTemps, writeFileAtomic } from '../../main/file-store.ts';
+import { RecentStore, readTextLimited, removeStaleTemps, writeFileAtomic } from '../../main/file-store.ts';
 import { InputError } from '../../src/diagnostics/index.ts';
 import { MAX_RECENT } from '../../src/bridge/validate.ts';
 
@@ -101,16 +101,5 @@ describe('RecentStore', () => {
   it('treats a damaged list as empty', () => {
     writeFileSync(join(dir, 'recent-projects.json'), '{not json');
     expect(new RecentStore(dir).list()).toEqual([]);
-  });
-});
-
-describe('AutosaveStore', () => {
-  it('keeps a recovery copy until cleared', () => {
-    const s = new AutosaveStore(dir);
-    expect(s.read()).toBeNull();
-    s.write('{"unsaved":true}');
-    expect(new AutosaveStore(dir).read()).toEqual({ name: 'Recovered project', text: '{"unsaved":true}', size: 16 });
-    s.clear();
-    expect(s.read()).toBeNull();
   });
 });
