@@ -11,3 +11,4 @@ export * from './aggregate.ts';
 export * from './matrix-csv.ts';
 export * from './balance-table.ts';
 export * from './sample.ts';
+export * from './plausibility.ts';
