@@ -11,6 +11,7 @@
  * the table writer uses it for sectors whose names the role rules would otherwise read as something else
  * ("Import services", a group called "Households and personal services").
  */
+import { unescapeFormulaLead } from '../csv/index.ts';
 
 const INVISIBLE = /[\p{Cf}\p{Cc}]/gu;
 const SPACES = /[\t\n\v\f\r \u0085\u00a0\u1680\u2000-\u200a\u2028\u2029\u202f\u205f\u3000]+/g;
@@ -22,12 +23,11 @@ export function normaliseText(s: string): string {
 }
 
 /**
- * A label as kept: normalised (above), and without the leading apostrophe that CSV-injection escaping puts before
- * =, +, -, @ (src/csv/write.ts).
+ * A label as kept: normalised (above), and without the leading apostrophe that CSV-injection escaping puts before a
+ * formula-leading character (src/csv/write.ts, which also undoes it).
  */
 export function cleanLabel(s: string): string {
-  const t = normaliseText(s);
-  return /^'[=+\-@]/.test(t) ? t.slice(1) : t;
+  return unescapeFormulaLead(normaliseText(s));
 }
 
 /**

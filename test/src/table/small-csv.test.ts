@@ -98,6 +98,6 @@ describe('the reader itself', () => {
     expect(refusal(() => readSmallCsv('\ufffd\ufffds\u0000e\u0000c\u0000t\u0000', 'f.csv')).code).toBe('utf16');
     expect(located(() => readSmallCsv('"sector,group\nA,B\n', 'f.csv'))).toBe('f.csv:1: a quoted cell is not closed or a quote is misplaced (RFC 4180 §2)');
     const big = { length: MAX_TABLE_BYTES + 1 } as unknown as string;
-    expect(refusal(() => readSmallCsv(big, 'f.csv')).code).toBe('too-large');
+    expect(refusal(() => readSmallCsv(big, 'f.csv')).code).toBe('file-too-large');
   });
 });
