@@ -11,6 +11,7 @@ import { join } from 'node:path';
 import type { Page, Download } from 'playwright-core';
 import Papa from 'papaparse';
 import { DOWNLOADS, REPO, shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
+import { sparseTableCsv } from '../support/random-tables.ts';
 import { importTable } from '../../src/table/index.ts';
 import { prepareModel, analyzeTable } from '../../src/model/index.ts';
 import { runScenario, type Scenario } from '../../src/scenario/index.ts';
@@ -38,29 +39,6 @@ function engineTable() {
 /** The browser shows money with one decimal in the user's locale (en-US here). */
 function shown(v: number): string {
   return v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
-}
-
-/** An invented, balanced, productive table of n sectors (seeded, so every run sees the same file). */
-function bigTable(n: number): string {
-  let seed = 20261201;
-  const rnd = () => { seed = (seed * 1103515245 + 12345) % 2147483648; return seed / 2147483648; };
-  const s = Array.from({ length: n }, (_, i) => `Sector ${i + 1}`);
-  const x = s.map(() => Math.round(1000 + rnd() * 9000));
-  const Z = s.map(() => new Array<number>(n).fill(0));
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (rnd() < 0.01) Z[i]![j] = Math.round(rnd() * 2 * x[j]!) / 100;
-  const lines = [['thousand dollars', ...s, 'Households', 'Exports', 'Total output'].join(',')];
-  const sold = Z.map((r) => r.reduce((a, b) => a + b, 0));
-  const bought = s.map((_, j) => Z.reduce((a, r) => a + r[j]!, 0));
-  const out = s.map((_, i) => Math.max(x[i]!, sold[i]! * 1.5, bought[i]! * 1.5));
-  for (let i = 0; i < n; i++) {
-    const hh = (out[i]! - sold[i]!) * 0.4;
-    lines.push([s[i], ...Z[i]!, hh, out[i]! - sold[i]! - hh, out[i]].join(','));
-  }
-  const lab = s.map((_, j) => (out[j]! - bought[j]!) * 0.55);
-  lines.push(['Compensation of employees', ...lab, '', '', ''].join(','));
-  lines.push(['Other value added', ...s.map((_, j) => out[j]! - bought[j]! - lab[j]!), '', '', ''].join(','));
-  lines.push(['Employment', ...out.map((v) => Math.round(v / 100)), '', '', ''].join(','));
-  return lines.join('\n');
 }
 
 /** Click, and collect the downloads the click starts (reports come as a CSV and its .about.txt). */
@@ -304,7 +282,7 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
 
   it('stays usable at 2,000 sectors: progress with cancel while it works, then virtual scrolling', async () => {
     const file = join(REPO, 'test-output', 'e2e-2000-sectors.csv');
-    writeFileSync(file, bigTable(2000));
+    writeFileSync(file, sparseTableCsv(2000, 20261201));
     await go('import');
     await page.getByTestId('file-input').setInputFiles(file);
     await page.getByTestId('accept-import').click({ timeout: 60_000 });
