@@ -17,7 +17,7 @@ export const ENGINE_LAYERS = [
   ['model'],
   ['scenario', 'regional'],
   ['report', 'project'],
-  ['study'],
+  ['study', 'node-io'],
   ['cli'],
 ];
 export const ENGINE_FOLDERS = ENGINE_LAYERS.flat();
@@ -25,8 +25,11 @@ export const ENGINE_FOLDERS = ENGINE_LAYERS.flat();
 /** Folders whose files are each public. bridge: the sandboxed preload must bundle only the bridge files it uses. */
 export const OPEN_FOLDERS = ['bridge'];
 
-/** Engine folders allowed Node built-ins (everything else in src/ runs in the browser and the worker too). */
-export const NODE_FOLDERS = ['cli'];
+/**
+ * Engine folders allowed Node built-ins (everything else in src/ runs in the browser and the worker too). node-io is
+ * the file I/O of src/cli and main/: a peer of study, so no engine folder but cli can import it.
+ */
+export const NODE_FOLDERS = ['cli', 'node-io'];
 
 /**
  * Engine folders that renderer/ and src/cli/commands/ may import values from (type-only imports are always allowed).
@@ -78,7 +81,7 @@ function outsidePatterns(own = null) {
 const uiPackages = ['electron', 'vue', 'chart.js', 'chart.js/*'];
 const outerPatterns = {
   engine: [
-    { group: nodeModules, message: 'src/ is the pure engine: no Node built-ins outside src/cli.' },
+    { group: nodeModules, message: 'src/ is the pure engine: no Node built-ins outside src/cli and src/node-io.' },
     { group: uiPackages, message: 'src/ is the pure engine: no UI or Electron packages.' },
     { group: ['zod'], message: 'import z from src/schema (it sets jitless for the desktop CSP).' },
     { group: ['**/renderer', '**/renderer/**', '**/main/**'], message: 'src/ must not import renderer/ or main/ (imports go downward only).' },
@@ -86,12 +89,13 @@ const outerPatterns = {
   node: [
     { group: uiPackages, message: 'The CLI is headless: no UI or Electron packages.' },
     { group: ['zod'], message: 'import z from src/schema (it sets jitless for the desktop CSP).' },
-    { group: ['**/renderer', '**/renderer/**', '**/main/**'], message: 'src/cli must not import renderer/ or main/.' },
+    { group: ['**/renderer', '**/renderer/**', '**/main/**'], message: 'src/cli and src/node-io must not import renderer/ or main/.' },
   ],
   renderer: [
     { group: [...nodeModules, 'electron'], message: 'renderer/ is browser code: reach the desktop only through the bridge (src/bridge).' },
     { group: ['**/main', '**/main/**'], message: 'renderer/ must not import main/: use the typed bridge in src/bridge.' },
     { regex: outsideAny(['cli']), message: 'renderer/ must not import the CLI.' },
+    { regex: outsideAny(['node-io']), message: 'renderer/ is browser code: src/node-io is for src/cli and main/ only.' },
   ],
   main: [
     { group: ['**/renderer', '**/renderer/**', 'vue', 'chart.js'], message: 'main/ must not import renderer/: use the typed bridge in src/bridge.' },
@@ -105,7 +109,7 @@ const restrict = (patterns) => ({ 'no-restricted-imports': ['error', { patterns 
  * `allowed` engine folders, types from anywhere. A separate rule id, so it adds to the rules above instead of replacing them.
  */
 export function frontEndRule(where, allowed = FRONT_END_ENGINE) {
-  const refused = ENGINE_FOLDERS.filter((f) => !allowed.includes(f) && f !== 'cli');
+  const refused = ENGINE_FOLDERS.filter((f) => !allowed.includes(f) && !NODE_FOLDERS.includes(f));
   const patterns = refused.length === 0 ? [] : [{
     regex: where === 'outside' ? outsideAny(refused) : fromEngine(refused),
     allowTypeImports: true,

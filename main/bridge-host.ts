@@ -1,15 +1,19 @@
 /**
  * The main-process side of the bridge: one handler per IPC channel, over injected dialogs and folders so
  * test/main runs them against a temp folder with scripted dialogs. The renderer never names a path the user did
- * not pick: saving to a given path, or reopening a recent project, only works for paths this session's dialogs
- * returned or that are on the recent list.
+ * not pick, and reading is not writing: a file picked in an open dialog is readable only; saving to a given path
+ * works only for a project picked in a save dialog this session, opened as a project, or on the recent list — and
+ * only with content that is a Roundwise project.
  */
-import { basename, extname, resolve } from 'node:path';
+import { closeSync, lstatSync, openSync, readSync } from 'node:fs';
+import { basename, dirname, resolve } from 'node:path';
 import type { ExportKind, FileKind, OpenedFile, RecentEntry, SavedFile } from '../src/bridge/contract.ts';
 import { EXPORT_TYPES, OPEN_EXTENSIONS, OPEN_FILTER_NAMES, PROJECT_EXTENSION, projectFileName, withExtension } from '../src/bridge/files.ts';
 import { sanitizeFileName, stripDataUrl } from '../src/bridge/validate.ts';
 import { InputError } from '../src/diagnostics/index.ts';
-import { AutosaveStore, readTextLimited, RecentStore, writeFileAtomic } from './file-store.ts';
+import { PROJECT_FORMAT } from '../src/project/index.ts';
+import { readTextLimited, RecentStore, writeFileAtomic } from './file-store.ts';
+import { RecoveryStore } from './recovery-store.ts';
 
 export interface DialogFilter {
   name: string;
@@ -20,6 +24,53 @@ export interface DialogFilter {
 export interface Dialogs {
   openPath(title: string, filters: DialogFilter[]): Promise<string | null>;
   savePath(title: string, defaultName: string, filters: DialogFilter[]): Promise<string | null>;
+  /** Ask whether to replace the existing file at `path` (full path; the question names the file and its folder). */
+  confirmReplace(path: string): Promise<boolean>;
+}
+
+/**
+ * Project files begin `{ "format": "roundwise-project", …` (src/project writes the format key first) and end with
+ * `}`. A cheap check, not a parse: enough that a save to a granted path can only ever put a project there.
+ */
+const PROJECT_HEAD = new RegExp(`^\\s*\\{\\s*"format"\\s*:\\s*"${PROJECT_FORMAT}"\\s*,`);
+export function looksLikeProject(text: string): boolean {
+  return PROJECT_HEAD.test(text.slice(0, 200)) && text.trimEnd().endsWith('}');
+}
+
+/** The question asked before replacing a file the native dialog did not ask about (the extension was added after). */
+export const REPLACE_BUTTONS = ['Replace', 'Cancel'] as const;
+export function replacePrompt(path: string): { message: string; detail: string } {
+  return {
+    message: `"${basename(path)}" already exists. Replace it?`,
+    detail: `The folder ${dirname(path)} already has a file named "${basename(path)}". Replacing it overwrites what it holds.`,
+  };
+}
+
+/**
+ * True when `path` is missing (a saved project was moved away: saving recreates it) or begins like a project. A save
+ * by path replaces only a project: a recent-list entry that now names some other file is not written over.
+ */
+function missingOrProject(path: string): boolean {
+  let fd: number;
+  try {
+    fd = openSync(path, 'r');
+  } catch (err) {
+    return (err as { code?: string }).code === 'ENOENT';
+  }
+  try {
+    const head = Buffer.alloc(200);
+    const n = readSync(fd, head, 0, head.length, 0);
+    return PROJECT_HEAD.test(head.subarray(0, n).toString('utf8'));
+  } catch {
+    return false;
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/** True when something (a file, a folder, even a dangling link) is at `path`. */
+function occupied(path: string): boolean {
+  return lstatSync(path, { throwIfNoEntry: false }) !== undefined;
 }
 
 export interface BridgeHostDeps {
@@ -36,27 +87,53 @@ export interface BridgeHost {
   exportFile(name: string, kind: ExportKind, content: string): Promise<SavedFile | null>;
   recentProjects(): Promise<RecentEntry[]>;
   openRecent(ref: string): Promise<OpenedFile | null>;
-  setDirty(dirty: boolean): void;
-  autosave(content: string | null): void;
-  recoverAutosave(): OpenedFile | null;
-  /** Unsaved changes, as last reported by the UI. */
-  isDirty(): boolean;
-  /** The window is closing on purpose (clean, or the user chose to discard): the recovery copy is not needed. */
-  closedCleanly(): void;
+  /** The rest is per window (`windowId`: the sender's web contents id): dirty flags and recovery copies. */
+  setDirty(windowId: number, dirty: boolean): void;
+  /** Unsaved changes in the window, as last reported by its UI. */
+  isDirty(windowId: number): boolean;
+  autosave(windowId: number, content: string | null): void;
+  recoverAutosave(windowId: number): OpenedFile | null;
+  discardRecovered(windowId: number): void;
+  /** A new page was loaded in the window (a reload after a renderer crash): the old page's copy may now be offered. */
+  pageLoaded(windowId: number): void;
+  /** The window is closing on purpose (clean, or the user chose to discard): its recovery copy is not needed. */
+  closedCleanly(windowId: number): void;
 }
 
 export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
   const recent = new RecentStore(deps.userDataDir, deps.now);
-  const recovery = new AutosaveStore(deps.userDataDir);
-  /** Paths the user picked in a dialog this session; only these may be written without asking again. */
-  const granted = new Set<string>();
-  let dirty = false;
+  const recovery = new RecoveryStore(deps.userDataDir);
+  /**
+   * Project files the renderer may save to by path: picked in a project save dialog or opened as a project this
+   * session (the recent list also counts). Files picked in an open dialog are only read: never added here.
+   */
+  const writable = new Set<string>();
+  const dirty = new Map<number, boolean>();
 
-  const grant = (p: string): string => {
-    const abs = resolve(p);
-    granted.add(abs);
-    return abs;
+  const mayWrite = (abs: string): boolean => writable.has(abs) || recent.list().some((e) => resolve(e.ref) === abs);
+
+  const requireProject = (content: string, file: string): void => {
+    if (!looksLikeProject(content)) {
+      throw new InputError('not-a-project', `refused to save: the content is not a Roundwise project (it must start with {"format": "${PROJECT_FORMAT}"); nothing was written`, { file });
+    }
   };
+
+  /**
+   * A save dialog whose answer gets the expected extension (`withExt`) before anything is checked. The native dialog
+   * only asked about the name as typed, so when adding the extension lands on an existing file, ask again, naming
+   * it; "Cancel" reopens the dialog on that name.
+   */
+  async function pickSaveTarget(title: string, suggested: string, filters: DialogFilter[], withExt: (p: string) => string): Promise<string | null> {
+    let defaultPath = suggested;
+    for (;;) {
+      const picked = await deps.dialogs.savePath(title, defaultPath, filters);
+      if (!picked) return null;
+      const target = resolve(withExt(picked));
+      if (target === resolve(picked) || !occupied(target)) return target;
+      if (await deps.dialogs.confirmReplace(target)) return target;
+      defaultPath = target;
+    }
+  }
 
   const projectFilters: DialogFilter[] = [{ name: OPEN_FILTER_NAMES.project, extensions: [PROJECT_EXTENSION] }];
 
@@ -67,9 +144,13 @@ export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
         { name: 'All files', extensions: ['*'] },
       ]);
       if (!picked) return null;
-      const path = grant(picked);
+      const path = resolve(picked);
       const file = readTextLimited(path);
-      if (kind === 'project') recent.add(path);
+      // Only a file that is a project becomes a project the UI may save over ("Save" after "Open project").
+      if (kind === 'project' && looksLikeProject(file.text)) {
+        writable.add(path);
+        recent.add(path);
+      }
       return file;
     },
 
@@ -77,14 +158,17 @@ export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
       let target: string;
       if (path !== undefined) {
         target = resolve(path);
-        if (!granted.has(target)) {
-          throw new InputError('path-not-granted', 'this file was not opened or saved in this session; use Save As', { file: basename(path) });
+        if (!mayWrite(target) || !missingOrProject(target)) {
+          throw new InputError('path-not-granted', 'this file was not opened or saved as a project; use Save As', { file: basename(path) });
         }
+        requireProject(content, basename(target));
       } else {
         const suggested = projectFileName(sanitizeFileName(name));
-        const picked = await deps.dialogs.savePath('Save project', resolve(deps.documentsDir, suggested), projectFilters);
+        requireProject(content, suggested); // before the dialog: no point asking where to put something refused
+        const picked = await pickSaveTarget('Save project', resolve(deps.documentsDir, suggested), projectFilters, projectFileName);
         if (!picked) return null;
-        target = grant(extname(picked) ? picked : projectFileName(picked));
+        target = picked;
+        writable.add(target);
       }
       writeFileAtomic(target, content);
       recent.add(target);
@@ -94,9 +178,9 @@ export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
     async exportFile(name, kind, content) {
       const type = EXPORT_TYPES[kind];
       const suggested = withExtension(sanitizeFileName(name), type.extension);
-      const picked = await deps.dialogs.savePath('Export', resolve(deps.documentsDir, suggested), [{ name: type.filterName, extensions: [type.extension] }]);
-      if (!picked) return null;
-      const target = resolve(extname(picked) ? picked : withExtension(picked, type.extension));
+      const filters = [{ name: type.filterName, extensions: [type.extension] }];
+      const target = await pickSaveTarget('Export', resolve(deps.documentsDir, suggested), filters, (p) => withExtension(p, type.extension));
+      if (!target) return null;
       writeFileAtomic(target, kind === 'png' ? Buffer.from(stripDataUrl(content), 'base64') : content);
       return { name: basename(target), path: target };
     },
@@ -110,7 +194,7 @@ export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
       if (!entry) return null; // not on our list: never read a path the renderer made up
       try {
         const file = readTextLimited(entry.ref);
-        grant(entry.ref);
+        writable.add(resolve(entry.ref));
         recent.add(entry.ref);
         return file;
       } catch (err) {
@@ -119,23 +203,29 @@ export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
       }
     },
 
-    setDirty(value) {
-      dirty = value;
+    setDirty(windowId, value) {
+      dirty.set(windowId, value);
     },
 
-    autosave(content) {
-      if (content === null) recovery.clear();
-      else recovery.write(content);
+    isDirty: (windowId) => dirty.get(windowId) === true,
+
+    autosave(windowId, content) {
+      if (content === null) recovery.clear(windowId);
+      else recovery.write(windowId, content);
     },
 
-    recoverAutosave() {
-      return recovery.read();
+    recoverAutosave: (windowId) => recovery.claim(windowId),
+
+    discardRecovered: (windowId) => recovery.discardOffered(windowId),
+
+    pageLoaded(windowId) {
+      dirty.delete(windowId);
+      recovery.pageLoaded(windowId);
     },
 
-    isDirty: () => dirty,
-
-    closedCleanly() {
-      recovery.clear();
+    closedCleanly(windowId) {
+      dirty.delete(windowId);
+      recovery.closed(windowId);
     },
   };
 }

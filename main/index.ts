@@ -10,9 +10,10 @@ import { fileURLToPath } from 'node:url';
 import { electronConfig } from '../electron.config.ts';
 import { CHANNELS, type MenuCommand } from '../src/bridge/contract.ts';
 import { createAppHandler } from './app-protocol.ts';
-import { createBridgeHost, type Dialogs } from './bridge-host.ts';
+import { createBridgeHost, REPLACE_BUTTONS, replacePrompt, type Dialogs } from './bridge-host.ts';
 import { CLOSE_PROMPT, closeAction } from './close-guard.ts';
 import { guarded, type Channel } from './ipc-guard.ts';
+import type { ArgsOf } from '../src/bridge/validate.ts';
 import { menuTemplate } from './menu.ts';
 import { APP_ENTRY_URL, APP_SCHEME, isAllowedRequest, navigationDecision } from './navigation.ts';
 import { windowOptions } from './window-options.ts';
@@ -70,29 +71,39 @@ function registerIpc(): ReturnType<typeof createBridgeHost> {
       const r = win ? await dialog.showSaveDialog(win, opts) : await dialog.showSaveDialog(opts);
       return r.canceled || !r.filePath ? null : r.filePath;
     },
+    async confirmReplace(path) {
+      const opts = { type: 'warning' as const, noLink: true, ...replacePrompt(path), buttons: [...REPLACE_BUTTONS], defaultId: 1, cancelId: 1 };
+      const r = win ? await dialog.showMessageBox(win, opts) : await dialog.showMessageBox(opts);
+      return r.response === 0;
+    },
   };
   const host = createBridgeHost({ dialogs, userDataDir: app.getPath('userData'), documentsDir: app.getPath('documents') });
   const handle = <K extends Channel>(channel: K, fn: Parameters<typeof guarded<K, unknown>>[1]) => ipcMain.handle(CHANNELS[channel], guarded(channel, fn));
+  /** A handler that also needs to know which window is asking (dirty flags and recovery copies are per window). */
+  const handleForWindow = <K extends Channel>(channel: K, fn: (windowId: number, ...args: ArgsOf<K>) => unknown) =>
+    ipcMain.handle(CHANNELS[channel], (event, ...args: unknown[]) => guarded(channel, (...a: ArgsOf<K>) => fn(event.sender.id, ...a))(event, ...args));
   handle('openFile', (kind) => host.openFile(kind));
   handle('saveProject', (name, content, path) => host.saveProject(name, content, path));
   handle('exportFile', (name, kind, content) => host.exportFile(name, kind, content));
   handle('recentProjects', () => host.recentProjects());
   handle('openRecent', (ref) => host.openRecent(ref));
-  handle('setDirty', (dirty) => host.setDirty(dirty));
-  handle('autosave', (content) => host.autosave(content));
-  handle('recoverAutosave', () => host.recoverAutosave());
+  handleForWindow('setDirty', (id, dirty) => host.setDirty(id, dirty));
+  handleForWindow('autosave', (id, content) => host.autosave(id, content));
+  handleForWindow('recoverAutosave', (id) => host.recoverAutosave(id));
+  handleForWindow('discardRecovered', (id) => host.discardRecovered(id));
   return host;
 }
 
 function createWindow(host: ReturnType<typeof createBridgeHost>): void {
   const w = new BrowserWindow(windowOptions(preloadPath, { devTools }));
+  const id = w.webContents.id;
   win = w;
   w.once('ready-to-show', () => w.show());
   let closingOnPurpose = false;
   w.on('close', (event) => {
     if (closingOnPurpose) return;
-    if (closeAction(host.isDirty()) === 'close') {
-      host.closedCleanly();
+    if (closeAction(host.isDirty(id)) === 'close') {
+      host.closedCleanly(id);
       return;
     }
     event.preventDefault();
@@ -101,13 +112,15 @@ function createWindow(host: ReturnType<typeof createBridgeHost>): void {
     if (action === 'save-first') sendMenu('save-project');
     if (action === 'discard-and-close') {
       closingOnPurpose = true;
-      host.closedCleanly();
+      host.closedCleanly(id);
       w.close();
     }
   });
   w.on('closed', () => {
     if (win === w) win = null;
   });
+  // A reload (after a renderer crash) starts a new page: the old page's recovery copy is then offered to it.
+  w.webContents.on('did-navigate', () => host.pageLoaded(id));
   w.webContents.on('render-process-gone', (_e, details) => {
     if (details.reason === 'clean-exit') return;
     // The recovery copy is still on disk, so reloading lets the UI offer it.

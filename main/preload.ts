@@ -54,6 +54,7 @@ const bridge: RoundwiseBridge = {
   },
   autosave: (content) => call(CHANNELS.autosave, content),
   recoverAutosave: () => call(CHANNELS.recoverAutosave),
+  discardRecovered: () => call(CHANNELS.discardRecovered),
 };
 
 contextBridge.exposeInMainWorld('roundwise', bridge);

@@ -1,21 +1,28 @@
 /**
  * The bridge in browser mode (`npm run web`, or `npm start` without the Electron binary): the same contract as the
  * desktop preload, built from what a web page has: a file input to open, a download to save or export, localStorage
- * for recent projects and the crash-recovery copy, `beforeunload` for the unsaved-changes prompt, and key events for
- * the menu shortcuts. The environment is injectable so tests can drive it without a browser.
+ * for recent projects, IndexedDB and Web Locks for the crash-recovery copies (recovery-slots.ts), `beforeunload` for
+ * the unsaved-changes prompt, and key events for the menu shortcuts. The environment is injectable so tests can drive
+ * it without a browser.
  */
 import type { ExportKind, FileKind, MenuCommand, OpenedFile, RecentEntry, RoundwiseBridge, SavedFile } from '../../src/bridge/contract.ts';
 import { EXPORT_TYPES, MAX_OPEN_BYTES, OPEN_EXTENSIONS, formatBytes, projectFileName, withExtension } from '../../src/bridge/files.ts';
 import { commandForKey, isTextEditing } from '../../src/bridge/shortcuts.ts';
 import { addRecent, parseRecentList, sanitizeFileName } from '../../src/bridge/validate.ts';
 import { InputError } from '../../src/diagnostics/index.ts';
+import { createStore, set } from 'idb-keyval';
+import { createRecoverySlots, type SlotEnv } from './recovery-slots.ts';
 
 /** localStorage keys; project copies are stored under PROJECT_PREFIX + file name. */
 export const STORAGE_KEYS = {
   recent: 'roundwise:recent',
-  autosave: 'roundwise:autosave',
+  /** Where the first versions kept their one recovery copy; moved into the recovery store when found. */
+  legacyAutosave: 'roundwise:autosave',
   projectPrefix: 'roundwise:project:',
 } as const;
+
+/** The IndexedDB database and object store of the recovery copies. */
+export const RECOVERY_DB = { name: 'roundwise-recovery', store: 'copies' } as const;
 
 /** Project copies larger than this are downloaded but not kept in localStorage (its quota is a few MB). */
 export const MAX_STORED_PROJECT_CHARS = 1_500_000;
@@ -26,6 +33,8 @@ export interface BrowserEnv {
   storage: Storage | null;
   isMac: boolean;
   now: () => Date;
+  /** Crash-recovery storage (IndexedDB, Web Locks, sessionStorage). */
+  recovery: SlotEnv;
 }
 
 function defaultEnv(): BrowserEnv {
@@ -36,7 +45,24 @@ function defaultEnv(): BrowserEnv {
     storage = null; // storage disabled (privacy mode): recent projects and recovery are simply unavailable
   }
   const platform = (navigator as Navigator & { userAgentData?: { platform?: string } }).userAgentData?.platform ?? navigator.platform ?? '';
-  return { window, document, storage, isMac: /mac|iphone|ipad/i.test(platform), now: () => new Date() };
+  const now = () => new Date();
+  return { window, document, storage, isMac: /mac|iphone|ipad/i.test(platform), now, recovery: recoveryEnv(now) };
+}
+
+function recoveryEnv(now: () => Date): SlotEnv {
+  let session: Storage | null = null;
+  try {
+    session = window.sessionStorage;
+  } catch {
+    session = null;
+  }
+  return {
+    store: typeof indexedDB === 'undefined' ? null : createStore(RECOVERY_DB.name, RECOVERY_DB.store),
+    locks: navigator.locks ?? null, // absent outside secure contexts
+    session,
+    newId: () => crypto.randomUUID(),
+    now,
+  };
 }
 
 /** Strip the byte-order mark so both shells hand the importer the same text. */
@@ -68,6 +94,7 @@ export function base64ToBytes(b64: string): Uint8Array {
 export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBridge {
   const { window: win, document: doc, storage } = env;
   let dirty = false;
+  const recoverySlots = createRecoverySlots(env.recovery);
   const handlers = new Set<(cmd: MenuCommand) => void>();
 
   function readJson<T>(key: string): T | null {
@@ -87,6 +114,19 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
       return true;
     } catch {
       return false; // quota exceeded: the download still happened, only the local copy is missing
+    }
+  }
+
+  /** A copy left in localStorage by the first versions becomes a copy of a page that is gone, offered like any other. */
+  async function moveLegacyCopy(): Promise<void> {
+    const old = readJson<{ when?: unknown; content?: unknown }>(STORAGE_KEYS.legacyAutosave);
+    if (!old || typeof old.content !== 'string' || !env.recovery.store) return;
+    const when = typeof old.when === 'string' ? old.when : new Date(0).toISOString();
+    try {
+      await set(`legacy-${env.recovery.newId()}`, { when, text: old.content }, env.recovery.store);
+      storage?.removeItem(STORAGE_KEYS.legacyAutosave);
+    } catch {
+      // left where it is; the next start tries again
     }
   }
 
@@ -216,13 +256,14 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
       };
     },
     async autosave(content) {
-      if (content === null) storage?.removeItem(STORAGE_KEYS.autosave);
-      else writeItem(STORAGE_KEYS.autosave, JSON.stringify({ when: env.now().toISOString(), content }));
+      await recoverySlots.write(content);
     },
     async recoverAutosave() {
-      const saved = readJson<{ when?: unknown; content?: unknown }>(STORAGE_KEYS.autosave);
-      if (!saved || typeof saved.content !== 'string') return null;
-      return { name: 'Recovered project', text: saved.content, size: utf8Length(saved.content) };
+      await moveLegacyCopy();
+      return recoverySlots.claim();
+    },
+    async discardRecovered() {
+      await recoverySlots.discardClaimed();
     },
   };
 }

@@ -1,68 +1,134 @@
 /**
- * Crash recovery: while there are unsaved changes, a copy of the project is written through the bridge
- * (desktop: the user-data folder; browser: localStorage) a moment after each change; saving clears it. When the
- * app starts and finds a copy, the previous session ended with unsaved work: the window offers it back.
- * Until the user answers, nothing is written or cleared, so the copy survives a second crash too.
+ * Crash recovery: while there are unsaved changes, this window keeps a copy of its work through the bridge (desktop:
+ * a file per window in the user-data folder; browser: an IndexedDB entry per tab) a moment after each change; saving
+ * clears it. The copy is written without the checks a save makes (recovery-copy.ts), so work the app would refuse
+ * to save is still kept; when it cannot be written at all, the window says so until a later write succeeds.
+ * At start the window looks for a copy left by a window that is gone and offers it, with its date and table; a copy
+ * offered here is reserved for this window, and other windows' live copies are never offered or touched.
  */
-import { reactive, watch } from 'vue';
+import { reactive, toRaw, watch } from 'vue';
 import { getBridge } from '../bridge/index.ts';
-import { app, markDirty, messageOf, say } from './app.ts';
-import { applyProject, projectText } from './project.ts';
+import { engine, CancelledError } from '../worker/client.ts';
+import { app, markDirty, messageOf, resetHistory, say } from './app.ts';
+import { applyProject } from './project.ts';
+import { describeCopy, readRecoveryCopy, writeRecoveryCopy, type RecoveryCopy } from './recovery-copy.ts';
+import type { ScenarioDraft } from '../worker/compute.ts';
 
 /** Quiet time after the last change before the copy is written (edits come in bursts). */
 export const AUTOSAVE_DELAY_MS = 1500;
 
+export interface RecoveryOffer {
+  /** The copy, or null when it cannot be used (then `damaged` says why, and it can only be discarded). */
+  copy: RecoveryCopy | null;
+  damaged: string | null;
+  /** One sentence: when, which table, how many scenarios. */
+  summary: string;
+}
+
 export const recovery = reactive({
   /** The copy found at start, waiting for the user's answer. */
-  offer: null as { name: string; text: string } | null,
+  offer: null as RecoveryOffer | null,
+  /** Why the copy of the current work could not be kept; shown until a later write succeeds. */
+  problem: null as string | null,
 });
 
 let timer: ReturnType<typeof setTimeout> | null = null;
+/** Writes run one after another, so a slow older copy never lands after a newer one (or after a removal). */
+let writes: Promise<void> = Promise.resolve();
+/** The project text of the table and settings, rebuilt only when they change (scenario edits are the usual change). */
+let base: { table: unknown; closure: boolean; name: string; text: string } | null = null;
+
+async function copyText(): Promise<string> {
+  const table = app.table!;
+  const name = (app.project?.name ?? table.name ?? 'project').replace(/\.roundwise$/, '');
+  if (!base || base.table !== toRaw(table) || base.closure !== app.closure || base.name !== name) {
+    const text = await engine().call('recoveryBase', { name, closure: app.closure }, 'Keeping a recovery copy…');
+    base = { table: toRaw(table), closure: app.closure, name, text };
+  }
+  return writeRecoveryCopy({
+    savedAt: new Date().toISOString(),
+    tableName: table.name,
+    projectName: app.project?.name ?? null,
+    project: base.text,
+    scenarios: JSON.parse(JSON.stringify(app.scenarios)) as ScenarioDraft[],
+    selected: app.selected,
+  });
+}
 
 async function writeCopy(): Promise<void> {
-  if (recovery.offer) return;
   const bridge = getBridge();
-  try {
-    if (app.dirty && app.table) await bridge.autosave(await projectText());
-    else if (!app.dirty) await bridge.autosave(null);
-  } catch {
-    // Best effort: a failed copy must not disturb the work in hand; the next change tries again.
+  if (!app.dirty) {
+    recovery.problem = null;
+    await bridge.autosave(null).catch(() => undefined); // a copy left behind is only offered, never forced on anyone
+    return;
   }
+  if (!app.table) return;
+  try {
+    await bridge.autosave(await copyText());
+    recovery.problem = null;
+  } catch (e) {
+    if (e instanceof CancelledError) return; // the user stopped the worker; the next change tries again
+    recovery.problem = `No crash-recovery copy of the unsaved work could be kept: ${messageOf(e)}. Save the project to be safe.`;
+  }
+}
+
+function writeNow(): Promise<void> {
+  writes = writes.then(writeCopy);
+  return writes;
 }
 
 function schedule(): void {
   if (timer) clearTimeout(timer);
-  timer = setTimeout(() => { timer = null; void writeCopy(); }, AUTOSAVE_DELAY_MS);
+  timer = setTimeout(() => { timer = null; void writeNow(); }, AUTOSAVE_DELAY_MS);
 }
 
-/** Look for a copy left by an earlier session, then keep one while there are unsaved changes. */
-export async function startRecovery(): Promise<void> {
+async function lookForCopy(): Promise<void> {
   try {
     const found = await getBridge().recoverAutosave();
-    if (found) recovery.offer = { name: found.name, text: found.text };
+    if (!found) return;
+    const copy = readRecoveryCopy(found.text);
+    recovery.offer = 'damaged' in copy
+      ? { copy: null, damaged: copy.damaged, summary: `A recovery copy was found, but it cannot be opened: ${copy.damaged}.` }
+      : { copy, damaged: null, summary: describeCopy(copy) };
   } catch {
     // An unreadable copy is no reason to stop the app from opening.
   }
-  watch(() => app.scenarios, schedule, { deep: true });
-  watch(() => [app.dirty, app.closure, app.table], schedule);
 }
 
-/** Reopen the recovered project; it stays marked unsaved (it is not the file it came from). */
+/** Look for a copy left by a window that is gone, then keep one while there are unsaved changes. */
+export async function startRecovery(): Promise<void> {
+  await lookForCopy();
+  watch(() => app.scenarios, schedule, { deep: true });
+  watch(() => [app.dirty, app.closure, app.table, app.selected], schedule);
+}
+
+/** Reopen the recovered work; it stays marked unsaved (it is not the file it came from). */
 export async function acceptRecovery(): Promise<void> {
   const offer = recovery.offer;
-  if (!offer) return;
-  recovery.offer = null;
-  if (await applyProject(offer.text, offer.name)) {
-    app.project = null;
-    markDirty(true);
-    say('Recovered the unsaved work of the earlier session');
-  } else {
-    say(`The recovery copy could not be opened: ${app.importError ?? messageOf(new Error('unknown'))}`);
+  if (!offer?.copy) return;
+  if (app.dirty && !window.confirm('This window has unsaved changes. Replace them with the recovered work?')) return;
+  const copy = offer.copy;
+  if (!(await applyProject(copy.project, copy.projectName ?? 'Recovered project'))) {
+    recovery.offer = { ...offer, copy: null, damaged: app.importError, summary: `The recovery copy could not be opened: ${app.importError ?? 'unknown reason'}` };
+    return;
   }
+  if (copy.scenarios) {
+    app.scenarios = copy.scenarios;
+    app.selected = Math.min(copy.selected, Math.max(0, copy.scenarios.length - 1));
+    app.starterOnly = false;
+    resetHistory();
+  }
+  app.project = null;
+  recovery.offer = null;
+  markDirty(true);
+  // The work is now this window's own copy; only once that is written is the offered copy let go.
+  await writeNow();
+  if (!recovery.problem) await getBridge().discardRecovered().catch(() => undefined);
+  say('Recovered the unsaved work of the earlier session');
 }
 
 export async function discardRecovery(): Promise<void> {
   recovery.offer = null;
-  await getBridge().autosave(null).catch(() => undefined);
-  schedule();
+  await getBridge().discardRecovered().catch(() => undefined);
+  await lookForCopy(); // more than one window may have been lost
 }

@@ -478,6 +478,18 @@ function saveProject(args: { name: string; scenarios: ScenarioDraft[]; closure: 
   return serializeProject(p);
 }
 
+/**
+ * The table, its source and the settings as a project with no scenarios, for the crash-recovery copy: no save-time
+ * checks, so a scenario line that no longer matches the table can never stop the copy. The scenarios travel beside
+ * it as the UI holds them (renderer/state/recovery-copy.ts).
+ */
+function recoveryBase(args: { name: string; closure: boolean }): string {
+  const { table, source } = current();
+  const p = createProject(table, { name: args.name, source });
+  p.settings.paths.model = args.closure ? 'closed' : 'open';
+  return serializeProject(p);
+}
+
 function openProject(args: { text: string; fileName: string }): { table: TableInfo; analysis: AnalysisView; scenarios: ScenarioDraft[]; closure: boolean; active: number; name: string } {
   const p = parseProject(args.text, args.fileName);
   const loaded = load(p.table, p.source?.fileName ?? args.fileName, p.source);
@@ -520,6 +532,7 @@ export const api = {
   grid,
   report,
   saveProject,
+  recoveryBase,
   openProject,
   ...regionalApi,
 };

@@ -52,12 +52,19 @@ export interface RoundwiseBridge {
   /** Subscribe to menu commands; returns an unsubscribe function. */
   onMenu(handler: (cmd: MenuCommand) => void): () => void;
   /**
-   * Keep a crash-recovery copy of the current (unsaved) project; `null` removes it (after a save, or when the
-   * project is clean). Call it debounced while dirty; it never replaces a saved project file.
+   * Keep this window's crash-recovery copy (one per window and page load; never a saved project file); `null` removes
+   * it (after a save, or when the project is clean). Call it debounced while dirty. Rejects, with the reason, when
+   * the copy cannot be written (disk or browser storage full, storage unavailable), so the UI can say so.
    */
   autosave(content: string | null): Promise<void>;
-  /** The recovery copy left by an earlier session that ended with unsaved changes, or null when there is none. */
+  /**
+   * A recovery copy left by a window that is gone (crashed, killed, reloaded), or null when there is none. The copy
+   * is reserved for this window until `discardRecovered()`, so no other window offers it; copies of windows still
+   * open are never offered.
+   */
   recoverAutosave(): Promise<OpenedFile | null>;
+  /** Delete the copy `recoverAutosave()` offered (the user discarded it, or recovered it and it is now this window's). */
+  discardRecovered(): Promise<void>;
 }
 
 /** IPC channel names, one per bridge method that crosses the process boundary. */
@@ -70,5 +77,6 @@ export const CHANNELS = {
   setDirty: 'roundwise:set-dirty',
   autosave: 'roundwise:autosave',
   recoverAutosave: 'roundwise:recover-autosave',
+  discardRecovered: 'roundwise:discard-recovered',
   menu: 'roundwise:menu',
 } as const;

@@ -5,10 +5,11 @@
 import type { ExportKind, FileKind } from './contract.ts';
 
 /**
- * Largest file either shell reads into memory (128 MiB). Bigger files are refused before they are read;
- * the importer may apply a lower limit of its own before parsing, using OpenedFile.size.
+ * Largest file the product reads into memory, 200 MiB (a 2000-sector table is about 40 MB): the one limit for every
+ * file, in the browser bridge, in the CLI and the desktop shell (src/node-io) and in the table importer
+ * (MAX_TABLE_BYTES). Bigger files are refused before they are read.
  */
-export const MAX_OPEN_BYTES = 128 * 1024 * 1024;
+export const MAX_OPEN_BYTES = 200 * 1024 * 1024;
 
 /** Largest content the UI may hand to a save or export (same limit, in UTF-16 code units or base64 characters). */
 export const MAX_SAVE_CHARS = 128 * 1024 * 1024;

@@ -3,11 +3,11 @@
  * than as thrown exceptions, because Electron reduces a thrown error to "Error invoking remote method …: …";
  * the preload turns a refusal back into an InputError so the UI shows one located line, never a stack trace.
  */
-import { InputError, type Location } from '../diagnostics/index.ts';
+import { InputError, isErrorCode, type ErrorCode, type Location } from '../diagnostics/index.ts';
 import type { MenuCommand } from './contract.ts';
 
 export interface IpcFailure {
-  code: string;
+  code: ErrorCode;
   message: string;
   location?: Location;
 }
@@ -28,7 +28,8 @@ export function unwrapIpcResult<T>(r: unknown): T {
     const res = r as IpcResult<T>;
     if (res.ok) return res.value;
     const e = res.error ?? { code: 'ipc-failed', message: 'the desktop shell refused the request' };
-    throw new InputError(String(e.code), String(e.message), e.location ?? {});
+    // A code this build does not know (a newer shell) still arrives as a refusal, under the generic code.
+    throw new InputError(isErrorCode(e.code) ? e.code : 'ipc-failed', String(e.message), e.location ?? {});
   }
   throw new InputError('ipc-failed', 'the desktop shell sent an unexpected reply');
 }

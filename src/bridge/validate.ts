@@ -59,6 +59,7 @@ export const argSchemas = {
   setDirty: z.tuple([z.boolean()]),
   autosave: z.tuple([content.nullable()]),
   recoverAutosave: z.tuple([]),
+  discardRecovered: z.tuple([]),
 } as const;
 
 export type ArgsOf<K extends keyof typeof argSchemas> = z.infer<(typeof argSchemas)[K]>;

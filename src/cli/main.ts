@@ -1,49 +1,82 @@
 /**
- * The batch CLI: `roundwise <command> …`. This folder is the one place in src/ allowed Node built-ins.
- * Refused input (InputError) prints a short located message and exits 2; no stack trace reaches the user.
+ * The batch CLI: `roundwise <command> …`. Each command is one spec (src/cli/commands/*.ts); this file parses, runs,
+ * writes and prints the same way for all of them.
+ * Exit status: 0 done; 1 usage error (unknown command or option, missing or bad argument); 2 refused input (an
+ * InputError: a short located message, nothing written); 70 internal error. No stack trace reaches the user.
  */
-import { formatLocated, isInputError } from '../diagnostics/index.ts';
+import { formatLocated, InputError, isInputError } from '../diagnostics/index.ts';
+import type { CommandSpec } from './command.ts';
+import { CommandRun } from './context.ts';
 import { processIO, type CliIO } from './io.ts';
-import * as analyze from './commands/analyze.ts';
-import * as scenario from './commands/scenario.ts';
-import * as regionalize from './commands/regionalize.ts';
-import * as balance from './commands/balance.ts';
-import * as aggregate from './commands/aggregate.ts';
+import { writeOutputs } from './output.ts';
+import { commandHelp, mainHelp, parseCommandArgs, wantsHelp } from './parse.ts';
+import { jsonText, terminalText } from './terminal.ts';
+import { analyze } from './commands/analyze.ts';
+import { scenario } from './commands/scenario.ts';
+import { regionalize } from './commands/regionalize.ts';
+import { balance } from './commands/balance.ts';
+import { aggregate } from './commands/aggregate.ts';
 
-type Command = { run: (args: string[], io: CliIO) => Promise<number> };
-
-const COMMANDS: Record<string, { cmd: Command; summary: string }> = {
-  analyze: { cmd: analyze, summary: 'analyze TABLE.csv [--map MAP.json] [--json] [--out DIR]   coefficients, viability, multipliers' },
-  scenario: { cmd: scenario, summary: 'scenario TABLE.csv --shock SHOCK.csv [--map MAP.json] [--json] [--out DIR]   demand-shock effects' },
-  regionalize: { cmd: regionalize, summary: 'regionalize NATIONAL.csv --employment EMP.csv --method slq|cilq|flq [--delta 0.3] [--map MAP.json] [--json] [--out DIR]' },
-  balance: { cmd: balance, summary: 'balance MATRIX.csv --rows ROWS.csv --columns COLS.csv [--table] [--tolerance T] [--max-iterations K] [--json] [--out DIR]   RAS balancing' },
-  aggregate: { cmd: aggregate, summary: 'aggregate TABLE.csv --groups GROUPS.csv [--map MAP.json] [--json] [--out DIR]   merge sectors' },
-};
+export const COMMANDS: readonly CommandSpec[] = [analyze, scenario, regionalize, balance, aggregate] as unknown as CommandSpec[];
 
 export function usage(): string {
-  return ['usage: roundwise <command> [options]', '', ...Object.values(COMMANDS).map((c) => `  roundwise ${c.summary}`), ''].join('\n');
+  return mainHelp(COMMANDS);
+}
+
+const EXIT = { ok: 0, usage: 1, refused: 2, internal: 70 } as const;
+
+function commandList(): string {
+  return `usage: roundwise <command> [options]; the commands are ${COMMANDS.map((c) => c.name).join(', ')} ('roundwise --help' lists their options)`;
+}
+
+function refusal(prefix: string, e: InputError, io: CliIO): number {
+  io.stderr(`${prefix}: ${formatLocated(e)}\n`);
+  return e.code === 'usage' ? EXIT.usage : EXIT.refused;
 }
 
 export async function main(argv: string[], io: CliIO = processIO): Promise<number> {
   const [name, ...rest] = argv;
-  if (!name || name === '--help' || name === '-h' || name === 'help') {
-    io.stdout(usage());
-    return name ? 0 : 1;
+  if (name === '--help' || name === '-h' || name === 'help') {
+    const spec = COMMANDS.find((c) => c.name === rest[0]);
+    io.stdout(spec ? commandHelp(spec) : usage());
+    return EXIT.ok;
   }
-  const entry = COMMANDS[name];
-  if (!entry) {
-    io.stderr(`roundwise: unknown command '${name}'\n${usage()}`);
-    return 1;
+  if (name === undefined) return refusal('roundwise', new InputError('usage', 'no command given', {}, commandList()), io);
+  const spec = COMMANDS.find((c) => c.name === name);
+  if (!spec) return refusal('roundwise', new InputError('usage', `unknown command '${name}'`, {}, commandList()), io);
+  return runCommand(spec, rest, io);
+}
+
+async function runCommand(spec: CommandSpec, argv: string[], io: CliIO): Promise<number> {
+  const prefix = `roundwise ${spec.name}`;
+  if (wantsHelp(argv)) {
+    io.stdout(commandHelp(spec));
+    return EXIT.ok;
   }
+  const run = new CommandRun(spec, io);
   try {
-    return await entry.cmd.run(rest, io);
-  } catch (e) {
-    if (isInputError(e)) {
-      io.stderr(`roundwise ${name}: ${formatLocated(e)}\n`);
-      return 2;
+    const args = parseCommandArgs(spec, argv);
+    const result = await spec.run(args, run);
+    const out = args.values.out;
+    const written = writeOutputs(out, out === undefined ? [] : result.reports ?? [], result.files ?? [], run.inputs);
+    if (written.stale.length) {
+      run.warn(`${written.stale.length} Roundwise report files in ${out} are from an earlier run and were not rewritten: ${written.stale.join(', ')} (left in place; remove them if they no longer apply)`);
     }
+    if (args.values.json) {
+      io.stdout(jsonText({
+        ...result.json(),
+        ...(written.files.length ? { files: written.files } : {}),
+        ...(written.stale.length ? { staleFiles: written.stale } : {}),
+      }));
+    } else {
+      const wrote = written.files.length ? `\nWrote ${written.files.length} file${written.files.length > 1 ? 's' : ''}:\n${written.files.map((f) => `  ${f}`).join('\n')}\n` : '';
+      io.stdout(terminalText(result.summary() + wrote));
+    }
+    return EXIT.ok;
+  } catch (e) {
+    if (isInputError(e)) return refusal(prefix, e, io);
     const msg = e instanceof Error ? e.message : String(e);
-    io.stderr(`roundwise ${name}: internal error: ${msg.split('\n')[0]}\n`);
-    return 70;
+    io.stderr(`${prefix}: internal error: ${terminalText(msg.split('\n')[0]!)}\n`);
+    return EXIT.internal;
   }
 }

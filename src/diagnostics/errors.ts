@@ -3,6 +3,131 @@
  * where in the file (line, column) and where in the table (row and column labels) the problem is.
  * No stack trace is ever shown for an InputError: the CLI and the UI print `formatLocated(err)` only.
  */
+import { visibleText } from './visible.ts';
+
+/**
+ * Every refusal code, in one list, so that every throw site is type-checked and one case has one name (tests and
+ * the UI match on codes). A new refusal adds its code here, under its concern.
+ */
+export const ERROR_CODES = [
+  // Command line, files and the desktop bridge (src/cli, src/node-io, src/bridge, main/)
+  'usage',
+  'read-failed',
+  'write-failed',
+  'not-a-file',
+  'file-too-large',
+  'output-is-input',
+  'project-not-overwritten',
+  'path-not-granted',
+  'not-a-project',
+  'recovery-unavailable',
+  'recovery-write-failed',
+  'ipc-failed',
+  'ipc-refused',
+  'ipc-invalid',
+  'internal',
+  // Table import (src/table)
+  'binary',
+  'utf16',
+  'too-large',
+  'bad-quotes',
+  'ragged-row',
+  'header-only',
+  'bad-long-header',
+  'no-sectors',
+  'missing-label',
+  'duplicate-label',
+  'duplicate-entry',
+  'non-numeric',
+  'not-finite',
+  'overflow',
+  'blank-flow',
+  'negative-flow',
+  'negative-employment',
+  'no-total-output',
+  'output-not-positive',
+  'role-map-json',
+  'role-map-schema',
+  // Model and scenarios (src/model, src/scenario)
+  'not-productive',
+  'singular',
+  'unknown-sector',
+  'missing-sector',
+  'empty-scenario',
+  'bad-header',
+  'bad-amount',
+  'bad-kind',
+  'bad-number',
+  'fixed-and-shocked',
+  'local-share-fixed',
+  'local-share-range',
+  'no-employment',
+  'pattern-empty',
+  'pattern-share-range',
+  'pattern-share-sum',
+  'shock-not-finite',
+  'effects-not-finite',
+  'compare-different-tables',
+  'compare-too-few',
+  // Regional tables, RAS and aggregation (src/regional)
+  'empty',
+  'label-empty',
+  'label-duplicate',
+  'delta-range',
+  'employment-above-national',
+  'employment-all-zero',
+  'employment-columns',
+  'employment-duplicate',
+  'employment-label',
+  'employment-missing',
+  'employment-national-missing',
+  'employment-national-zero',
+  'employment-negative',
+  'employment-not-numeric',
+  'employment-sector-missing',
+  'employment-unknown-sector',
+  'group-duplicate',
+  'group-empty',
+  'group-label-taken',
+  'group-sector-empty',
+  'group-sector-missing',
+  'group-unknown-sector',
+  'matrix-negative',
+  'matrix-no-columns',
+  'matrix-not-numeric',
+  'matrix-ragged',
+  'totals-duplicate',
+  'totals-missing',
+  'totals-negative',
+  'totals-not-numeric',
+  'totals-unknown-label',
+  'balance-output',
+  'balance-purchases-above-output',
+  'balance-sales-above-output',
+  'ras-infeasible',
+  'ras-iterations',
+  'ras-negative',
+  'ras-not-converged',
+  'ras-shape',
+  'ras-target',
+  'ras-tolerance',
+  'ras-totals-disagree',
+  'ras-zero-column',
+  'ras-zero-row',
+  // Project files (src/project)
+  'project-corrupt',
+  'project-empty',
+  'project-foreign',
+  'project-invalid',
+  'project-newer',
+  'project-truncated',
+] as const;
+
+export type ErrorCode = (typeof ERROR_CODES)[number];
+
+export function isErrorCode(x: unknown): x is ErrorCode {
+  return typeof x === 'string' && (ERROR_CODES as readonly string[]).includes(x);
+}
 
 export interface Location {
   file?: string;
@@ -15,13 +140,16 @@ export interface Location {
 }
 
 export class InputError extends Error {
-  readonly code: string;
+  readonly code: ErrorCode;
   readonly location: Location;
-  constructor(code: string, message: string, location: Location = {}) {
+  /** Our own advice on a line of its own below the message (e.g. a command's usage line); never text from a file. */
+  readonly hint: string | undefined;
+  constructor(code: ErrorCode, message: string, location: Location = {}, hint?: string) {
     super(message);
     this.name = 'InputError';
     this.code = code;
     this.location = location;
+    this.hint = hint;
   }
 }
 
@@ -45,19 +173,15 @@ export function formatLocation(loc: Location): string {
 }
 
 /**
- * Control characters from a file (a CR inside a label, a NUL in a cell) shown escaped, so a message stays readable.
- * Labels are escaped entirely; a message keeps its own line breaks (a usage hint on a second line) but nothing else.
+ * One line for the user: "county.csv:12:4 (row 'Farming', column 'Mining'): negative intermediate flow -3.2".
+ * Location and message may quote a file's text, so control and bidi characters in them are shown escaped
+ * (src/diagnostics/visible.ts) and the line stays one line; a hint (ours) follows on its own line.
  */
-function escapeControls(s: string, keepNewline: boolean): string {
-  return s.replace(/[\u0000-\u001f\u007f]/g, (c) => (keepNewline && c === '\n' ? c : JSON.stringify(c).slice(1, -1)));
-}
-
-/** One line for the user: "county.csv:12:4 (row 'Farming', column 'Mining'): negative intermediate flow -3.2". */
-export function formatLocated(err: { message: string; location?: Location }): string {
-  const where = err.location ? escapeControls(formatLocation(err.location), false) : '';
-  // Text quoted from the file ('…') is escaped entirely; only the message's own line breaks, outside quotes, stay.
-  const message = err.message.split("'").map((part, k) => escapeControls(part, k % 2 === 0)).join("'");
-  return where ? `${where}: ${message}` : message;
+export function formatLocated(err: { message: string; location?: Location; hint?: string | undefined }): string {
+  const where = err.location ? visibleText(formatLocation(err.location)) : '';
+  const message = visibleText(err.message);
+  const line = where ? `${where}: ${message}` : message;
+  return err.hint ? `${line}\n${visibleText(err.hint, '\n')}` : line;
 }
 
 export function isInputError(e: unknown): e is InputError {

@@ -1,2 +1,3 @@
-/** Errors with a location, warnings, and their one-line wording (base layer). */
+/** Errors with a location, warnings, their one-line wording, and text from files made visible (base layer). */
 export * from './errors.ts';
+export * from './visible.ts';

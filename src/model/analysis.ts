@@ -11,6 +11,7 @@ import {
 } from '../linalg/index.ts';
 import { coefficients } from './coefficients.ts';
 import { closedBorder, prepareModel, solveClosed, type PreparedModel } from './prepared.ts';
+import { decideClosedModel, rememberClosedModelDecision, type ClosedModelDecision } from './closed-model.ts';
 import { sectorBlocks } from './graph.ts';
 import { perronRoot, type PerronOptions } from './perron.ts';
 import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
@@ -63,8 +64,14 @@ export interface Viability {
   /** ρ(Ā) of the household-closed model; null without closure. */
   perronRootClosed: number | null;
   perronRootClosedBounds: [number, number] | null;
+  /** The closed model is usable (`closedModel.usable`); null without closure. */
   closedProductive: boolean | null;
-  /** Rounds after which less than `tolerance`·‖f‖∞ of any demand f is left unaccounted; null when the series diverges. */
+  /** The one closed-model decision (closed-model.ts): status, reason, Schur complement and its rounding bound. */
+  closedModel: ClosedModelDecision;
+  /**
+   * Rounds after which less than `tolerance`·‖f‖∞ of any demand f is left unaccounted; null when the series diverges,
+   * is not certified, or needs more than MAX_ROUNDS rounds (`series.kind` says which, `series.reason` why).
+   */
   roundsToTolerance: number | null;
   tolerance: number;
   /** Eigenvalues of A by decreasing modulus with their long-run mode; null when skipped (see spectrumNote). */
@@ -221,26 +228,23 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     warn('productivity-noise', verdictNote);
   }
 
-  // Closed model.
+  // Closed model: decided once here (closed-model.ts); scenarios on this prepared table read the same decision.
   let perronRootClosed: number | null = null;
   let perronRootClosedBounds: [number, number] | null = null;
-  let closedProductive: boolean | null = null;
-  let closedWhy: true | string = true;
-  if (!closed) {
-    closedWhy = 'the table has no household income row or no household consumption column, so there is no household closure (Type II)';
-  } else {
+  if (closed) {
     const abar = negativeFlows ? absolute(closed.Abar) : closed.Abar;
     const pc = perronRoot(abar, closed.m, { ...opts.perron, rightOnly: true });
     perronRootClosed = pc.root;
     perronRootClosedBounds = [pc.lower, pc.upper];
-    const s = closedBorder(pm)?.s ?? 0;
-    closedProductive = productive && s > 0 && (negativeFlows || pc.upper < 1);
-    if (!productive) closedWhy = 'the open model is not productive';
-    else if (!closedProductive) {
-      closedWhy = `the household-closed model is not productive (Perron root ${fmt(pc.root)}, bounds ${fmt(pc.lower)}–${fmt(pc.upper)}): households re-spend at least all they earn locally`;
-      warn('closed-not-productive', `${closedWhy}; Type II multipliers are not defined`);
-    }
   }
+  const closedModel = decideClosedModel({
+    hasClosure: closed !== null, openProductive: productive, border: closedBorder(pm), closedBounds: perronRootClosedBounds, negativeFlows,
+  });
+  rememberClosedModelDecision(pm, closedModel);
+  const closedProductive = closed ? closedModel.usable : null;
+  const closedWhy: true | string = closedModel.usable ? true : closedModel.reason!;
+  if (productive && closed && !closedModel.usable) warn('closed-not-productive', `${closedModel.reason}; Type II multipliers are not defined`);
+  if (closedModel.accuracyNote) warn('closed-ill-conditioned', closedModel.accuracyNote);
 
   const avail: Availability = {
     open: productive ? true : 'the table is not productive (Perron root of A not below 1)',
@@ -291,7 +295,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     tolerance,
     negativeFlows ? 0 : perron.lower,
   );
-  if (productive && !series.converges) warn('series-uncertified', series.reason);
+  if (productive && !series.converges) warn(series.kind === 'too-slow' ? 'not-practically-convergent' : 'series-uncertified', series.reason);
 
   if (!perron.converged) {
     warn('perron-slow', `the Perron root iteration stopped before its tolerance; the certified bounds ${fmt(perron.lower)}–${fmt(perron.upper)} still hold`);
@@ -321,6 +325,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     perronRootClosed,
     perronRootClosedBounds,
     closedProductive,
+    closedModel,
     roundsToTolerance: series.converges ? series.roundsToTolerance : null,
     tolerance,
     spectrum: modes,

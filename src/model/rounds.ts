@@ -29,9 +29,27 @@ export interface SeriesCertificate {
   source: 'row sums' | 'Perron vector' | 'Leontief row sums';
 }
 
+/**
+ * More rounds than this are not a practical answer: the series converges, but so slowly (β within about 1e-5 of 1 for
+ * a tolerance of 1e-6) that counting rounds says nothing a planner can use, and near β = 1 the count itself is beyond
+ * what a double can step through (k++ stops changing k at 2⁵³). A cap chosen for the report, not from a source.
+ */
+export const MAX_ROUNDS = 1_000_000;
+
 export type SeriesVerdict =
   | { converges: true; certificate: SeriesCertificate; tolerance: number; roundsToTolerance: number }
-  | { converges: false; reason: string };
+  | {
+    converges: false;
+    /**
+     * 'diverges': ρ(A) ≥ 1 (certified); 'uncertified': no weight vector contracts |A| (ρ(A) within rounding of 1, or
+     * negative flows); 'too-slow': certified to converge, but more than MAX_ROUNDS rounds are needed for the tolerance.
+     */
+    kind: 'diverges' | 'uncertified' | 'too-slow';
+    reason: string;
+    /** 'too-slow' only: the best certificate found and the rounds it needs (from the logarithms; null beyond 1e300). */
+    certificate?: SeriesCertificate;
+    roundsEstimate?: number | null;
+  };
 
 /** β for weight vector v, or null when v is not strictly positive. */
 export function contractionRate(a: Float64Array, n: number, v: Float64Array): number | null {
@@ -84,19 +102,28 @@ export function certificate(a: Float64Array, n: number, v: Float64Array, source:
   return { v, beta, spread: n === 0 ? 1 : hi / lo, source };
 }
 
+/** The real-valued k + 1 with spread·β^{k+1}/(1−β) = tolerance (may be huge, or Infinity when β rounds to 1 in log). */
+function roundsNeeded(cert: SeriesCertificate, tolerance: number): number {
+  const { beta, spread } = cert;
+  // spread·β^{k+1}/(1−β) ≤ tol  ⇔  k+1 ≥ log(tol(1−β)/spread) / log β
+  return Math.log((tolerance * (1 - beta)) / spread) / Math.log(beta);
+}
+
 /**
- * Rounds k after which ‖L f − S_k f‖∞ ≤ tolerance·‖f‖∞ for every f: the least k ≥ 0 with spread·β^{k+1}/(1−β) ≤ tolerance.
+ * Rounds k after which ‖L f − S_k f‖∞ ≤ tolerance·‖f‖∞ for every f: the least k ≥ 0 with spread·β^{k+1}/(1−β) ≤ tolerance;
+ * null when that k exceeds `cap` (MAX_ROUNDS by default). Every loop here is bounded: the logarithms give k to within
+ * a step or two at any k ≤ cap, and the correction below takes at most a fixed number of steps.
  */
-export function roundsFor(cert: SeriesCertificate, tolerance: number): number {
+export function roundsFor(cert: SeriesCertificate, tolerance: number, cap = MAX_ROUNDS): number | null {
   const { beta, spread } = cert;
   if (beta === 0) return 0;
-  // spread·β^{k+1}/(1−β) ≤ tol  ⇔  k+1 ≥ log(tol(1−β)/spread) / log β
-  const need = Math.log((tolerance * (1 - beta)) / spread) / Math.log(beta);
+  const need = roundsNeeded(cert, tolerance);
+  if (!(need <= cap + 1)) return null; // also NaN
   let k = Math.max(0, Math.ceil(need) - 1);
   // Guard the logarithms' rounding: step until the inequality holds as computed.
-  while (spread * beta ** (k + 1) / (1 - beta) > tolerance) k++;
-  while (k > 0 && spread * beta ** k / (1 - beta) <= tolerance) k--;
-  return k;
+  for (let step = 0; step < 64 && spread * beta ** (k + 1) / (1 - beta) > tolerance; step++) k++;
+  for (let step = 0; step < 64 && k > 0 && spread * beta ** k / (1 - beta) <= tolerance; step++) k--;
+  return k > cap ? null : k;
 }
 
 /**
@@ -113,6 +140,7 @@ export function seriesVerdict(
   if (perronLower >= 1) {
     return {
       converges: false,
+      kind: 'diverges',
       reason: `the rounds do not die out: the Perron root of A is at least ${perronLower.toPrecision(6)} (≥ 1), so the power series diverges and the table is not productive`,
     };
   }
@@ -141,16 +169,32 @@ export function seriesVerdict(
   if (certs.length === 0) {
     return {
       converges: false,
+      kind: 'uncertified',
       reason: 'no convergence certificate: none of the weight vectors tried (row sums, Perron vector, Leontief row sums) contracts |A|, so no rigorous bound on the remaining rounds is available (the Perron root is 1 or more, within rounding of 1, or the table has negative flows)',
     };
   }
-  let best = certs[0]!;
-  let bestK = roundsFor(best, tolerance);
-  for (const c of certs.slice(1)) {
+  let best: SeriesCertificate | null = null;
+  let bestK = Number.POSITIVE_INFINITY;
+  for (const c of certs) {
     const k = roundsFor(c, tolerance);
-    if (k < bestK) { best = c; bestK = k; }
+    if (k !== null && k < bestK) { best = c; bestK = k; }
   }
-  return { converges: true, certificate: best, tolerance, roundsToTolerance: bestK };
+  if (best) return { converges: true, certificate: best, tolerance, roundsToTolerance: bestK };
+  // Certified to converge, but too slowly to count: name the numbers.
+  let slow = certs[0]!;
+  let need = roundsNeeded(slow, tolerance);
+  for (const c of certs) {
+    const k = roundsNeeded(c, tolerance);
+    if (k < need) { slow = c; need = k; }
+  }
+  const estimate = Number.isFinite(need) && need < 1e300 ? Math.ceil(need) : null;
+  return {
+    converges: false,
+    kind: 'too-slow',
+    certificate: slow,
+    roundsEstimate: estimate,
+    reason: `not practically convergent: the rounds die out, but ${estimate === null ? 'far more' : `about ${estimate.toPrecision(3)}`} rounds (more than ${MAX_ROUNDS.toLocaleString('en-US')}) would be needed before less than ${tolerance} of any demand is left (certified contraction rate β = ${slow.beta.toPrecision(17)}, 1 − β = ${(1 - slow.beta).toPrecision(3)}${perronLower > 0 ? `; Perron root at least ${perronLower.toPrecision(17)}` : ''}): the table is near the edge of productivity, where small changes in its coefficients change the multipliers a lot`,
+  };
 }
 
 export interface RoundByRound {
@@ -166,6 +210,7 @@ export interface RoundByRound {
 
 /** The first k+1 rounds of the multiplier process for demand f, with rigorous componentwise error bounds. */
 export function roundByRound(a: Float64Array, n: number, f: Float64Array, k: number, cert: SeriesCertificate | null): RoundByRound {
+  if (!(Number.isInteger(k) && k >= 0 && k <= MAX_ROUNDS)) throw new RangeError(`rounds ${k} outside 0–${MAX_ROUNDS}`);
   const rounds: Float64Array[] = [Float64Array.from(f)];
   const partialSums: Float64Array[] = [Float64Array.from(f)];
   for (let t = 1; t <= k; t++) {

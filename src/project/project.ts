@@ -4,7 +4,7 @@
  * load → save → results is bit-for-bit identical (numbers are written in shortest round-trip form, −0 kept).
  * Loading refuses, with one clear message, a file that is empty, truncated, not JSON, not a Roundwise project,
  * from a newer version, or inconsistent; the caller keeps the file on disk untouched.
- * The save itself (temporary file, then rename) is the caller's: src/cli/io.ts `writeFileAtomic`, or the desktop shell.
+ * The save itself (temporary file, then rename) is the caller's: `writeFileAtomic` of src/node-io (the CLI and the desktop shell both use it).
  */
 import { InputError } from '../diagnostics/index.ts';
 import type { Scenario, SpendingPattern } from '../scenario/index.ts';

@@ -30,9 +30,12 @@ export interface ReportFile {
   content: string;
 }
 
+/** First words of every sidecar: how a later run recognises a Roundwise report in an output folder. */
+export const ABOUT_SIGNATURE = 'Roundwise report:';
+
 export function aboutText(meta: ReportMeta): string {
   const lines = [
-    `Roundwise report: ${meta.title}`,
+    `${ABOUT_SIGNATURE} ${meta.title}`,
     `Table: ${meta.tableName}`,
     ...(meta.sourceFile ? [`Source file: ${meta.sourceFile}`] : []),
     ...(meta.sourceHash ? [`Source SHA-256: ${meta.sourceHash}`] : []),

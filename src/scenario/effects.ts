@@ -5,8 +5,9 @@
  */
 import { InputError } from '../diagnostics/index.ts';
 import { conditionEstimate1 } from '../linalg/index.ts';
-import { closedBorder, solveClosed, solveOpen, type PreparedModel } from '../model/index.ts';
+import { closedModelDecision, solveClosed, solveOpen, type PreparedModel } from '../model/index.ts';
 import { resolveShock } from './lines.ts';
+import { checkShock, shockNotes } from './shock-checks.ts';
 import { solveMixed } from './mixed.ts';
 import type { EffectSplit, EffectTotals, Ratio, Scenario, ScenarioMultiplier, ScenarioResult } from './types.ts';
 
@@ -69,13 +70,9 @@ function openProductive(pm: PreparedModel): boolean | null {
   return true;
 }
 
-/**
- * The household-closed model is usable when its Schur complement s = 1 − ā_hh − h(I − A)⁻¹c is positive: with a
- * productive A ≥ 0 that is exactly ρ(Ā) < 1 (the M-matrix property above applied to the bordered matrix).
- */
+/** The analysis's closed-model decision for this prepared table (model/closed-model.ts), made once per table. */
 function closedUsable(pm: PreparedModel): boolean {
-  const b = closedBorder(pm);
-  return b !== null && b.s > 0;
+  return closedModelDecision(pm).usable;
 }
 
 /** Above this 1-norm condition estimate of I − A the results may have lost most of their digits (as the analysis warns). */
@@ -142,7 +139,8 @@ export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResu
   };
   const notes: string[] = [];
   if (!pm.closed) notes.push('The table has no household income or household consumption, so there is no Type II model: induced effects are not available and totals are open-model (Type I) totals.');
-  else if (!useClosure) notes.push('The household-closed model is not productive (households re-spend at least all the income they earn locally), so there is no Type II model: induced effects are not available and totals are open-model (Type I) totals.');
+  else if (!useClosure) notes.push(`There is no Type II model: ${closedModelDecision(pm).reason}; induced effects are not available and totals are open-model (Type I) totals.`);
+  else if (closedModelDecision(pm).accuracyNote) notes.push(`${closedModelDecision(pm).accuracyNote}.`);
   if (!e) notes.push('The table has no employment row: employment effects are not available.');
   const condition = conditionOfOpen(pm);
   if (!(condition <= CONDITION_LIMIT)) {
@@ -152,7 +150,7 @@ export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResu
     const j = shock.fixed[r]!;
     notes.push(`Output of '${sectors[j]}' is fixed from outside at ${shortNumber(shock.fixedOutput[r]!)} ${pm.table.moneyUnit} (mixed exogenous/endogenous model); the other sectors respond to its purchases.`);
   }
-  return {
+  const result: ScenarioResult = {
     scenario: scenario.name,
     sectors: pm.coef.sectors,
     moneyUnit: pm.table.moneyUnit,
@@ -172,4 +170,6 @@ export function runScenario(pm: PreparedModel, scenario: Scenario): ScenarioResu
     },
     notes,
   };
+  result.notes.push(...shockNotes(checkShock(pm, scenario, result)));
+  return result;
 }

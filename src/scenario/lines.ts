@@ -4,6 +4,7 @@
 import { InputError, type Location } from '../diagnostics/index.ts';
 import type { PreparedModel } from '../model/index.ts';
 import type { LineKind, ResolvedShock, Scenario, ScenarioLine, SpendingPattern } from './types.ts';
+import { fixedOutputOf, refuseNonFiniteSum } from './shock-checks.ts';
 
 function where(line: ScenarioLine | undefined, sector?: string): Location {
   const loc: Location = {};
@@ -83,20 +84,18 @@ export function resolveShock(pm: PreparedModel, scenario: Scenario): ResolvedSho
     }
     if (line.kind === 'final-demand') {
       df[j] = df[j]! + line.amount * share;
+      refuseNonFiniteSum(df[j]!, line);
       if (!firstDemandLine.has(j)) firstDemandLine.set(j, line);
     } else if (line.kind === 'output' || line.kind === 'jobs') {
       if (share !== 1) {
         throw new InputError('local-share-fixed', `local share applies to final-demand lines only; an ${line.kind} line fixes the sector's own (local) output`, where(line, line.sector));
       }
-      let out = line.amount;
-      if (line.kind === 'jobs') {
-        const ej = e ? e[j]! : 0;
-        if (!(ej > 0)) {
-          throw new InputError('no-employment', `a jobs line needs employment for '${line.sector}', and the table has ${e ? 'none for this sector' : 'no employment row'}`, where(line, line.sector));
-        }
-        out = line.amount / ej;
+      const ej = e ? e[j]! : 0;
+      if (line.kind === 'jobs' && !(ej > 0)) {
+        throw new InputError('no-employment', `a jobs line needs employment for '${line.sector}', and the table has ${e ? 'none for this sector' : 'no employment row'}`, where(line, line.sector));
       }
-      fixedAt.set(j, (fixedAt.get(j) ?? 0) + out);
+      fixedAt.set(j, (fixedAt.get(j) ?? 0) + fixedOutputOf(line, ej, pm.table.moneyUnit));
+      refuseNonFiniteSum(fixedAt.get(j)!, line);
       if (!firstFixedLine.has(j)) firstFixedLine.set(j, line);
     } else {
       throw new InputError('bad-kind', `kind '${String(line.kind)}' of '${line.sector}' is not one of final-demand, output, jobs`, where(line, line.sector));

@@ -3,10 +3,11 @@
  * its delimiter and its decimal mark.
  */
 import { InputError } from '../diagnostics/index.ts';
+import { MAX_OPEN_BYTES } from '../bridge/files.ts';
 import type { DecimalMark } from './numbers.ts';
 
-/** Largest table accepted, refused before parsing: 200 MiB (a 2000-sector table is about 40 MB). */
-export const MAX_TABLE_BYTES = 200 * 1024 * 1024;
+/** Largest table accepted, refused before parsing: the product's one file-size limit (200 MiB). */
+export const MAX_TABLE_BYTES = MAX_OPEN_BYTES;
 
 export type Delimiter = ',' | ';' | '\t';
 

@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import { AutosaveStore, RecentStore, readTextLimited, removeStaleTemps, writeFileAtomic } from '../../main/file-store.ts';
+import { RecentStore, readTextLimited, removeStaleTemps, writeFileAtomic } from '../../main/file-store.ts';
 import { InputError } from '../../src/diagnostics/index.ts';
 import { MAX_RECENT } from '../../src/bridge/validate.ts';
 
@@ -37,7 +37,7 @@ describe('writeFileAtomic', () => {
     const p = join(dir, 'county.roundwise');
     writeFileAtomic(p, 'previous');
     expect(() => writeFileAtomic(p, 'new', { beforeRename: () => { throw Object.assign(new Error('disk'), { code: 'ENOSPC' }); } }))
-      .toThrowError(/could not write the file: the disk is full/);
+      .toThrowError(/cannot write: the disk is full/);
     expect(readFileSync(p, 'utf8')).toBe('previous');
     expect(readdirSync(dir)).toEqual(['county.roundwise']);
   });
@@ -82,8 +82,8 @@ describe('readTextLimited', () => {
     expect(() => readTextLimited(p, 1024)).toThrowError(/2\.0 KB, larger than the 1\.0 KB limit/);
   });
   it('refuses folders and missing files with short messages', () => {
-    expect(() => readTextLimited(dir)).toThrowError(/not a regular file/);
-    expect(() => readTextLimited(join(dir, 'nope.csv'))).toThrowError(/does not exist/);
+    expect(() => readTextLimited(dir)).toThrowError(/is a folder, not a file/);
+    expect(() => readTextLimited(join(dir, 'nope.csv'))).toThrowError(/no such file/);
   });
 });
 
@@ -101,16 +101,5 @@ describe('RecentStore', () => {
   it('treats a damaged list as empty', () => {
     writeFileSync(join(dir, 'recent-projects.json'), '{not json');
     expect(new RecentStore(dir).list()).toEqual([]);
-  });
-});
-
-describe('AutosaveStore', () => {
-  it('keeps a recovery copy until cleared', () => {
-    const s = new AutosaveStore(dir);
-    expect(s.read()).toBeNull();
-    s.write('{"unsaved":true}');
-    expect(new AutosaveStore(dir).read()).toEqual({ name: 'Recovered project', text: '{"unsaved":true}', size: 16 });
-    s.clear();
-    expect(s.read()).toBeNull();
   });
 });

@@ -1,7 +1,10 @@
 // The main process wiring, against a scripted stand-in for the `electron` module (no binary needed): every policy
 // of test/main's pure modules must actually be applied. Reference: Electron security checklist
 // (https://www.electronjs.org/docs/latest/tutorial/security), items 3–5, 7, 12–15, 17, 18.
-import { describe, it, expect, vi, beforeAll } from 'vitest';
+import { describe, it, expect, vi, beforeAll, afterAll } from 'vitest';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { CHANNELS } from '../../src/bridge/contract.ts';
 import { APP_ENTRY_URL } from '../../main/navigation.ts';
 import { windowOptions } from '../../main/window-options.ts';
@@ -9,6 +12,7 @@ import { windowOptions } from '../../main/window-options.ts';
 type Fn = (...args: any[]) => any; // eslint-disable-line @typescript-eslint/no-explicit-any
 
 const fake = vi.hoisted(() => {
+  const userRoot = `/tmp/roundwise-index-test-${process.pid}-${Date.now()}`;
   const on = () => {
     const handlers = new Map<string, Fn[]>();
     return {
@@ -21,7 +25,7 @@ const fake = vi.hoisted(() => {
   const windows: FakeWindow[] = [];
   class FakeWindow {
     events = on();
-    contents = { ...on(), send: vi.fn(), setWindowOpenHandler: vi.fn(), once: vi.fn() };
+    contents = { ...on(), id: windows.length + 1, send: vi.fn(), setWindowOpenHandler: vi.fn(), once: vi.fn() };
     webContents = this.contents;
     loadURL = vi.fn(async () => undefined);
     close = vi.fn(() => this.events.emit('close', { preventDefault: vi.fn() }));
@@ -51,18 +55,18 @@ const fake = vi.hoisted(() => {
       setName: vi.fn(),
       on: appEvents.on,
       whenReady: () => readyPromise,
-      getPath: vi.fn((name: string) => `/tmp/roundwise-index-test/${name}`),
+      getPath: vi.fn((name: string) => `${userRoot}/${name}`),
       quit: vi.fn(),
     },
     BrowserWindow: FakeWindow,
-    dialog: { showMessageBoxSync: vi.fn(() => 2), showOpenDialog: vi.fn(), showSaveDialog: vi.fn() },
+    dialog: { showMessageBoxSync: vi.fn(() => 2), showMessageBox: vi.fn(async () => ({ response: 1 })), showOpenDialog: vi.fn(), showSaveDialog: vi.fn() },
     ipcMain: { handle: vi.fn((ch: string, fn: Fn) => { ipcHandlers.set(ch, fn); }) },
     Menu: { buildFromTemplate: vi.fn((t: unknown) => t), setApplicationMenu: vi.fn() },
     protocol: { registerSchemesAsPrivileged: vi.fn(), handle: vi.fn() },
     session: { defaultSession: ses },
     shell: { openExternal: vi.fn(async () => undefined) },
   };
-  return { electron, appEvents, windows, ipcHandlers, ses, ready: () => ready() };
+  return { electron, appEvents, windows, ipcHandlers, ses, userRoot, ready: () => ready() };
 });
 vi.mock('electron', () => fake.electron);
 
@@ -72,6 +76,8 @@ beforeAll(async () => {
   fake.ready();
   await new Promise((r) => setTimeout(r, 0));
 });
+
+afterAll(() => rmSync(fake.userRoot, { recursive: true, force: true }));
 
 const e = fake.electron;
 
@@ -132,7 +138,13 @@ describe('main process', () => {
 
   it('asks before closing with unsaved changes', async () => {
     const w = fake.windows[0]!;
-    const own = { senderFrame: { url: APP_ENTRY_URL, parent: null } };
+    const own = { senderFrame: { url: APP_ENTRY_URL, parent: null }, sender: { id: w.contents.id } };
+    const other = { ...own, sender: { id: 99 } };
+    expect(await fake.ipcHandlers.get(CHANNELS.setDirty)!(other, true)).toEqual({ ok: true, value: undefined });
+    const clean = { preventDefault: vi.fn() };
+    w.events.emit('close', clean);
+    expect(clean.preventDefault).not.toHaveBeenCalled(); // another window's unsaved changes are not this one's
+    await fake.ipcHandlers.get(CHANNELS.setDirty)!(other, false);
     const close = () => { const ev = { preventDefault: vi.fn() }; w.events.emit('close', ev); return ev.preventDefault.mock.calls.length > 0; };
     expect(await fake.ipcHandlers.get(CHANNELS.setDirty)!(own, true)).toEqual({ ok: true, value: undefined });
     e.dialog.showMessageBoxSync.mockReturnValueOnce(2); // Cancel
@@ -144,6 +156,36 @@ describe('main process', () => {
     expect(close()).toBe(true);
     expect(w.close).toHaveBeenCalledTimes(1);
     await fake.ipcHandlers.get(CHANNELS.setDirty)!(own, false);
+  });
+
+  it('keeps recovery copies per window, and offers a reloaded page its previous page\'s copy', async () => {
+    const w = fake.windows[0]!;
+    const own = { senderFrame: { url: APP_ENTRY_URL, parent: null }, sender: { id: w.contents.id } };
+    const other = { ...own, sender: { id: 42 } };
+    const call = (ev: unknown, ch: string, ...args: unknown[]) => fake.ipcHandlers.get(ch)!(ev, ...args);
+    expect(await call(own, CHANNELS.autosave, '{"copy":"of window 1"}')).toEqual({ ok: true, value: undefined });
+    expect(await call(other, CHANNELS.recoverAutosave)).toEqual({ ok: true, value: null }); // a live copy
+    w.contents.emit('did-navigate'); // the renderer crashed and the window reloaded
+    expect(await call(own, CHANNELS.recoverAutosave)).toMatchObject({ ok: true, value: { text: '{"copy":"of window 1"}' } });
+    expect(await call(own, CHANNELS.discardRecovered)).toEqual({ ok: true, value: undefined });
+    expect(await call(own, CHANNELS.recoverAutosave)).toEqual({ ok: true, value: null });
+  });
+
+  it('asks with a native question before an added extension replaces a file', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'roundwise-index-'));
+    try {
+      const own = { senderFrame: { url: APP_ENTRY_URL, parent: null } };
+      writeFileSync(join(dir, 'county.csv'), 'keep me');
+      e.dialog.showSaveDialog.mockResolvedValueOnce({ canceled: false, filePath: join(dir, 'county') }).mockResolvedValueOnce({ canceled: true });
+      e.dialog.showMessageBox.mockResolvedValueOnce({ response: 1 }); // Cancel
+      expect(await fake.ipcHandlers.get(CHANNELS.exportFile)!(own, 'report', 'csv', 'a,b\n')).toEqual({ ok: true, value: null });
+      const [, opts] = e.dialog.showMessageBox.mock.calls.at(-1) as unknown as [unknown, { message: string; buttons: string[] }];
+      expect(opts.message).toBe('"county.csv" already exists. Replace it?');
+      expect(opts.buttons).toEqual(['Replace', 'Cancel']);
+      expect(readFileSync(join(dir, 'county.csv'), 'utf8')).toBe('keep me');
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   });
 
   it('installs a native menu that sends commands to the window', () => {

@@ -29,7 +29,7 @@ describe('preload', () => {
   it('exposes one object, with the contract methods only', () => {
     expect(fake.electron.contextBridge.exposeInMainWorld).toHaveBeenCalledTimes(1);
     expect(Object.keys(fake.exposed)).toEqual(['roundwise']);
-    expect(Object.keys(bridge).sort()).toEqual(['autosave', 'exportFile', 'mode', 'onMenu', 'openFile', 'openRecent', 'recentProjects', 'recoverAutosave', 'saveProject', 'setDirty'].sort());
+    expect(Object.keys(bridge).sort()).toEqual(['autosave', 'discardRecovered', 'exportFile', 'mode', 'onMenu', 'openFile', 'openRecent', 'recentProjects', 'recoverAutosave', 'saveProject', 'setDirty'].sort());
     expect(bridge.mode).toBe('desktop');
     for (const v of Object.values(bridge)) expect(v).not.toBe(fake.electron.ipcRenderer);
   });
@@ -41,6 +41,7 @@ describe('preload', () => {
     expect(await bridge.exportFile('r', 'csv', 'a')).toEqual({ channel: CHANNELS.exportFile, args: ['r', 'csv', 'a'] });
     expect(await bridge.openRecent('/a/p.roundwise')).toEqual({ channel: CHANNELS.openRecent, args: ['/a/p.roundwise'] });
     expect(await bridge.autosave(null)).toEqual({ channel: CHANNELS.autosave, args: [null] });
+    expect(await bridge.discardRecovered()).toEqual({ channel: CHANNELS.discardRecovered, args: [] });
     bridge.setDirty(true);
     expect(fake.invoke).toHaveBeenLastCalledWith(CHANNELS.setDirty, true);
   });

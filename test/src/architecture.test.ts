@@ -52,7 +52,7 @@ describe('engine layers import downward only', () => {
   it('orders the engine folders diagnostics/schema → … → study → cli', () => {
     expect(ENGINE_LAYERS).toEqual([
       ['diagnostics', 'schema'], ['csv', 'linalg', 'bridge'], ['table'], ['model'], ['scenario', 'regional'],
-      ['report', 'project'], ['study'], ['cli'],
+      ['report', 'project'], ['study', 'node-io'], ['cli'],
     ]);
   });
   it.each([
@@ -138,5 +138,13 @@ describe('front ends through one engine layer (prepared, switched on by FRONT_EN
   });
   it('is not switched on yet: the UI may still import other engine folders', async () => {
     expect(await ruleIds(importing('../src/model/index.ts'), 'renderer/ok.ts')).toEqual([]);
+  });
+  it('keeps src/node-io (Node file I/O) for the CLI and main/ only', async () => {
+    const fsImport = "import { readFileSync } from 'node:fs';\nexport const y = readFileSync;\n";
+    expect(await ruleIds(fsImport, 'src/node-io/ok.ts')).toEqual([]);
+    expect(await ruleIds("import { writeFileAtomic } from '../node-io/index.ts';\nexport const y = writeFileAtomic;\n", 'src/cli/ok.ts')).toEqual([]);
+    expect(await ruleIds("import { writeFileAtomic } from '../src/node-io/index.ts';\nexport const y = writeFileAtomic;\n", 'main/ok.ts')).toEqual([]);
+    expect(await ruleIds("import { writeFileAtomic } from '../node-io/index.ts';\nexport const y = writeFileAtomic;\n", 'src/model/bad.ts')).toContain('no-restricted-imports');
+    expect(await ruleIds("import { writeFileAtomic } from '../../src/node-io/index.ts';\nexport const y = writeFileAtomic;\n", 'renderer/state/bad.ts')).toContain('no-restricted-imports');
   });
 });

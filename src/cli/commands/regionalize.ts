@@ -1,29 +1,12 @@
 /**
- * `roundwise regionalize NATIONAL.csv --employment EMP.csv --method slq|cilq|flq [--delta 0.3] [--map MAP.json] [--json] [--out DIR]`
- * Estimates a county table from a national one with location quotients (src/regional).
+ * `roundwise regionalize NATIONAL.csv --employment EMP.csv --method slq|cilq|flq`: estimates a county table from a
+ * national one with location quotients (src/regional).
  */
-import { InputError } from '../../diagnostics/index.ts';
 import { CAUTIONS, aboutText, reportFiles, type ReportMeta, type ReportFile } from '../../report/index.ts';
 import { importTable, writeTableCsv } from '../../table/index.ts';
-import { LQ_METHODS, parseEmploymentCsv, regionalize, type LqMethod, type RegionalResult } from '../../regional/index.ts';
-import type { CliIO } from '../io.ts';
-import { num, numberOption, parseCommandArgs, readInput, readRoleMap, requireOne, requireOption, sha256, textTable, writeAll } from './regional-shared.ts';
-
-export const USAGE = 'roundwise regionalize NATIONAL.csv --employment EMP.csv --method slq|cilq|flq [--delta 0.3] [--map MAP.json] [--json] [--out DIR]';
-
-const HELP = `${USAGE}
-
-Estimates a county input-output table from a national (or state) table and county employment by sector.
-  NATIONAL.csv        the larger table, in any layout roundwise analyze reads
-  --employment EMP    CSV sector,regional,national: jobs in the county and the nation (labels as in the table);
-                      the national column may be left out when the table has an Employment row
-  --method M          slq (simple), cilq (cross-industry) or flq (Flegg) location quotients
-  --delta D           FLQ exponent, 0 to 1 (default 0.3; Flegg & Tohmo 2013 report 0.25-0.35 fitting survey tables)
-  --map MAP.json      role overrides for the national table's rows and columns
-  --json              print the result as one JSON object (sectors, slq, lambda, coefficients, absent, ...)
-  --out DIR           write regional-table.csv (reads back with roundwise analyze), location-quotients.csv,
-                      regional-coefficients.csv, each with an .about.txt of notes and cautions
-`;
+import { LQ_METHODS, parseEmploymentCsv, regionalize as regionalizeTable, type LqMethod, type RegionalResult } from '../../regional/index.ts';
+import { defineCommand } from '../command.ts';
+import { num, textTable } from '../terminal.ts';
 
 export function regionalJson(res: RegionalResult) {
   const n = res.sectors.length;
@@ -83,46 +66,37 @@ function summary(res: RegionalResult): string {
   return lines.join('\n');
 }
 
-export async function run(args: string[], io: CliIO): Promise<number> {
-  const { values, positionals } = parseCommandArgs(args, {
-    employment: { type: 'string' },
-    method: { type: 'string' },
-    delta: { type: 'string' },
-    map: { type: 'string' },
-    json: { type: 'boolean' },
-    out: { type: 'string' },
-    help: { type: 'boolean', short: 'h' },
-  }, USAGE);
-  if (values.help) {
-    io.stdout(HELP);
-    return 0;
-  }
-  const nationalPath = requireOne(positionals, 'national table', USAGE);
-  const empPath = requireOption(values.employment, 'employment', USAGE);
-  const method = requireOption(values.method, 'method', USAGE);
-  if (!(LQ_METHODS as readonly string[]).includes(method)) throw new InputError('usage', `--method must be slq, cilq or flq (got '${method}')`);
-  const delta = numberOption(values.delta, 'delta');
-  if (delta !== undefined && method !== 'flq') throw new InputError('usage', '--delta applies to --method flq only');
-
-  const roles = readRoleMap(values.map);
-  const text = readInput(nationalPath);
-  const national = importTable(text, { fileName: nationalPath, ...(roles ? { roles } : {}) });
-  const emp = parseEmploymentCsv(readInput(empPath), empPath);
-  const res = regionalize(national, emp, { method: method as LqMethod, ...(delta !== undefined ? { delta } : {}) });
-
-  let files: string[] | undefined;
-  if (values.out) {
+export const regionalize = defineCommand({
+  name: 'regionalize',
+  summary: 'estimate a county input-output table from a national (or state) one and county employment by sector, with location quotients',
+  positional: { name: 'NATIONAL.csv', help: 'the larger table, in any layout roundwise analyze reads' },
+  options: {
+    employment: { type: 'string', value: 'EMP.csv', required: true, help: 'CSV sector,regional,national: jobs in the county and the nation (labels as in the table); national may be left out when the table has an Employment row' },
+    method: { type: 'string', value: 'M', required: true, choices: LQ_METHODS, help: 'slq (simple), cilq (cross-industry) or flq (Flegg) location quotients' },
+    delta: { type: 'number', value: 'D', help: 'FLQ exponent δ, 0 to 1 (default 0.3; Flegg & Tohmo 2013 report 0.25–0.35 fitting survey tables)', check: (d) => (d >= 0 && d <= 1 ? null : 'must lie between 0 and 1') },
+    map: { type: 'string', value: 'MAP.json', help: 'role overrides for the national table\'s rows and columns' },
+  },
+  outHelp: 'write regional-table.csv (reads back with roundwise analyze), location-quotients.csv and regional-coefficients.csv, each with an .about.txt of notes and cautions',
+  async run({ input, values }, ctx) {
+    const method = values.method as LqMethod;
+    if (values.delta !== undefined && method !== 'flq') throw ctx.usageError('--delta applies to --method flq only');
+    const roles = ctx.roleMap(values.map);
+    const file = ctx.input(input);
+    const national = importTable(file.text, { fileName: input, ...(roles ? { roles } : {}) });
+    const emp = parseEmploymentCsv(ctx.input(values.employment).text, values.employment);
+    const res = regionalizeTable(national, emp, { method, ...(values.delta !== undefined ? { delta: values.delta } : {}) });
     const meta = {
       tableName: res.table.name,
-      sourceFile: nationalPath,
-      sourceHash: sha256(text),
+      sourceFile: file.name,
+      sourceHash: file.sha256,
       modelType: `regional table estimated from a national one (${method.toUpperCase()} location quotients)`,
-      date: new Date().toISOString(),
+      date: ctx.date,
       moneyUnit: res.table.moneyUnit,
     };
-    files = writeAll(values.out, outputFiles(res, meta));
-  }
-  if (values.json) io.stdout(`${JSON.stringify({ ...regionalJson(res), ...(files ? { files } : {}) })}\n`);
-  else io.stdout(summary(res) + (files ? `Wrote ${files.join(', ')}\n` : ''));
-  return 0;
-}
+    return {
+      summary: () => summary(res),
+      json: () => regionalJson(res),
+      reports: outputFiles(res, meta),
+    };
+  },
+});

@@ -51,7 +51,10 @@ class FakePage {
       removeEventListener: (t: string, fn: Listener) => { page.winListeners.set(t, (page.winListeners.get(t) ?? []).filter((f) => f !== fn)); },
       setTimeout: () => 0,
     };
-    return { window: win as unknown as Window, document: doc as unknown as Document, storage: storage as unknown as Storage, isMac: false, now: () => new Date('2026-05-01T12:00:00Z') };
+    const now = () => new Date('2026-05-01T12:00:00Z');
+    // Recovery copies have their own tests (recovery-slots.test.ts); here the store is absent.
+    const recovery = { store: null, locks: null, session: null, newId: () => 'page', now };
+    return { window: win as unknown as Window, document: doc as unknown as Document, storage: storage as unknown as Storage, isMac: false, now, recovery };
   }
   key(key: string, mods: { ctrlKey?: boolean; shiftKey?: boolean; metaKey?: boolean } = {}) {
     const ev = { key, ctrlKey: false, metaKey: false, shiftKey: false, altKey: false, ...mods, preventDefault: vi.fn(), stopPropagation: vi.fn() };
@@ -145,13 +148,10 @@ describe('unsaved changes and recovery', () => {
     bridge.setDirty(false);
     expect(leave()).toBe(false);
   });
-  it('keeps and clears the recovery copy, and ignores a damaged one', async () => {
-    expect(await bridge.recoverAutosave()).toBeNull();
-    await bridge.autosave('{"unsaved":true}');
-    expect(await createBrowserBridge(page.env()).recoverAutosave()).toEqual({ name: 'Recovered project', text: '{"unsaved":true}', size: 16 });
-    await bridge.autosave(null);
-    expect(await bridge.recoverAutosave()).toBeNull();
-    page.store.set(STORAGE_KEYS.autosave, '{broken');
+  it('keeps no recovery copy in localStorage, and says so when it has nowhere to keep one', async () => {
+    await expect(bridge.autosave('{"unsaved":true}')).rejects.toThrowError(/IndexedDB is unavailable/);
+    expect([...page.store.keys()]).toEqual([]);
+    page.store.set(STORAGE_KEYS.legacyAutosave, '{broken');
     expect(await bridge.recoverAutosave()).toBeNull();
   });
 });

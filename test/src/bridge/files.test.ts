@@ -16,6 +16,6 @@ describe('file names', () => {
   it('states sizes in binary units', () => {
     expect(formatBytes(512)).toBe('512 bytes');
     expect(formatBytes(1536)).toBe('1.5 KB');
-    expect(formatBytes(MAX_OPEN_BYTES)).toBe('128.0 MB');
+    expect(formatBytes(MAX_OPEN_BYTES)).toBe('200.0 MB');
   });
 });

@@ -5,6 +5,8 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { mkdtempSync, rmSync, writeFileSync, truncateSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { writeFileAtomic } from '../../../src/cli/io.ts';
+import * as nodeIo from '../../../src/node-io/index.ts';
 import { MAX_TABLE_BYTES } from '../../../src/table/index.ts';
 import { runCli } from '../../support/cli.ts';
 
@@ -36,5 +38,8 @@ describe('CLI input files', () => {
     const missing = await run('analyze', join(dir, 'absent.csv'));
     expect(missing.code).toBe(2);
     expect(missing.err).toMatch(/absent\.csv: no such file/);
+  });
+  it('writes through the shared Node I/O writer', () => {
+    expect(writeFileAtomic).toBe(nodeIo.writeFileAtomic);
   });
 });

@@ -181,8 +181,9 @@ export function nonFiniteText(text: string): string[] {
 }
 
 /** A refused CLI run: non-zero exit, nothing on stdout, a 1–3 line message on stderr naming the command, no stack trace. */
-export function expectCliRefusal(r: { code: number; out: string; err: string }, command: string): void {
-  expect(r.code, r.err).toBe(2);
+/** A refusal as the CLI prints it: exit 2 for refused input (1 for a usage mistake), one to three lines, no trace. */
+export function expectCliRefusal(r: { code: number; out: string; err: string }, command: string, exitCode: 1 | 2 = 2): void {
+  expect(r.code, r.err).toBe(exitCode);
   expect(r.out).toBe('');
   expect(r.err.startsWith(`roundwise ${command}: `), r.err).toBe(true);
   expect(r.err.endsWith('\n')).toBe(true);

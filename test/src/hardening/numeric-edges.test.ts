@@ -108,12 +108,58 @@ describe('numerical edges', () => {
     expect(analysed.warnings).toMatch(/I − A is ill-conditioned \(condition estimate 2\.00e\+12/);
   });
 
+  it('Perron root certified below 1 but within about 4e-15 of it: analysis and scenario finish, and say the rounds are not practically convergent, with the numbers', async () => {
+    const { analysis, analysed } = await expectFiniteEverywhere('nearUnitRoot');
+    const v = analysed.an.viability;
+    // ρ(A) = 1 − 4e-15 (eigenvalues of a symmetric 2×2, 0.5 ± (0.5 − 4e-15)); the certified bounds enclose it below 1
+    expect(v.perronRootBounds[1]).toBeLessThan(1);
+    expect(1 - v.perronRootBounds[0]).toBeLessThan(1e-14);
+    expect(v.productive).toBe(true);
+    expect(v.roundsToTolerance).toBeNull();
+    const series = analysed.an.series;
+    expect(series.converges).toBe(false);
+    if (!series.converges) {
+      expect(series.kind).toBe('too-slow');
+      expect(series.roundsEstimate!).toBeGreaterThan(1e15); // log(1e-6·(1 − β))/log β with 1 − β ≈ 3.6e-15
+    }
+    const warn = analysed.an.warnings.find((w) => w.code === 'not-practically-convergent');
+    expect(warn?.message).toMatch(/not practically convergent: the rounds die out, but about 1\.\d+e\+16 rounds \(more than 1,000,000\)/);
+    expect(warn?.message).toMatch(/1 − β = 3\.\d+e-15/);
+    expect(analysed.warnings).toMatch(/not practically convergent/);
+    expect(analysed.warnings).toMatch(/I − A is ill-conditioned/);
+    expect(analysis.result.notes.join('\n')).toMatch(/I − A is ill-conditioned/);
+    // the scenario's own rounds stop at their cap instead of reaching 99.9 %
+    expect(analysis.rounds.rounds.length).toBe(200);
+    expect(analysis.rounds.reach.at(-1)!.rounds).toBeNull();
+  });
+
   it('household-closed model with ρ(Ā) = 1: open effects only, with a note; the analysis leaves Type II undefined', async () => {
     const { analysis, analysed } = await expectFiniteEverywhere('closedSingular');
     expect(analysis.result.closure).toBe('none');
     expect(analysis.result.effects.output.induced).toBeNull();
-    expect(analysis.result.notes.join('\n')).toMatch(/household-closed model is not productive/);
+    expect(analysis.result.notes.join('\n')).toMatch(/no Type II model: the household-closed model is on the edge of productivity/);
     expect(analysed.json.viability).toMatchObject({ productive: true, closedProductive: false });
+  });
+
+  it('household consumption the only final demand (ρ(Ā) = 1 exactly, s of rounding size): scenario and analysis agree there is no Type II model; no induced effect anywhere', async () => {
+    // a scenario on a freshly prepared table (no analysis run on it first) decides the same way as the analysis
+    const pm = prepareModel(importTable(EDGE_TABLES.householdsOnly, { fileName: 'householdsOnly.csv' }));
+    const fresh = runScenario(pm, shockA);
+    expect(fresh.closure).toBe('none');
+    expect(fresh.effects.output.induced).toBeNull();
+    expect(fresh.notes.join('\n')).toMatch(/There is no Type II model: the household-closed model is on the edge of productivity \(Perron root bounds 0\.9{10,}\d*–1\.0{10,}\d*; Schur complement s = \S+, rounding bound \S+e-1\d\)/);
+    const { analysis, analysed, json } = await expectFiniteEverywhere('householdsOnly');
+    expect(analysis.result.closure).toBe('none');
+    expect(analysed.an.viability).toMatchObject({ productive: true, closedProductive: false, closedModel: { usable: false, status: 'within-rounding' } });
+    expect(analysed.an.multipliers.output.typeII.every((m) => m === null)).toBe(true);
+    expect(analysed.warnings).toMatch(/household-closed model is on the edge of productivity/);
+    const cm = analysed.an.viability.closedModel;
+    expect(Math.abs(cm.schur!)).toBeLessThanOrEqual(cm.schurRoundingBound!);
+    // the CLI: no induced effect, and nothing near the size a division by a rounding-size s gives (10^17 before)
+    const totals = json.totals as Record<string, { induced: number | null; total: number }>;
+    expect(totals.output!.induced).toBeNull();
+    for (const v of Object.values(totals)) if (v) expect(Math.abs(v.total)).toBeLessThan(1e4);
+    expect(json.closure).toBe('none');
   });
 
   it('periodic (period 2) and reducible matrices: results finite, spending rounds converge', async () => {

@@ -16,11 +16,15 @@ describe('found by the property tests', () => {
     expect(formatLocated(e!)).toMatch(/^cr\.csv:\d+:2 \(row 'B\\[rn]1', column 'A'\): 'x' is not a number$/);
   });
 
-  it('control characters are shown escaped (labels entirely; messages keep only their own line breaks)', () => {
-    const e = new InputError('t', "'a\tb\u0000\r' is not a number", { file: 'f.csv', line: 1, rowLabel: 'x\ny' });
+  it('control and bidi characters are shown escaped wherever they are, whatever the quote marks around them', () => {
+    const e = new InputError('non-numeric', "'a\tb\u0000\r' is not a number", { file: 'f.csv', line: 1, rowLabel: 'x\ny' });
     expect(formatLocated(e)).toBe("f.csv:1 (row 'x\\ny'): 'a\\tb\\u0000\\r' is not a number");
-    // A message's own line break (a usage hint below it) is kept.
-    expect(formatLocated(new InputError('usage', 'no table given\nusage: roundwise …'))).toBe('no table given\nusage: roundwise …');
+    // An odd number of quote marks (an apostrophe in the text) no longer decides what is escaped.
+    expect(formatLocated(new InputError('non-numeric', "it's 'a\u001b[2Jb' and\nmore"))).toBe("it's 'a\\u001b[2Jb' and\\nmore");
+    // A right-to-left override in a label cannot reverse the rest of the line.
+    expect(formatLocated(new InputError('unknown-sector', 'unknown sector', { rowLabel: 'Farm\u202eing' }))).toBe("(row 'Farm\\u202eing'): unknown sector");
+    // Our own hint (a usage line) goes on its own line, below the one-line message.
+    expect(formatLocated(new InputError('usage', "unknown option '--x'", {}, 'usage: roundwise …'))).toBe("unknown option '--x'\nusage: roundwise …");
   });
 
   it('a flow table whose inter-industry block is all zero is not read as a coefficients table', () => {

@@ -1,7 +1,7 @@
 // The power-series certificate: rigorous, minimal, and honest about divergence.
 import { describe, it, expect } from 'vitest';
 import { inv } from 'mathjs';
-import { certificate, roundByRound, roundsFor, seriesVerdict } from '../../../src/model/rounds.ts';
+import { certificate, MAX_ROUNDS, roundByRound, roundsFor, seriesVerdict } from '../../../src/model/rounds.ts';
 
 const flat = (a: number[][]) => Float64Array.from(a.flat());
 
@@ -26,11 +26,41 @@ describe('power series', () => {
     for (const beta of [0.1, 0.5, 0.9, 0.999]) {
       const cert = { v: Float64Array.of(1), beta, spread: 3, source: 'row sums' as const };
       for (const tol of [1e-3, 1e-6, 1e-12]) {
-        const k = roundsFor(cert, tol);
+        const k = roundsFor(cert, tol)!;
         expect((3 * beta ** (k + 1)) / (1 - beta)).toBeLessThanOrEqual(tol);
         if (k > 0) expect((3 * beta ** k) / (1 - beta)).toBeGreaterThan(tol);
       }
     }
+  });
+
+  it('a contraction rate within rounding of 1 gives null (more than MAX_ROUNDS rounds), not a loop that k++ cannot end', () => {
+    // 2⁵³ + 1 is not a double: past 2⁵³ rounds, k++ leaves k unchanged, so a stepping loop there never ends
+    for (const beta of [1 - 2 ** -52, 1 - 4e-15, 1 - 1e-9, 1 - 1e-6]) {
+      const cert = { v: Float64Array.of(1), beta, spread: 1, source: 'row sums' as const };
+      expect(roundsFor(cert, 1e-6)).toBeNull();
+    }
+    // just inside the cap: the least k, as before (k + 1 ≥ log(tol(1 − β))/log β)
+    const cert = { v: Float64Array.of(1), beta: 0.9999, spread: 1, source: 'row sums' as const };
+    const k = roundsFor(cert, 1e-6)!;
+    expect(k).toBeLessThanOrEqual(MAX_ROUNDS);
+    expect(0.9999 ** (k + 1) / 1e-4).toBeLessThanOrEqual(1e-6);
+    expect(0.9999 ** k / 1e-4).toBeGreaterThan(1e-6);
+    expect(k).toBeGreaterThan(200_000); // log(1e-10)/log(0.9999) ≈ 230,247
+    expect(roundsFor(cert, 1e-6, 1000)).toBeNull();
+    expect(() => roundByRound(Float64Array.of(0.5), 1, Float64Array.of(1), 2 ** 53, null)).toThrow(RangeError);
+  });
+
+  it('ρ(A) certified below 1 but within 4e-15: "not practically convergent", with the certificate and an estimate of the rounds', () => {
+    const a = flat([[0.5, 0.5 - 4e-15], [0.5 - 4e-15, 0.5]]); // eigenvalues 0.5 ± (0.5 − 4e-15)
+    const v = seriesVerdict(a, 2, { perron: Float64Array.of(0.5, 0.5) }, 1e-6, 1 - 5e-15);
+    expect(v.converges).toBe(false);
+    if (v.converges) return;
+    expect(v.kind).toBe('too-slow');
+    expect(v.certificate!.beta).toBeLessThan(1);
+    // rounds ≈ log(1e-6·(1 − β))/log β ≈ 47/4e-15 ≈ 1.2e16 (β from the row sums, widened for rounding)
+    expect(v.roundsEstimate!).toBeGreaterThan(1e16);
+    expect(v.roundsEstimate!).toBeLessThan(2e16);
+    expect(v.reason).toMatch(/^not practically convergent/);
   });
 
   it('says "does not converge" instead of producing an infinite bound when ρ ≥ 1', () => {

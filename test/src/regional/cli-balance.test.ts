@@ -58,10 +58,18 @@ describe('roundwise balance', () => {
     expect(existsSync(out)).toBe(false);
   });
 
-  it('refuses usage mistakes and unreadable files with one short message', async () => {
-    expect((await cli('balance', f('flows.csv'), '--rows', f('flow-rows.csv'))).err).toMatch(/--columns is required/);
-    expect((await cli('balance', f('flows.csv'), '--rows', f('flow-rows.csv'), '--columns', f('flow-columns.csv'), '--tolerance', 'tiny')).err).toMatch(/--tolerance must be a number/);
-    expect((await cli('balance', f('flows.csv'), '--bogus')).err).toMatch(/Unknown option '--bogus'/);
+  it('refuses usage mistakes (exit 1) and unreadable files (exit 2) with one short message', async () => {
+    const usage = [
+      [await cli('balance', f('flows.csv'), '--rows', f('flow-rows.csv')), /--columns COLS\.csv is required/],
+      [await cli('balance', f('flows.csv'), '--rows', f('flow-rows.csv'), '--columns', f('flow-columns.csv'), '--tolerance', 'tiny'), /--tolerance must be a number \(got 'tiny'\)/],
+      [await cli('balance', f('flows.csv'), '--rows', f('flow-rows.csv'), '--columns', f('flow-columns.csv'), '--max-iterations', '2.5'), /--max-iterations must be a positive whole number/],
+      [await cli('balance', f('flows.csv'), '--bogus'), /unknown option '--bogus'/],
+    ] as const;
+    for (const [r, message] of usage) {
+      expect(r.code).toBe(1);
+      expect(r.err).toMatch(message);
+      expect(r.err).toMatch(/\nusage: roundwise balance MATRIX\.csv --rows ROWS\.csv --columns COLS\.csv /);
+    }
     const missing = await cli('balance', f('nope.csv'), '--rows', f('flow-rows.csv'), '--columns', f('flow-columns.csv'));
     expect(missing.code).toBe(2);
     expect(missing.err).toMatch(/nope\.csv: no such file/);

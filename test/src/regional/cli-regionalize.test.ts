@@ -86,15 +86,24 @@ describe('roundwise regionalize', () => {
     expect(nn.err.trim().split('\n')).toHaveLength(1);
   });
 
-  it('refuses δ outside [0, 1], an unknown method, δ with slq, and writes nothing', async () => {
+  it('refuses δ outside [0, 1], an unknown method, δ with slq as usage mistakes (exit 1, usage on its own line), and writes nothing', async () => {
     const out = join(dir, 'refused');
     const d = await cli('regionalize', f('three-nation.csv'), '--employment', f('three-employment.csv'), '--method', 'flq', '--delta', '1.2', '--out', out);
-    expect(d.code).toBe(2);
-    expect(d.err).toMatch(/δ must lie between 0 and 1 \(got 1\.2\)/);
+    expect(d.code).toBe(1);
+    expect(d.err).toMatch(/--delta must lie between 0 and 1 \(got '1\.2'\)/);
     expect(existsSync(out)).toBe(false);
-    expect((await cli('regionalize', f('three-nation.csv'), '--employment', f('three-employment.csv'), '--method', 'lq')).err).toMatch(/--method must be slq, cilq or flq/);
-    expect((await cli('regionalize', f('three-nation.csv'), '--employment', f('three-employment.csv'), '--method', 'slq', '--delta', '0.3')).err).toMatch(/--delta applies to --method flq only/);
-    expect((await cli('regionalize', f('three-nation.csv'), '--method', 'slq')).err).toMatch(/--employment is required/);
+    const others = [
+      [await cli('regionalize', f('three-nation.csv'), '--employment', f('three-employment.csv'), '--method', 'lq'), /--method must be slq, cilq or flq \(got 'lq'\)/],
+      [await cli('regionalize', f('three-nation.csv'), '--employment', f('three-employment.csv'), '--method', 'slq', '--delta', '0.3'), /--delta applies to --method flq only/],
+      [await cli('regionalize', f('three-nation.csv'), '--method', 'slq'), /--employment EMP\.csv is required/],
+    ] as const;
+    for (const [r, message] of others) {
+      expect(r.code).toBe(1);
+      expect(r.err).toMatch(message);
+      // The usage line is a line of its own, not an escaped "\n  usage:" inside the message.
+      expect(r.err.split('\n')[1]).toMatch(/^usage: roundwise regionalize NATIONAL\.csv --employment EMP\.csv --method slq\|cilq\|flq /);
+      expect(r.err).not.toContain('\\n');
+    }
   });
 
   it('--map goes through the table importer\'s role-map check', async () => {

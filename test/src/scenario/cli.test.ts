@@ -123,14 +123,15 @@ describe('roundwise scenario', () => {
     expect(unknown.code).toBe(2);
     expect(unknown.err).toMatch(/shock-unknown\.csv:3 \(row 'Quarries'\): unknown sector 'Quarries'/);
     expect(unknown.err).not.toMatch(/at .*\.ts:\d+/);
+    // A missing option is a usage mistake: exit 1, the usage line below the message.
     const noShock = await cli(fx('table.csv'));
-    expect(noShock.code).toBe(2);
-    expect(noShock.err).toMatch(/--shock SHOCK\.csv is required/);
+    expect(noShock.code).toBe(1);
+    expect(noShock.err).toMatch(/^roundwise scenario: --shock SHOCK\.csv is required\nusage: roundwise scenario TABLE\.csv --shock SHOCK\.csv /);
     const missing = await cli(join(dir, 'nope.csv'), '--shock', fx('shock.csv'));
     expect(missing.code).toBe(2);
     expect(missing.err).toMatch(/nope\.csv: no such file/);
     const badMap = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('shock.csv'));
     expect(badMap.code).toBe(2);
-    expect(badMap.err).toMatch(/role map is not valid JSON/);
+    expect(badMap.err).toMatch(/shock\.csv(:\d+:\d+)?: the role map is not valid JSON/);
   });
 });
