@@ -12,6 +12,10 @@ import {
 import { coefficients } from './coefficients.ts';
 import { closedBorder, prepareModel, solveClosed, type PreparedModel } from './prepared.ts';
 import { decideClosedModel, rememberClosedModelDecision, type ClosedModelDecision } from './closed-model.ts';
+import {
+  implausibleMultipliers, implausibleMultiplierWarning, negativeValueAdded, negativeValueAddedWarning,
+  type ImplausibleMultiplier, type NegativeValueAdded,
+} from './plausibility.ts';
 import { sectorBlocks } from './graph.ts';
 import { perronRoot, type PerronOptions } from './perron.ts';
 import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
@@ -79,6 +83,11 @@ export interface Viability {
   spectrumNote: string | null;
   /** A has negative entries: Perron–Frobenius and Hawkins–Simon ⇔ ρ < 1 do not apply as such. */
   negativeFlows: boolean;
+  /**
+   * Sectors whose value added x_j − Σ_i z_ij − m_j is negative (plausibility.ts), with the numbers; empty when none.
+   * Not part of `productive` (a table can be productive with such a sector), but warned about by name.
+   */
+  negativeValueAdded: NegativeValueAdded[];
 }
 
 export interface AccuracyChecks {
@@ -115,6 +124,8 @@ export interface Analysis {
   viability: Viability;
   series: SeriesVerdict;
   multipliers: Multipliers;
+  /** Output multipliers above MULTIPLIER_PLAUSIBILITY (Type I 4, Type II 6), by measure, largest first; empty when none. */
+  implausibleMultipliers: ImplausibleMultiplier[];
   linkages: Linkages;
   /** Explicit L = (I − A)⁻¹, n×n row-major, only when asked for (`inverse: true`) and the table is productive. */
   leontief: Float64Array | null;
@@ -177,7 +188,9 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   const { table, coef, closed, openLU } = pm;
   const { n, A, sectors } = coef;
   const tolerance = opts.tolerance ?? 1e-6;
-  const warnings: Warning[] = [...table.warnings];
+  // The importer's inputs-exceed-output note is superseded by the analysis's own finding (with each sector's value added).
+  const valueAddedFindings = negativeValueAdded(coef);
+  const warnings: Warning[] = table.warnings.filter((w) => !(w.code === 'inputs-exceed-output' && valueAddedFindings.length > 0));
   const warn = (code: string, message: string): void => { warnings.push({ code, message }); };
 
   const negativeFlows = hasNegative(A);
@@ -252,6 +265,9 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   };
   const multipliers = computeMultipliers(pm, avail);
   const linkages = computeLinkages(pm, multipliers.output.typeI, avail);
+  if (valueAddedFindings.length) warn('negative-value-added', negativeValueAddedWarning(valueAddedFindings, table.moneyUnit));
+  const highMultipliers = implausibleMultipliers(multipliers, sectors);
+  for (const flag of highMultipliers) warn('implausible-multiplier', implausibleMultiplierWarning(flag));
 
   // Accuracy checks on the factorisation.
   let condition: number | null = null;
@@ -331,6 +347,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     spectrum: modes,
     spectrumNote,
     negativeFlows,
+    negativeValueAdded: valueAddedFindings,
   };
 
   return {
@@ -351,6 +368,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
     viability,
     series,
     multipliers,
+    implausibleMultipliers: highMultipliers,
     linkages,
     leontief,
     checks: { solveResidual: residual, inverseResidual, closedSolveResidual: closedResidual, condition, residualThreshold: RESIDUAL_THRESHOLD },

@@ -7,6 +7,7 @@ export * from './graph.ts';
 export * from './hawkins.ts';
 export * from './multipliers.ts';
 export * from './perron.ts';
+export * from './plausibility.ts';
 export * from './prepared.ts';
 export * from './rounds.ts';
 export * from './spectrum.ts';

@@ -21,7 +21,8 @@ export interface PerronOptions {
   tolerance?: number;
   /**
    * Iteration cap per block (default: 2000 steps, fewer on large blocks so no block costs more than about 4·10⁸
-   * multiply-adds, i.e. 100 steps at n = 2000). The bounds stay certified when it is hit; they are only wider.
+   * multiply-adds, i.e. 100 steps at n = 2000), never more than PERRON_MAX_STEPS. The bounds stay certified when it is
+   * hit; they are only wider.
    */
   maxIterations?: number;
   /** Blocks of the sector graph, when already computed. */
@@ -119,6 +120,9 @@ function rightProduct(b: Float64Array, m: number, v: Float64Array, av: Float64Ar
     av[i] = s0;
   }
 }
+
+/** No caller may ask for more power-iteration steps than this (a cap on `maxIterations`, so every run ends). */
+export const PERRON_MAX_STEPS = 100_000;
 
 /** Iteration cap for an m×m block: at most `work` multiply-adds, between 50 and 2000 steps. */
 function defaultCap(m: number, work = 4e8): number {
@@ -246,7 +250,7 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
       if (blocks.length === 1) single = { lower: d, upper: d, right: Float64Array.of(1), left: Float64Array.of(1), iterations: 0, converged: true };
       continue;
     }
-    const r = iterate(m === n ? a : subMatrix(a, n, blk.sectors), m, blk.period === 1 ? 0 : 1, tol, opts.maxIterations ?? defaultCap(m), opts.rightOnly ?? false);
+    const r = iterate(m === n ? a : subMatrix(a, n, blk.sectors), m, blk.period === 1 ? 0 : 1, tol, Math.min(opts.maxIterations ?? defaultCap(m), PERRON_MAX_STEPS), opts.rightOnly ?? false);
     iterations += r.iterations;
     converged &&= r.converged;
     if (r.lower > lower) lower = r.lower;
@@ -261,7 +265,7 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
   } else {
     // Reducible: whole-matrix vectors from the shifted iteration A + I (non-negative eigenvectors for ρ, not unique;
     // with a smaller work cap, since the bounds already come from the blocks).
-    const whole = iterate(a, n, 1, tol, opts.maxIterations ?? defaultCap(n, 1e8), opts.rightOnly ?? false, true);
+    const whole = iterate(a, n, 1, tol, Math.min(opts.maxIterations ?? defaultCap(n, 1e8), PERRON_MAX_STEPS), opts.rightOnly ?? false, true);
     iterations += whole.iterations;
     right = whole.right;
     left = whole.left;

@@ -12,3 +12,4 @@ export * from './matrix-csv.ts';
 export { readCsvRows, parseNumberCell } from './csv-input.ts';
 export * from './balance-table.ts';
 export * from './sample.ts';
+export * from './plausibility.ts';

@@ -4,7 +4,8 @@
  * and Input–Output Change, 1970; Miller & Blair, Input–Output Analysis, 2nd ed. 2009, §7.4). Each iteration scales
  * every row to its total, then every column to its total. Zeros stay zero (cells are only ever multiplied).
  * Before iterating, infeasible targets are refused: totals that disagree, a positive total on an all-zero row or column,
- * and any other zero pattern that cannot carry the totals (feasibility.ts).
+ * and any other zero pattern that cannot carry the totals (feasibility.ts). Not converging within the cap is refused
+ * too (RasConvergenceError, carrying the convergence report), so no front end can use a half-balanced matrix.
  */
 import { InputError } from '../diagnostics/index.ts';
 import { rasFeasibility } from './feasibility.ts';
@@ -40,8 +41,24 @@ export interface RasResult {
   maxIterations: number;
 }
 
+/** RAS stopped at its iteration cap with a gap above the tolerance: refused, with the report of how far it got. */
+export class RasConvergenceError extends InputError {
+  readonly report: RasResult;
+  constructor(report: RasResult, file: string | undefined) {
+    super(
+      'ras-not-converged',
+      `RAS did not converge within ${report.maxIterations} iterations (largest relative gap ${Number(Math.max(report.rowGap, report.columnGap).toPrecision(3))} > ${report.tolerance}); ` +
+        'slow convergence means the totals force some cells toward zero: raise the iteration cap or loosen the tolerance, or check the totals',
+      file !== undefined ? { file } : {},
+    );
+    this.report = report;
+  }
+}
+
 export const RAS_DEFAULT_TOLERANCE = 1e-10;
 export const RAS_DEFAULT_MAX_ITERATIONS = 10_000;
+/** The largest iteration cap a caller may ask for (so every run ends in reasonable time). */
+export const RAS_MAX_ITERATIONS = 1_000_000;
 
 /** |sum − target| / target, or / grand total for a zero target. */
 function relGap(sum: number, target: number, total: number): number {
@@ -101,7 +118,9 @@ export function ras(a0: Float64Array, m: number, n: number, u: Float64Array, v: 
   const tolerance = opts.tolerance ?? RAS_DEFAULT_TOLERANCE;
   const maxIterations = opts.maxIterations ?? RAS_DEFAULT_MAX_ITERATIONS;
   if (!(tolerance > 0) || !Number.isFinite(tolerance)) throw new InputError('ras-tolerance', `the tolerance must be a positive number (got ${tolerance})`, {});
-  if (!Number.isInteger(maxIterations) || maxIterations < 1) throw new InputError('ras-iterations', `the iteration cap must be a positive whole number (got ${maxIterations})`, {});
+  if (!Number.isInteger(maxIterations) || maxIterations < 1 || maxIterations > RAS_MAX_ITERATIONS) {
+    throw new InputError('ras-iterations', `the iteration cap must be a whole number from 1 to ${RAS_MAX_ITERATIONS.toLocaleString('en-US')} (got ${maxIterations})`, {});
+  }
   checkInputs(a0, m, n, u, v, opts, tolerance);
 
   let total = 0;
@@ -150,5 +169,7 @@ export function ras(a0: Float64Array, m: number, n: number, u: Float64Array, v: 
     [rowGap, columnGap] = gaps();
     history.push(Math.max(rowGap, columnGap));
   }
-  return { rows: m, columns: n, matrix: a, r, s, iterations, converged: Math.max(rowGap, columnGap) <= tolerance, rowGap, columnGap, history, tolerance, maxIterations };
+  const report: RasResult = { rows: m, columns: n, matrix: a, r, s, iterations, converged: Math.max(rowGap, columnGap) <= tolerance, rowGap, columnGap, history, tolerance, maxIterations };
+  if (!report.converged) throw new RasConvergenceError(report, opts.fileName);
+  return report;
 }

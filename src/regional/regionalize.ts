@@ -14,6 +14,7 @@ import { coefficients } from '../model/index.ts';
 import type { IOTable, LabelledVector, RoleMap } from '../table/index.ts';
 import type { EmploymentInput } from './employment.ts';
 import { DEFAULT_FLQ_DELTA, flqLambda, quotientMatrix, regionalCoefficients, simpleLQ, type LqMethod } from './quotients.ts';
+import { compareEstimate, type EstimateComparison } from './plausibility.ts';
 
 export interface RegionalizeOptions {
   method: LqMethod;
@@ -47,6 +48,8 @@ export interface RegionalResult {
   leakageValue: Float64Array;
   /** The county table, ready for analysis like any imported table. */
   table: IOTable;
+  /** The estimate against the national table and a plausible county range (plausibility.ts); its note is in `notes`. */
+  comparison: EstimateComparison;
   warnings: Warning[];
   /** Method notes for reports. */
   notes: string[];
@@ -211,6 +214,10 @@ export function regionalize(national: IOTable, emp: EmploymentInput, opts: Regio
     roles,
     warnings: [...warnings],
   };
+  // How the estimate compares with its source: always a note, and a warning when it lies outside the plausible range.
+  const { comparison, warning } = compareEstimate(national, table, Array.from(er, (v) => v > 0));
+  notes.push(comparison.note);
+  if (warning) { warnings.push(warning); table.warnings.push(warning); }
   return {
     method: opts.method,
     delta: opts.method === 'flq' ? delta : null,
@@ -226,6 +233,7 @@ export function regionalize(national: IOTable, emp: EmploymentInput, opts: Regio
     leakage,
     leakageValue,
     table,
+    comparison,
     warnings,
     notes,
   };

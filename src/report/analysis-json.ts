@@ -48,7 +48,18 @@ export function analysisJson(an: Analysis): { [k: string]: Json } {
       negativeFlows: v.negativeFlows,
       spectrum: v.spectrum ? v.spectrum.map((s) => ({ re: num(s.re), im: num(s.im), modulus: num(s.modulus), kind: s.kind })) : null,
       spectrumNote: v.spectrumNote,
+      closedModel: {
+        usable: v.closedModel.usable, status: v.closedModel.status, reason: v.closedModel.reason, accuracyNote: v.closedModel.accuracyNote,
+        schur: num(v.closedModel.schur), schurRoundingBound: num(v.closedModel.schurRoundingBound),
+      },
+      series: an.series.converges ? { converges: true, kind: null, reason: null } : { converges: false, kind: an.series.kind, reason: an.series.reason },
+      negativeValueAdded: v.negativeValueAdded.map((f) => ({
+        sector: f.label, output: num(f.output), intermediateInputs: num(f.intermediateInputs), imports: num(f.imports), valueAdded: num(f.valueAdded),
+      })),
     },
+    implausibleMultipliers: an.implausibleMultipliers.map((f) => ({
+      measure: f.measure, threshold: f.threshold, sectors: f.sectors.map((s) => ({ sector: s.label, value: num(s.value) })),
+    })),
     multipliers: {
       output: { typeI: arr(m.output.typeI), typeII: arr(m.output.typeII) },
       income: { simple: arr(m.income.simple), typeI: arr(m.income.typeI), total: arr(m.income.total), typeII: arr(m.income.typeII) },

@@ -70,6 +70,9 @@ export interface PathAnalysis {
 
 export const HOUSEHOLD_POLE_LABEL = 'Households';
 
+/** No search takes more steps than this, whatever `maxVisits` asks (every search ends; elementary paths bound the depth). */
+export const MAX_PATH_VISITS = 10_000_000;
+
 interface System {
   m: number;
   M: Float64Array;
@@ -104,7 +107,7 @@ export function structuralPaths(pm: PreparedModel, f: Float64Array, destination:
     maxLength: opts.maxLength ?? 6,
     minShare: opts.minShare ?? 1e-4,
     maxPaths: opts.maxPaths ?? 20,
-    maxVisits: opts.maxVisits ?? 200_000,
+    maxVisits: Math.min(opts.maxVisits ?? 200_000, MAX_PATH_VISITS),
   };
   if (!(destination >= 0 && destination < m)) throw new RangeError(`destination ${destination} out of range`);
   if (f.length !== m) throw new RangeError(`shock has length ${f.length}, the system has ${m} poles`);

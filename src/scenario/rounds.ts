@@ -13,8 +13,11 @@ import type { PreparedModel } from '../model/index.ts';
 
 export const COVERAGE_TARGETS = [0.9, 0.99, 0.999] as const;
 
+/** The most rounds ever computed, whatever `maxRounds` asks (the project schema allows the same). */
+export const MAX_SPENDING_ROUNDS = 10_000;
+
 export interface RoundsOptions {
-  /** Stop after this many rounds (round 0 included) even if 99.9 % is not reached. Default 200. */
+  /** Stop after this many rounds (round 0 included) even if 99.9 % is not reached. Default 200, at most MAX_SPENDING_ROUNDS. */
   maxRounds?: number;
   /** ρ(A) when already known (viability check), reported beside the ratios. */
   perronRoot?: number;
@@ -52,7 +55,7 @@ function norm1Vec(v: Float64Array): number {
 /** Rounds for the effective demand `f` whose open-model solution is `x`. */
 export function spendingRounds(pm: PreparedModel, f: Float64Array, x: Float64Array, opts: RoundsOptions = {}): RoundsResult {
   const { n, A, h } = pm.coef;
-  const maxRounds = Math.max(1, opts.maxRounds ?? 200);
+  const maxRounds = Math.min(MAX_SPENDING_ROUNDS, Math.max(1, Math.floor(opts.maxRounds ?? 200) || 1));
   const xNorm = norm1Vec(x);
   const last = COVERAGE_TARGETS[COVERAGE_TARGETS.length - 1]!;
   const rounds: Float64Array[] = [];

@@ -233,10 +233,11 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
   };
   onBalance?.(report);
 
-  // Intermediate inputs above output: imported, but the economy cannot be productive (the viability test says so).
+  // Intermediate inputs above output: imported; value added is negative there. The table may still be productive
+  // (a column sum of A above 1 does not make ρ(A) ≥ 1): the analysis decides that, and names each sector's value added.
   const over = keep.filter((j) => zCol[j]! > x0[j]!).map((j) => raw.sectors[j]!);
   if (over.length) {
-    warnings.push({ code: 'inputs-exceed-output', message: `intermediate inputs exceed output in ${over.slice(0, 5).map((s) => `'${s}'`).join(', ')}${over.length > 5 ? ', …' : ''}: the table cannot describe a productive economy (see the viability test)`, location: { file, columnLabel: over[0]! } });
+    warnings.push({ code: 'inputs-exceed-output', message: `intermediate inputs exceed output in ${over.slice(0, 5).map((s) => `'${s}'`).join(', ')}${over.length > 5 ? ', …' : ''}: value added there is negative (the analysis lists each such sector with its value added)`, location: { file, columnLabel: over[0]! } });
   }
   for (const s of [...sectors, ...raw.rows.map((r) => r.label), ...raw.columns.map((c) => c.label)]) {
     if (s.includes('\ufffd')) {

@@ -81,6 +81,19 @@ describe('worker adapter on hard tables', () => {
     }
   });
 
+  it('households the only final demand (ρ(Ā) = 1 exactly): the screens show no Type II model and no induced effect, as the analysis says', () => {
+    const loaded = api.loadTable({ text: EDGE_TABLES.householdsOnly, fileName: 'householdsOnly.csv' });
+    const scenario = { name: 's', lines: [{ sector: 'A', amount: 100, kind: 'final-demand' as const, localShare: 1 }] };
+    const v = api.runScenario({ scenario, closure: true });
+    expect(v.closure).toBe('none');
+    expect(v.effects.output!.totals.induced).toBeNull();
+    expect(Math.abs(v.effects.output!.totals.total)).toBeLessThan(1e4);
+    expect(v.notes.join('\n')).toMatch(/no Type II model: the household-closed model is on the edge of productivity/);
+    // the paths explain the open-model total, not a closed one divided by rounding
+    const p = api.paths({ scenario, sector: loaded.table.sectors[1]!, closure: true });
+    expect(Math.abs(p.total)).toBeLessThan(1e4);
+  });
+
   it('formula labels: every report CSV the UI exports is safe', () => {
     expect(exercise('formulas', formulaTableCsv()).loaded).toBe(true);
   });

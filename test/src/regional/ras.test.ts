@@ -5,7 +5,7 @@
 // - the result meets its totals within the tolerance and keeps the zeros of the start matrix.
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { ras, rasFeasibility } from '../../../src/regional/index.ts';
+import { ras, rasFeasibility, RasConvergenceError } from '../../../src/regional/index.ts';
 import { expectClose } from './build-table.ts';
 import { refusal } from '../../support/refusal.ts';
 import { seededC } from '../../support/random.ts';
@@ -26,9 +26,20 @@ describe('worked examples', () => {
     const res = ras(new Float64Array(12).fill(1), 3, 4, f64(u), f64(v));
     expectClose(res.matrix, u.flatMap((ui) => v.map((vj) => (ui * vj) / 20)), 1e-9);
   });
-  it('the first iteration scales rows by u_i/row sum, then columns by v_j/column sum (hand computation)', () => {
+  it('the first iteration scales rows by u_i/row sum, then columns by v_j/column sum (hand computation); stopping there is refused with that report', () => {
     // A⁰ = [[1,2],[3,4]], u = (6, 14): r = (6/3, 14/7) = (2, 2) ⇒ [[2,4],[6,8]], column sums (8, 12); v = (10, 10): s = (10/8, 10/12)
-    const res = ras(f64([1, 2, 3, 4]), 2, 2, f64([6, 14]), f64([10, 10]), { maxIterations: 1 });
+    let err: unknown = null;
+    try {
+      ras(f64([1, 2, 3, 4]), 2, 2, f64([6, 14]), f64([10, 10]), { maxIterations: 1, fileName: 'flows.csv' });
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(RasConvergenceError);
+    const stop = err as RasConvergenceError;
+    expect(stop.code).toBe('ras-not-converged');
+    expect(stop.location).toEqual({ file: 'flows.csv' });
+    expect(stop.message).toMatch(/^RAS did not converge within 1 iterations \(largest relative gap \S+ > 1e-10\)/);
+    const res = stop.report;
     expect(res.iterations).toBe(1);
     expectClose(res.matrix, [2 * 1.25, 4 * (10 / 12), 6 * 1.25, 8 * (10 / 12)]);
     expectClose(res.r, [2, 2]);
