@@ -6,10 +6,9 @@
  * it without a browser.
  */
 import type { ExportKind, FileKind, MenuCommand, OpenedFile, RecentEntry, RoundwiseBridge, SavedFile } from '../../src/bridge/contract.ts';
-import { EXPORT_TYPES, MAX_OPEN_BYTES, OPEN_EXTENSIONS, formatBytes, projectFileName, withExtension } from '../../src/bridge/files.ts';
+import { EXPORT_TYPES, MAX_OPEN_BYTES, OPEN_EXTENSIONS, fileTooLarge, projectFileName, withExtension } from '../../src/bridge/files.ts';
 import { commandForKey, isTextEditing } from '../../src/bridge/shortcuts.ts';
 import { addRecent, parseRecentList, sanitizeFileName } from '../../src/bridge/validate.ts';
-import { InputError } from '../../src/diagnostics/index.ts';
 import { createStore, set } from 'idb-keyval';
 import { createRecoverySlots, type SlotEnv } from './recovery-slots.ts';
 
@@ -77,7 +76,7 @@ function utf8Length(text: string): number {
 /** Read a File (from the file input or a drop) under the shared size limit. */
 export async function openedFileFromFile(file: File): Promise<OpenedFile> {
   if (file.size > MAX_OPEN_BYTES) {
-    throw new InputError('file-too-large', `file is ${formatBytes(file.size)}, larger than the ${formatBytes(MAX_OPEN_BYTES)} limit; nothing was read`, { file: file.name });
+    throw fileTooLarge(file.size, file.name);
   }
   return { name: file.name, text: stripBom(await file.text()), size: file.size };
 }

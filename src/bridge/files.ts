@@ -2,6 +2,7 @@
  * What the file bridges accept and how big a file may be. Shared by the desktop shell (dialog filters, read
  * limit) and the browser bridge (file-input accept list, read limit) so both refuse the same files.
  */
+import { InputError } from '../diagnostics/index.ts';
 import type { ExportKind, FileKind } from './contract.ts';
 
 /**
@@ -10,6 +11,11 @@ import type { ExportKind, FileKind } from './contract.ts';
  * (MAX_TABLE_BYTES). Bigger files are refused before they are read.
  */
 export const MAX_OPEN_BYTES = 200 * 1024 * 1024;
+
+/** The one refusal for a file over the limit, wherever it is noticed (`outcome`: what did not happen). */
+export function fileTooLarge(bytes: number, file: string, outcome = 'nothing was read', max = MAX_OPEN_BYTES): InputError {
+  return new InputError('file-too-large', `file is ${formatBytes(bytes)}, larger than the ${formatBytes(max)} limit; ${outcome}`, { file });
+}
 
 /** Largest content the UI may hand to a save or export (same limit, in UTF-16 code units or base64 characters). */
 export const MAX_SAVE_CHARS = 128 * 1024 * 1024;

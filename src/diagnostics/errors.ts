@@ -29,7 +29,6 @@ export const ERROR_CODES = [
   // Table import (src/table)
   'binary',
   'utf16',
-  'too-large',
   'bad-quotes',
   'ragged-row',
   'header-only',

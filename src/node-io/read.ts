@@ -9,7 +9,7 @@
  */
 import { closeSync, constants, fstatSync, openSync, readSync } from 'node:fs';
 import { InputError } from '../diagnostics/index.ts';
-import { formatBytes, MAX_OPEN_BYTES } from '../bridge/files.ts';
+import { fileTooLarge, MAX_OPEN_BYTES } from '../bridge/files.ts';
 import { fileError } from './errors.ts';
 
 /** Largest file read into memory: the product's one limit (src/bridge/files.ts), the same for every file. */
@@ -37,8 +37,8 @@ export interface ReadOptions {
 const OPEN_FLAGS = constants.O_RDONLY | (constants.O_NONBLOCK ?? 0);
 
 function tooLarge(size: number, max: number, file: string, exact: boolean): InputError {
-  const what = exact ? `file is ${formatBytes(size)}` : 'file grew while it was read';
-  return new InputError('file-too-large', `${what}, larger than the ${formatBytes(max)} limit; nothing was read`, { file });
+  // A size that lied (a /proc file, a growing file) is only known to exceed the limit.
+  return fileTooLarge(size, file, exact ? 'nothing was read' : 'it holds more than its stated size; nothing was kept', max);
 }
 
 /** Read a whole regular file under the size limit (see the module comment). */

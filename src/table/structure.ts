@@ -4,6 +4,7 @@
  * recognised non-sector label ("Total", "Households", …) or the role map names it.
  */
 import type { Location, Warning } from '../diagnostics/index.ts';
+import { unescapeFormulaLead } from '../csv/index.ts';
 import type { ColumnRole, Layout, RoleMap, RowRole } from './types.ts';
 import { suggestColumnRole, suggestRowRole } from './roles.ts';
 import type { DecimalMark } from './numbers.ts';
@@ -32,8 +33,7 @@ export interface Classified {
 
 /** Strip the leading apostrophe that CSV-injection escaping puts before =, +, -, @ (src/csv/write.ts), and outer spaces. */
 export function cleanLabel(s: string): string {
-  const t = s.trim();
-  return /^'[=+\-@\t\r]/.test(t) ? t.slice(1) : t;
+  return unescapeFormulaLead(s.trim());
 }
 
 /**

@@ -3,7 +3,7 @@
  * its delimiter and its decimal mark.
  */
 import { InputError } from '../diagnostics/index.ts';
-import { MAX_OPEN_BYTES } from '../bridge/files.ts';
+import { fileTooLarge, MAX_OPEN_BYTES } from '../bridge/files.ts';
 import type { DecimalMark } from './numbers.ts';
 
 /** Largest table accepted, refused before parsing: the product's one file-size limit (200 MiB). */
@@ -13,10 +13,7 @@ export type Delimiter = ',' | ';' | '\t';
 
 /** Refuse a file by its size before reading or parsing it (UI and CLI call this with the byte size). */
 export function checkTableSize(bytes: number, fileName: string): void {
-  if (bytes > MAX_TABLE_BYTES) {
-    const mb = (bytes / (1024 * 1024)).toFixed(0);
-    throw new InputError('too-large', `file is ${mb} MiB; the limit for a table is ${MAX_TABLE_BYTES / (1024 * 1024)} MiB`, { file: fileName });
-  }
+  if (bytes > MAX_TABLE_BYTES) throw fileTooLarge(bytes, fileName, 'it was not imported');
 }
 
 /** The UTF-8 byte-order mark decodes to U+FEFF at the start of the text (Unicode Standard §23.8); it is not part of the first label. */

@@ -1,12 +1,10 @@
-// Every command reads its inputs through one reader (src/cli/io.ts readInputFile): a missing file, a folder and an
+// Every command reads its inputs through one reader (src/node-io readFileLimited, via the run context): a missing file, a folder and an
 // oversized file (a sparse file over the importer's stated limit, MAX_TABLE_BYTES) are located one-line refusals,
 // for a table and for the small side files alike (common practice, no source: the limit is the project's own).
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { mkdtempSync, rmSync, writeFileSync, truncateSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { writeFileAtomic } from '../../../src/cli/io.ts';
-import * as nodeIo from '../../../src/node-io/index.ts';
 import { MAX_TABLE_BYTES } from '../../../src/table/index.ts';
 import { runCli } from '../../support/cli.ts';
 
@@ -39,7 +37,19 @@ describe('CLI input files', () => {
     expect(missing.code).toBe(2);
     expect(missing.err).toMatch(/absent\.csv: no such file/);
   });
-  it('writes through the shared Node I/O writer', () => {
-    expect(writeFileAtomic).toBe(nodeIo.writeFileAtomic);
+  it('devices and FIFOs as table, --map or --project are refused at once, without reading or blocking', async () => {
+    const { execFileSync } = await import('node:child_process');
+    const fifo = join(dir, 'pipe.csv');
+    execFileSync('mkfifo', [fifo]);
+    const runs = [
+      ['analyze', fifo],
+      ['analyze', 'sample-data/fernhollow-county.csv', '--map', '/dev/zero'],
+      ['scenario', 'sample-data/fernhollow-county.csv', '--shock', 'sample-data/fernhollow-food-plant.csv', '--project', '/dev/zero'],
+    ];
+    for (const args of runs) {
+      const r = await run(...args);
+      expect(r.code, r.err).toBe(2);
+      expect(r.err).toMatch(/not a regular file/);
+    }
   });
 });

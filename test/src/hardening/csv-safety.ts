@@ -4,12 +4,16 @@ import Papa from 'papaparse';
 /** Labels a spreadsheet would run as formulas (invented; the URL is never contacted). */
 export const FORMULA_LABELS = ['=HYPERLINK("http://x")', '+SUM(A1)', '-2+3', '@cmd', '=1+1;=2'];
 
-/** Formula-leading text in a CSV, as "row r, field c: text". Numbers (which may begin with - or +) are fine. */
+/**
+ * Formula-leading text in a CSV, as "row r, field c: text": =, +, -, @, tab, CR and the full-width and small forms
+ * of the four signs (U+FF1D, U+FF0B, U+FF0D, U+FF20, U+FE66, U+FE62, U+FE63, U+FE6B). Numbers (which may begin with
+ * - or +) are fine.
+ */
 export function unsafeCells(csv: string): string[] {
   const rows = Papa.parse<string[]>(csv, { skipEmptyLines: true }).data;
   const out: string[] = [];
   rows.forEach((row, r) => row.forEach((cell, c) => {
-    if (/^[=+\-@\t\r]/.test(cell) && !/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(cell)) out.push(`row ${r + 1}, field ${c + 1}: ${cell}`);
+    if (/^[=+\-@\t\r\uff1d\uff0b\uff0d\uff20\ufe66\ufe62\ufe63\ufe6b]/.test(cell) && !/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(cell)) out.push(`row ${r + 1}, field ${c + 1}: ${cell}`);
   }));
   return out;
 }

@@ -51,7 +51,7 @@ describe('large inputs', () => {
   it('text over the limit is refused by its size before parsing (a file of NULs is refused as too large, not as binary)', () => {
     const text = '\u0000'.repeat(MAX_TABLE_BYTES + 1);
     const e = refusalOf(() => importTable(text, { fileName: 'huge.csv' }), 'huge.csv');
-    expect(e?.code).toBe('too-large');
+    expect(e?.code).toBe('file-too-large');
     expect(e!.location).toEqual({ file: 'huge.csv' });
   });
 });

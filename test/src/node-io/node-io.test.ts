@@ -34,7 +34,7 @@ const identity = (path: string): FileIdentity => {
 };
 
 describe('one writer and one reader for the CLI and the desktop shell', () => {
-  it('main/ uses the same writer (src/cli/io.ts re-exports it too: test/src/cli/read-input.test.ts)', () => {
+  it('main/ uses the same writer as the CLI (src/cli/output.ts imports it from here)', () => {
     expect(shellStore.writeFileAtomic).toBe(writeFileAtomic);
   });
 });

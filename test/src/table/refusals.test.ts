@@ -14,8 +14,8 @@ describe('table import refusals', () => {
       expect.unreachable();
     } catch (e) {
       expect(e).toBeInstanceOf(InputError);
-      expect((e as InputError).code).toBe('too-large');
-      expect((e as InputError).message).toBe('file is 200 MiB; the limit for a table is 200 MiB');
+      expect((e as InputError).code).toBe('file-too-large');
+      expect((e as InputError).message).toBe('file is 200.0 MB, larger than the 200.0 MB limit; it was not imported');
       expect((e as InputError).location).toEqual({ file: 'big.csv' });
     }
   });
