@@ -1,14 +1,13 @@
 /**
  * Project files: one JSON document per study — the imported table (with its source file name and SHA-256), the role
- * map, scenarios, spending patterns and settings. Results are never stored; `projectResults` recomputes them, and
+ * map, scenarios, spending patterns and settings. Results are never stored (a caller recomputes them), and
  * load → save → results is bit-for-bit identical (numbers are written in shortest round-trip form, −0 kept).
  * Loading refuses, with one clear message, a file that is empty, truncated, not JSON, not a Roundwise project,
  * from a newer version, or inconsistent; the caller keeps the file on disk untouched.
  * The save itself (temporary file, then rename) is the caller's: `writeFileAtomic` of src/node-io (the CLI and the desktop shell both use it).
  */
 import { InputError } from '../diagnostics/index.ts';
-import { prepareModel } from '../model/index.ts';
-import { runScenario, type Scenario, type ScenarioResult, type SpendingPattern } from '../scenario/index.ts';
+import type { Scenario, SpendingPattern } from '../scenario/index.ts';
 import type { IOTable, LabelledVector } from '../table/index.ts';
 import { writeJson, type Json } from './json.ts';
 import {
@@ -255,8 +254,3 @@ export function parseProject(text: string, fileName = 'project'): Project {
   return fromDoc(doc);
 }
 
-/** Recompute every scenario of the project (results are never stored). */
-export function projectResults(p: Project): ScenarioResult[] {
-  const pm = prepareModel(p.table);
-  return p.scenarios.map((s) => runScenario(pm, s));
-}

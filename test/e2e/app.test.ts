@@ -11,10 +11,10 @@ import { join } from 'node:path';
 import type { Page, Download } from 'playwright-core';
 import Papa from 'papaparse';
 import { DOWNLOADS, REPO, shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
+import { sparseTableCsv } from '../support/random-tables.ts';
 import { importTable } from '../../src/table/index.ts';
 import { prepareModel, analyzeTable } from '../../src/model/index.ts';
 import { runScenario, type Scenario } from '../../src/scenario/index.ts';
-import { bigTable } from '../support/big-table.ts';
 
 const FIX = join(REPO, 'test', 'fixtures', 'e2e');
 const TEST_CSV = join(FIX, 'ridgeline-test.csv');
@@ -282,7 +282,7 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
 
   it('stays usable at 2,000 sectors: progress with cancel while it works, then virtual scrolling', async () => {
     const file = join(REPO, 'test-output', 'e2e-2000-sectors.csv');
-    writeFileSync(file, bigTable(2000));
+    writeFileSync(file, sparseTableCsv(2000));
     await go('import');
     await page.getByTestId('file-input').setInputFiles(file);
     await page.getByTestId('accept-import').click({ timeout: 60_000 });

@@ -4,17 +4,13 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../../src/cli/index.ts';
+import { runCli } from '../../support/cli.ts';
 
 let dir: string;
 beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'rw-dialect-')); });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-async function run(...args: string[]) {
-  let out = '', err = '';
-  const code = await main(args, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
+const run = (...args: string[]) => runCli(args);
 
 /** An invented semicolon table in which every number reads both ways ('1.000' is 1000 or 1). */
 const AMBIGUOUS = [

@@ -7,7 +7,8 @@ import { analyzePrepared, analyzeTable } from '../../../src/model/analysis.ts';
 import { closedModelDecision, decideClosedModel, schurRoundingBound } from '../../../src/model/closed-model.ts';
 import { closedBorder, prepareModel } from '../../../src/model/prepared.ts';
 import { runScenario } from '../../../src/scenario/index.ts';
-import { makeTable, seeded } from './tables.ts';
+import { makeTable } from './tables.ts';
+import { seeded } from '../../support/random.ts';
 
 /**
  * A balanced random economy whose final demand is household consumption plus a share `exportShare` of exports.

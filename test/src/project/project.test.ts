@@ -3,10 +3,11 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../../../src/diagnostics/index.ts';
 import {
-  createProject, parseProject, projectResults, serializeProject, sourceInfo, PROJECT_VERSION, utf8Bytes, type Project,
+  createProject, parseProject, serializeProject, sourceInfo, PROJECT_VERSION, utf8Bytes, type Project,
 } from '../../../src/project/index.ts';
 import type { ScenarioResult } from '../../../src/scenario/index.ts';
 import { county4 } from '../scenario/tables.ts';
+import { projectResults } from '../../support/project.ts';
 
 const fixture = (name: string) => readFileSync(fileURLToPath(new URL(`../../fixtures/scenario/${name}`, import.meta.url)), 'utf8');
 
