@@ -80,9 +80,10 @@ function toDoc(p: Project): ProjectV2Doc {
       employment: t.employment ? arr(t.employment) : null,
       householdConsumption: labelledDoc(t.householdConsumption),
       otherFinalDemand: labelledDoc(t.otherFinalDemand),
+      ...(t.householdIncomeFromFinalDemand?.length ? { householdIncomeFromFinalDemand: t.householdIncomeFromFinalDemand.map((c) => ({ row: c.row, column: c.column, value: c.value })) } : {}),
       warnings: t.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.location ? { location: { ...w.location } } : {}) })),
     },
-    roles: { rows: { ...t.roles.rows }, columns: { ...t.roles.columns } },
+    roles: { rows: { ...t.roles.rows }, columns: { ...t.roles.columns }, ...(t.roles.sectors?.length ? { sectors: [...t.roles.sectors] } : {}) },
     // Line origins (shock-file lines) describe where a line was typed, not the study: they are not saved.
     scenarios: p.scenarios.map((s) => ({
       name: s.name,
@@ -212,6 +213,7 @@ function fromDoc(d: ProjectV2Doc): Project {
     employment: t.employment ? f64(t.employment) : null,
     householdConsumption: labelledVec(t.householdConsumption),
     otherFinalDemand: labelledVec(t.otherFinalDemand),
+    ...(t.householdIncomeFromFinalDemand ? { householdIncomeFromFinalDemand: t.householdIncomeFromFinalDemand } : {}),
     moneyUnit: t.moneyUnit,
     layout: t.layout,
     roles: d.roles,

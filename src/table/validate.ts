@@ -133,7 +133,15 @@ export function validateTable(t: IOTable, fileName: string, opts: ValidateOption
     });
   }
   if (t.employment) t.employment.forEach((e, j) => { if (!Number.isFinite(e)) throw notFinite(e, { file, rowLabel: 'Employment', columnLabel: sectors[j]! }); });
-  for (const c of t.householdIncomeFromFinalDemand ?? []) if (!Number.isFinite(c.value)) throw notFinite(c.value, { file, rowLabel: c.row, columnLabel: c.column });
+  const labourRows = new Set(t.labourIncome.map((v) => matchKey(v.label)));
+  const demandColumns = new Set([...t.householdConsumption, ...t.otherFinalDemand].map((v) => matchKey(v.label)));
+  for (const c of t.householdIncomeFromFinalDemand ?? []) {
+    const loc = { file, rowLabel: c.row, columnLabel: c.column };
+    if (!labourRows.has(matchKey(c.row)) || !demandColumns.has(matchKey(c.column))) {
+      throw new InputError('table-shape', 'labour income paid by a final-demand column names a row that is not a labour-income row or a column that is not final demand', loc);
+    }
+    if (!Number.isFinite(c.value)) throw notFinite(c.value, loc);
+  }
 
   checkOutputs(x, Z, sectors, (j) => ({ file, rowLabel: sectors[j]!, columnLabel: 'Total output' }));
   if (t.employment) checkEmployment(t.employment, (j) => ({ file, rowLabel: 'Employment', columnLabel: sectors[j]! }));

@@ -78,6 +78,12 @@ describe('validateTable', () => {
     expect(formatLocated(refusal(() => importTable(text, { fileName: 'big.csv' })))).toBe("big.csv (column 'Total output'): the total of all sectors’ output overflows (numbers too large to add up)");
   });
 
+  it('labour income under final demand must name a labour-income row and a final-demand column', () => {
+    const t = { ...copy(good), householdIncomeFromFinalDemand: [{ row: 'Compensation of employees', column: 'Government', value: 5 }] };
+    expect(refused(t)).toBe("study.roundwise (row 'Compensation of employees', column 'Government'): labour income paid by a final-demand column names a row that is not a labour-income row or a column that is not final demand");
+    expect(() => validateTable({ ...t, householdIncomeFromFinalDemand: [{ row: 'Compensation of employees', column: 'Exports', value: 5 }] }, 'p')).not.toThrow();
+  });
+
   it('vectors of the wrong length', () => {
     const t = { ...copy(good), x: Float64Array.from([1, 2]) };
     expect(refused(t)).toBe('study.roundwise: total output: expected 3 values, found 2');
