@@ -71,7 +71,7 @@ function previewTable(src: TableSource): PreviewView {
     columns: p.columns.filter((c) => c.role !== 'sector').map((c) => ({ label: c.label, role: c.role })),
     rowRoles: ROW_ROLES,
     columnRoles: COLUMN_ROLES,
-    cells: src.text.split(/\r?\n/, 14).filter((l) => l.trim() !== '').slice(0, 12).map((l) => l.split(/[,;\t]/).slice(0, 10)),
+    cells: p.cells,
     balance: balance.slice(0, 8),
     balanced: b?.balanced ?? false,
     tolerance: b?.tolerance ?? 0.001,

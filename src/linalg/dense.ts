@@ -58,17 +58,6 @@ export function norm1(a: Float64Array, n: number): number {
   return best;
 }
 
-/** Matrix infinity-norm (maximum absolute row sum) of an n×n matrix. */
-export function normInf(a: Float64Array, n: number): number {
-  let best = 0;
-  for (let i = 0; i < n; i++) {
-    let s = 0;
-    for (let j = 0; j < n; j++) s += Math.abs(a[i * n + j]!);
-    if (s > best) best = s;
-  }
-  return best;
-}
-
 export function columnSums(a: Float64Array, n: number, m: number): Float64Array {
   const s = new Float64Array(m);
   for (let i = 0; i < n; i++) for (let j = 0; j < m; j++) s[j] = s[j]! + a[i * m + j]!;

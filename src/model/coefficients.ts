@@ -20,7 +20,10 @@ export interface Coefficients {
   e: Float64Array | null;
   /** Household consumption from each sector (all household columns summed), money. */
   householdConsumption: Float64Array;
-  /** Total household income x_h = Σ_j labour income_j (the household sector's "output" in the closed model). */
+  /**
+   * Total household income x_h = Σ_j labour income_j + labour income paid by final-demand columns (government wages):
+   * the household sector's "output" in the closed model (Miller & Blair 2009, §2.5 — recalled from memory).
+   */
   householdIncomeTotal: number;
 }
 
@@ -49,6 +52,7 @@ export function coefficients(t: IOTable): Coefficients {
   const labour = sumVectors(t.labourIncome, n);
   let householdIncomeTotal = 0;
   for (let j = 0; j < n; j++) householdIncomeTotal += labour[j]!;
+  for (const c of t.householdIncomeFromFinalDemand ?? []) householdIncomeTotal += c.value;
   return {
     n,
     sectors: t.sectors,

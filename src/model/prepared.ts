@@ -44,8 +44,6 @@ export interface PreparedModel {
    * through `closedBorder(pm)`, which recomputes it if `closed` or `openLU` was replaced (hand-assembled models).
    */
   border: ClosedBorder | null;
-  /** Not used: closed solves border the open factorisation. Kept optional so models assembled with it still type-check. */
-  closedLU?: LU | null;
 }
 
 function dot(p: Float64Array, q: Float64Array, n: number): number {

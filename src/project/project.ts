@@ -11,7 +11,7 @@
 import { InputError, type Warning } from '../diagnostics/index.ts';
 import { importTable, type ImportOptions } from '../table/index.ts';
 import type { Scenario, SpendingPattern } from '../scenario/index.ts';
-import type { IOTable, LabelledVector } from '../table/index.ts';
+import { validateTable, type IOTable, type LabelledVector, type RoleMap } from '../table/index.ts';
 import { writeJson, type Json } from './json.ts';
 import {
   DEFAULT_SETTINGS, PROJECT_FORMAT, PROJECT_VERSION, migrateV1, migrateV2, projectV1Schema, projectV2Schema, projectV3Schema,
@@ -25,7 +25,7 @@ export { PROJECT_FORMAT, PROJECT_VERSION } from './schema.ts';
 export type ProjectSettings = ProjectV3Doc['settings'];
 
 /** How a source file was imported: everything importTable needs besides the text and the file name. */
-export type ImportSettings = Omit<ImportOptions, 'fileName' | 'delimiter' | 'decimalMark' | 'moneyUnit'>;
+export type ImportSettings = Omit<ImportOptions, 'fileName' | 'moneyUnit'>;
 
 export interface SourceInfo {
   fileName: string;
@@ -95,8 +95,13 @@ function tableDoc(t: IOTable): NonNullable<ProjectV3Doc['table']> {
     employment: t.employment ? arr(t.employment) : null,
     householdConsumption: labelledDoc(t.householdConsumption),
     otherFinalDemand: labelledDoc(t.otherFinalDemand),
+    ...(t.householdIncomeFromFinalDemand?.length ? { householdIncomeFromFinalDemand: t.householdIncomeFromFinalDemand.map((c) => ({ row: c.row, column: c.column, value: c.value })) } : {}),
     warnings: t.warnings.map((w) => ({ code: w.code, message: w.message, ...(w.location ? { location: { ...w.location } } : {}) })),
   };
+}
+
+function rolesDoc(r: Partial<RoleMap>): ProjectV3Doc['roles'] {
+  return { rows: { ...(r.rows ?? {}) }, columns: { ...(r.columns ?? {}) }, ...(r.sectors?.length ? { sectors: [...r.sectors] } : {}) };
 }
 
 function contentDoc(bytes: Uint8Array): { encoding: 'utf-8' | 'base64'; data: string } {
@@ -111,7 +116,9 @@ function importDoc(s: ImportSettings | undefined): NonNullable<ProjectV3Doc['sou
   const i = s ?? {};
   return {
     ...(i.layout !== undefined ? { layout: i.layout } : {}),
-    ...(i.roles !== undefined ? { roles: { rows: { ...(i.roles.rows ?? {}) }, columns: { ...(i.roles.columns ?? {}) } } } : {}),
+    ...(i.roles !== undefined ? { roles: rolesDoc(i.roles) } : {}),
+    ...(i.delimiter !== undefined ? { delimiter: i.delimiter } : {}),
+    ...(i.decimalMark !== undefined ? { decimalMark: i.decimalMark } : {}),
     ...(i.allowNegative !== undefined ? { allowNegative: i.allowNegative } : {}),
     ...(i.balanceTolerance !== undefined ? { balanceTolerance: i.balanceTolerance } : {}),
     ...(i.name !== undefined ? { name: i.name } : {}),
@@ -134,7 +141,7 @@ function toDoc(p: Project): ProjectV3Doc {
     } : null,
     // The numbers only when the source bytes are not at hand: otherwise the table is re-imported from them.
     ...(src?.content ? {} : { table: tableDoc(t) }),
-    roles: { rows: { ...t.roles.rows }, columns: { ...t.roles.columns } },
+    roles: rolesDoc(t.roles),
     // Line origins (shock-file lines) describe where a line was typed, not the study: they are not saved.
     scenarios: p.scenarios.map((s) => ({
       name: s.name,
@@ -265,6 +272,7 @@ function tableFromDoc(t: NonNullable<ProjectV3Doc['table']>, roles: ProjectV3Doc
     employment: t.employment ? f64(t.employment) : null,
     householdConsumption: labelledVec(t.householdConsumption),
     otherFinalDemand: labelledVec(t.otherFinalDemand),
+    ...(t.householdIncomeFromFinalDemand ? { householdIncomeFromFinalDemand: t.householdIncomeFromFinalDemand } : {}),
     moneyUnit: t.moneyUnit,
     layout: t.layout,
     roles,
@@ -307,6 +315,13 @@ function fromDoc(d: ProjectV3Doc, file: string, notes: string[]): Project {
     checkTableDoc(d.table, file);
     source = found?.source ?? null;
     table = tableFromDoc(d.table, d.roles);
+    // Numbers that did not come through the importer get its whole-table checks (negative flows or output, …).
+    try {
+      validateTable(table, file, { allowNegative: source?.import?.allowNegative ?? false });
+    } catch (e) {
+      if (e instanceof InputError) throw new InputError('project-invalid', `the table stored in the project cannot be used: ${e.message}`, { ...e.location, file });
+      throw e;
+    }
   }
   for (const message of notes) table.warnings.push({ code: 'project-migrated', message, location: { file } });
   checkSectors(d, table.sectors, file);

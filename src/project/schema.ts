@@ -13,7 +13,12 @@ export const PROJECT_VERSION = 3;
 const num = z.number();
 const rowRole = z.enum(['labourIncome', 'otherValueAdded', 'imports', 'employment', 'totalInput', 'ignore']);
 const columnRole = z.enum(['householdConsumption', 'otherFinalDemand', 'totalOutput', 'ignore']);
-export const roleMapSchema = z.object({ rows: z.record(z.string(), rowRole), columns: z.record(z.string(), columnRole) });
+export const roleMapSchema = z.object({
+  rows: z.record(z.string(), rowRole),
+  columns: z.record(z.string(), columnRole),
+  /** Labels made sectors whatever their words (src/table RoleMap.sectors); optional, so older files read as before. */
+  sectors: z.array(z.string()).optional(),
+});
 const labelled = z.object({ label: z.string(), values: z.array(num) });
 const location = z.object({
   file: z.string().optional(), line: z.number().int().optional(), column: z.number().int().optional(),
@@ -37,6 +42,8 @@ function tableFields<F extends z.ZodType>(flows: F) {
     employment: z.array(num).nullable(),
     householdConsumption: z.array(labelled),
     otherFinalDemand: z.array(labelled),
+    /** Labour income paid by final-demand columns (household income in the closed model); optional, absent when none. */
+    householdIncomeFromFinalDemand: z.array(z.object({ row: z.string(), column: z.string(), value: num })).optional(),
     warnings: z.array(warning),
   };
 }
@@ -91,6 +98,8 @@ export type ProjectV1Doc = z.infer<typeof projectV1Schema>;
 // ---- version 3 (current) ----
 const importSettings = z.object({
   layout: z.enum(['matrix', 'long', 'coefficients']).optional(),
+  delimiter: z.enum([',', ';', '\t']).optional(),
+  decimalMark: z.enum(['.', ',']).optional(),
   roles: roleMapSchema.partial().optional(),
   allowNegative: z.boolean().optional(),
   balanceTolerance: num.positive().optional(),

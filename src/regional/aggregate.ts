@@ -12,7 +12,7 @@
 import { InputError } from '../diagnostics/index.ts';
 import { prepareModel, solveOpenTransposed } from '../model/index.ts';
 import type { IOTable, LabelledVector } from '../table/index.ts';
-import { readCsvRows } from './csv-input.ts';
+import { checkFieldCount, cleanLabel, readSmallCsv } from '../table/index.ts';
 
 export interface GroupMappingEntry {
   sector: string;
@@ -54,15 +54,18 @@ export const AGGREGATION_BIAS_NOTE =
 
 /** Parse `sector,group` (a header row is optional: recognised by the labels "sector" and "group"). */
 export function parseGroupMapping(text: string, fileName: string): GroupMapping {
-  const rows = readCsvRows(text, fileName);
+  const csv = readSmallCsv(text, fileName);
+  const rows = csv.rows;
+  if (rows.length === 0) throw new InputError('empty', 'the file is empty', { file: fileName });
   const first = rows[0]!;
   const header = /^sector$/i.test(first.cells[0] ?? '') && /^group$/i.test(first.cells[1] ?? '');
   const body = header ? rows.slice(1) : rows;
   if (body.length === 0) throw new InputError('empty', 'the file has a header but no sectors', { file: fileName });
   const seen = new Map<string, number>();
   const entries = body.map((r) => {
-    const sector = r.cells[0] ?? '';
-    const group = r.cells[1] ?? '';
+    const sector = cleanLabel(r.cells[0] ?? '');
+    const group = cleanLabel(r.cells[1] ?? '');
+    checkFieldCount(csv, r, 2, 'the 2 fields sector,group', sector || undefined);
     if (sector === '') throw new InputError('group-sector-empty', 'the sector label is empty', { file: fileName, line: r.line, column: 1 });
     if (group === '') throw new InputError('group-empty', `no group is given for sector '${sector}'`, { file: fileName, line: r.line, column: 2, rowLabel: sector });
     const before = seen.get(sector);

@@ -9,7 +9,6 @@ export * from './ras.ts';
 export * from './feasibility.ts';
 export * from './aggregate.ts';
 export * from './matrix-csv.ts';
-export { readCsvRows, parseNumberCell } from './csv-input.ts';
 export * from './balance-table.ts';
 export * from './sample.ts';
 export * from './plausibility.ts';

@@ -20,11 +20,6 @@ export const LQ_METHODS: readonly LqMethod[] = ['slq', 'cilq', 'flq'];
 /** δ suggested by Flegg & Tohmo (2013). */
 export const DEFAULT_FLQ_DELTA = 0.3;
 
-/** What the UI shows beside the δ input. */
-export const FLQ_DELTA_NOTE =
-  'δ between 0 and 1 sets how strongly a small region imports: λ* = [log2(1 + county jobs / national jobs)]^δ. ' +
-  'Flegg & Tohmo (2013) report values around 0.25–0.35 fitting survey-based regional tables; 0.3 is the default. δ = 0 gives CILQ.';
-
 /** SLQ_i for every sector. A sector with no national jobs has no quotient (0 is returned; callers refuse such input). */
 export function simpleLQ(regional: Float64Array, national: Float64Array): Float64Array {
   const n = regional.length;

@@ -11,8 +11,8 @@ import {
   regionalize, type AggregationResult, type LqMethod, type RegionalResult, type TableBalanceResult,
 } from '../regional/index.ts';
 import { aboutText } from '../report/index.ts';
-import { sha256Hex } from '../project/index.ts';
-import { importTable, writeTableCsv, type IOTable, type RoleMap } from '../table/index.ts';
+import { sha256Hex, type ImportSettings } from '../project/index.ts';
+import { importTable, writeTableCsv, type IOTable } from '../table/index.ts';
 import { prepareStudy, type PreparedStudy } from './prepare.ts';
 import { studyOfTable } from './study.ts';
 
@@ -24,8 +24,8 @@ export interface EstimateFile {
 
 export interface EstimateRequest {
   national: EstimateFile;
-  /** Role overrides for the national table's rows and columns. */
-  nationalRoles?: Partial<RoleMap>;
+  /** How to read the national table: role overrides, delimiter, decimal mark. */
+  nationalImport?: ImportSettings;
   employment: EstimateFile;
   method: LqMethod;
   /** FLQ δ; ignored by SLQ and CILQ. */
@@ -62,7 +62,7 @@ function slugOf(fileName: string): string {
 
 export function estimateCountyTable(req: EstimateRequest, date = new Date().toISOString()): CountyEstimate {
   if (!(LQ_METHODS as readonly string[]).includes(req.method)) throw new InputError('usage', `the method must be SLQ, CILQ or FLQ (got '${String(req.method)}')`);
-  const national = importTable(text(req.national), { fileName: req.national.fileName, ...(req.nationalRoles ? { roles: req.nationalRoles } : {}) });
+  const national = importTable(text(req.national), { fileName: req.national.fileName, ...req.nationalImport });
   const delta = req.method === 'flq' ? req.delta : DEFAULT_FLQ_DELTA;
   const regional = regionalize(national, parseEmploymentCsv(text(req.employment), req.employment.fileName), { method: req.method, delta });
   let table = regional.table;

@@ -6,7 +6,8 @@
 import { InputError, type Location, type Warning } from '../diagnostics/index.ts';
 import { showNumber } from './numbers.ts';
 import type { RawTable } from './structure.ts';
-import type { IOTable, LabelledVector } from './types.ts';
+import type { FinalDemandIncome, IOTable, LabelledVector } from './types.ts';
+import { checkEmployment, checkOutputs, checkTotals, outputRefusal } from './validate.ts';
 
 /** How well the table adds up, sector by sector (shown in the import preview). */
 export interface BalanceReport {
@@ -89,12 +90,6 @@ export function scaleCoefficients(raw: RawTable): void {
   }
 }
 
-function outputRefusal(sector: string, x: number, where: Location): InputError {
-  return x < 0
-    ? new InputError('output-not-positive', `sector '${sector}' has negative output ${showNumber(x)}`, where)
-    : new InputError('output-not-positive', `sector '${sector}' has zero output but buys intermediate inputs`, where);
-}
-
 function vectors(raw: RawTable, keep: number[], pick: (r: { role: string }) => boolean, from: 'rows' | 'columns'): LabelledVector[] {
   const list = from === 'rows' ? raw.rows : raw.columns;
   return list.filter(pick).map((v) => ({ label: v.label, values: Float64Array.from(keep, (j) => v.values[j]!) }));
@@ -160,14 +155,11 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
   }
 
   // Refusals over whole sectors.
-  for (let j = 0; j < n0; j++) {
-    const xj = x0[j]!;
-    if (xj < 0 || (xj === 0 && zColNonZero(Z0, n0, j))) throw outputRefusal(raw.sectors[j]!, xj, xAt(j));
-  }
+  checkOutputs(x0, Z0, raw.sectors, xAt);
   const emp0 = empRows[0];
   if (emp0) {
     const k = raw.rows.indexOf(emp0);
-    for (let j = 0; j < n0; j++) if (emp0.values[j]! < 0) throw new InputError('negative-employment', `negative employment ${showNumber(emp0.values[j]!)} (jobs cannot be negative)`, raw.rowCellAt(k, j));
+    checkEmployment(emp0.values, (j) => raw.rowCellAt(k, j));
   }
 
   // Drop sectors with zero output that neither buy nor sell nor carry any other number.
@@ -246,7 +238,7 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
     }
   }
 
-  return {
+  const table: IOTable = {
     name: opts.name,
     sectors,
     n,
@@ -262,6 +254,35 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
     layout: raw.layout,
     roles: raw.classified.roles,
     warnings,
+  };
+  if (raw.finalDemandIncome.length) {
+    table.householdIncomeFromFinalDemand = raw.finalDemandIncome.map(({ row, column, value }): FinalDemandIncome => ({ row, column, value }));
+    warnings.push(finalDemandIncomeWarning(table, raw.finalDemandIncome));
+  }
+  checkTotals(table, file);
+  return table;
+}
+
+/**
+ * Labour income under final-demand columns is read, not dropped: in the household-closed model total household
+ * income includes what final-demand sectors (government, households' own staff) pay households (Miller & Blair,
+ * Input–Output Analysis, 2nd ed. 2009, §2.5 "closing the model with respect to households" — recalled from memory).
+ * Said in a warning because it lowers consumption per unit of income, and so the induced effects.
+ */
+function finalDemandIncomeWarning(t: IOTable, cells: RawTable['finalDemandIncome']): Warning {
+  let fromSectors = 0;
+  for (const v of t.labourIncome) for (const a of v.values) fromSectors += a;
+  let fromDemand = 0;
+  for (const c of cells) fromDemand += c.value;
+  const shown = cells.slice(0, 3).map((c) => `${showNumber(c.value)} from '${c.column}' (row '${c.row}')`).join(', ') + (cells.length > 3 ? ', …' : '');
+  const total = fromSectors + fromDemand;
+  const share = total !== 0 ? ` (${((fromDemand / total) * 100).toFixed(1)} % of ${showNumber(total)})` : '';
+  return {
+    code: 'final-demand-income',
+    message:
+      `labour income paid by final-demand columns was read into total household income: ${shown}${share}. ` +
+      'In the household-closed model this income lowers household consumption per unit of income, and so the induced effects (Miller & Blair 2009, §2.5)',
+    location: cells[0]!.at,
   };
 }
 

@@ -1,6 +1,8 @@
 /**
  * Table import: CSV text → validated IOTable, and a preview of the same import that never throws (for the UI's
- * "accept this table?" step). Formats are described in README (section "CSV formats").
+ * "accept this table?" step). Formats are described in README (section "CSV formats"). Also the folder's other
+ * public parts: the small-CSV reader for shock, employment, group and totals files (same dialect rules), the table
+ * writer, and `validateTable` for tables that did not come through the importer.
  */
 import { formatLocated, InputError, isInputError, type Location, type Warning } from '../diagnostics/index.ts';
 import type { ColumnRole, IOTable, Layout, RoleMap, RowRole } from './types.ts';
@@ -8,17 +10,30 @@ import { buildGrid } from './grid.ts';
 import { contentRows, readMatrix, type ReadOptions } from './matrix.ts';
 import { longHeader, readLong } from './long.ts';
 import { finishTable, looksLikeCoefficients, scaleCoefficients, type BalanceReport } from './finish.ts';
-import { checkNotBinary, checkTableSize, detectDecimalMark, detectDelimiter, stripBom, type Delimiter } from './text.ts';
+import { checkNotBinary, checkTableSize, stripBom, type Delimiter } from './text.ts';
+import { delimiterHint, guessedMarkWarning, resolveDialect, type Dialect } from './dialect.ts';
 import type { DecimalMark } from './numbers.ts';
-import type { LabelRole } from './structure.ts';
+import type { LabelRole, RawTable } from './structure.ts';
+import type { Grid } from './grid.ts';
 
-export type { IOTable, Layout, RoleMap, RowRole, ColumnRole, LabelledVector } from './types.ts';
+export type { IOTable, Layout, RoleMap, RowRole, ColumnRole, LabelledVector, FinalDemandIncome } from './types.ts';
 export type { BalanceReport } from './finish.ts';
 export type { LabelRole } from './structure.ts';
 export type { Delimiter } from './text.ts';
-export type { DecimalMark } from './numbers.ts';
-export { MAX_TABLE_BYTES, checkTableSize } from './text.ts';
+export type { Dialect } from './dialect.ts';
+export type { DecimalMark, ParsedNumber } from './numbers.ts';
+export { MAX_TABLE_BYTES, checkTableSize, checkNotBinary } from './text.ts';
+export { parseNumberText } from './numbers.ts';
+export { cleanLabel, matchKey } from './labels.ts';
 export { suggestRoles, suggestRowRole, suggestColumnRole, parseRoleMap, normaliseLabel, ROW_ROLES, COLUMN_ROLES, ROW_LABELS, COLUMN_LABELS } from './roles.ts';
+export { validateTable, type ValidateOptions } from './validate.ts';
+export { readSmallCsv, checkFieldCount, readNumberCell, numberCell, type SmallCsv, type SmallCsvRow, type SmallCsvOptions } from './small-csv.ts';
+export { writeTableCsv, writtenRoleMap } from './write.ts';
+export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from './sample.ts';
+
+/** Rows and fields of the file that the preview returns as parsed (the UI shows them as "the file as read"). */
+export const PREVIEW_ROWS = 12;
+export const PREVIEW_COLUMNS = 10;
 
 export interface ImportOptions {
   /** Shown in messages ("county.csv:12:4 …"). */
@@ -33,9 +48,9 @@ export interface ImportOptions {
   balanceTolerance?: number;
   /** Table name; defaults to the file name without extension. */
   name?: string;
-  /** Field delimiter; detected from the first line when omitted. */
+  /** Field delimiter; from an Excel "sep=" first line, or guessed from the first lines, when omitted (dialect.ts). */
   delimiter?: Delimiter;
-  /** Decimal mark; ',' for semicolon-delimited files and '.' otherwise when omitted (see text.ts). */
+  /** Decimal mark; decided by the file's numbers, or guessed with a warning, when omitted (dialect.ts). */
   decimalMark?: DecimalMark;
   /** Money unit; defaults to the corner cell's text. */
   moneyUnit?: string;
@@ -45,6 +60,9 @@ export interface ImportOptions {
 interface Progress {
   delimiter: Delimiter | null;
   decimalMark: DecimalMark | null;
+  dialect: Dialect | null;
+  cells: string[][];
+  warnings: Warning[];
   layout: Layout | null;
   sectors: string[];
   rows: LabelRole<RowRole>[];
@@ -63,10 +81,15 @@ function run(text: string, opts: ImportOptions, p: Progress): IOTable {
   const body = stripBom(text);
   if (!/\S/.test(body)) throw new InputError('empty', 'the file is empty', { file });
   checkNotBinary(body, file);
-  const delimiter = (p.delimiter = opts.delimiter ?? detectDelimiter(body));
-  const decimalMark = (p.decimalMark = opts.decimalMark ?? detectDecimalMark(body, delimiter));
-  const grid = buildGrid(body, delimiter, file);
+  const d = resolveDialect(body, opts, file);
+  p.dialect = d.dialect;
+  const delimiter = (p.delimiter = d.dialect.delimiter);
+  const decimalMark = (p.decimalMark = d.dialect.decimalMark);
+  const guessed = d.guess ? guessedMarkWarning(d.guess, file) : null;
+  if (guessed) p.warnings.push(guessed);
+  const grid = buildGrid(d.text, delimiter, file);
   const rows = contentRows(grid);
+  p.cells = firstCells(grid, rows);
   if (rows.length === 0) throw new InputError('empty', 'the file has no cells', { file });
   if (rows.length === 1) throw new InputError('header-only', 'the file has a header but no rows of numbers', { file, line: grid.line(rows[0]!) });
   const isLong = opts.layout === 'long' || (opts.layout === undefined && longHeader(grid, rows[0]!) !== null);
@@ -82,7 +105,17 @@ function run(text: string, opts: ImportOptions, p: Progress): IOTable {
       p.columns = c.columns;
     },
   };
-  const raw = isLong ? readLong(grid, rows, read) : readMatrix(grid, rows, read, opts.layout === 'coefficients' ? 'coefficients' : 'matrix');
+  let raw: RawTable;
+  try {
+    raw = isLong ? readLong(grid, rows, read) : readMatrix(grid, rows, read, opts.layout === 'coefficients' ? 'coefficients' : 'matrix');
+  } catch (e) {
+    // A row with the wrong number of fields is often a wrong delimiter guess: say what was assumed and how to force it.
+    if (isInputError(e) && e.code === 'ragged-row') {
+      const sample = `${lineAt(d.text, grid.line(rows[0]!))}\n${lineAt(d.text, e.location.line ?? 0)}`;
+      throw new InputError(e.code, e.message + delimiterHint(p.dialect, sample, true), e.location, e.hint);
+    }
+    throw e;
+  }
   let guessedFromNumbers = false;
   if (opts.layout === undefined && raw.layout === 'matrix' && looksLikeCoefficients(raw)) {
     raw.layout = 'coefficients';
@@ -96,6 +129,7 @@ function run(text: string, opts: ImportOptions, p: Progress): IOTable {
     (b) => (p.balance = b),
   );
   p.sectors = table.sectors;
+  table.warnings.unshift(...p.warnings);
   // A flow table whose flows are all under 1 % of output reads the same way: say what was assumed, so it can be undone.
   if (guessedFromNumbers) {
     table.warnings.push({ code: 'coefficients-guessed', message: 'the block was read as technical coefficients (every column sums to at most 1, far below total output); if these are flows, import it with the matrix layout', location: { file } });
@@ -104,7 +138,28 @@ function run(text: string, opts: ImportOptions, p: Progress): IOTable {
 }
 
 function emptyProgress(): Progress {
-  return { delimiter: null, decimalMark: null, layout: null, sectors: [], rows: [], columns: [], balance: null };
+  return { delimiter: null, decimalMark: null, dialect: null, cells: [], warnings: [], layout: null, sectors: [], rows: [], columns: [], balance: null };
+}
+
+/** Text of a 1-based line ('' when there is none). */
+function lineAt(text: string, line: number): string {
+  let start = 0;
+  for (let k = 1; k < line; k++) {
+    start = text.indexOf('\n', start) + 1;
+    if (start === 0) return '';
+  }
+  const end = text.indexOf('\n', start);
+  return text.slice(start, end < 0 ? text.length : end);
+}
+
+/** The first records and fields exactly as the grid parsed them (quotes removed, decimal commas inside cells). */
+function firstCells(grid: Grid, rows: number[]): string[][] {
+  return rows.slice(0, PREVIEW_ROWS).map((r) => {
+    const w = Math.min(grid.width(r), PREVIEW_COLUMNS);
+    const out: string[] = [];
+    for (let c = 0; c < w; c++) out.push(grid.cell(r, c));
+    return out;
+  });
 }
 
 /** Import a table or throw an InputError with a located message. */
@@ -127,6 +182,13 @@ export interface TablePreview {
   layout: Layout | null;
   delimiter: Delimiter | null;
   decimalMark: DecimalMark | null;
+  /**
+   * How the delimiter and decimal mark were chosen (given, from a "sep=" line, proved by the numbers, or guessed) with
+   * a sentence for each; null when the import stopped before they were known.
+   */
+  dialect: Dialect | null;
+  /** The first 12 non-blank records, up to 10 fields each, exactly as parsed (for "the file as read"). */
+  cells: string[][];
   /** Sector labels (the inter-industry block), in row order. */
   sectors: string[];
   /** Every row label with its role ('sector' for block rows), in file order. */
@@ -134,6 +196,7 @@ export interface TablePreview {
   /** Every column label with its role, in file order. */
   columns: LabelRole<ColumnRole>[];
   balance: BalanceReport | null;
+  /** The table's warnings; for a refused file, those found before the refusal (a guessed decimal mark). */
   warnings: Warning[];
   refusal: Refusal | null;
   /** The imported table when ok. */
@@ -153,14 +216,8 @@ export function previewTable(text: string, opts: ImportOptions): TablePreview {
     return {
       ok: false,
       ...p,
-      warnings: [],
       refusal: { code: err.code, message: err.message, formatted: formatLocated(err), location: err.location },
       table: null,
     };
   }
 }
-
-export { checkNotBinary } from './text.ts';
-export { recordStartLines } from './grid.ts';
-export { writeTableCsv, writtenRoleMap } from './write.ts';
-export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from './sample.ts';

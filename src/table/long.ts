@@ -5,9 +5,10 @@
  */
 import { InputError, type Location } from '../diagnostics/index.ts';
 import type { Grid } from './grid.ts';
-import { checkWidth, headerWidth, negativeFlow, readCell, type ReadOptions } from './matrix.ts';
+import { checkWidth, headerWidth, negativeFlow, readCell, readLabel, type ReadOptions } from './matrix.ts';
 import { normaliseLabel } from './roles.ts';
-import { classify, cleanLabel, matchKey, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';
+import { classify, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';
+import { matchKey } from './labels.ts';
 
 const FROM = ['from', 'row', 'seller'];
 const TO = ['to', 'column', 'buyer'];
@@ -39,10 +40,11 @@ export function readLong(grid: Grid, rowsInFile: number[], opts: ReadOptions): R
   const fromLine: number[] = [];
   const toLine: number[] = [];
   const entries = new Map<string, number>(); // "fromIdx,toIdx" → grid row
+  const marked = new Set<string>();
   for (const r of rowsInFile.slice(1)) {
     checkWidth(grid, r, 3, fileName);
-    const f = cleanLabel(grid.cell(r, h.from));
-    const t = cleanLabel(grid.cell(r, h.to));
+    const f = readLabel(grid.cell(r, h.from), marked);
+    const t = readLabel(grid.cell(r, h.to), marked);
     const line = grid.line(r);
     if (f === '') throw new InputError('missing-label', "record has no 'from' label", { file: fileName, line, column: h.from + 1 });
     if (t === '') throw new InputError('missing-label', "record has no 'to' label", { file: fileName, line, column: h.to + 1 });
@@ -75,6 +77,7 @@ export function readLong(grid: Grid, rowsInFile: number[], opts: ReadOptions): R
     (k) => ({ file: fileName, line: toLine[k]!, column: h.to + 1 }),
     opts.roles,
     fileName,
+    marked,
   );
   opts.onStructure?.(cl);
   const n = cl.sectors.length;
@@ -97,6 +100,7 @@ export function readLong(grid: Grid, rowsInFile: number[], opts: ReadOptions): R
     }
   });
   const Z = new Float64Array(n * n);
+  const finalDemandIncome: RawTable['finalDemandIncome'] = [];
   for (const [key, r] of entries) {
     const comma = key.indexOf(',');
     const fi = Number(key.slice(0, comma));
@@ -112,6 +116,14 @@ export function readLong(grid: Grid, rowsInFile: number[], opts: ReadOptions): R
       columns[colOfTo[ti]!]!.values[si] = readCell(grid, r, h.value, dc, mark, false, where);
     } else if (sj >= 0 && rowOfFrom[fi]! >= 0) {
       rows[rowOfFrom[fi]!]!.values[sj] = readCell(grid, r, h.value, dc, mark, false, where);
+    } else if (rowOfFrom[fi]! >= 0 && colOfTo[ti]! >= 0) {
+      // Labour income paid by a final-demand column (government wages): household income too (finish.ts).
+      const row = rows[rowOfFrom[fi]!]!;
+      const col = columns[colOfTo[ti]!]!;
+      if (row.role === 'labourIncome' && (col.role === 'householdConsumption' || col.role === 'otherFinalDemand')) {
+        const v = readCell(grid, r, h.value, dc, mark, false, where);
+        if (v !== 0) finalDemandIncome.push({ row: row.label, column: col.label, value: v, at: where() });
+      }
     }
   }
   const entryAt = (f: string, t: string): Location => {
@@ -128,6 +140,7 @@ export function readLong(grid: Grid, rowsInFile: number[], opts: ReadOptions): R
     rows,
     columns,
     classified: cl,
+    finalDemandIncome,
     flowAt: (i, j) => entryAt(sectors[i]!, sectors[j]!),
     rowCellAt: (k, j) => entryAt(rows[k]!.label, sectors[j]!),
     columnCellAt: (k, i) => entryAt(sectors[i]!, columns[k]!.label),

@@ -5,7 +5,8 @@
 import { InputError, type Location } from '../diagnostics/index.ts';
 import type { Grid } from './grid.ts';
 import { parseNumberText, showNumber, type DecimalMark } from './numbers.ts';
-import { classify, cleanLabel, matchKey, type Classified, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';
+import { classify, type Classified, type ExtraColumn, type ExtraRow, type RawTable } from './structure.ts';
+import { cleanLabel, matchKey, splitSectorMark } from './labels.ts';
 import type { RoleMap } from './types.ts';
 
 export interface ReadOptions {
@@ -15,6 +16,13 @@ export interface ReadOptions {
   allowNegative: boolean;
   /** Told the labels and roles as soon as they are known, before any number is read (for the preview). */
   onStructure?: (c: Classified) => void;
+}
+
+/** A label as kept (labels.ts); a "(sector)" mark is removed and its match key added to `marked`. */
+export function readLabel(raw: string, marked: Set<string>): string {
+  const { label, marked: isMarked } = splitSectorMark(cleanLabel(raw));
+  if (isMarked) marked.add(matchKey(label));
+  return label;
 }
 
 /** Non-blank records, in order. */
@@ -76,10 +84,11 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
   const hr = rowsInFile[0]!;
   const W = headerWidth(grid, hr);
   const corner = cleanLabel(grid.cell(hr, 0));
+  const marked = new Set<string>();
   const colLabels: string[] = [];
   const colFirst = new Map<string, number>();
   for (let c = 1; c < W; c++) {
-    const label = cleanLabel(grid.cell(hr, c));
+    const label = readLabel(grid.cell(hr, c), marked);
     const loc = { file: fileName, line: grid.line(hr), column: c + 1 };
     if (label === '') throw new InputError('missing-label', 'column has no label', loc);
     const first = colFirst.get(matchKey(label));
@@ -91,7 +100,7 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
   const rowLabels: string[] = [];
   const rowFirst = new Map<string, number>();
   for (const r of dataRows) {
-    const label = cleanLabel(grid.cell(r, 0));
+    const label = readLabel(grid.cell(r, 0), marked);
     checkWidth(grid, r, W, fileName, label || undefined);
     const loc = { file: fileName, line: grid.line(r), column: 1 };
     if (label === '') throw new InputError('missing-label', 'row has numbers but no label', loc);
@@ -107,6 +116,7 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
     (k) => ({ file: fileName, line: grid.line(hr), column: k + 2 }),
     opts.roles,
     fileName,
+    marked,
   );
   opts.onStructure?.(cl);
   const n = cl.sectors.length;
@@ -152,6 +162,17 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
       row.values[j] = readCell(grid, r, c, dc, mark, false, () => at(r, c, row.label, sectors[j]!));
     }
   }
+  // Labour income paid by final-demand columns (government wages): household income too (finish.ts).
+  const finalDemandIncome: RawTable['finalDemandIncome'] = [];
+  for (const { r, row } of extraRows) {
+    if (row.role !== 'labourIncome') continue;
+    for (const { c, col } of extraCols) {
+      if (col.role !== 'householdConsumption' && col.role !== 'otherFinalDemand') continue;
+      const where = () => at(r, c, row.label, col.label);
+      const v = readCell(grid, r, c, dc, mark, false, where);
+      if (v !== 0) finalDemandIncome.push({ row: row.label, column: col.label, value: v, at: where() });
+    }
+  }
   return {
     layout,
     fileName,
@@ -162,6 +183,7 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
     rows: extraRows.map((e) => e.row),
     columns: extraCols.map((e) => e.col),
     classified: cl,
+    finalDemandIncome,
     flowAt: (i, j) => at(sectorRow[i]!, sectorCol[j]!, sectors[i]!, sectors[j]!),
     rowCellAt: (k, j) => at(extraRows[k]!.r, sectorCol[j]!, extraRows[k]!.row.label, sectors[j]!),
     columnCellAt: (k, i) => at(sectorRow[i]!, extraCols[k]!.c, sectors[i]!, extraCols[k]!.col.label),

@@ -5,7 +5,8 @@
  *   m × 10^k or m / 10^k in one IEEE operation on exact operands, which is correctly rounded and so equals
  *   Number() (Clinger, "How to read floating point numbers accurately", PLDI 1990 — the classic fast path).
  *   Anything else returns NaN and the caller falls back to the general path.
- * - `parseNumberText` handles the rest: surrounding spaces, thousands separators in groups of three, the decimal
+ * - `parseNumberText` handles the rest: surrounding spaces, thousands separators in groups of three (after a first
+ *   group of 1–3 digits that does not start with 0), the decimal
  *   comma, a Unicode minus sign; and classifies what cannot be read.
  */
 
@@ -100,8 +101,9 @@ const NOT_FINITE = /^[+-]?(nan|inf|infinity|∞)$/i;
 function groupPattern(decimal: DecimalMark): RegExp {
   const sep = decimal === '.' ? "[, \\u00a0\\u202f']" : "[. \\u00a0\\u202f']";
   const dec = decimal === '.' ? '\\.' : ',';
-  // Either plain digits, or 1–3 digits followed by groups of three joined by one separator kind.
-  return new RegExp(`^(\\d+|\\d{1,3}(${sep})\\d{3}(?:\\2\\d{3})*)(?:${dec}(\\d*))?(?:[eE]([+-]?\\d+))?$|^${dec}(\\d+)(?:[eE]([+-]?\\d+))?$`);
+  // Either plain digits, or 1–3 digits (not starting with 0: '0.010' is no thousands grouping) followed by groups of
+  // three joined by one separator kind.
+  return new RegExp(`^(\\d+|[1-9]\\d{0,2}(${sep})\\d{3}(?:\\2\\d{3})*)(?:${dec}(\\d*))?(?:[eE]([+-]?\\d+))?$|^${dec}(\\d+)(?:[eE]([+-]?\\d+))?$`);
 }
 
 const GROUPED: Record<DecimalMark, RegExp> = { '.': groupPattern('.'), ',': groupPattern(',') };

@@ -1,10 +1,9 @@
 /**
- * What the raw text is before any cell is read: its size, byte-order mark, whether it is text at all,
- * its delimiter and its decimal mark.
+ * What the raw text is before any cell is read: its size, byte-order mark and whether it is text at all.
+ * Its delimiter and decimal mark are dialect.ts's.
  */
 import { InputError } from '../diagnostics/index.ts';
 import { fileTooLarge, MAX_OPEN_BYTES } from '../bridge/files.ts';
-import type { DecimalMark } from './numbers.ts';
 
 /** Largest table accepted, refused before parsing: the product's one file-size limit (200 MiB). */
 export const MAX_TABLE_BYTES = MAX_OPEN_BYTES;
@@ -53,42 +52,4 @@ export function checkNotBinary(text: string, fileName: string): void {
     if ((c < 32 && c !== 9 && c !== 10 && c !== 13 && c !== 12) || c === 0x7f || c === 0xfffd) odd++;
   }
   if (odd > 0.01 * n) throw new InputError('binary', 'the file looks like binary data, not CSV text', { file: fileName });
-}
-
-/** Delimiter of the first non-blank line: the most frequent of comma, semicolon and tab outside quotes (ties go to comma, then semicolon). */
-export function detectDelimiter(text: string): Delimiter {
-  const counts = { ',': 0, ';': 0, '\t': 0 };
-  let inQuotes = false;
-  let seen = false;
-  for (let i = 0; i < text.length; i++) {
-    const ch = text[i]!;
-    if (ch === '"') inQuotes = !inQuotes;
-    else if (!inQuotes && (ch === '\n' || ch === '\r')) {
-      if (seen) break;
-    } else if (!inQuotes && (ch === ',' || ch === ';' || ch === '\t')) {
-      counts[ch]++;
-      seen = true;
-    } else if (ch.trim() !== '') seen = true;
-  }
-  if (counts['\t'] > counts[','] && counts['\t'] > counts[';']) return '\t';
-  if (counts[';'] > counts[',']) return ';';
-  return ',';
-}
-
-/**
- * Decimal mark. Comma-delimited and tab-delimited files use a point. Semicolon-delimited files use the decimal comma
- * (the usual reason for choosing ';'), unless no comma stands between digits anywhere (commas in labels do not count)
- * and some point is followed by other than a group of exactly three digits — then the points can only be decimal points.
- */
-export function detectDecimalMark(text: string, delimiter: Delimiter): DecimalMark {
-  if (delimiter !== ';') return '.';
-  if (/\d,\d/.test(text)) return ',';
-  const re = /\d\.(\d*)/g;
-  let m: RegExpExecArray | null;
-  while ((m = re.exec(text)) !== null) {
-    if (m[1]!.length !== 3) return '.';
-    const next = text[m.index + 2 + m[1]!.length];
-    if (next !== undefined && next >= '0' && next <= '9') return '.';
-  }
-  return ',';
 }

@@ -16,6 +16,21 @@ export type ColumnRole = 'householdConsumption' | 'otherFinalDemand' | 'totalOut
 export interface RoleMap {
   rows: Record<string, RowRole>;
   columns: Record<string, ColumnRole>;
+  /** Labels read as sectors whatever their words ("Import services"), when found both as a row and as a column. */
+  sectors?: string[];
+}
+
+/**
+ * Labour income paid by a final-demand column (government wages, households' domestic staff): a cell of a
+ * labour-income row under a final-demand column. It is household income, so it enters total household income in the
+ * household-closed model (Miller & Blair 2009, §2.5).
+ */
+export interface FinalDemandIncome {
+  /** Label of the labour-income row. */
+  row: string;
+  /** Label of the final-demand column. */
+  column: string;
+  value: number;
 }
 
 export type Layout = 'matrix' | 'long' | 'coefficients';
@@ -43,6 +58,8 @@ export interface IOTable {
   /** Final-demand columns, by role. */
   householdConsumption: LabelledVector[];
   otherFinalDemand: LabelledVector[];
+  /** Labour income paid by final-demand columns (non-zero cells only); absent or empty when there is none. */
+  householdIncomeFromFinalDemand?: FinalDemandIncome[];
   /** Units of money as stated by the user or the corner cell, e.g. "thousand dollars". */
   moneyUnit: string;
   layout: Layout;

@@ -2,10 +2,9 @@
  * Seeded invented matrices for the benchmark: M = I − A with A non-negative and column sums between 0.3 and 0.95,
  * the shape of a productive economy's Leontief matrix (invented numbers, no real table).
  */
-export function seeded(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32);
-}
+import { seeded } from '../support/random.ts';
+
+export { seeded };
 
 /** Invented technical coefficients: most of each column's inputs come from a few sectors, as in real tables. */
 export function inventedCoefficients(n: number, seed = 20261201 + n): Float64Array {

@@ -16,7 +16,7 @@ import { prepareModel, analyzeTable } from '../../src/model/index.ts';
 import { runScenario } from '../support/scenario.ts';
 import type { Scenario } from '../../src/scenario/index.ts';
 import type { Download } from 'playwright-core';
-import { bigTable } from '../support/big-table.ts';
+import { sparseTableCsv } from '../support/random-tables.ts';
 
 const FIX = join(REPO, 'test', 'fixtures', 'e2e');
 const TEST_CSV = join(FIX, 'ridgeline-test.csv');
@@ -284,7 +284,7 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
 
   it('stays usable at 2,000 sectors: progress with cancel while it works, then virtual scrolling', async () => {
     const file = join(REPO, 'test-output', 'e2e-2000-sectors.csv');
-    writeFileSync(file, bigTable(2000));
+    writeFileSync(file, sparseTableCsv(2000));
     await go('import');
     await page.getByTestId('file-input').setInputFiles(file);
     await page.getByTestId('accept-import').click({ timeout: 60_000 });

@@ -1,13 +1,21 @@
 /**
- * End-to-end harness: Vite's dev server started in-process on a free port with the real renderer config, and Debian's
- * Chromium driven by playwright-core. When CI is set and no Chromium is found the suite fails; elsewhere it skips
- * with a message saying why.
+ * End-to-end harness: every e2e file shares one Vite dev server (the real renderer config) and one Debian Chromium,
+ * both started once by global-setup.ts; startSession() connects to that browser (playwright-core) and opens a browser
+ * context of the file's own. When CI is set and no Chromium is found the suite fails; elsewhere it skips with a
+ * message saying why.
  */
-import { existsSync, mkdirSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { join } from 'node:path';
-import { createServer, type ViteDevServer } from 'vite';
+import { inject } from 'vitest';
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    /** The shared session started by global-setup.ts; null when no Chromium was found. */
+    e2e: { url: string; wsEndpoint: string } | null;
+  }
+}
 
 export const REPO = fileURLToPath(new URL('../..', import.meta.url));
 export const CHROMIUM = process.env.ROUNDWISE_CHROMIUM ?? '/usr/bin/chromium';
@@ -28,9 +36,10 @@ export function requireChromium(): void {
 }
 
 export interface Session {
-  server: ViteDevServer;
+  /** The shared dev server's address. */
   url: string;
   browser: Browser;
+  /** This file's own browser context (storage, downloads, pages). */
   context: BrowserContext;
   page: Page;
   /** Console errors and uncaught page errors seen so far. */
@@ -40,28 +49,19 @@ export interface Session {
 
 export async function startSession(): Promise<Session> {
   requireChromium();
-  mkdirSync(SCREENSHOTS, { recursive: true });
-  mkdirSync(DOWNLOADS, { recursive: true });
-  const server = await createServer({
-    configFile: join(REPO, 'renderer', 'vite.config.ts'),
-    server: { port: 0, strictPort: false, hmr: false },
-    logLevel: 'error',
-  });
-  await server.listen();
-  const url = server.resolvedUrls?.local[0];
-  if (!url) throw new Error('e2e: the dev server did not report a URL');
-  const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
+  const shared = inject('e2e');
+  if (!shared) throw new Error('e2e: the shared dev server and browser were not started (run the e2e project of vitest.config.ts).');
+  const browser = await chromium.connect(shared.wsEndpoint);
   const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, acceptDownloads: true, locale: 'en-US' });
   const page = await context.newPage();
   const errors: string[] = [];
   page.on('console', (m) => { if (m.type() === 'error') errors.push(`console: ${m.text()}`); });
   page.on('pageerror', (e) => errors.push(`page: ${e.message}`));
   return {
-    server, url, browser, context, page, errors,
+    url: shared.url, browser, context, page, errors,
     async close() {
       await context.close().catch(() => {});
-      await browser.close().catch(() => {});
-      await server.close();
+      await browser.close().catch(() => {}); // disconnects; the shared browser is closed by the global setup
     },
   };
 }

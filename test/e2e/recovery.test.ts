@@ -12,7 +12,7 @@ import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import { REPO, shot, skipBrowser, startSession, type Session } from './harness.ts';
-import { bigTable } from '../support/big-table.ts';
+import { sparseTableCsv } from '../support/random-tables.ts';
 
 const TEST_CSV = join(REPO, 'test', 'fixtures', 'e2e', 'ridgeline-test.csv');
 let s: Session;
@@ -190,7 +190,7 @@ describe.skipIf(skipBrowser)('crash recovery, in the browser', () => {
   it('keeps a copy of a project over the localStorage quota (about 6 MB)', async () => {
     // A project keeps the table file itself: 1,700 sectors of CSV text are about 6 MB, over the 5 MB of localStorage.
     const file = join(REPO, 'test-output', 'e2e-recovery-1700-sectors.csv');
-    writeFileSync(file, bigTable(1700));
+    writeFileSync(file, sparseTableCsv(1700));
     const page = await openApp();
     await clearCopies(page);
     await importTable(page, file);

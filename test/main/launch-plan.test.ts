@@ -1,4 +1,4 @@
-// `npm start` decision table (the project's own rule from the foundation issue: desktop window when the Electron
+// `npm start` decision table (the project's own rule, DEVELOPERS.md "Desktop shell": desktop window when the Electron
 // binary is there; otherwise one line and browser mode on 127.0.0.1, in a Chromium --app window when one is found,
 // never a window under CI or without a display).
 import { describe, it, expect } from 'vitest';

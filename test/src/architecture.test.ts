@@ -1,14 +1,14 @@
-// The import rules of test/eslint.config.js, checked on deliberately wrong code (common practice, no source:
+// The import rules of eslint.config.js, checked on deliberately wrong code (common practice, no source:
 // these are the project's own architecture rules, so the "reference" is the rule text itself).
 import { describe, it, expect } from 'vitest';
 import { ESLint } from 'eslint';
 import tseslint from 'typescript-eslint';
 import { fileURLToPath } from 'node:url';
 // @ts-expect-error -- the lint config is plain JavaScript without type declarations
-import { ENGINE_LAYERS, frontEndRule } from '../eslint.config.js';
+import { ENGINE_LAYERS, frontEndRule } from '../../eslint.config.js';
 
 const root = fileURLToPath(new URL('../..', import.meta.url));
-const eslint = new ESLint({ cwd: root, overrideConfigFile: 'test/eslint.config.js' });
+const eslint = new ESLint({ cwd: root, overrideConfigFile: 'eslint.config.js' });
 
 async function ruleIds(code: string, filePath: string, linter = eslint): Promise<string[]> {
   const [result] = await linter.lintText(code, { filePath });

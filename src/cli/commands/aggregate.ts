@@ -3,6 +3,7 @@
  * reports the aggregation bias.
  */
 import { CAUTIONS, aboutText, reportFiles, importTable, writeTableCsv, aggregateTable, parseGroupMapping, type AggregationResult } from '../../study/index.ts';
+import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand } from '../command.ts';
 import { num, textTable } from '../terminal.ts';
 
@@ -27,6 +28,7 @@ export const aggregate = defineCommand({
   options: {
     groups: { type: 'string', value: 'GROUPS.csv', required: true, help: 'CSV sector,group: one line per sector of the table (header optional); groups keep the order in which they first appear' },
     map: { type: 'string', value: 'MAP.json', help: 'role overrides for the table\'s rows and columns' },
+    ...TABLE_DIALECT_OPTIONS,
   },
   outHelp: 'write aggregated-table.csv (reads back with roundwise analyze) and aggregation-bias.csv, each with an .about.txt',
   notes: [
@@ -36,7 +38,7 @@ export const aggregate = defineCommand({
   async run({ input, values }, ctx) {
     const roles = ctx.roleMap(values.map);
     const file = ctx.input(input);
-    const table = importTable(file.text, { fileName: input, ...(roles ? { roles } : {}) });
+    const table = importTable(file.text, { fileName: input, ...tableDialect(values), ...(roles ? { roles } : {}) });
     const res = aggregateTable(table, parseGroupMapping(ctx.input(values.groups).text, values.groups));
     const rows = biasRows(res);
     const meta = {

@@ -5,6 +5,7 @@
 import {
   MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy, type PrepareOptions, type Study, formatLocated, visibleText,
 } from '../../study/index.ts';
+import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand } from '../command.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
 
@@ -72,13 +73,14 @@ export const analyze = defineCommand({
     map: { type: 'string', value: 'MAP.json', help: 'role overrides for the table\'s rows and columns ({"rows": {label: role}, "columns": {label: role}})' },
     'allow-negative': { type: 'boolean', help: 'accept negative flows (e.g. subsidies or stock changes) instead of refusing them' },
     tolerance: { type: 'number', value: 'T', help: 'rounds to tolerance: count spending rounds until less than T of any demand is left (0 < T < 1; default 1e-6)', check: (t) => (t > 0 && t < 1 ? null : 'must be a number between 0 and 1') },
+    ...TABLE_DIALECT_OPTIONS,
   },
   outHelp: 'write multipliers, coefficients, Leontief inverse, viability, Perron vectors and spectrum (n ≤ 400) as CSV, each with an .about.txt',
   notes: ['Warnings (e.g. an unproductive table) go to stderr; an unproductive table is analysed (exit 0), its multipliers left blank.'],
   async run({ input, values }, ctx) {
     const roles = ctx.roleMap(values.map);
     const file = ctx.input(input);
-    const study = studyFromTableFile(file.bytes, file.name, { allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
+    const study = studyFromTableFile(file.bytes, file.name, { ...tableDialect(values), allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
     if (values.tolerance !== undefined) study.settings.rounds.tolerance = values.tolerance;
     const ps = await prepare(study, { inverse: values.out !== undefined });
     for (const w of ps.analysis.warnings) ctx.warn(formatLocated(w));

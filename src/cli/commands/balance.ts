@@ -3,6 +3,7 @@
  * with --table, a whole table's intermediate flows) to given row and column totals (src/regional/ras.ts).
  */
 import { InputError, CAUTIONS, reportFiles, aboutText, type ReportFile, importTable, writeTableCsv, balanceTable, parseLabelledMatrix, parseTotals, ras, RAS_DEFAULT_MAX_ITERATIONS, RAS_DEFAULT_TOLERANCE, type RasResult, type LabelledMatrix } from '../../study/index.ts';
+import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand } from '../command.ts';
 import { num } from '../terminal.ts';
 
@@ -43,6 +44,7 @@ export const balance = defineCommand({
     table: { type: 'boolean', help: 'MATRIX.csv is a whole input-output table (any layout roundwise analyze reads); final demand and value added absorb the rest of output' },
     output: { type: 'string', value: 'OUTPUT.csv', help: 'with --table: label,total new total output by sector (default: the table\'s own)' },
     map: { type: 'string', value: 'MAP.json', help: 'with --table: role overrides for the table\'s rows and columns' },
+    ...TABLE_DIALECT_OPTIONS,
   },
   outHelp: 'write balanced.csv (same layout as MATRIX.csv), or with --table balanced-table.csv (reads back with roundwise analyze), each with an .about.txt (convergence report)',
   notes: [
@@ -52,6 +54,7 @@ export const balance = defineCommand({
   ],
   async run({ input, values }, ctx) {
     if (!values.table && (values.output !== undefined || values.map !== undefined)) throw ctx.usageError('--output and --map apply to --table only');
+    if (!values.table && (values.delimiter !== undefined || values['decimal-mark'] !== undefined)) throw ctx.usageError('--delimiter and --decimal-mark apply to --table only');
     const rasOpts = {
       fileName: input,
       ...(values.tolerance !== undefined ? { tolerance: values.tolerance } : {}),
@@ -63,7 +66,7 @@ export const balance = defineCommand({
     let tableFile: { csv: string; notes: string[]; name: string; moneyUnit: string } | undefined;
     if (values.table) {
       const roles = ctx.roleMap(values.map);
-      const t = importTable(file.text, { fileName: input, ...(roles ? { roles } : {}) });
+      const t = importTable(file.text, { fileName: input, ...tableDialect(values), ...(roles ? { roles } : {}) });
       const sales = parseTotals(ctx.input(values.rows).text, values.rows, t.sectors, 'sector');
       const purchases = parseTotals(ctx.input(values.columns).text, values.columns, t.sectors, 'sector');
       const output = values.output !== undefined ? parseTotals(ctx.input(values.output).text, values.output, t.sectors, 'sector') : undefined;

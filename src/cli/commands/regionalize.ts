@@ -5,6 +5,7 @@
 import {
   CAUTIONS, aboutText, estimateCountyTable, reportFiles, LQ_METHODS, type LqMethod, type RegionalResult, type ReportMeta, type ReportFile, type Verdict, DEFAULT_FLQ_DELTA,
 } from '../../study/index.ts';
+import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand } from '../command.ts';
 import { num, textTable } from '../terminal.ts';
 
@@ -78,6 +79,7 @@ export const regionalize = defineCommand({
     method: { type: 'string', value: 'M', required: true, choices: LQ_METHODS, help: 'slq (simple), cilq (cross-industry) or flq (Flegg) location quotients' },
     delta: { type: 'number', value: 'D', help: 'FLQ exponent δ, 0 to 1 (default 0.3; Flegg & Tohmo 2013 report 0.25–0.35 fitting survey tables)', check: (d) => (d >= 0 && d <= 1 ? null : 'must lie between 0 and 1') },
     map: { type: 'string', value: 'MAP.json', help: 'role overrides for the national table\'s rows and columns' },
+    ...TABLE_DIALECT_OPTIONS,
   },
   outHelp: 'write regional-table.csv (reads back with roundwise analyze), location-quotients.csv and regional-coefficients.csv, each with an .about.txt of notes and cautions',
   async run({ input, values }, ctx) {
@@ -87,7 +89,7 @@ export const regionalize = defineCommand({
     const file = ctx.input(input);
     const est = estimateCountyTable({
       national: { bytes: file.bytes, fileName: input },
-      ...(roles ? { nationalRoles: roles } : {}),
+      nationalImport: { ...tableDialect(values), ...(roles ? { roles } : {}) },
       employment: { bytes: ctx.input(values.employment).bytes, fileName: values.employment },
       method,
       delta: values.delta ?? DEFAULT_FLQ_DELTA,

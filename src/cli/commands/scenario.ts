@@ -3,9 +3,10 @@
  * induced / total effects by sector, spending rounds, implied multipliers; optionally structural paths to one sector,
  * and the study saved as a project file. Everything is computed by src/study, as in the app.
  */
+import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { readFileLimited } from '../../node-io/index.ts';
 import {
-  CAUTIONS, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile, tableReport, studyFromTableFile, VARIABLES, type Closure, type PreparedStudy, type ScenarioOutcome, InputError, visibleText, parseShockCsv,
+  CAUTIONS, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile, tableReport, studyFromTableFile, VARIABLES, type Closure, type PreparedStudy, type ScenarioOutcome, InputError, visibleText, parseShockCsv, matchKey,
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
 
@@ -65,21 +66,26 @@ export const scenario = defineCommand({
     closure: { type: 'string', value: 'households|none', choices: ['households', 'none'], help: 'households (default, when the table allows it): induced effects from the household closure; none: open model only' },
     paths: { type: 'string', value: 'SECTOR', help: 'add the structural paths that carry the effect to SECTOR (printed in the summary too)' },
     project: { type: 'string', value: 'FILE.json', help: 'save the study (table, shock, settings) as a project file the app opens; an existing file is replaced only if it is a Roundwise project' },
+    ...TABLE_DIALECT_OPTIONS,
   },
   outHelp: 'write the scenario\'s reports (NAME-inputs, NAME-impact, NAME-implied-multipliers, NAME-rounds, NAME-rounds-by-sector, and NAME-paths with --paths; NAME from the shock file) and the table\'s multipliers as CSV, each with an .about.txt',
   async run({ input, values }, ctx) {
     const tableFile = ctx.input(input);
     const roles = ctx.roleMap(values.map);
     const scenario = parseShockCsv(ctx.input(values.shock).text, values.shock);
-    const study = studyFromTableFile(tableFile.bytes, tableFile.name, roles ? { roles } : {}, { scenarios: [scenario] });
+    const study = studyFromTableFile(tableFile.bytes, tableFile.name, { ...tableDialect(values), ...(roles ? { roles } : {}) }, { scenarios: [scenario] });
     if (values.closure !== undefined) study.settings.closure = values.closure as Closure;
     study.settings.activeScenario = scenario.name;
+    let destination: string | null = null;
     if (values.paths !== undefined) {
-      if (!study.table.sectors.includes(values.paths)) throw new InputError('unknown-sector', `--paths: unknown sector '${values.paths}'`, { rowLabel: values.paths });
-      study.settings.paths.destination = values.paths;
+      // The sector as the importer keeps labels (NFC, no invisible characters, case ignored), as shock files are read.
+      const want = matchKey(values.paths);
+      destination = study.table.sectors.find((s) => matchKey(s) === want) ?? null;
+      if (destination === null) throw new InputError('unknown-sector', `--paths: unknown sector '${values.paths}'`, { rowLabel: values.paths });
+      study.settings.paths.destination = destination;
     }
     const ps = prepareStudy(study, { spectrum: false });
-    const outcome = runStudyScenario(ps, scenario, { paths: values.paths ?? null });
+    const outcome = runStudyScenario(ps, scenario, { paths: destination });
     const files = [];
     if (values.project !== undefined) {
       refuseToOverwriteForeign(values.project);

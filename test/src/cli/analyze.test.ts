@@ -5,19 +5,15 @@ import { mkdtempSync, writeFileSync, readFileSync, readdirSync, rmSync } from 'n
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Papa from 'papaparse';
-import { main } from '../../../src/cli/main.ts';
 import { importTable } from '../../../src/table/index.ts';
 import { analyzeTable } from '../../../src/model/index.ts';
 import { CAUTIONS } from '../../../src/report/index.ts';
+import { runCli } from '../../support/cli.ts';
 
 const SAMPLE = 'sample-data/fernhollow-county.csv';
 let dir: string;
 
-async function cli(...args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '', err = '';
-  const code = await main(['analyze', ...args], { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
+const cli = (...args: string[]) => runCli(['analyze', ...args]);
 
 beforeAll(() => {
   dir = mkdtempSync(join(tmpdir(), 'rw-analyze-'));
@@ -33,7 +29,7 @@ beforeAll(() => {
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 describe('roundwise analyze --json', () => {
-  it('prints one JSON object with the keys of the issue, matching the engine', async () => {
+  it('prints one JSON object with the documented keys (README, analyze --json), matching the engine', async () => {
     const r = await cli(SAMPLE, '--json');
     expect(r.code).toBe(0);
     const j = JSON.parse(r.out);

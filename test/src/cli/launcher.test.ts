@@ -1,9 +1,11 @@
 // The `roundwise` launcher: the bundle built by `npm install` (src/cli/bundle.mjs) must give exactly what the
-// TypeScript sources give, and is used only while it is newer than the sources (common practice, no source: the
-// reference is the project's own source run through tsx).
+// TypeScript sources give, and is used only while it is newer than the sources, or always in an installed package
+// (common practice, no source: the reference is the project's own source run through tsx).
 import { describe, it, expect, beforeAll } from 'vitest';
 import { execFileSync, spawnSync } from 'node:child_process';
-import { existsSync, statSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, rmSync, statSync, utimesSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = fileURLToPath(new URL('../../..', import.meta.url));
@@ -34,4 +36,33 @@ describe('roundwise launcher', () => {
     expect(badB.status).toBe(badS.status);
     expect(badB.stderr).toBe(badS.stderr);
   }, 60_000);
+
+  it('an installed package (unpacked under node_modules, without tsx) runs its bundle whatever the file times', () => {
+    // npm gives unpacked files the time of unpacking, so a source file may look newer than the bundle.
+    const dir = mkdtempSync(join(tmpdir(), 'rw-installed-'));
+    try {
+      const pkg = join(dir, 'node_modules', 'roundwise');
+      mkdirSync(join(pkg, 'src', 'cli'), { recursive: true });
+      mkdirSync(join(pkg, 'dist', 'cli'), { recursive: true });
+      for (const f of ['main.mjs', 'parallel-worker.mjs']) copyFileSync(join(root, 'dist', 'cli', f), join(pkg, 'dist', 'cli', f));
+      copyFileSync(join(root, bin), join(pkg, bin));
+      writeFileSync(join(pkg, 'src', 'cli', 'main.ts'), '// unpacked after the bundle\n');
+      const later = new Date(Date.now() + 60_000);
+      utimesSync(join(pkg, 'src', 'cli', 'main.ts'), later, later);
+      const launch = () => spawnSync(process.execPath, [join(pkg, bin), 'analyze', join(root, 'sample-data', 'fernhollow-county.csv'), '--json'], { cwd: dir, encoding: 'utf8' });
+      const ok = launch();
+      expect(ok.stderr).toBe('');
+      expect(ok.status).toBe(0);
+      expect(ok.stdout).toBe(run({}, 'analyze', 'sample-data/fernhollow-county.csv', '--json').stdout);
+      // Without the bundle, and without tsx to run the sources: one line saying what to do, exit 1.
+      rmSync(join(pkg, 'dist', 'cli', 'main.mjs'));
+      const missing = launch();
+      expect(missing.status).toBe(1);
+      expect(missing.stdout).toBe('');
+      expect(missing.stderr).toBe('roundwise: the CLI bundle (dist/cli/main.mjs) is missing, and tsx (a development dependency) is not installed to run the sources: run `npm install` in the source folder (it builds the bundle), or `npm run build:cli`\n');
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  }, 60_000);
 });
+

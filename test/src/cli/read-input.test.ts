@@ -5,8 +5,8 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { mkdtempSync, rmSync, writeFileSync, truncateSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../../src/cli/main.ts';
 import { MAX_TABLE_BYTES } from '../../../src/table/index.ts';
+import { runCli } from '../../support/cli.ts';
 
 let dir: string;
 beforeAll(() => {
@@ -16,11 +16,7 @@ beforeAll(() => {
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-async function run(...args: string[]) {
-  let out = '', err = '';
-  const code = await main(args, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
+const run = (...args: string[]) => runCli(args);
 
 describe('CLI input files', () => {
   it('an oversized side file is refused by its size, before it is read', async () => {

@@ -2,12 +2,12 @@
 // Checks are properties of the published methods, not invented reference numbers:
 // - mixed exogenous/endogenous model (Miller & Blair 2009, §13.1, recalled from memory): a `jobs` line fixes the
 //   sector's jobs, so its direct employment equals the amount exactly;
-// - total = direct + indirect + induced (the definitions of the issue / Miller & Blair 2009 ch. 6).
+// - total = direct + indirect + induced (the effect definitions of README's methods table, Miller & Blair 2009 ch. 6).
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { mkdtempSync, readFileSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../../src/cli/main.ts';
+import { runCli } from '../../support/cli.ts';
 
 const README = readFileSync(new URL('../../../README.md', import.meta.url), 'utf8');
 let dir: string;
@@ -17,11 +17,7 @@ function argv(line: string): string[] {
   return [...line.matchAll(/"([^"]*)"|(\S+)/g)].map((m) => m[1] ?? m[2]!);
 }
 
-async function run(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '', err = '';
-  const code = await main(args, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
+const run = runCli;
 
 beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'rw-readme-')); });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));

@@ -180,14 +180,6 @@ export function nonFiniteText(text: string): string[] {
   return [...text.matchAll(/(^|[,"\s:[])(-?Infinity|NaN|∞)(?=$|[,"\s\]}])/gm)].map((m) => m[2]!);
 }
 
-/** A CLI run in process, with captured streams. */
-export async function runCli(main: (argv: string[], io: { stdout: (s: string) => void; stderr: (s: string) => void }) => Promise<number>, argv: string[]) {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
-
 /** A refused CLI run: non-zero exit, nothing on stdout, a 1–3 line message on stderr naming the command, no stack trace. */
 /** A refusal as the CLI prints it: exit 2 for refused input (1 for a usage mistake), one to three lines, no trace. */
 export function expectCliRefusal(r: { code: number; out: string; err: string }, command: string, exitCode: 1 | 2 = 2): void {

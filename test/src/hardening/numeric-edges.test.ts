@@ -9,7 +9,6 @@ import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'n
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { main } from '../../../src/cli/index.ts';
 import { InputError } from '../../../src/diagnostics/index.ts';
 import { prepareModel } from '../../../src/model/index.ts';
 import { runScenario } from '../../support/scenario.ts';
@@ -18,7 +17,8 @@ import { analysisJson } from '../../../src/report/index.ts';
 import { prepareStudy, runStudyScenario, studyOfTable } from '../../../src/study/index.ts';
 import { importTable } from '../../../src/table/index.ts';
 import { EDGE_TABLES } from './edge-tables.ts';
-import { expectCliRefusal, nonFinite, nonFiniteText, runCli } from './gen.ts';
+import { expectCliRefusal, nonFinite, nonFiniteText } from './gen.ts';
+import { runCli } from '../../support/cli.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-edges-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -30,7 +30,7 @@ async function scenarioCli(name: keyof typeof EDGE_TABLES, extra: string[] = [])
   writeFileSync(table, EDGE_TABLES[name]);
   const shock = join(dir, 'shock.csv');
   writeFileSync(shock, SHOCK);
-  return runCli(main, ['scenario', table, '--shock', shock, ...extra]);
+  return runCli(['scenario', table, '--shock', shock, ...extra]);
 }
 
 /** The analysis through the engine and `roundwise analyze` (--json and --out): no NaN or Infinity anywhere. */
@@ -41,11 +41,11 @@ async function expectFiniteAnalysis(name: keyof typeof EDGE_TABLES) {
   expect(nonFinite(analysisJson(an))).toEqual([]);
   const table = join(dir, `${name}.csv`);
   writeFileSync(table, EDGE_TABLES[name]);
-  const json = await runCli(main, ['analyze', table, '--json']);
+  const json = await runCli(['analyze', table, '--json']);
   expect(json.code, json.err).toBe(0);
   expect(nonFiniteText(json.out)).toEqual([]);
   const out = join(dir, `analysis-${name}`);
-  const rep = await runCli(main, ['analyze', table, '--out', out]);
+  const rep = await runCli(['analyze', table, '--out', out]);
   expect(rep.code, rep.err).toBe(0);
   for (const f of readdirSync(out)) expect(nonFiniteText(readFileSync(join(out, f), 'utf8')), f).toEqual([]);
   return { an, json: JSON.parse(json.out) as { viability: Record<string, unknown> }, warnings: json.err };
@@ -176,7 +176,7 @@ describe('numerical edges', () => {
     expect(table.sectors).toEqual(['A', 'B']);
     expect(table.warnings.find((w) => w.code === 'sector-dropped')?.message).toBe("dropped 1 sector with zero output and no purchases or sales: 'C'");
     writeFileSync(join(dir, 'shock-c.csv'), 'sector,amount\r\nC,10\r\n');
-    const r = await runCli(main, ['scenario', join(dir, 'zeroSector.csv'), '--shock', join(dir, 'shock-c.csv')]);
+    const r = await runCli(['scenario', join(dir, 'zeroSector.csv'), '--shock', join(dir, 'shock-c.csv')]);
     expectCliRefusal(r, 'scenario');
     expect(r.err).toContain("unknown sector 'C' (the table has: A, B)");
   });

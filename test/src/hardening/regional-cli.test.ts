@@ -9,8 +9,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
-import { main } from '../../../src/cli/index.ts';
-import { nonFiniteText, runCli } from './gen.ts';
+import { nonFiniteText } from './gen.ts';
+import { runCli } from '../../support/cli.ts';
 
 const FIX = fileURLToPath(new URL('../../fixtures/regional/', import.meta.url));
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-regional-hardening-'));
@@ -29,7 +29,7 @@ describe('regional commands on damaged inputs', () => {
   for (const { name, args } of RUNS) {
     it(`${name}: finite JSON or a short refusal, never a stack trace`, async () => {
       const inputs = args.filter((a) => a.endsWith('.csv'));
-      const ok = await runCli(main, args.map((a) => (a.endsWith('.csv') ? join(FIX, a) : a)));
+      const ok = await runCli(args.map((a) => (a.endsWith('.csv') ? join(FIX, a) : a)));
       expect(ok.code, ok.err).toBe(0);
       let refused = 0;
       await fc.assert(
@@ -42,7 +42,7 @@ describe('regional commands on damaged inputs', () => {
           const damaged = join(dir, `damaged-${target}`);
           writeFileSync(damaged, text);
           const argv = args.map((a) => (a === target ? damaged : a.endsWith('.csv') ? join(FIX, a) : a));
-          const r = await runCli(main, argv);
+          const r = await runCli(argv);
           if (r.code === 0) {
             expect(nonFiniteText(r.out)).toEqual([]);
             JSON.parse(r.out);

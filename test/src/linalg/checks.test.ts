@@ -5,11 +5,7 @@ import {
   conditionEstimate1, inverseNormEstimate1, scaledResidual, solveResidual, luFactor, luInverse, luSolve, norm1,
   RESIDUAL_THRESHOLD, UNIT_ROUNDOFF,
 } from '../../../src/linalg/index.ts';
-
-function seeded(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32);
-}
+import { seeded } from '../../support/random.ts';
 
 function toRows(a: Float64Array, n: number): number[][] {
   return Array.from({ length: n }, (_, i) => Array.from(a.subarray(i * n, (i + 1) * n)));

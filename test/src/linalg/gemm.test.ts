@@ -4,11 +4,7 @@ import { describe, it, expect, afterAll } from 'vitest';
 import { gemmSubtract, setKernelMode } from '../../../src/linalg/gemm.ts';
 import { instantiateGemm, gemmModuleBytes } from '../../../src/linalg/wasm-gemm.ts';
 import { withWorkspace } from '../../../src/linalg/workspace.ts';
-
-function seeded(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32);
-}
+import { seeded } from '../../support/random.ts';
 
 interface Case { m: number; n: number; k: number; ldc: number; lda: number; ldb: number; cOff: number; aOff: number; bOff: number }
 

@@ -11,19 +11,7 @@ import {
   luFactorReference, luInverseReference, luSolveManyReference, luSolveReference, luSolveTransposedReference,
 } from '../../../src/linalg/lu-reference.ts';
 import { setKernelMode, type KernelMode } from '../../../src/linalg/gemm.ts';
-
-function seeded(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32);
-}
-
-function randomMatrix(n: number, m: number, seed: number, dominance = 0): Float64Array {
-  const r = seeded(seed);
-  const a = new Float64Array(n * m);
-  for (let k = 0; k < n * m; k++) a[k] = r() * 2 - 1;
-  for (let i = 0; i < Math.min(n, m); i++) a[i * m + i] = a[i * m + i]! + dominance;
-  return a;
-}
+import { randomMatrix, seeded } from '../../support/random.ts';
 
 function toRows(a: Float64Array, n: number, m = n): number[][] {
   return Array.from({ length: n }, (_, i) => Array.from(a.subarray(i * m, (i + 1) * m)));

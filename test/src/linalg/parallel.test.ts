@@ -6,15 +6,7 @@ import { luFactor, luInverse, luSolveMany } from '../../../src/linalg/index.ts';
 import { luFactorReference, luInverseReference } from '../../../src/linalg/lu-reference.ts';
 import { splitJobCount, sharedKernel } from '../../../src/linalg/parallel.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../../src/cli/index.ts';
-
-function seeded(seed: number): () => number {
-  let s = seed >>> 0;
-  return () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 2 ** 32);
-}
-function randomMatrix(n: number, m: number, seed: number): Float64Array {
-  const r = seeded(seed);
-  return Float64Array.from({ length: n * m }, () => r() * 2 - 1);
-}
+import { randomMatrix } from '../../support/random.ts';
 
 const N = 301; // large enough for split updates, not a multiple of 4
 const a = randomMatrix(N, N, 42);

@@ -4,9 +4,9 @@ import { inv } from 'mathjs';
 import { identityMinus, luFactor, luSolve, luSolveTransposed } from '../../../src/linalg/index.ts';
 import { analyzeTable } from '../../../src/model/analysis.ts';
 import { closedBorder, prepareModel, solveClosed, solveClosedTransposed, solveOpen } from '../../../src/model/prepared.ts';
-import { randomEconomy, seeded, tableFromA, toRows } from './tables.ts';
-
-const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(b), 1e-12);
+import { randomEconomy, tableFromA, toRows } from './tables.ts';
+import { seeded } from '../../support/random.ts';
+import { rel } from '../../support/compare.ts';
 
 describe('closed-model solves by bordering', () => {
   for (const n of [1, 3, 10, 40]) {
@@ -20,8 +20,8 @@ describe('closed-model solves by bordering', () => {
         const a = solveClosed(pm, f), b = luSolve(direct, f);
         const at = solveClosedTransposed(pm, f), bt = luSolveTransposed(direct, f);
         for (let i = 0; i < m; i++) {
-          expect(rel(a[i]!, b[i]!)).toBeLessThan(1e-9);
-          expect(rel(at[i]!, bt[i]!)).toBeLessThan(1e-9);
+          expect(rel(a[i]!, b[i]!, 1e-12)).toBeLessThan(1e-9);
+          expect(rel(at[i]!, bt[i]!, 1e-12)).toBeLessThan(1e-9);
         }
       }
       // and the whole closed inverse against mathjs
@@ -29,7 +29,7 @@ describe('closed-model solves by bordering', () => {
       for (let j = 0; j < m; j++) {
         const e = new Float64Array(m); e[j] = 1;
         const col = solveClosed(pm, e);
-        for (let i = 0; i < m; i++) expect(rel(col[i]!, Lbar[i]![j]!)).toBeLessThan(1e-9);
+        for (let i = 0; i < m; i++) expect(rel(col[i]!, Lbar[i]![j]!, 1e-12)).toBeLessThan(1e-9);
       }
     });
   }
@@ -48,7 +48,7 @@ describe('closed-model solves by bordering', () => {
     const direct = luFactor(identityMinus(pm.closed!.Abar, 7), 7);
     const openDet = Array.from({ length: 6 }, (_, i) => pm.openLU.lu[i * 6 + i]!).reduce((p, q) => p * q, pm.openLU.sign);
     const closedDet = Array.from({ length: 7 }, (_, i) => direct.lu[i * 7 + i]!).reduce((p, q) => p * q, direct.sign);
-    expect(rel(closedBorder(pm)!.s, closedDet / openDet)).toBeLessThan(1e-12);
+    expect(rel(closedBorder(pm)!.s, closedDet / openDet, 1e-12)).toBeLessThan(1e-12);
     const f = Float64Array.of(1, 2, 3, 4, 5, 6);
     const x = solveOpen(pm, f);
     expect(x.length).toBe(6);
@@ -62,10 +62,10 @@ describe('closed-model solves by bordering', () => {
     const direct = luFactor(identityMinus(Abar, 3), 3);
     const e1 = Float64Array.of(1, 0, 0);
     const a = solveClosed(pm, e1), b = luSolve(direct, e1);
-    for (let i = 0; i < 3; i++) expect(rel(a[i]!, b[i]!)).toBeLessThan(1e-12);
+    for (let i = 0; i < 3; i++) expect(rel(a[i]!, b[i]!, 1e-12)).toBeLessThan(1e-12);
     expect(Array.from(a, (v) => Number(v.toFixed(4)))).toEqual([1.3651, 0.5273, 0.5698]);
     const at = solveClosedTransposed(pm, Float64Array.of(1, 1, 0)), bt = luSolveTransposed(direct, Float64Array.of(1, 1, 0));
-    for (let i = 0; i < 3; i++) expect(rel(at[i]!, bt[i]!)).toBeLessThan(1e-12);
+    for (let i = 0; i < 3; i++) expect(rel(at[i]!, bt[i]!, 1e-12)).toBeLessThan(1e-12);
   });
 
   it('refuses to solve without a closure or when the closed system is singular', () => {

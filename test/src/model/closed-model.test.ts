@@ -8,7 +8,8 @@ import { closedModelDecision, decideClosedModel, schurRoundingBound } from '../.
 import { closedBorder, prepareModel } from '../../../src/model/prepared.ts';
 import { runScenario } from '../../support/scenario.ts';
 import { prepareStudy, runStudyScenario, studyOfTable } from '../../../src/study/index.ts';
-import { makeTable, seeded } from './tables.ts';
+import { makeTable } from './tables.ts';
+import { seeded } from '../../support/random.ts';
 
 /**
  * A balanced random economy whose final demand is household consumption plus a share `exportShare` of exports.

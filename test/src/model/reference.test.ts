@@ -5,9 +5,9 @@ import { analyzeTable } from '../../../src/model/analysis.ts';
 import { perronRoot } from '../../../src/model/perron.ts';
 import { spectrum } from '../../../src/model/spectrum.ts';
 import { hawkinsSimon } from '../../../src/model/hawkins.ts';
-import { randomEconomy, seeded, toRows } from './tables.ts';
-
-const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(b), 1e-300);
+import { randomEconomy, toRows } from './tables.ts';
+import { seeded } from '../../support/random.ts';
+import { rel } from '../../support/compare.ts';
 
 /** Ā from the analysis's own coefficients: A bordered by household purchases per unit of income and income per unit of output. */
 function closeRows(an: ReturnType<typeof analyzeTable>, n: number): number[][] {
@@ -29,15 +29,15 @@ describe('Leontief inverse, multipliers and determinants against mathjs', () => 
       const Lref = inv(identityMinusRows(A)) as number[][];
       const L = an.leontief!;
       let worst = 0;
-      for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) worst = Math.max(worst, rel(L[i * n + j]!, Lref[i]![j]!));
+      for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) worst = Math.max(worst, rel(L[i * n + j]!, Lref[i]![j]!, 1e-300));
       expect(worst).toBeLessThan(1e-9);
       // output multipliers = column sums of mathjs's inverse; income simple = h·L
       const h = Array.from(an.coefficients.labourIncome);
       for (let j = 0; j < n; j++) {
         let col = 0, inc = 0;
         for (let i = 0; i < n; i++) { col += Lref[i]![j]!; inc += h[i]! * Lref[i]![j]!; }
-        expect(rel(an.multipliers.output.typeI[j]!, col)).toBeLessThan(1e-9);
-        expect(rel(an.multipliers.income.simple[j]!, inc)).toBeLessThan(1e-9);
+        expect(rel(an.multipliers.output.typeI[j]!, col, 1e-300)).toBeLessThan(1e-9);
+        expect(rel(an.multipliers.income.simple[j]!, inc, 1e-300)).toBeLessThan(1e-9);
       }
       // Hawkins–Simon minors: product of our pivots equals mathjs's determinant of each leading block
       const hs = hawkinsSimon(an.coefficients.A, n);
@@ -47,20 +47,20 @@ describe('Leontief inverse, multipliers and determinants against mathjs', () => 
       for (let k = 1; k <= n; k++) {
         minor *= hs.pivots[k - 1]!;
         const lead = M.slice(0, k).map((row) => row.slice(0, k));
-        expect(rel(minor, det(lead) as number)).toBeLessThan(1e-9);
+        expect(rel(minor, det(lead) as number, 1e-300)).toBeLessThan(1e-9);
       }
       expect(an.checks.inverseResidual!).toBeLessThan(30);
-      // Type II multipliers from mathjs's inverse of I − Ā, as §3 of the issue defines them
+      // Type II multipliers: column sums of mathjs's inverse of I − Ā, households as sector n+1 (Miller & Blair 2009, §2.5; README methods table)
       const Abar = closeRows(an, n);
       const Lbar = inv(identityMinusRows(Abar)) as number[][];
       const e = Array.from(an.coefficients.employment!);
       for (let j = 0; j < n; j++) {
         let out = 0, jobs = 0;
         for (let i = 0; i < n; i++) { out += Lbar[i]![j]!; jobs += e[i]! * Lbar[i]![j]!; }
-        expect(rel(an.multipliers.output.typeII[j]!, out)).toBeLessThan(1e-9);
-        expect(rel(an.multipliers.income.total[j]!, Lbar[n]![j]!)).toBeLessThan(1e-9);
-        expect(rel(an.multipliers.employment.total[j]!, jobs)).toBeLessThan(1e-9);
-        expect(rel(an.multipliers.income.typeII[j]!, Lbar[n]![j]! / h[j]!)).toBeLessThan(1e-9);
+        expect(rel(an.multipliers.output.typeII[j]!, out, 1e-300)).toBeLessThan(1e-9);
+        expect(rel(an.multipliers.income.total[j]!, Lbar[n]![j]!, 1e-300)).toBeLessThan(1e-9);
+        expect(rel(an.multipliers.employment.total[j]!, jobs, 1e-300)).toBeLessThan(1e-9);
+        expect(rel(an.multipliers.income.typeII[j]!, Lbar[n]![j]! / h[j]!, 1e-300)).toBeLessThan(1e-9);
       }
     });
   }
@@ -88,7 +88,7 @@ describe('eigenvalues against mathjs', () => {
       const p = perronRoot(a, n);
       expect(p.lower).toBeLessThanOrEqual(rho * (1 + 1e-12));
       expect(p.upper).toBeGreaterThanOrEqual(rho * (1 - 1e-12));
-      expect(rel(p.root, rho)).toBeLessThan(1e-9);
+      expect(rel(p.root, rho, 1e-300)).toBeLessThan(1e-9);
       const ours = spectrum(a, n);
       for (let k = 0; k < n; k++) {
         expect(Math.abs(ours[k]!.modulus - Math.abs(ref[k]!))).toBeLessThan(1e-9);

@@ -5,17 +5,12 @@ import { InputError } from '../../../src/diagnostics/index.ts';
 import {
   createProject, importSource, parseProject, serializeProject, sourceInfo, PROJECT_VERSION, utf8Bytes, type Project,
 } from '../../../src/project/index.ts';
-import { prepareModel } from '../../../src/model/index.ts';
 import type { ScenarioResult } from '../../../src/scenario/index.ts';
 import { writeTableCsv } from '../../../src/table/index.ts';
-import { runScenario } from '../../support/scenario.ts';
 import { county4 } from '../scenario/tables.ts';
-
-/** Every scenario of the project, recomputed (results are never stored). */
-function projectResults(p: Project): ScenarioResult[] {
-  const pm = prepareModel(p.table);
-  return p.scenarios.map((s) => runScenario(pm, s));
-}
+import { projectResults } from '../../support/project.ts';
+import { importTable } from '../../../src/table/index.ts';
+import { analyzeTable } from '../../../src/model/index.ts';
 
 const fixture = (name: string) => readFileSync(fileURLToPath(new URL(`../../fixtures/scenario/${name}`, import.meta.url)), 'utf8');
 
@@ -187,5 +182,25 @@ describe('project files that keep the source file', () => {
     expect(e.code).toBe('project-invalid');
     expect(e.message).toMatch(/cannot be read: .*negative/);
     expect(e.location.rowLabel).toBe('Farms');
+  });
+});
+
+describe('what the importer adds to a table survives a save and load', () => {
+  it('labour income under final-demand columns and role-map sectors', () => {
+    const text = [
+      'thousand dollars,Farming,Import services,Households,Government,Total output',
+      'Farming,10,20,50,20,100',
+      'Import services,20,10,60,10,100',
+      'Wages,40,50,,15,',
+      'Other value added,30,20,,,',
+    ].join('\n');
+    const t = importTable(text, { fileName: 'gov.csv', roles: { sectors: ['Import services'] } });
+    expect(t.sectors).toEqual(['Farming', 'Import services']);
+    expect(t.householdIncomeFromFinalDemand).toEqual([{ row: 'Wages', column: 'Government', value: 15 }]);
+    const back = parseProject(serializeProject(createProject(t)), 'p.json').table;
+    expect(back.householdIncomeFromFinalDemand).toEqual(t.householdIncomeFromFinalDemand);
+    expect(back.roles.sectors).toEqual(['Import services']);
+    // Total household income includes the government wages after loading, so Type II is unchanged.
+    expect(analyzeTable(back).multipliers.output.typeII).toEqual(analyzeTable(t).multipliers.output.typeII);
   });
 });

@@ -9,15 +9,11 @@ import { aggregateTable, parseGroupMapping } from '../../../src/regional/index.t
 import { coefficients, prepareModel, solveOpen, solveOpenTransposed } from '../../../src/model/index.ts';
 import { buildTable, expectClose, rows, type TableSpec } from './build-table.ts';
 import { refusal } from '../../support/refusal.ts';
+import { seededC } from '../../support/random.ts';
+import { randomFlows } from '../../support/random-tables.ts';
 
 function randomSpec(n: number, seed: number): TableSpec {
-  let s = seed;
-  const rnd = () => ((s = (Math.imul(s, 1103515245) + 12345) >>> 0) / 2 ** 32);
-  const sectors = Array.from({ length: n }, (_, i) => `S${i}`);
-  const Z = sectors.map(() => sectors.map(() => (rnd() < 0.2 ? 0 : Math.floor(rnd() * 100))));
-  const col = sectors.map((_, j) => Z.reduce((a, r) => a + r[j]!, 0));
-  const row = Z.map((r) => r.reduce((a, v) => a + v, 0));
-  const x = sectors.map((_, j) => Math.max(col[j]!, row[j]!) * 1.5 + 20 + Math.floor(rnd() * 200));
+  const { sectors, Z, col, row, x } = randomFlows(n, seededC(seed), { scale: 1.5, base: 20 });
   return {
     sectors, Z, x,
     labour: x.map((v, j) => (v - col[j]!) * 0.6), otherVA: x.map((v, j) => (v - col[j]!) * 0.3), imports: x.map((v, j) => (v - col[j]!) * 0.1),
@@ -94,8 +90,7 @@ describe('theorems, on random tables', () => {
   it('identical recipes within every group: member output multipliers equal the group multiplier (no aggregation bias)', () => {
     fc.assert(
       fc.property(fc.integer({ min: 2, max: 8 }), fc.integer({ min: 1, max: 2 ** 31 - 1 }), (n, seed) => {
-        let s = seed;
-        const rnd = () => ((s = (Math.imul(s, 1103515245) + 12345) >>> 0) / 2 ** 32);
+        const rnd = seededC(seed);
         const k = 1 + (seed % n);
         const groupOf = Array.from({ length: n }, (_, i) => i % k);
         // one recipe per group: B is n×k with column sums below 1; A = B·S, so members of a group share their column

@@ -6,9 +6,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { balanceTable } from '../../../src/regional/index.ts';
 import { importTable } from '../../../src/table/index.ts';
-import { main } from '../../../src/cli/index.ts';
 import { InputError } from '../../../src/diagnostics/index.ts';
 import { THREE, expectClose } from './build-table.ts';
+import { runCli } from '../../support/cli.ts';
 
 const f64 = (a: number[]) => Float64Array.from(a);
 const FIX = join(import.meta.dirname, '../../fixtures/regional');
@@ -62,9 +62,7 @@ describe('balanceTable', () => {
 describe('roundwise balance --table', () => {
   it('writes balanced-table.csv that the importer reads back balanced, with the new totals', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'rw-balance-table-'));
-    let out = '';
-    let err = '';
-    const code = await main(['balance', join(FIX, 'three-nation.csv'), '--table', '--rows', join(FIX, 'three-sales.csv'), '--columns', join(FIX, 'three-purchases.csv'), '--output', join(FIX, 'three-output.csv'), '--out', dir], { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
+    const { code, out, err } = await runCli(['balance', join(FIX, 'three-nation.csv'), '--table', '--rows', join(FIX, 'three-sales.csv'), '--columns', join(FIX, 'three-purchases.csv'), '--output', join(FIX, 'three-output.csv'), '--out', dir]);
     expect(err).toBe('');
     expect(code).toBe(0);
     expect(out).toMatch(/converged/);
@@ -77,8 +75,7 @@ describe('roundwise balance --table', () => {
     expect(readFileSync(join(dir, 'balanced-table.about.txt'), 'utf8')).toMatch(/Money unit: million dollars/);
   });
   it('--output without --table is a usage error', async () => {
-    let err = '';
-    await main(['balance', join(FIX, 'flows.csv'), '--rows', join(FIX, 'flow-rows.csv'), '--columns', join(FIX, 'flow-columns.csv'), '--output', join(FIX, 'three-output.csv')], { stdout: () => {}, stderr: (s) => { err += s; } });
+    const { err } = await runCli(['balance', join(FIX, 'flows.csv'), '--rows', join(FIX, 'flow-rows.csv'), '--columns', join(FIX, 'flow-columns.csv'), '--output', join(FIX, 'three-output.csv')]);
     expect(err).toMatch(/apply to --table only/);
   });
 });

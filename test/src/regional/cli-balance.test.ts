@@ -3,18 +3,13 @@ import { describe, it, expect, beforeAll } from 'vitest';
 import { mkdtempSync, readFileSync, existsSync, readdirSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../../src/cli/index.ts';
 import { parseLabelledMatrix } from '../../../src/regional/index.ts';
+import { runCli } from '../../support/cli.ts';
 
 const FIX = join(import.meta.dirname, '../../fixtures/regional');
 const f = (name: string) => join(FIX, name);
 
-async function cli(...argv: string[]) {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
+const cli = (...argv: string[]) => runCli(argv);
 
 describe('roundwise balance', () => {
   let dir = '';

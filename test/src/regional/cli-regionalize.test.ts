@@ -1,24 +1,19 @@
 // `roundwise regionalize` and `roundwise aggregate` in-process, through the real table importer and writer:
-// the JSON keys the issue asks for, the hand-computed figures of regionalize.test.ts, files that read back, refusals.
+// the documented JSON keys (README, regionalize --json), the hand-computed figures of regionalize.test.ts, files that read back, refusals.
 import { describe, it, expect, beforeAll } from 'vitest';
 import { mkdtempSync, readFileSync, readdirSync, existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { main } from '../../../src/cli/index.ts';
 import { importTable } from '../../../src/table/index.ts';
 import { coefficients } from '../../../src/model/index.ts';
 import { expectClose } from './build-table.ts';
+import { runCli } from '../../support/cli.ts';
 
 const FIX = join(import.meta.dirname, '../../fixtures/regional');
 const SAMPLE = join(import.meta.dirname, '../../../sample-data');
 const f = (name: string) => join(FIX, name);
 
-async function cli(...argv: string[]) {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
+const cli = (...argv: string[]) => runCli(argv);
 
 let dir = '';
 beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'rw-regional-')); });

@@ -7,17 +7,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { inv, matrix, multiply, subtract, identity, transpose } from 'mathjs';
 import { importTable } from '../../../src/table/index.ts';
-import { main } from '../../../src/cli/index.ts';
+import { runCli } from '../../support/cli.ts';
 
 const SAMPLE = join(import.meta.dirname, '../../../sample-data');
 const FIX = join(import.meta.dirname, '../../fixtures/regional');
 
-async function cli(...argv: string[]) {
-  let out = '';
-  let err = '';
-  const code = await main(argv, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
+const cli = (...argv: string[]) => runCli(argv);
 
 async function roundTrip(national: string, employment: string, method: string) {
   const dir = mkdtempSync(join(tmpdir(), `rw-roundtrip-${method}-`));

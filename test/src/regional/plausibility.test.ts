@@ -6,7 +6,6 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { inv } from 'mathjs';
-import { main } from '../../../src/cli/index.ts';
 import { isInputError } from '../../../src/diagnostics/index.ts';
 import { coefficients } from '../../../src/model/index.ts';
 import {
@@ -15,7 +14,7 @@ import {
 } from '../../../src/regional/index.ts';
 import { importTable, type IOTable } from '../../../src/table/index.ts';
 import { buildRegional } from '../../../renderer/worker/regional.ts';
-import { runCli } from '../hardening/gen.ts';
+import { runCli } from '../../support/cli.ts';
 
 const nationalTable = () => importTable(NATIONAL_SAMPLE_CSV, { fileName: NATIONAL_SAMPLE_FILE_NAME });
 const employment = () => parseEmploymentCsv(EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME);
@@ -70,11 +69,11 @@ describe('regional estimate plausibility', () => {
     const emp = join(dir, 'employment.csv');
     writeFileSync(nat, NATIONAL_SAMPLE_CSV);
     writeFileSync(emp, EMPLOYMENT_SAMPLE_CSV);
-    const summary = await runCli(main, ['regionalize', nat, '--employment', emp, '--method', 'flq']);
+    const summary = await runCli(['regionalize', nat, '--employment', emp, '--method', 'flq']);
     expect(summary.code, summary.err).toBe(0);
     expect(summary.out).toContain('Average Type I output multiplier over the 16 sectors present in the county: 1.06 in the estimate against 1.64');
     expect(summary.out).toMatch(/the estimate looks implausible/);
-    const json = await runCli(main, ['regionalize', nat, '--employment', emp, '--method', 'flq', '--json']);
+    const json = await runCli(['regionalize', nat, '--employment', emp, '--method', 'flq', '--json']);
     expect((JSON.parse(json.out) as { comparison: { plausible: boolean } }).comparison.plausible).toBe(false);
   });
 

@@ -8,6 +8,7 @@ import fc from 'fast-check';
 import { ras, rasFeasibility, RasConvergenceError } from '../../../src/regional/index.ts';
 import { expectClose } from './build-table.ts';
 import { refusal } from '../../support/refusal.ts';
+import { seededC } from '../../support/random.ts';
 
 const f64 = (a: number[]) => Float64Array.from(a);
 
@@ -92,8 +93,7 @@ describe('refusals', () => {
 const problem = fc
   .record({ m: fc.integer({ min: 1, max: 6 }), n: fc.integer({ min: 1, max: 6 }), seed: fc.integer({ min: 1, max: 2 ** 31 - 1 }), zeros: fc.double({ min: 0, max: 0.5, noNaN: true }) })
   .map(({ m, n, seed, zeros }) => {
-    let s = seed;
-    const rnd = () => ((s = (Math.imul(s, 1103515245) + 12345) >>> 0) / 2 ** 32);
+    const rnd = seededC(seed);
     const a0 = Float64Array.from({ length: m * n }, () => (rnd() < zeros ? 0 : 0.1 + rnd() * 10));
     const target = a0.map((v) => (v > 0 ? v * (0.2 + rnd() * 5) : 0));
     const u = new Float64Array(m);
@@ -143,8 +143,7 @@ describe('properties', () => {
     const arb = fc.record({ m: fc.integer({ min: 1, max: 5 }), n: fc.integer({ min: 1, max: 5 }), seed: fc.integer({ min: 1, max: 2 ** 31 - 1 }) });
     fc.assert(
       fc.property(arb, ({ m, n, seed }) => {
-        let s = seed;
-        const rnd = () => ((s = (Math.imul(s, 1103515245) + 12345) >>> 0) / 2 ** 32);
+        const rnd = seededC(seed);
         const a0 = Float64Array.from({ length: m * n }, () => (rnd() < 0.5 ? 0 : 1));
         const u = Float64Array.from({ length: m }, () => Math.floor(rnd() * 5));
         const v = new Float64Array(n);

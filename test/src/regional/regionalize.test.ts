@@ -7,6 +7,8 @@ import { coefficients, prepareModel, solveOpenTransposed } from '../../../src/mo
 import { formatLocated } from '../../../src/diagnostics/index.ts';
 import { THREE, buildTable, expectClose } from './build-table.ts';
 import { refusal } from '../../support/refusal.ts';
+import { seededC } from '../../support/random.ts';
+import { randomFlows } from '../../support/random-tables.ts';
 
 const EMP_CSV = 'sector,regional,national\nFarming,20,100\nMaking,10,200\nServices,70,700\n';
 const emp = (csv = EMP_CSV): EmploymentInput => parseEmploymentCsv(csv, 'emp.csv');
@@ -141,13 +143,8 @@ describe('properties on random tables', () => {
   it('r_ij ≤ a_ij, FLQ ≤ CILQ coefficients, λ* in (0,1], and the regional table balances', () => {
     fc.assert(
       fc.property(fc.integer({ min: 2, max: 7 }), fc.integer({ min: 1, max: 2 ** 31 - 1 }), fc.double({ min: 0, max: 1, noNaN: true }), (n, seed, delta) => {
-        let s = seed;
-        const rnd = () => ((s = (Math.imul(s, 1103515245) + 12345) >>> 0) / 2 ** 32);
-        const sectors = Array.from({ length: n }, (_, i) => `S${i}`);
-        const Z = sectors.map(() => sectors.map(() => (rnd() < 0.2 ? 0 : Math.floor(rnd() * 100))));
-        const col = sectors.map((_, j) => Z.reduce((a, r) => a + r[j]!, 0));
-        const row = Z.map((r) => r.reduce((a, v) => a + v, 0));
-        const x = sectors.map((_, j) => Math.max(col[j]!, row[j]!) + 50 + Math.floor(rnd() * 200));
+        const rnd = seededC(seed);
+        const { sectors, Z, col, row, x } = randomFlows(n, rnd, { scale: 1, base: 50 });
         const labour = x.map((v, j) => (v - col[j]!) / 2);
         const otherVA = x.map((v, j) => (v - col[j]!) / 4);
         const imports = x.map((v, j) => (v - col[j]!) / 4);

@@ -8,17 +8,12 @@ import { fileURLToPath } from 'node:url';
 import * as math from 'mathjs';
 import Papa from 'papaparse';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
-import { main } from '../../../src/cli/index.ts';
 import { prepareStudy, runStudyScenario, studyFromProjectFile } from '../../../src/study/index.ts';
+import { runCli } from '../../support/cli.ts';
 
 const fx = (name: string) => fileURLToPath(new URL(`../../fixtures/scenario/${name}`, import.meta.url));
 
-async function cli(...args: string[]) {
-  let out = '';
-  let err = '';
-  const code = await main(['scenario', ...args], { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
+const cli = (...args: string[]) => runCli(['scenario', ...args]);
 
 // Fixture table: Z, x, labour, employment, household consumption as in table.csv.
 const Z = [[50, 120, 10], [30, 80, 40], [20, 60, 30]];

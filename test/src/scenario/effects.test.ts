@@ -3,8 +3,7 @@ import * as math from 'mathjs';
 import { prepareModel, type PreparedModel } from '../../../src/model/index.ts';
 import { runScenario } from '../../support/scenario.ts';
 import { county4, millerBlair2 } from './tables.ts';
-
-const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(1, Math.abs(b));
+import { rel } from '../../support/compare.ts';
 
 describe('Type I effects: Miller & Blair 2009 §2.3 two-sector example (recalled from memory)', () => {
   const pm = prepareModel(millerBlair2());

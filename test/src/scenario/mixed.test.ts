@@ -6,6 +6,7 @@ import { prepareModel } from '../../../src/model/index.ts';
 import { runScenario } from '../../support/scenario.ts';
 import type { IOTable } from '../../../src/table/index.ts';
 import { county4 } from './tables.ts';
+import { rel } from '../../support/compare.ts';
 
 function fullMatrix(t: IOTable, closed: boolean): number[][] {
   const n = t.n;
@@ -32,8 +33,6 @@ function partitionedSolve(A: number[][], f: number[], fixed: number[], targets: 
   fixed.forEach((j, r) => { x[j] = targets[r]!; });
   return x;
 }
-
-const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(1, Math.abs(b));
 
 describe('mixed model', () => {
   const t = county4();

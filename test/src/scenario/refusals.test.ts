@@ -51,7 +51,7 @@ describe('scenario refusals', () => {
     expect(refusal(() => parseShockCsv('', 'shock.csv')).code).toBe('empty-scenario');
   });
   it('malformed shock files: bad number, bad kind, unknown or missing column', () => {
-    expect(refusal(() => parseShockCsv('sector,amount\nRetail,"1,000"\n', 'x.csv')).location).toMatchObject({ line: 2, column: 2 });
+    expect(refusal(() => parseShockCsv('sector,amount\nRetail,1O0\n', 'x.csv')).location).toMatchObject({ line: 2, column: 2 });
     expect(refusal(() => parseShockCsv('sector,amount,kind\nRetail,1,visitors\n', 'x.csv')).code).toBe('bad-kind');
     expect(refusal(() => parseShockCsv('sector,amount,colour\nRetail,1,red\n', 'x.csv')).location).toMatchObject({ line: 1, column: 3 });
     expect(refusal(() => parseShockCsv('sector,kind\nRetail,output\n', 'x.csv')).code).toBe('bad-header');

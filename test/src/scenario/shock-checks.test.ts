@@ -5,13 +5,13 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { inv } from 'mathjs';
-import { main } from '../../../src/cli/index.ts';
 import { formatLocated } from '../../../src/diagnostics/index.ts';
 import { prepareModel } from '../../../src/model/index.ts';
 import { parseShockCsv } from '../../../src/scenario/index.ts';
 import { runScenario } from '../../support/scenario.ts';
 import { importTable } from '../../../src/table/index.ts';
-import { expectCliRefusal, nonFiniteText, runCli } from '../hardening/gen.ts';
+import { expectCliRefusal, nonFiniteText } from '../hardening/gen.ts';
+import { runCli } from '../../support/cli.ts';
 import { refusal } from '../../support/refusal.ts';
 
 // An invented three-sector table (x = 100 everywhere) whose sector A has 1e-300 jobs per unit of output.
@@ -91,15 +91,15 @@ describe('implausible shocks', () => {
     writeFileSync(table, TABLE);
     const huge = join(dir, 'huge.csv');
     writeFileSync(huge, 'sector,amount\r\nA,1e308\r\n');
-    const refused = await runCli(main, ['scenario', table, '--shock', huge]);
+    const refused = await runCli(['scenario', table, '--shock', huge]);
     expectCliRefusal(refused, 'scenario');
     expect(refused.err).toMatch(/huge\.csv:2 \(row 'A'\): the effects of scenario '[^']*' are too large to compute/);
     const jobs = join(dir, 'jobs.csv');
     writeFileSync(jobs, 'sector,amount,kind\r\nA,45,jobs\r\n');
-    const summary = await runCli(main, ['scenario', table, '--shock', jobs]);
+    const summary = await runCli(['scenario', table, '--shock', jobs]);
     expect(summary.code, summary.err).toBe(0);
     expect(summary.out).toMatch(/Check the shock: .*jobs\.csv:2 \(row 'A'\): the shock on 'A' \(4\.5e\+301 thousand dollars/);
-    const json = await runCli(main, ['scenario', table, '--shock', jobs, '--json']);
+    const json = await runCli(['scenario', table, '--shock', jobs, '--json']);
     expect(json.code, json.err).toBe(0);
     expect(nonFiniteText(json.out)).toEqual([]);
     expect((JSON.parse(json.out) as { notes: string[] }).notes.some((n) => n.includes('larger than the sector\'s whole base-year output'))).toBe(true);

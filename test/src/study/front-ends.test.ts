@@ -12,13 +12,12 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import Papa from 'papaparse';
-import { main } from '../../../src/cli/index.ts';
 import {
   prepareStudy, runStudyScenario, studyFromTableFile, utf8Bytes, writeTableCsv, type Scenario, type ScenarioLine,
 } from '../../../src/study/index.ts';
 import { api } from '../../../renderer/worker/compute.ts';
 import { tableFromParts } from '../../support/io-table.ts';
-import { runCli } from '../hardening/gen.ts';
+import { runCli } from '../../support/cli.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-front-ends-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -27,7 +26,7 @@ const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(1e-300, Math.ab
 function same(a: ArrayLike<number | null>, b: ArrayLike<number | null>, what: string): void {
   expect(a.length, what).toBe(b.length);
   for (let i = 0; i < a.length; i++) {
-    const x = a[i], y = b[i];
+    const x = a[i]!, y = b[i]!;
     if (x === null || y === null) expect(x, `${what}[${i}]`).toBe(y);
     else if (x !== y) expect(rel(x, y), `${what}[${i}]: ${x} vs ${y}`).toBeLessThanOrEqual(1e-12);
   }
@@ -117,7 +116,7 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
 
         // The CLI: --json and --out.
         const out = join(dir, `${run}-out`);
-        const cli = await runCli(main, ['scenario', tableFile, '--shock', shockFile, '--closure', closure, '--paths', dest, '--json', '--out', out]);
+        const cli = await runCli(['scenario', tableFile, '--shock', shockFile, '--closure', closure, '--paths', dest, '--json', '--out', out]);
         expect(cli.code, cli.err).toBe(0);
         const json = JSON.parse(cli.out);
         expect(json.closure).toBe(r.closure);

@@ -39,9 +39,9 @@ describe('malformed-file corpus', () => {
 
 describe('a large file with one bad cell near the end', () => {
   it('is refused at the right line and field', async () => {
-    const { bigTableCsv } = await import('../../fixtures/table/big-table.ts');
+    const { denseTableCsv } = await import('../../support/random-tables.ts');
     const n = 600;
-    const text = bigTableCsv(n, 3);
+    const text = denseTableCsv(n, 3);
     const lines = text.split('\r\n');
     const k = n - 1; // the last sector row (line n + 1)
     const cells = lines[k + 1]!.split(',');

@@ -1,4 +1,4 @@
-// One test per refusal of the table import (issue: engine §1), each asserting the message and the location.
+// One test per refusal of the table import, each asserting the message and the location.
 // Locations follow RFC 4180 records: line = 1-based line of the record, column = 1-based field number.
 import { describe, it, expect } from 'vitest';
 import { BASE, expectRefusal, replaceOnce } from './helpers.ts';

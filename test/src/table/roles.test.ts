@@ -1,4 +1,4 @@
-// Role suggestions: every label the engine issue (§1) lists must be recognised, case-insensitively; and the
+// Role suggestions: every label the role rules list (ROW_LABELS, COLUMN_LABELS) must be recognised, case-insensitively; and the
 // role-map file (`--map map.json`) is validated with located messages.
 import { describe, it, expect } from 'vitest';
 import { importTable, parseRoleMap, previewTable, suggestColumnRole, suggestRoles, suggestRowRole } from '../../../src/table/index.ts';
@@ -125,7 +125,7 @@ describe('parseRoleMap', () => {
   });
   it('refuses unknown keys', () => {
     const e = refusal('{"row": {}}');
-    expect(e.message).toBe('unknown key \'row\': a role map has only "rows" and "columns"');
+    expect(e.message).toBe('unknown key \'row\': a role map has only "rows", "columns" and "sectors"');
     expect(e.location).toEqual({ file: 'map.json', line: 1, column: 2 });
   });
   it('refuses a map that is not an object of objects', () => {

@@ -3,12 +3,12 @@
 // correct rounding. Text cells follow RFC 4180 and the OWASP CSV-injection escape, which the importer undoes.
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { importTable, suggestColumnRole, suggestRowRole, type IOTable } from '../../../src/table/index.ts';
+import { cleanLabel, importTable, matchKey, type IOTable } from '../../../src/table/index.ts';
 import { writeTableCsv, writtenRoleMap } from '../../../src/table/write.ts';
 import { SAMPLE_CSV } from '../../../src/table/sample.ts';
 
 function same(a: IOTable, b: IOTable): void {
-  expect(a.sectors).toEqual(b.sectors);
+  expect(a.sectors).toEqual(b.sectors.map(cleanLabel));
   expect(Array.from(a.Z)).toEqual(Array.from(b.Z));
   expect(Array.from(a.x)).toEqual(Array.from(b.x));
   for (const k of ['labourIncome', 'otherValueAdded', 'imports', 'householdConsumption', 'otherFinalDemand'] as const) {
@@ -28,13 +28,19 @@ describe('writeTableCsv', () => {
     const t = importTable(SAMPLE_CSV, { fileName: 's.csv' });
     const odd: IOTable = { ...t, sectors: ['=HYPERLINK("x")', '+SUM(A1)', '@cmd', '-minus', 'a;b', 'tab\there', ...t.sectors.slice(6)] };
     const text = writeTableCsv(odd);
-    expect(text.split('\r\n')[0]).toContain(`,"'=HYPERLINK(""x"")",'+SUM(A1),'@cmd,'-minus,"a;b","tab\there",`);
+    // A tab inside a label is white space: the label is written (and read) as 'tab here'.
+    expect(text.split('\r\n')[0]).toContain(`,"'=HYPERLINK(""x"")",'+SUM(A1),'@cmd,'-minus,"a;b",tab here,`);
     same(importTable(text, { fileName: 'w.csv' }), odd);
   });
 
+  // Awkward labels, including ones the role rules read as roles ("Imports", "Total", "Pay (sector)"): the writer must
+  // make every one read back as the same sector or the same role, without a role map.
   const label = fc
-    .string({ unit: fc.constantFrom('a', 'B', 'z', ' ', ',', '"', ';', '\n', '=', '+', '-', '@', 'é', '€', '(', ')', '0', '7'), minLength: 1, maxLength: 8 })
-    .filter((s) => s.trim() === s && !s.startsWith("'") && !suggestRowRole(s).recognised && !suggestColumnRole(s).recognised);
+    .oneof(
+      fc.string({ unit: fc.constantFrom('a', 'B', 'z', ' ', ',', '"', ';', '\n', '=', '+', '-', '@', 'é', '€', '(', ')', '0', '7', '\u200b', 'e\u0301'), minLength: 1, maxLength: 8 }),
+      fc.constantFrom('Imports', 'Import services', 'Households', 'Total', 'Total output', 'Wages', 'Employment', 'Pay', 'Other value added', 'Exports', 'x (sector)', 'Labour income', 'Jobs', 'Subtotal'),
+    )
+    .filter((s) => cleanLabel(s) !== '' && !s.startsWith("'"));
   const value = fc.oneof(
     fc.double({ min: 0, max: 1e300, noNaN: true, noDefaultInfinity: true }).map((v) => (v === 0 ? 0 : v)),
     fc.double({ min: 1e-300, max: 1, noNaN: true }),
@@ -45,7 +51,7 @@ describe('writeTableCsv', () => {
   const tableArb = fc.integer({ min: 1, max: 6 }).chain((n) =>
     fc
       .record({
-        labels: fc.uniqueArray(label, { minLength: n + 6, maxLength: n + 6 }),
+        labels: fc.uniqueArray(label, { minLength: n + 6, maxLength: n + 6, selector: (l) => matchKey(l) }),
         Z: fc.array(value, { minLength: n * n, maxLength: n * n }),
         x: fc.array(positive, { minLength: n, maxLength: n }),
         vecs: fc.array(fc.array(fc.oneof(value, value.map((v) => (v === 0 ? 0 : -v))), { minLength: n, maxLength: n }), { minLength: 5, maxLength: 5 }),
@@ -74,14 +80,26 @@ describe('writeTableCsv', () => {
       }),
   );
 
-  it('round-trips random tables bit for bit (magnitudes 1e-300 to 1e300, awkward labels)', () => {
+  it('round-trips random tables bit for bit, without a role map (magnitudes 1e-300 to 1e300, awkward labels)', () => {
     fc.assert(
       fc.property(tableArb, (t) => {
         const text = writeTableCsv(t);
-        const back = importTable(text, { fileName: 'w.csv', roles: writtenRoleMap(t), layout: 'matrix' });
-        same(back, t);
+        const back = importTable(text, { fileName: 'w.csv', layout: 'matrix' });
+        expect(back.sectors).toEqual(t.sectors.map(cleanLabel));
+        expect(Array.from(back.Z)).toEqual(Array.from(t.Z));
+        expect(Array.from(back.x)).toEqual(Array.from(t.x));
+        expect(back.employment ? Array.from(back.employment) : null).toEqual(t.employment ? Array.from(t.employment) : null);
+        const roles = writtenRoleMap(t);
+        for (const k of ['labourIncome', 'otherValueAdded', 'imports', 'householdConsumption', 'otherFinalDemand'] as const) {
+          expect(back[k].map((v) => Array.from(v.values))).toEqual(t[k].map((v) => Array.from(v.values)));
+          const written = Object.entries(k === 'householdConsumption' || k === 'otherFinalDemand' ? roles.columns : roles.rows).filter(([, r]) => r === k).map(([l]) => l);
+          expect(back[k].map((v) => v.label)).toEqual(written);
+        }
+        // Reading with the written role map gives the same table.
+        const mapped = importTable(text, { fileName: 'w.csv', layout: 'matrix', roles });
+        same(mapped, back);
       }),
-      { numRuns: 200, seed: 4180 },
+      { numRuns: 300, seed: 4180 },
     );
   });
 });

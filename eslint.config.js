@@ -1,4 +1,4 @@
-// Lint and import rules for the whole repository (run from the repository root: `eslint -c test/eslint.config.js .`).
+// Lint and import rules for the whole repository (`npm run lint`, or any editor's ESLint integration).
 // The import rules make the architecture machine-checked: src/ is a pure engine in layers that import only downward,
 // each folder entered through its index.ts; renderer/ and main/ sit on top of it and only meet through the typed
 // bridge contract in src/bridge/. test/src/architecture.test.ts shows each rule refusing a wrong import.

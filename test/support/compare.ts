@@ -1,0 +1,9 @@
+// Comparing computed numbers with reference numbers.
+
+/**
+ * Relative difference |a − b| / max(floor, size), where size defaults to |b| (the reference). `floor` keeps a
+ * reference near zero from turning a tiny absolute error into a huge relative one: each test states its own.
+ */
+export function rel(a: number, b: number, floor = 1, size = Math.abs(b)): number {
+  return Math.abs(a - b) / Math.max(floor, size);
+}
