@@ -124,6 +124,11 @@ export const ERROR_CODES = [
   'project-invalid',
   'project-newer',
   'project-truncated',
+  // Uncertainty and sensitivity (src/uncertainty)
+  'cv-label',
+  'cv-range',
+  'draws-range',
+  'uncertainty-range',
   // Studies (src/study)
   'report-unavailable',
   'unknown-scenario',

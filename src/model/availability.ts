@@ -93,3 +93,11 @@ export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): Mod
   };
   return { negativeFlows, blocks, perron, hawkinsSimon: hs, productive, verdictNote, perronRootClosed, perronRootClosedBounds, closedModel, availability };
 }
+
+/** Why a study's scenarios use no household closure when its table has a usable one. */
+export const CLOSURE_OFF = 'the household closure is switched off for this study';
+
+/** The models a study's scenarios use: the decision's availability, with the closure switched off when the study says so. */
+export function modelsForClosure(availability: Availability, closure: 'households' | 'none'): Availability {
+  return { open: availability.open, closed: closure === 'none' && availability.closed === true ? CLOSURE_OFF : availability.closed };
+}
