@@ -129,6 +129,7 @@ export const ERROR_CODES = [
   'cv-range',
   'draws-range',
   'uncertainty-range',
+  'uncertainty-unavailable',
   // Studies (src/study)
   'report-unavailable',
   'unknown-scenario',
