@@ -5,25 +5,11 @@
 import { describe, expect, it } from 'vitest';
 import { deriveSymmetric, readSupplyUse, type Assumption } from '../../../src/sut/index.ts';
 import { importTable, writeTableCsv } from '../../../src/table/index.ts';
+import { SUPPLY, USE } from '../../support/sut-pairs.ts';
 
-// Supply (products × industries): industry A makes 90 of product a; industry B makes 10 of a (secondary) and 50 of b.
-//   q = (100, 50), g = (90, 60); V (industries × products) = [[90, 0], [10, 50]].
-export const SUPPLY = [
-  'million crowns,Industry A,Industry B',
-  'Product a,90,10',
-  'Product b,0,50',
-].join('\n');
-
-// Use (products × industries, then final demand; value added and jobs by industry below). Product rows add up to q:
-// a: 20 + 10 + 70 = 100, b: 5 + 15 + 30 = 50; industry columns to g: A: 20 + 5 + 40 + 25 = 90, B: 10 + 15 + 20 + 15 = 60.
-export const USE = [
-  'million crowns,Industry A,Industry B,Households',
-  'Product a,20,10,70',
-  'Product b,5,15,30',
-  'Compensation of employees,40,20,',
-  'Other value added,25,15,',
-  'Employment,10,6,',
-].join('\n');
+// The pair (SUPPLY, USE in test/support/sut-pairs.ts): V (industries × products) = [[90, 0], [10, 50]], so
+// q = (100, 50), g = (90, 60); U = [[20, 10], [5, 15]]; households (70, 30); compensation (40, 20), other value added
+// (25, 15), employment (10, 6).
 
 function derive(assumption: Assumption, supply = SUPPLY, use = USE) {
   const pair = readSupplyUse({ text: supply, fileName: 'supply.csv' }, { text: use, fileName: 'use.csv' });
