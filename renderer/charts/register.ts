@@ -5,9 +5,10 @@ import {
   Chart, BarController, BarElement, LineController, LineElement, PointElement, ScatterController,
   CategoryScale, LinearScale, Legend, Tooltip, Title, Filler,
 } from 'chart.js';
+import { BarWithErrorBarsController, BarWithErrorBar } from 'chartjs-chart-error-bars';
 
 Chart.register(BarController, BarElement, LineController, LineElement, PointElement, ScatterController,
-  CategoryScale, LinearScale, Legend, Tooltip, Title, Filler);
+  CategoryScale, LinearScale, Legend, Tooltip, Title, Filler, BarWithErrorBarsController, BarWithErrorBar);
 
 Chart.defaults.font.family = getComputedStyleSafe('--font-ui') ?? 'system-ui, sans-serif';
 Chart.defaults.font.size = 12;

@@ -190,3 +190,53 @@ export interface GridView {
   values: Float64Array;
   max: number;
 }
+
+/** Settings of the "How sure?" panel (the engine checks them: src/uncertainty/settings.ts). */
+export interface BandSettings {
+  draws: number;
+  seed: number;
+  cv: number;
+  localShareRange: number;
+}
+
+export interface BandView {
+  point: number;
+  p5: number;
+  p50: number;
+  p95: number;
+  mean: number;
+}
+
+/** Monte Carlo bands as the panel shows them; null bands where a value is not defined or too few draws were kept. */
+export interface BandsView {
+  target: 'multipliers' | 'scenario';
+  draws: number;
+  accepted: number;
+  rejected: number;
+  rejectedWhy: { notProductive: number; closedNotUsable: number; refused: number };
+  seed: number;
+  cv: number;
+  localShareRange: number;
+  sectors: string[];
+  notes: string[];
+  multipliers: { key: string; label: string; unit: string; values: (BandView | null)[] }[] | null;
+  totals: { variable: Variable; label: string; unit: string; band: BandView | null }[] | null;
+  sectorOutput: (BandView | null)[] | null;
+  sectorJobs: (BandView | null)[] | null;
+  moneyUnit: string;
+}
+
+export interface SensitivitySideView {
+  setting: string;
+  totals: Record<Variable, number | null>;
+  why: string | null;
+}
+
+export interface SensitivityView {
+  scenario: string;
+  step: number;
+  point: Record<Variable, number | null>;
+  items: { kind: string; assumption: string; base: string; low: SensitivitySideView; high: SensitivitySideView; swing: Record<Variable, number | null> }[];
+  notes: string[];
+  moneyUnit: string;
+}

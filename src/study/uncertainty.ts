@@ -4,8 +4,8 @@
  * the study's own results use. The CLI and the app's worker call these, so the same seed gives the same bands in both.
  */
 import {
-  multiplierBandReport, runUncertainty, scenarioBandReport, sensitivity, sensitivityReport,
-  type BandReportContext, type DrawSetup, type RunOptions, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
+  multiplierBandReport, runDraws, scenarioBandReport, sensitivity, sensitivityReport, startRun, summarise,
+  type BandReportContext, type DrawChunk, type DrawSetup, type RunOptions, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
 } from '../uncertainty/index.ts';
 import type { ReportFile } from '../report/index.ts';
 import type { Scenario } from '../scenario/index.ts';
@@ -32,9 +32,36 @@ export function drawSetupOf(ps: PreparedStudy, req: BandsRequest): DrawSetup {
   };
 }
 
+/** A run taken a range of draws at a time (the app's worker, between which the UI shows progress and may stop). */
+export interface BandsRun {
+  total: number;
+  /** Compute draws from ≤ k < to (any split gives the same numbers). */
+  step(from: number, to: number): void;
+  /** The bands of every draw computed so far; they must cover 0 … total − 1. */
+  finish(): UncertaintyResult;
+}
+
+/** Checks the settings and computes the point estimate through the draws' evaluation (refused when not usable). */
+export function beginStudyBands(ps: PreparedStudy, req: BandsRequest): BandsRun {
+  const { plan, point } = startRun(drawSetupOf(ps, req));
+  const chunks: DrawChunk[] = [];
+  return {
+    total: req.settings.draws,
+    step: (from, to) => { chunks.push(runDraws(plan, from, to)); },
+    finish: () => summarise(plan, point, chunks),
+  };
+}
+
 /** The bands of the request; null when `onProgress` stopped the run. */
 export function studyBands(ps: PreparedStudy, req: BandsRequest, opts: RunOptions = {}): UncertaintyResult | null {
-  return runUncertainty(drawSetupOf(ps, req), {}, opts);
+  const run = beginStudyBands(ps, req);
+  const size = Math.max(1, Math.floor(opts.chunk ?? 25));
+  for (let from = 0; from < run.total; from += size) {
+    const to = Math.min(run.total, from + size);
+    run.step(from, to);
+    if (opts.onProgress && opts.onProgress(to, run.total) === false) return null;
+  }
+  return run.finish();
 }
 
 /** One-at-a-time sensitivity of a scenario's totals, in the models the study uses. */

@@ -18,6 +18,7 @@ import { numpyAvailable, numpyInverse, type NumpyTiming } from './numpy.ts';
 import { benchJob, jobCsv, type JobRow } from './job.ts';
 import { cliJob, type CliJob } from './cli-job.ts';
 import { appLongTasks, type LongTasks } from './longtasks.ts';
+import { benchDraws, type DrawsBench } from './draws.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../src/cli/parallel.ts';
 
 const args = process.argv.slice(2);
@@ -112,6 +113,12 @@ for (const n of SIZES) {
   process.stderr.write(' done\n');
 }
 
+// Monte Carlo draws of a full scenario at 500 sectors (or the largest size asked for, if smaller).
+const drawsN = Math.min(500, Math.max(...SIZES));
+process.stderr.write(`draws n=${drawsN}…`);
+const draws: DrawsBench = benchDraws(drawsN, QUICK ? 20 : 100, outDir, numpyVersion !== null, QUICK ? 50 : 1000);
+process.stderr.write(' done\n');
+
 // Long main-thread tasks in the app, at the largest size (the table file the CLI job just used).
 const appN = Math.max(...SIZES);
 let app: LongTasks | { skipped: string } = { skipped: 'not run (--no-app)' };
@@ -163,7 +170,9 @@ else {
   for (const t of app.tasks) console.log(`  long task at +${fmt(t.startMs)}: ${fmt(t.durationMs)} (${t.phase})`);
 }
 
-const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis, app };
+console.log(`Monte Carlo draws at n=${draws.n} (full scenario, open and household-closed, plus every multiplier), ${draws.draws} draws in process, 1 thread: ${fmt(draws.oursPerDrawMs)} per draw (1,000 draws ≈ ${fmt(draws.oursPerDrawMs * 1000)}); numpy loop doing the same solves: ${draws.numpyPerDrawMs === null ? 'n/a' : `${fmt(draws.numpyPerDrawMs)} per draw`}; ours/numpy ${draws.ratio === null ? '—' : `${draws.ratio.toFixed(1)}×`}.${draws.cli ? ` roundwise scenario --draws ${draws.cli.draws} (helper threads on), start to exit: ${fmt(draws.cli.wallMs)}.` : ''}`);
+
+const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis, app, draws };
 const stamp = started.toISOString().replace(/[:.]/g, '-');
 writeFileSync(join(outDir, `bench-${stamp}.json`), JSON.stringify(json, null, 2));
 writeFileSync(join(outDir, 'latest.json'), JSON.stringify(json, null, 2));

@@ -10,6 +10,7 @@ import {
   type DrawSetup, type UncertaintySettings,
 } from '../../../src/uncertainty/index.ts';
 import { makeTable } from '../model/tables.ts';
+import { EMPLOYMENT_SAMPLE_CSV, NATIONAL_SAMPLE_CSV, parseEmploymentCsv, regionalizeTable } from '../../../src/regional/index.ts';
 
 const sample = importTable(SAMPLE_CSV, { fileName: 'sample.csv' });
 const scenario: Scenario = {
@@ -163,5 +164,26 @@ describe('Monte Carlo bands', () => {
     expect(() => startRun(setup(sample, { draws: 5 }))).toThrow(/number of draws must be a whole number from 20/);
     expect(() => startRun(setup(sample, { cv: -1 }))).toThrow(/CV must be a number from 0 to 2/);
     expect(() => startRun(setup(sample, { seed: 1.5 }))).toThrow(/seed must be a whole number/);
+  });
+});
+
+describe('Monte Carlo bands with the FLQ δ drawn', () => {
+  // The county estimate is re-made at each draw's δ (here regionalize() on the bundled invented national table).
+  const national = importTable(NATIONAL_SAMPLE_CSV, { fileName: 'national.csv' });
+  const employment = parseEmploymentCsv(EMPLOYMENT_SAMPLE_CSV, 'employment.csv');
+  const tableAt = (delta: number) => regionalizeTable(national, employment, { method: 'flq', delta }).table;
+  const county = tableAt(0.3);
+
+  it('draw δ uniformly within the range and widen the bands with it; a range of one δ is no perturbation', () => {
+    const base = { cv: 0, draws: 40, seed: 4 };
+    const wide = runUncertainty(setup(county, { ...base, deltaRange: [0.1, 0.5] }, { scenarios: [], multipliers: true }), { tableAt })!;
+    expect(wide.deltaDrawn![0]).toBeGreaterThanOrEqual(0.1);
+    expect(wide.deltaDrawn![1]).toBeLessThan(0.5);
+    expect(wide.deltaDrawn![1] - wide.deltaDrawn![0]).toBeGreaterThan(0.2);
+    const m = wide.multipliers!.find((x) => x.key === 'output.typeI')!.values[0]!;
+    expect(m.p95 - m.p5).toBeGreaterThan(0);
+    const one = runUncertainty(setup(county, { ...base, deltaRange: [0.3, 0.3] }, { scenarios: [], multipliers: true }), { tableAt })!;
+    for (const b of one.multipliers!.find((x) => x.key === 'output.typeI')!.values) expect([b!.p5, b!.p95]).toEqual([b!.point, b!.point]);
+    expect(one.notes[0]).toMatch(/re-estimated at an FLQ δ drawn uniformly from 0.3 to 0.3/);
   });
 });

@@ -1,0 +1,77 @@
+/**
+ * The worker's side of the "How sure?" panel: Monte Carlo bands taken a range of draws per call (so the UI shows
+ * progress and can stop between calls while the worker stays the only place that computes), and the one-at-a-time
+ * sensitivity of a scenario. Every number comes from src/study (beginStudyBands, studySensitivity), the functions the
+ * CLI's --draws and --sensitivity use, so the same seed gives the same bands in both. Views are plain and finite.
+ */
+import {
+  beginStudyBands, checkUncertaintySettings, defaultUncertaintySettings, MEASURES, readyLines, studySensitivity, VARIABLES,
+  type BandsRun, type PointBand, type PreparedStudy, type UncertaintyResult,
+} from '../../src/study/index.ts';
+import type { BandSettings, BandView, BandsView, ScenarioDraft, SensitivityView, StudyChoices } from './protocol.ts';
+
+const VARIABLE_LABELS = { output: 'Output', valueAdded: 'Value added', income: 'Labour income', employment: 'Employment' } as const;
+
+function band(b: PointBand | null): BandView | null {
+  return b ? { point: b.point, p5: b.p5, p50: b.p50, p95: b.p95, mean: b.mean } : null;
+}
+
+export function bandsView(r: UncertaintyResult, target: BandsView['target'], moneyUnit: string): BandsView {
+  const s = r.scenarios[0] ?? null;
+  return {
+    target,
+    draws: r.draws, accepted: r.accepted, rejected: r.rejected, rejectedWhy: { ...r.rejectedWhy },
+    seed: r.settings.seed, cv: r.settings.cv, localShareRange: r.settings.localShareRange,
+    sectors: r.sectors,
+    notes: r.notes,
+    multipliers: r.multipliers ? r.multipliers.map((m) => {
+      const measure = MEASURES.find((x) => x.key === m.key)!;
+      return { key: m.key, label: measure.label, unit: measure.unit(moneyUnit), values: m.values.map(band) };
+    }) : null,
+    totals: s ? VARIABLES.map((v) => ({ variable: v, label: VARIABLE_LABELS[v], unit: v === 'employment' ? 'jobs' : moneyUnit, band: band(s.totals[v]) })) : null,
+    sectorOutput: s ? s.bySector.output.map(band) : null,
+    sectorJobs: s && s.bySector.employment ? s.bySector.employment.map(band) : null,
+    moneyUnit,
+  };
+}
+
+/** The operations, given the worker's way to the study as the screens have it now. */
+export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: ScenarioDraft[]) => PreparedStudy) {
+  let run: { bands: BandsRun; target: BandsView['target']; moneyUnit: string } | null = null;
+  return {
+    /** Check the settings, compute the point estimate and plan the draws; the draws follow with bandsStep. */
+    bandsStart(args: { choices: StudyChoices; settings: BandSettings; scenario: ScenarioDraft | null }): { total: number } {
+      const settings = defaultUncertaintySettings({ ...args.settings });
+      checkUncertaintySettings(settings);
+      const ps = studyAt(args.choices);
+      const scenarios = args.scenario ? [readyLines(args.scenario)] : [];
+      run = { bands: beginStudyBands(ps, { settings, multipliers: !args.scenario, scenarios }), target: args.scenario ? 'scenario' : 'multipliers', moneyUnit: ps.study.table.moneyUnit };
+      return { total: run.bands.total };
+    },
+    bandsStep(args: { from: number; to: number }): { done: number } {
+      if (!run) throw new Error('no bands are being computed');
+      run.bands.step(args.from, args.to);
+      return { done: args.to };
+    },
+    bandsFinish(_: Record<string, never>): BandsView {
+      if (!run) throw new Error('no bands are being computed');
+      const r = run.bands.finish();
+      const view = bandsView(r, run.target, run.moneyUnit);
+      run = null;
+      return view;
+    },
+    sensitivity(args: { choices: StudyChoices; scenario: ScenarioDraft; step: number }): SensitivityView {
+      const ps = studyAt(args.choices);
+      const s = studySensitivity(ps, args.scenario, args.step);
+      return {
+        scenario: s.scenario, step: s.step, point: s.point, notes: s.notes, moneyUnit: ps.study.table.moneyUnit,
+        items: s.items.map((it) => ({
+          kind: it.kind, assumption: it.assumption, base: it.base,
+          low: { setting: it.low.setting, totals: it.low.totals, why: it.low.why ?? null },
+          high: { setting: it.high.setting, totals: it.high.totals, why: it.high.why ?? null },
+          swing: it.swing,
+        })),
+      };
+    },
+  };
+}
