@@ -43,7 +43,7 @@ export const app = reactive({
    * What the planner typed into the selected scenario that cannot be used (an empty amount, a local share of 150 %),
    * by line and field ("2:share"): never clipped or dropped silently; results are held back until it is fixed.
    */
-  inputProblems: {} as Record<string, string>,
+  inputProblems: {} as Record<string, { message: string; text: string }>,
   /** Type II: include the household closure in scenario results and multipliers (the study's closure setting). */
   closure: true,
   /** Sector the structural paths go to (the study's setting); null: the most affected sector not shocked itself. */
@@ -277,8 +277,8 @@ watch(() => [app.scenarios, app.closure], () => {
   pending = setTimeout(() => { void recomputeAll(); }, 120);
 }, { deep: true });
 
-/** Note (or clear, with null) a value typed into the selected scenario that cannot be used. */
-export function setInputProblem(key: string, problem: string | null): void {
+/** Note (or clear, with null) a value typed into the selected scenario that cannot be used, with the text as typed. */
+export function setInputProblem(key: string, problem: { message: string; text: string } | null): void {
   const next = { ...app.inputProblems };
   if (problem === null) delete next[key];
   else next[key] = problem;
