@@ -17,6 +17,7 @@ export const ENGINE_LAYERS = [
   ['model'],
   ['scenario', 'regional'],
   ['report', 'project'],
+  ['deliverables'],
   ['study', 'node-io'],
   ['cli'],
 ];

@@ -44,3 +44,11 @@ export { importTable, writeTableCsv } from '../table/index.ts';
 export { reportFiles, type ReportMeta, type Cell } from '../report/index.ts';
 export { visibleText } from '../diagnostics/index.ts';
 export { PROJECT_FORMAT } from '../project/index.ts';
+export {
+  studyBrief, studyBriefDocument, studyWorkbook, briefInputOf, baseEconomy, phasesOf, type BriefOptions,
+} from './deliverables.ts';
+export {
+  BRIEF_FONT_FILES, PAPERS, ROUNDING_NOTE, councilNumber, shareText, documentText,
+  type Paper, type BriefFonts, type BriefDocument, type BriefBlock, type BriefTable, type BriefBars,
+} from '../deliverables/index.ts';
+export { csvFileText, UTF8_BOM } from '../csv/index.ts';
