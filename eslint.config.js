@@ -17,6 +17,8 @@ export const ENGINE_LAYERS = [
   ['model', 'classification'],
   ['scenario', 'regional'],
   ['report', 'project', 'sut'],
+  ['uncertainty'],
+  ['deliverables'],
   ['study', 'node-io'],
   ['cli'],
 ];
