@@ -4,7 +4,7 @@
  * the same documents. The typesetting and the spreadsheet writing are src/deliverables'.
  */
 import {
-  briefDocument, briefPdf, headlineRows, workbookXlsx, type BaseEconomy, type BriefDocument, type BriefFonts, type BriefInput, type BriefPhase,
+  briefDocument, briefPdf, councilNumber, headlineRows, workbookXlsx, type BaseEconomy, type BriefDocument, type BriefFonts, type BriefInput, type BriefPhase,
   type Paper, type WorkbookSheet,
 } from '../deliverables/index.ts';
 import { CAUTIONS, modelTypeOf, SCENARIO_CAUTIONS, type ReportFile } from '../report/index.ts';
@@ -12,6 +12,27 @@ import type { AnalysisReportKind } from '../report/index.ts';
 import type { PreparedStudy } from './prepare.ts';
 import { reportUnavailable, scenarioReport, tableReport, type ReportKind, type ScenarioReportKind } from './reports.ts';
 import type { ScenarioOutcome } from './scenarios.ts';
+import type { SensitivityResult, UncertaintyResult } from '../uncertainty/index.ts';
+import { bandReports, sensitivityReports } from './uncertainty.ts';
+
+/** How sure the numbers are, when the user computed it: the deliverables then include it. */
+export interface HowSure {
+  bands?: UncertaintyResult | null;
+  sensitivity?: SensitivityResult | null;
+}
+
+/** The bands of a scenario's totals in sentences (the point estimate first; the band beside it). */
+export function bandSentences(r: UncertaintyResult, scenario: string): string[] {
+  const s = r.scenarios.find((x) => x.scenario === scenario);
+  if (!s) return [];
+  const names = { employment: ['jobs', 'jobs'], income: ['labour income', 'money'], valueAdded: ['value added', 'money'], output: ['output', 'money'] } as const;
+  const parts = (['employment', 'income', 'valueAdded', 'output'] as const).flatMap((v) => {
+    const b = s.totals[v];
+    return b ? [`${names[v][0]} ${councilNumber(b.point, names[v][1])} (${councilNumber(b.p5, names[v][1])} to ${councilNumber(b.p95, names[v][1])})`] : [];
+  });
+  if (!parts.length) return [];
+  return [`How sure: redrawing the table ${r.draws} times with independent errors of ${Math.round(r.settings.cv * 100)} % on every coefficient (seed ${r.settings.seed}; ${r.rejected} draws left out as unusable), the total effects and the range holding 90 % of the draws (5th to 95th percentile) are: ${parts.join('; ')}. The estimates themselves are the ones above; the ranges reflect only the errors assumed.`];
+}
 
 export interface BriefOptions {
   /** ISO 8601 date-time of the run. */
@@ -56,7 +77,7 @@ function modelChoices(o: ScenarioOutcome): string[] {
   return choices;
 }
 
-export function briefInputOf(ps: PreparedStudy, o: ScenarioOutcome, date: string): BriefInput {
+export function briefInputOf(ps: PreparedStudy, o: ScenarioOutcome, date: string, sure: HowSure = {}): BriefInput {
   const { study } = ps;
   return {
     scenario: o.scenario.name,
@@ -71,19 +92,19 @@ export function briefInputOf(ps: PreparedStudy, o: ScenarioOutcome, date: string
     base: baseEconomy(ps),
     phases: phasesOf(o),
     modelChoices: modelChoices(o),
-    notes: o.notes,
+    notes: [...o.notes, ...(sure.bands ? bandSentences(sure.bands, o.scenario.name) : [])],
     cautions: [...CAUTIONS, ...SCENARIO_CAUTIONS],
   };
 }
 
 /** The brief's content (what the PDF typesets and the app's print view shows). */
-export function studyBriefDocument(ps: PreparedStudy, o: ScenarioOutcome, date: string): BriefDocument {
-  return briefDocument(briefInputOf(ps, o, date));
+export function studyBriefDocument(ps: PreparedStudy, o: ScenarioOutcome, date: string, sure: HowSure = {}): BriefDocument {
+  return briefDocument(briefInputOf(ps, o, date, sure));
 }
 
 /** The brief of one scenario as PDF bytes. */
-export function studyBrief(ps: PreparedStudy, o: ScenarioOutcome, opts: BriefOptions): Promise<Uint8Array> {
-  return briefPdf(studyBriefDocument(ps, o, opts.date), { paper: opts.paper, fonts: opts.fonts });
+export function studyBrief(ps: PreparedStudy, o: ScenarioOutcome, opts: BriefOptions, sure: HowSure = {}): Promise<Uint8Array> {
+  return briefPdf(studyBriefDocument(ps, o, opts.date, sure), { paper: opts.paper, fonts: opts.fonts });
 }
 
 /** Sheet names of the reports (spreadsheet programs allow 31 characters). */
@@ -136,7 +157,7 @@ function provenance(ps: PreparedStudy, date: string, o: ScenarioOutcome | null):
  * The workbook: for a scenario, its summary per phase, its reports and the table's; without one, the table's reports
  * (multipliers, coefficients, the Leontief inverse, viability, Perron vectors, eigenvalues when computed).
  */
-export function studyWorkbook(ps: PreparedStudy, o: ScenarioOutcome | null, opts: { date: string }): Promise<Uint8Array> {
+export function studyWorkbook(ps: PreparedStudy, o: ScenarioOutcome | null, opts: { date: string }, sure: HowSure = {}): Promise<Uint8Array> {
   const sheets: WorkbookSheet[] = [];
   if (o) {
     sheets.push({
@@ -147,6 +168,13 @@ export function studyWorkbook(ps: PreparedStudy, o: ScenarioOutcome | null, opts
     });
     const kinds: ScenarioReportKind[] = ['scenario-impact', 'scenario-multipliers', 'scenario-inputs', 'scenario-rounds', ...(o.paths ? ['scenario-paths' as const] : [])];
     for (const k of kinds) sheets.push(...sheetsOf(k, scenarioReport(ps, k, o, opts.date)));
+  }
+  // Bands and sensitivity when computed: one sheet per report, beside the point estimates they belong to.
+  const sure_ = [...(sure.bands ? bandReports(ps, sure.bands, opts.date) : []), ...(sure.sensitivity ? sensitivityReports(ps, sure.sensitivity, opts.date) : [])];
+  for (const f of sure_) {
+    if (!f.sheet) continue;
+    const m = f.sheet.meta;
+    sheets.push({ name: m.title.startsWith('Sensitivity') ? 'Sensitivity' : m.title.startsWith('Multiplier') ? 'Multiplier bands' : 'Uncertainty bands', rows: f.sheet.rows, title: `${m.title} (${f.name}). Model: ${m.modelType}.`, notes: (m.notes ?? []).filter((n) => !SCENARIO_CAUTIONS.includes(n) && !CAUTIONS.includes(n)) });
   }
   for (const k of TABLE_KINDS) {
     if (reportUnavailable(ps, k) === null) sheets.push(...sheetsOf(k, tableReport(ps, k, opts.date)));

@@ -56,7 +56,7 @@ export {
 
 // The brief (PDF) and the workbook (XLSX).
 export {
-  studyBrief, studyBriefDocument, studyWorkbook, briefInputOf, baseEconomy, phasesOf, type BriefOptions,
+  studyBrief, studyBriefDocument, studyWorkbook, briefInputOf, baseEconomy, phasesOf, bandSentences, type BriefOptions, type HowSure,
 } from './deliverables.ts';
 export {
   BRIEF_FONT_FILES, PAPERS, ROUNDING_NOTE, councilNumber, shareText, documentText,
