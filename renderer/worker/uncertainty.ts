@@ -37,26 +37,30 @@ export function bandsView(r: UncertaintyResult, target: BandsView['target'], mon
 
 /** The operations, given the worker's way to the study as the screens have it now. */
 export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: ScenarioDraft[]) => PreparedStudy) {
-  let run: { bands: BandsRun; target: BandsView['target']; moneyUnit: string } | null = null;
+  let run: { id: number; bands: BandsRun; target: BandsView['target']; moneyUnit: string } | null = null;
+  let lastId = 0;
+  /** The run a step belongs to: a panel whose run was replaced by a newer one (another screen's) is told so. */
+  const runOf = (id: number) => {
+    if (!run || run.id !== id) throw new Error('these bands were replaced by a newer computation; compute them again');
+    return run;
+  };
   return {
     /** Check the settings, compute the point estimate and plan the draws; the draws follow with bandsStep. */
-    bandsStart(args: { choices: StudyChoices; settings: BandSettings; scenario: ScenarioDraft | null }): { total: number } {
+    bandsStart(args: { choices: StudyChoices; settings: BandSettings; scenario: ScenarioDraft | null }): { id: number; total: number } {
       const settings = defaultUncertaintySettings({ ...args.settings });
       checkUncertaintySettings(settings);
       const ps = studyAt(args.choices);
       const scenarios = args.scenario ? [readyLines(args.scenario)] : [];
-      run = { bands: beginStudyBands(ps, { settings, multipliers: !args.scenario, scenarios }), target: args.scenario ? 'scenario' : 'multipliers', moneyUnit: ps.study.table.moneyUnit };
-      return { total: run.bands.total };
+      run = { id: ++lastId, bands: beginStudyBands(ps, { settings, multipliers: !args.scenario, scenarios }), target: args.scenario ? 'scenario' : 'multipliers', moneyUnit: ps.study.table.moneyUnit };
+      return { id: run.id, total: run.bands.total };
     },
-    bandsStep(args: { from: number; to: number }): { done: number } {
-      if (!run) throw new Error('no bands are being computed');
-      run.bands.step(args.from, args.to);
+    bandsStep(args: { id: number; from: number; to: number }): { done: number } {
+      runOf(args.id).bands.step(args.from, args.to);
       return { done: args.to };
     },
-    bandsFinish(_: Record<string, never>): BandsView {
-      if (!run) throw new Error('no bands are being computed');
-      const r = run.bands.finish();
-      const view = bandsView(r, run.target, run.moneyUnit);
+    bandsFinish(args: { id: number }): BandsView {
+      const r = runOf(args.id);
+      const view = bandsView(r.bands.finish(), r.target, r.moneyUnit);
       run = null;
       return view;
     },

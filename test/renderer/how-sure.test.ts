@@ -1,0 +1,38 @@
+// The worker's "How sure?" operations against the study called directly: draws taken in uneven ranges give exactly
+// the bands of one studyBands run with the same seed (what the CLI's --draws prints), and a run replaced by a newer
+// one refuses further steps instead of mixing draws of two runs.
+import { describe, expect, it } from 'vitest';
+import { api } from '../../renderer/worker/compute.ts';
+import { bandsView } from '../../renderer/worker/uncertainty.ts';
+import { defaultUncertaintySettings, prepareStudy, SAMPLE_CSV, SAMPLE_FILE_NAME, studyBands, studyFromTableFile, utf8Bytes, type Scenario } from '../../src/study/index.ts';
+
+const choices = { closure: 'households' as const, destination: null };
+const settings = { draws: 45, seed: 21, cv: 0.15, localShareRange: 0.1 };
+const scenario: Scenario = { name: 'Visitors', lines: [{ sector: 'Accommodation and food service', amount: 2000, kind: 'final-demand', localShare: 0.7 }, { sector: '', amount: 0, kind: 'final-demand', localShare: 1 }] };
+
+describe('How sure? worker operations', () => {
+  api.loadSample({});
+  const ps = prepareStudy(studyFromTableFile(utf8Bytes(SAMPLE_CSV), SAMPLE_FILE_NAME));
+
+  it('give the study\'s bands for the same seed, however the draws are split', () => {
+    const start = api.bandsStart({ choices, settings, scenario });
+    expect(start.total).toBe(45);
+    for (const [from, to] of [[0, 1], [1, 17], [17, 44], [44, 45]] as const) api.bandsStep({ id: start.id, from, to });
+    const view = api.bandsFinish({ id: start.id });
+    const ref = studyBands(ps, { settings: defaultUncertaintySettings(settings), multipliers: false, scenarios: [{ ...scenario, lines: scenario.lines.slice(0, 1) }] })!;
+    expect(view).toEqual(bandsView(ref, 'scenario', ps.study.table.moneyUnit));
+    expect(view.totals!.find((t) => t.variable === 'output')!.band!.point).toBe(api.runScenario({ scenario, choices }).effects.output.totals.total);
+  });
+
+  it('refuse steps of a run that a newer one replaced', () => {
+    const first = api.bandsStart({ choices, settings: { ...settings, localShareRange: 0 }, scenario: null });
+    const second = api.bandsStart({ choices, settings: { ...settings, localShareRange: 0 }, scenario: null });
+    expect(() => api.bandsStep({ id: first.id, from: 0, to: 45 })).toThrow(/replaced by a newer computation/);
+    api.bandsStep({ id: second.id, from: 0, to: 45 });
+    expect(api.bandsFinish({ id: second.id }).multipliers).not.toBeNull();
+  });
+
+  it('refuse settings out of range with the engine\'s words', () => {
+    expect(() => api.bandsStart({ choices, settings: { ...settings, draws: 3 }, scenario })).toThrow(/number of draws must be a whole number from 20/);
+  });
+});
