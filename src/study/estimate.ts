@@ -15,6 +15,7 @@ import { sha256Hex, type ImportSettings } from '../project/index.ts';
 import { importTable, writeTableCsv, type IOTable } from '../table/index.ts';
 import { prepareStudy, type PreparedStudy } from './prepare.ts';
 import { studyOfTable } from './study.ts';
+import { employmentByBridge, readBridge } from './bridges.ts';
 
 /** One input file as read: its bytes (hashed as they are) and its name. */
 export interface EstimateFile {
@@ -32,6 +33,8 @@ export interface EstimateRequest {
   delta: number;
   /** Known county intermediate sales (rows) and purchases (columns), `sector,total`: balance the estimate by RAS. */
   balance?: { rows: EstimateFile; columns: EstimateFile } | null;
+  /** `code,sector[,share]`: the employment file names codes of another classification (src/classification). */
+  bridge?: EstimateFile | null;
   /** `sector,group`: merge the county table's sectors into groups. */
   groups?: EstimateFile | null;
 }
@@ -64,9 +67,12 @@ export function estimateCountyTable(req: EstimateRequest, date = new Date().toIS
   if (!(LQ_METHODS as readonly string[]).includes(req.method)) throw new InputError('usage', `the method must be SLQ, CILQ or FLQ (got '${String(req.method)}')`);
   const national = importTable(text(req.national), { fileName: req.national.fileName, ...req.nationalImport });
   const delta = req.method === 'flq' ? req.delta : DEFAULT_FLQ_DELTA;
-  const regional = regionalize(national, parseEmploymentCsv(text(req.employment), req.employment.fileName), { method: req.method, delta });
+  const byCode = parseEmploymentCsv(text(req.employment), req.employment.fileName);
+  const employment = req.bridge ? employmentByBridge(byCode, readBridge(req.bridge, national.sectors), national.sectors) : byCode;
+  const regional = regionalize(national, employment, { method: req.method, delta });
   let table = regional.table;
   const notes = [...regional.notes];
+  if (req.bridge) notes.unshift(`County employment by code of another classification, mapped to the table's sectors through the bridge ${req.bridge.fileName} (a code's jobs split by its shares).`);
   let balance: TableBalanceResult | null = null;
   if (req.balance) {
     const sales = parseTotals(text(req.balance.rows), req.balance.rows.fileName, regional.sectors, 'sector');

@@ -44,3 +44,16 @@ export { importTable, writeTableCsv } from '../table/index.ts';
 export { reportFiles, type ReportMeta, type Cell } from '../report/index.ts';
 export { visibleText } from '../diagnostics/index.ts';
 export { PROJECT_FORMAT } from '../project/index.ts';
+
+// Supply and use tables → a symmetric table (the `sut` command and the "Start from supply and use tables" screen).
+export {
+  symmetricFromSupplyUse, studyFromSupplyUse, supplyUseTotals, assumptionOf, SYMMETRIC_TABLE_FILE,
+  type SupplyUseRequest, type SymmetricFromSupplyUse,
+} from './supply-use.ts';
+export {
+  ASSUMPTIONS, ASSUMPTION_BY, ASSUMPTION_NAMES, DEFAULT_ASSUMPTION, TABLE_BY, NEGATIVES_REMEDIES, SUT_DEFAULT_TOLERANCE, parseSutRoleMap,
+  type Assumption, type TableBy, type NegativesRemedy, type SutRoleMap, type NegativesReport, type ProductBalance,
+} from '../sut/index.ts';
+
+// Classification bridges: employment, shock and spending-mix files that name codes instead of sectors.
+export { readBridge, employmentByBridge, scenarioByBridge, spendingMixByBridge, type Bridge } from './bridges.ts';
