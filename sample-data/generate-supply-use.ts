@@ -11,6 +11,7 @@
  * what the product technology assumption implies — U = A·Vᵀ with A the national table's coefficients — rounded to
  * whole numbers; rounding leftovers go to Exports (products) and Other value added (industries), so the pair balances
  * exactly. Value added, imports and jobs of each industry are those of its products' mix (w·q̂⁻¹·Vᵀ).
+ * It also writes src/sut/sample.ts, the pair as string constants for the app (no file access needed).
  * test/src/sut/sample-data.test.ts checks the committed files are this output.
  */
 import { importTable } from '../src/table/index.ts';
@@ -91,6 +92,23 @@ export function bridgeCsv(): string {
   return ['code,sector,share', ...BRIDGE_ROWS.map(([c, s, sh]) => `${c},${s},${sh ?? ''}`)].join('\n') + '\n';
 }
 
+/** src/sut/sample.ts: the sample pair for the app's "Start from supply and use tables" screen. */
+export function sampleModuleText(): string {
+  const { supply, use } = supplyUseCsv();
+  return [
+    '/**',
+    ' * The bundled supply and use pair (invented; every number is made up for demonstration): the national supply and',
+    ' * use tables behind sample-data/national-table.csv. Written by sample-data/generate-supply-use.ts; do not edit by hand.',
+    ' */',
+    `export const SUPPLY_SAMPLE_FILE_NAME = 'national-supply.csv';`,
+    `export const USE_SAMPLE_FILE_NAME = 'national-use.csv';`,
+    `export const SUT_SAMPLE_NOTE = 'The supply and use tables are invented; every number is made up for demonstration.';`,
+    `export const SUPPLY_SAMPLE_CSV = ${JSON.stringify(supply)};`,
+    `export const USE_SAMPLE_CSV = ${JSON.stringify(use)};`,
+    '',
+  ].join('\n');
+}
+
 if (import.meta.url === `file://${process.argv[1]}`) {
   const { writeFileSync } = await import('node:fs');
   const { supply, use } = supplyUseCsv();
@@ -98,4 +116,5 @@ if (import.meta.url === `file://${process.argv[1]}`) {
   writeFileSync(new URL('./national-use.csv', import.meta.url), use);
   writeFileSync(new URL('./fernhollow-bridge.csv', import.meta.url), bridgeCsv());
   writeFileSync(new URL('./fernhollow-employment-by-code.csv', import.meta.url), employmentByCodeCsv());
+  writeFileSync(new URL('../src/sut/sample.ts', import.meta.url), sampleModuleText());
 }

@@ -52,6 +52,7 @@ export {
 } from './supply-use.ts';
 export {
   ASSUMPTIONS, ASSUMPTION_BY, ASSUMPTION_NAMES, DEFAULT_ASSUMPTION, TABLE_BY, NEGATIVES_REMEDIES, SUT_DEFAULT_TOLERANCE, parseSutRoleMap,
+  SUPPLY_SAMPLE_CSV, USE_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_FILE_NAME, SUT_SAMPLE_NOTE,
   type Assumption, type TableBy, type NegativesRemedy, type SutRoleMap, type NegativesReport, type ProductBalance,
 } from '../sut/index.ts';
 
