@@ -13,6 +13,7 @@ import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, Sce
 import { analysisView, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
 import { regionalApi } from './regional.ts';
 import { uncertaintyApi } from './uncertainty.ts';
+import { supplyUseApi } from './supply-use.ts';
 
 export const SAMPLE_FILE = SAMPLE_FILE_NAME;
 
@@ -167,4 +168,5 @@ export const api = {
   openProject,
   ...regionalApi,
   ...uncertaintyApi(studyAt),
+  ...supplyUseApi,
 };
