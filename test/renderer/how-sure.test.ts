@@ -21,7 +21,7 @@ describe('How sure? worker operations', () => {
     const view = api.bandsFinish({ id: start.id });
     const ref = studyBands(ps, { settings: defaultUncertaintySettings(settings), multipliers: false, scenarios: [{ ...scenario, lines: scenario.lines.slice(0, 1) }] })!;
     expect(view).toEqual(bandsView(ref, 'scenario', ps.study.table.moneyUnit));
-    expect(view.totals!.find((t) => t.variable === 'output')!.band!.point).toBe(api.runScenario({ scenario, choices }).effects.output.totals.total);
+    expect(view.totals!.find((t) => t.variable === 'output')!.band!.point).toBe(api.runScenario({ scenario, choices }).effects.output!.totals.total);
   });
 
   it('refuse steps of a run that a newer one replaced', () => {
