@@ -7,7 +7,6 @@
  * escaped as in CSV (src/csv safeText: a formula lead behind a single quote, control characters as escapes). An
  * "About" sheet holds the provenance, each sheet's notes and the cautions.
  */
-import writeXlsxFile from 'write-excel-file/universal';
 import type { Cell as XlsxCell, Row, SheetData } from 'write-excel-file/universal';
 import { safeText, type Cell } from '../csv/index.ts';
 
@@ -141,6 +140,8 @@ export async function workbookXlsx(input: WorkbookInput): Promise<Uint8Array> {
     return { data, sheet: names[k]!, columns: widths.map((width) => ({ width })), stickyRowsCount: 1, ...(firstColumnNames ? { stickyColumnsCount: 1 } : {}) };
   });
   sheets.push({ data: aboutData(input, names), sheet: names[names.length - 1]!, columns: [{ width: 34 }, { width: 110 }], stickyRowsCount: 0 });
+  // Loaded on first use, like the PDF library: most runs write no workbook.
+  const { default: writeXlsxFile } = await import('write-excel-file/universal');
   const blob = await writeXlsxFile(sheets, { fontFamily: 'Calibri', fontSize: 11 }).toBlob();
   return new Uint8Array(await blob.arrayBuffer());
 }
