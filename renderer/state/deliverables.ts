@@ -1,0 +1,70 @@
+/**
+ * The brief (PDF) and the workbook (XLSX) from the app: made in the worker by the study layer's one function each
+ * (the CLI's --brief and --xlsx call the same), saved through the bridge (a save dialog on the desktop, one download
+ * in the browser). The brief's fonts are the app's own assets, fetched once and handed to the worker.
+ */
+import regularUrl from 'dejavu-fonts-ttf/ttf/DejaVuSansCondensed.ttf?url';
+import boldUrl from 'dejavu-fonts-ttf/ttf/DejaVuSansCondensed-Bold.ttf?url';
+import { nextTick, reactive } from 'vue';
+import type { BriefDocument, BriefFonts, Paper } from '../../src/study/index.ts';
+import { getBridge } from '../bridge/index.ts';
+import { engine } from '../worker/client.ts';
+import type { ScenarioDraft } from '../worker/protocol.ts';
+import { app, choices, say } from './app.ts';
+
+let fonts: Promise<BriefFonts> | null = null;
+
+async function fetchBytes(url: string): Promise<Uint8Array> {
+  const r = await fetch(url);
+  if (!r.ok) throw new Error(`the brief's font could not be loaded (${r.status} ${r.statusText})`);
+  return new Uint8Array(await r.arrayBuffer());
+}
+
+function briefFonts(): Promise<BriefFonts> {
+  fonts ??= Promise.all([fetchBytes(regularUrl), fetchBytes(boldUrl)]).then(([regular, bold]) => ({ regular, bold }));
+  fonts.catch(() => { fonts = null; });
+  return fonts;
+}
+
+/** Bytes as base64, in slices (String.fromCharCode takes a bounded argument list). */
+export function bytesToBase64(bytes: Uint8Array): string {
+  let bin = '';
+  for (let i = 0; i < bytes.length; i += 0x8000) bin += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+  return btoa(bin);
+}
+
+const plain = <T>(v: T): T => JSON.parse(JSON.stringify(v)) as T;
+
+/** The paper size a brief is made for: US Letter where the user's locale uses it, else A4. */
+export function defaultPaper(locale = typeof navigator === 'undefined' ? 'en' : navigator.language): Paper {
+  return /-(US|CA|MX|PH|CL|CO|VE|GT|CR|PA|DO|PR|SV|NI)$/i.test(locale) ? 'letter' : 'a4';
+}
+
+/** Make the scenario's brief in the worker. */
+export async function makeBrief(scenario: ScenarioDraft, paper: Paper): Promise<{ name: string; pdf: Uint8Array; document: BriefDocument }> {
+  return engine().call('brief', { scenario: plain(scenario), scenarios: plain(app.scenarios), choices: choices(), paper, fonts: await briefFonts() }, 'Writing the brief…');
+}
+
+export async function exportBrief(scenario: ScenarioDraft, paper: Paper): Promise<void> {
+  const b = await makeBrief(scenario, paper);
+  const saved = await getBridge().exportFile(b.name, 'pdf', bytesToBase64(b.pdf));
+  if (saved) say(`Saved ${saved.name}`);
+}
+
+export async function exportWorkbook(scenario: ScenarioDraft | undefined): Promise<void> {
+  const w = await engine().call('workbook', { ...(scenario ? { scenario: plain(scenario) } : {}), scenarios: plain(app.scenarios), choices: choices() }, 'Writing the workbook…');
+  const saved = await getBridge().exportFile(w.name, 'xlsx', bytesToBase64(w.xlsx));
+  if (saved) say(`Saved ${saved.name}`);
+}
+
+/** The brief the print view shows (renderer/components/BriefPrint.vue): hidden on screen, the only thing printed. */
+export const printing = reactive<{ document: BriefDocument | null }>({ document: null });
+
+/** Ctrl/Cmd+P: the brief of the selected scenario, printed through the system's print dialog. */
+export async function printBrief(): Promise<void> {
+  const scenario = app.scenarios[app.selected] ?? app.scenarios[0];
+  if (!scenario) return;
+  printing.document = (await makeBrief(scenario, defaultPaper())).document;
+  await nextTick();
+  window.print();
+}
