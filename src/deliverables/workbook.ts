@@ -97,11 +97,12 @@ function sheetData(rows: readonly (readonly Cell[])[]): { data: SheetData; width
     w = Math.max(w, longestWord, Math.min(head.length, 14));
     widths.push(Math.min(MAX_WIDTH, Math.max(MIN_WIDTH, w + 2)));
   }
-  const headerLines = Math.max(1, ...header.map((h, c) => (typeof h === 'string' ? Math.ceil(h.length / Math.max(1, widths[c]! - 1)) : 1)));
+  // Lines a wrapped header takes (a column of width w holds about w characters of the bold header font).
+  const headerLines = Math.max(1, ...header.map((h, c) => (typeof h === 'string' ? Math.ceil(h.length / Math.max(1, widths[c]!)) : 1)));
   const data: SheetData = [];
   data.push(Array.from({ length: ncol }, (_, c): XlsxCell => {
     const h = header[c];
-    return { ...HEADER_STYLE, value: h === null || h === undefined ? '' : safeText(String(h)), type: String, height: 15 * Math.min(headerLines, 8) };
+    return { ...HEADER_STYLE, value: h === null || h === undefined ? '' : safeText(String(h)), type: String, height: 14 * Math.min(headerLines, 8) + 2 };
   }));
   for (const r of body) {
     const row: Row = [];
