@@ -22,7 +22,6 @@ const MIME: Record<string, string> = {
   '.ico': 'image/x-icon',
   '.woff2': 'font/woff2',
   '.woff': 'font/woff',
-  '.ttf': 'font/ttf',
   '.wasm': 'application/wasm',
   '.map': 'application/json; charset=utf-8',
 };

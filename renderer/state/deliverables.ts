@@ -1,10 +1,9 @@
 /**
  * The brief (PDF) and the workbook (XLSX) from the app: made in the worker by the study layer's one function each
  * (the CLI's --brief and --xlsx call the same), saved through the bridge (a save dialog on the desktop, one download
- * in the browser). The brief's fonts are the app's own assets, fetched once and handed to the worker.
+ * in the browser). The brief's fonts are bundled with the app (as modules loaded on first use, so nothing is fetched)
+ * and handed to the worker.
  */
-import regularUrl from 'dejavu-fonts-ttf/ttf/DejaVuSansCondensed.ttf?url';
-import boldUrl from 'dejavu-fonts-ttf/ttf/DejaVuSansCondensed-Bold.ttf?url';
 import { nextTick, reactive } from 'vue';
 import type { BriefDocument, BriefFonts, Paper } from '../../src/study/index.ts';
 import { getBridge } from '../bridge/index.ts';
@@ -14,14 +13,19 @@ import { app, choices, say } from './app.ts';
 
 let fonts: Promise<BriefFonts> | null = null;
 
-async function fetchBytes(url: string): Promise<Uint8Array> {
-  const r = await fetch(url);
-  if (!r.ok) throw new Error(`the brief's font could not be loaded (${r.status} ${r.statusText})`);
-  return new Uint8Array(await r.arrayBuffer());
+/** The bytes of a `data:…;base64,` URL (what Vite's `?inline` gives for a binary asset). */
+function dataUrlBytes(url: string): Uint8Array {
+  const bin = atob(url.slice(url.indexOf(',') + 1));
+  const out = new Uint8Array(bin.length);
+  for (let i = 0; i < bin.length; i++) out[i] = bin.charCodeAt(i);
+  return out;
 }
 
 function briefFonts(): Promise<BriefFonts> {
-  fonts ??= Promise.all([fetchBytes(regularUrl), fetchBytes(boldUrl)]).then(([regular, bold]) => ({ regular, bold }));
+  fonts ??= Promise.all([
+    import('dejavu-fonts-ttf/ttf/DejaVuSansCondensed.ttf?inline'),
+    import('dejavu-fonts-ttf/ttf/DejaVuSansCondensed-Bold.ttf?inline'),
+  ]).then(([regular, bold]) => ({ regular: dataUrlBytes(regular.default), bold: dataUrlBytes(bold.default) }));
   fonts.catch(() => { fonts = null; });
   return fonts;
 }
