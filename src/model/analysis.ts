@@ -16,7 +16,8 @@ import {
   type ImplausibleMultiplier, type NegativeValueAdded,
 } from './plausibility.ts';
 import { sectorBlocks } from './graph.ts';
-import { perronRoot, type PerronOptions } from './perron.ts';
+import { perronRoot, perronRootBordered, type PerronOptions } from './perron.ts';
+import { borderedAbs, borderedOf, type Bordered } from './closure.ts';
 import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
 import { spectrum as fullSpectrum, SPECTRUM_MAX_SECTORS, type Mode } from './spectrum.ts';
 import { seriesVerdict, type SeriesVerdict } from './rounds.ts';
@@ -179,6 +180,46 @@ function openSolveResidual(a: Float64Array, n: number, x: Float64Array, b: Float
   return denom > 0 ? resid / denom : Number.POSITIVE_INFINITY;
 }
 
+/** ‖I − Ā‖₁ from the parts of Ā (closure.ts), accumulated in the order `identityMinusNorm1` uses on the formed matrix. */
+function borderedIdentityMinusNorm1(b: Bordered): number {
+  const { A, n, hc, hr, corner } = b;
+  const col = new Float64Array(n + 1);
+  for (let i = 0; i < n; i++) {
+    const row = i * n;
+    for (let j = 0; j < n; j++) col[j] = col[j]! + Math.abs((i === j ? 1 : 0) - A[row + j]!);
+    col[n] = col[n]! + Math.abs(0 - hc[i]!);
+  }
+  for (let j = 0; j < n; j++) col[j] = col[j]! + Math.abs(0 - hr[j]!);
+  col[n] = col[n]! + Math.abs(1 - corner);
+  let best = 0;
+  for (let j = 0; j <= n; j++) if (col[j]! > best) best = col[j]!;
+  return best;
+}
+
+/** `openSolveResidual` for the closed system, from the parts of Ā (each row summed in the formed matrix's order). */
+function borderedSolveResidual(b: Bordered, x: Float64Array, rhs: Float64Array, norm: number): number {
+  const { A, n, hc, hr, corner } = b;
+  const m = n + 1;
+  let resid = 0, xnorm = 0;
+  const xn = x[n]!;
+  for (let i = 0; i < n; i++) {
+    let s = rhs[i]! - x[i]!;
+    const row = i * n;
+    for (let j = 0; j < n; j++) s += A[row + j]! * x[j]!;
+    s += hc[i]! * xn;
+    resid += Math.abs(s);
+    xnorm += Math.abs(x[i]!);
+  }
+  let s = rhs[n]! - xn;
+  for (let j = 0; j < n; j++) s += hr[j]! * x[j]!;
+  s += corner * xn;
+  resid += Math.abs(s);
+  xnorm += Math.abs(xn);
+  if (resid === 0) return 0;
+  const denom = norm * xnorm * m * UNIT_ROUNDOFF;
+  return denom > 0 ? resid / denom : Number.POSITIVE_INFINITY;
+}
+
 function fmt(x: number): string {
   return x.toPrecision(6);
 }
@@ -249,9 +290,10 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   // Closed model: decided once here (closed-model.ts); scenarios on this prepared table read the same decision.
   let perronRootClosed: number | null = null;
   let perronRootClosedBounds: [number, number] | null = null;
-  if (closed) {
-    const abar = negativeFlows ? absolute(closed.Abar) : closed.Abar;
-    const pc = perronRoot(abar, closed.m, { ...opts.perron, rightOnly: true });
+  const parts = closed ? borderedOf(A, n, closed) : null;
+  if (parts) {
+    const { blocks: _openBlocks, rightOnly: _right, ...perronOpts } = opts.perron ?? {};
+    const pc = perronRootBordered(negativeFlows ? borderedAbs(parts, absA) : parts, perronOpts);
     perronRootClosed = pc.root;
     perronRootClosedBounds = [pc.lower, pc.upper];
   }
@@ -294,10 +336,9 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
       residual = Number.isFinite(r) ? r : null;
     }
     if (opts.inverse && productive) ({ L: leontief, residual: inverseResidual } = formLeontief(pm));
-    if (closed && closedProductive) {
-      const m = closed.m;
-      const ones = new Float64Array(m).fill(1);
-      const r = openSolveResidual(closed.Abar, m, solveClosed(pm, ones), ones, identityMinusNorm1(closed.Abar, m));
+    if (parts && closedProductive) {
+      const ones = new Float64Array(n + 1).fill(1);
+      const r = borderedSolveResidual(parts, solveClosed(pm, ones), ones, borderedIdentityMinusNorm1(parts));
       closedResidual = Number.isFinite(r) ? r : null;
     }
     for (const [what, r] of [['solve', residual], ['inverse', inverseResidual], ['household-closed solve', closedResidual]] as const) {
