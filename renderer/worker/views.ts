@@ -4,7 +4,7 @@
  * number comes from the prepared study (src/study).
  */
 import {
-  formatLocated, linkageClass, MEASURES, measureValues, unitDemandRounds, tablePatterns,
+  formatLocated, linkageClass, MEASURES, measureValues, unitDemandRounds, tablePatterns, VARIABLES,
   type ModeKind, type PreparedStudy, type ScenarioOutcome, type IOTable, type EffectSplit, type EffectTotals, type ScenarioMultiplier, type Variable, type PathAnalysis,
 } from '../../src/study/index.ts';
 import type { AnalysisView, EffectView, Eigen, MultiplierRow, PathsView, ScenarioView, TableInfo } from './protocol.ts';
@@ -111,7 +111,7 @@ function effectView(s: EffectSplit | null, t: EffectTotals | null, m: ScenarioMu
 export function scenarioView(o: ScenarioOutcome): ScenarioView {
   const r = o.result;
   const effects = {} as Record<Variable, EffectView | null>;
-  for (const v of ['output', 'valueAdded', 'income', 'employment'] as const) effects[v] = effectView(r.effects[v], r.totals[v], r.multipliers[v]);
+  for (const v of VARIABLES) effects[v] = effectView(r.effects[v], r.totals[v], r.multipliers[v]);
   const fixed = r.shock.fixed.map((j) => r.sectors[j]!);
   return {
     name: r.scenario,

@@ -139,7 +139,8 @@ export interface Analysis {
   warnings: Warning[];
 }
 
-const CONDITION_LIMIT = 1e12;
+/** Above this 1-norm condition estimate of I − A, results may have lost most of their digits (warned). */
+export const CONDITION_LIMIT = 1e12;
 
 function hasNegative(a: Float64Array): boolean {
   for (let k = 0; k < a.length; k++) if (a[k]! < 0) return true;

@@ -1,6 +1,6 @@
 /** Several scenarios on the same table, side by side, with each one's difference from the first (the baseline). */
 import { InputError } from '../diagnostics/index.ts';
-import type { EffectTotals, ScenarioResult, Variable } from './types.ts';
+import { VARIABLES, type EffectTotals, type ScenarioResult, type Variable } from './types.ts';
 
 export interface ScenarioComparison {
   scenarios: string[];
@@ -20,11 +20,10 @@ export function compareScenarios(results: readonly ScenarioResult[]): ScenarioCo
       throw new InputError('compare-different-tables', `scenario '${r.scenario}' was run on a different table from '${first.scenario}'`);
     }
   }
-  const vars: Variable[] = ['output', 'valueAdded', 'income', 'employment'];
   const total = {} as ScenarioComparison['total'];
   const difference = {} as ScenarioComparison['difference'];
   const totals = {} as ScenarioComparison['totals'];
-  for (const v of vars) {
+  for (const v of VARIABLES) {
     total[v] = results.map((r) => r.effects[v]?.total ?? null);
     const base = total[v][0];
     difference[v] = total[v].map((t) => {
