@@ -17,6 +17,7 @@ export const ENGINE_LAYERS = [
   ['model', 'classification'],
   ['scenario', 'regional'],
   ['report', 'project', 'sut'],
+  ['uncertainty'],
   ['study', 'node-io'],
   ['cli'],
 ];

@@ -146,6 +146,12 @@ export const ERROR_CODES = [
   'project-invalid',
   'project-newer',
   'project-truncated',
+  // Uncertainty and sensitivity (src/uncertainty)
+  'cv-label',
+  'cv-range',
+  'draws-range',
+  'uncertainty-range',
+  'uncertainty-unavailable',
   // Studies (src/study)
   'report-unavailable',
   'unknown-scenario',

@@ -27,7 +27,7 @@ export interface ScenarioReportContext {
   date: string;
 }
 
-const VARIABLE_NAMES: Record<Variable, string> = {
+export const VARIABLE_NAMES: Record<Variable, string> = {
   output: 'output',
   valueAdded: 'value added',
   income: 'labour income',

@@ -52,7 +52,7 @@ describe('engine layers import downward only', () => {
   it('orders the engine folders diagnostics/schema → … → study → cli', () => {
     expect(ENGINE_LAYERS).toEqual([
       ['diagnostics', 'schema'], ['csv', 'linalg', 'bridge'], ['table'], ['model', 'classification'], ['scenario', 'regional'],
-      ['report', 'project', 'sut'], ['study', 'node-io'], ['cli'],
+      ['report', 'project', 'sut'], ['uncertainty'], ['study', 'node-io'], ['cli'],
     ]);
   });
   it.each([
@@ -62,6 +62,8 @@ describe('engine layers import downward only', () => {
     ['src/model/bad.ts', '../scenario/index.ts'],
     ['src/report/bad.ts', '../study/index.ts'],
     ['src/study/bad.ts', '../cli/index.ts'],
+    ['src/uncertainty/bad.ts', '../study/index.ts'],
+    ['src/report/bad.ts', '../uncertainty/index.ts'],
     ['src/sut/bad.ts', '../study/index.ts'],
     ['src/classification/bad.ts', '../regional/index.ts'],
     ['src/diagnostics/bad.ts', '../schema/index.ts'],

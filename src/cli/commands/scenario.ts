@@ -7,8 +7,11 @@ import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { readFileLimited } from '../../node-io/index.ts';
 import {
   CAUTIONS, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile, tableReport, studyFromTableFile, VARIABLES, type Closure, type PreparedStudy, type ScenarioOutcome, InputError, visibleText, parseShockCsv, matchKey,
+  bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studyBands, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
+import { withHelperThreads } from './analyze.ts';
+import { scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
 const fmt = (v: number | null) => (v === null ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
 
@@ -67,8 +70,9 @@ export const scenario = defineCommand({
     paths: { type: 'string', value: 'SECTOR', help: 'add the structural paths that carry the effect to SECTOR (printed in the summary too)' },
     project: { type: 'string', value: 'FILE.json', help: 'save the study (table, shock, settings) as a project file the app opens; an existing file is replaced only if it is a Roundwise project' },
     ...TABLE_DIALECT_OPTIONS,
+    ...SCENARIO_UNCERTAINTY_OPTIONS,
   },
-  outHelp: 'write the scenario\'s reports (NAME-inputs, NAME-impact, NAME-implied-multipliers, NAME-rounds, NAME-rounds-by-sector, and NAME-paths with --paths; NAME from the shock file) and the table\'s multipliers as CSV, each with an .about.txt',
+  outHelp: 'write the scenario\'s reports (NAME-inputs, NAME-impact, NAME-implied-multipliers, NAME-rounds, NAME-rounds-by-sector, and NAME-paths with --paths; NAME from the shock file; NAME-bands with --draws, NAME-sensitivity with --sensitivity) and the table\'s multipliers as CSV, each with an .about.txt',
   async run({ input, values }, ctx) {
     const tableFile = ctx.input(input);
     const roles = ctx.roleMap(values.map);
@@ -84,17 +88,33 @@ export const scenario = defineCommand({
       if (destination === null) throw new InputError('unknown-sector', `--paths: unknown sector '${values.paths}'`, { rowLabel: values.paths });
       study.settings.paths.destination = destination;
     }
+    const settings = uncertaintySettingsOf(values, ctx);
+    if (values['share-step'] !== undefined && !values.sensitivity) throw ctx.usageError('--share-step needs --sensitivity');
     const ps = prepareStudy(study, { spectrum: false });
     const outcome = runStudyScenario(ps, scenario, { paths: destination });
+    const bands = settings ? await withHelperThreads(study.table.n, () => studyBands(ps, { settings, multipliers: false, scenarios: [scenario] })!) : null;
+    const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step']) : null;
+    const names = { output: 'output', valueAdded: 'value added', income: 'labour income', employment: 'employment' };
     const files = [];
     if (values.project !== undefined) {
       refuseToOverwriteForeign(values.project);
       files.push({ path: values.project, content: projectFileOf(study) });
     }
     return {
-      summary: () => summary(ps, outcome),
-      json: () => scenarioJson(ps, outcome),
-      ...(values.out !== undefined ? { reports: [...scenarioReportSet(ps, outcome, ctx.date), ...tableReport(ps, 'multipliers', ctx.date)] } : {}),
+      summary: () => summary(ps, outcome)
+        + (bands ? `${scenarioBandsSummary(bands, bands.scenarios[0]!, names).join('\n')}\n` : '')
+        + (sens ? `${sensitivitySummary(sens, study.table.moneyUnit).join('\n')}\n` : ''),
+      json: () => ({
+        ...scenarioJson(ps, outcome),
+        ...(bands ? { uncertainty: scenarioBandsJson(bands, bands.scenarios[0]!) } : {}),
+        ...(sens ? { sensitivity: sensitivityJson(sens) } : {}),
+      }),
+      ...(values.out !== undefined ? {
+        reports: [
+          ...scenarioReportSet(ps, outcome, ctx.date), ...tableReport(ps, 'multipliers', ctx.date),
+          ...(bands ? bandReports(ps, bands, ctx.date) : []), ...(sens ? sensitivityReports(ps, sens, ctx.date) : []),
+        ],
+      } : {}),
       files,
     };
   },
