@@ -6,11 +6,12 @@
  *
  * A factorisation's own storage (`factorStorage`) is the exception: the factors are computed where they stay, so a
  * large matrix is written once and never copied in or out of the kernel's memory (on a machine where every fresh page
- * costs a fault, a 2,000-sector copy costs more than the arithmetic around it; test/bench). Such storage is a memory of
- * its own that nothing ever grows (freed with the factorisation), or, while helpers are attached, a region of their
- * shared memory that later workspaces are placed after (a shared memory's growth never detaches existing views). A
- * shared memory never shrinks, so such regions are capped (`PINNED_MAX_BYTES`); past the cap, factors are copied out.
- * Only the CLI attaches helpers, for one analysis per process.
+ * costs a fault, a 2,000-sector copy costs more than the arithmetic around it; test/bench). Such storage is a Wasm
+ * memory of its own that nothing ever grows, freed with the factorisation. While helper threads are attached, only
+ * the first large factorisation is kept in their shared memory (at its start; later workspaces are placed after it, and
+ * a shared memory's growth never detaches existing views): that memory never shrinks, so factors kept there one per
+ * Monte Carlo draw, say, would never be freed; later factorisations are copied out. Only the CLI attaches helpers,
+ * for one table per process, whose factorisation is that first one.
  */
 import { activateWasm, activeWasm, kernelMode } from './gemm.ts';
 import { instantiateGemm, type WasmKernel } from './wasm-gemm.ts';
@@ -29,10 +30,7 @@ let busy = false;
 /** Factorisations from this many elements get storage of their own (below it, copying in and out costs next to nothing). */
 export const OWN_STORAGE_MIN_ELEMENTS = 256 * 256;
 
-/** Most bytes of the helpers' shared memory given to factors (two 4,000-sector factorisations). */
-export const PINNED_MAX_BYTES = 2 * 8 * 4000 * 4000;
-
-/** End (bytes) of the region of the helpers' shared memory that holds factors; workspaces start after it. */
+/** The helpers' shared memory whose start holds a kept factorisation, and that factorisation's size in bytes. */
 let pinned: { kernel: WasmKernel; end: number } | null = null;
 
 function pinnedEnd(shared: WasmKernel): number {
@@ -50,17 +48,17 @@ export interface FactorStorage {
 
 /**
  * Storage for a factorisation of `elements` entries that outlives the call, or null when the factors should be
- * computed in an ordinary workspace and copied out (small matrices, the JavaScript kernel, or no memory to spare).
+ * computed in an ordinary workspace and copied out (small matrices, the JavaScript kernel, a factorisation already kept
+ * in the helpers' shared memory, or no memory to spare).
  */
 export function factorStorage(elements: number): FactorStorage | null {
   if (busy || kernelMode() === 'js' || elements < OWN_STORAGE_MIN_ELEMENTS) return null;
   const bytes = aligned(8 * elements);
   const shared = sharedKernel();
   if (shared !== null) {
-    const at = pinnedEnd(shared);
-    if (at + bytes > PINNED_MAX_BYTES || grown(shared, at + bytes) === null) return null;
-    pinned = { kernel: shared, end: at + bytes };
-    const view = new Float64Array(shared.memory.buffer, at, elements);
+    if (pinnedEnd(shared) > 0 || grown(shared, bytes) === null) return null;
+    pinned = { kernel: shared, end: bytes };
+    const view = new Float64Array(shared.memory.buffer, 0, elements);
     view.fill(0);
     return { view, kernel: shared };
   }
