@@ -19,7 +19,7 @@ export { estimateCountyTable, type CountyEstimate, type EstimateRequest, type Es
 // What the front ends need besides the study itself (they import engine code only through this file).
 export type Closure = import('./study.ts').StudySettings['closure'];
 export { formatLocated, isInputError, InputError, type Location, type Warning } from '../diagnostics/index.ts';
-export { previewTable, matchKey, ROW_ROLES, COLUMN_ROLES, type IOTable, type TablePreview, type RoleMap } from '../table/index.ts';
+export { previewTable, matchKey, ROW_ROLES, COLUMN_ROLES, type IOTable, type TablePreview, type RoleMap, type Delimiter, type DecimalMark } from '../table/index.ts';
 export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../table/index.ts';
 export { luInverse } from '../linalg/index.ts';
 export type { ModeKind } from '../model/index.ts';
@@ -52,3 +52,13 @@ export {
   drawsProblem, seedProblem, cvProblem, shareRangeProblem, DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_CV, DEFAULT_SHARE_STEP, MIN_DRAWS, MAX_DRAWS, MAX_CV, MIN_ACCEPTED,
   type UncertaintySettings, type UncertaintyResult, type ScenarioBands, type PointBand, type SensitivityResult, type SensitivityItem, type RunOptions, type CvRule,
 } from '../uncertainty/index.ts';
+
+// The brief (PDF) and the workbook (XLSX).
+export {
+  studyBrief, studyBriefDocument, studyWorkbook, briefInputOf, baseEconomy, phasesOf, type BriefOptions,
+} from './deliverables.ts';
+export {
+  BRIEF_FONT_FILES, PAPERS, ROUNDING_NOTE, councilNumber, shareText, documentText,
+  type Paper, type BriefFonts, type BriefDocument, type BriefBlock, type BriefTable, type BriefBars,
+} from '../deliverables/index.ts';
+export { csvFileText, UTF8_BOM } from '../csv/index.ts';
