@@ -77,6 +77,11 @@ describe.skipIf(skipBrowser)('Start from supply and use tables, in the browser',
     expect(await err.textContent()).toMatch(/bad-use\.csv \(row 'Farming'\): supply and use disagree .*'Farming' \+/);
     expect(await err.textContent()).toMatch(/Nothing changed: the table in use is still/);
     await shot(page, 'supply-use-refused');
+    // Farming's gap is about 22 %: a 25 % tolerance accepts the pair.
+    await page.getByTestId('sut-tolerance').fill('25');
+    await page.getByTestId('sut-rows').waitFor({ timeout: 30_000 });
+    expect(await page.getByTestId('sut-error').count()).toBe(0);
+    await page.getByTestId('sut-tolerance').fill('0.1');
     await page.getByRole('button', { name: 'Use the bundled sample' }).click();
     await page.getByTestId('sut-rows').waitFor({ timeout: 30_000 });
   });
