@@ -95,6 +95,15 @@ describe.skipIf(skipBrowser)('Start from supply and use tables, in the browser',
     await page.getByRole('heading', { name: 'Start from a larger table' }).waitFor();
     expect(await page.getByTestId('national-name').textContent()).toContain('symmetric-table.csv');
     await page.getByTestId('regional-sectors').waitFor({ timeout: 30_000 });
+    // County jobs by the invented codes through the bundled bridge: the estimate of the derived table still comes out.
+    await page.locator('details.optional summary').click();
+    await page.getByTestId('use-bridge').check();
+    await expect.poll(async () => page.getByTestId('employment-name').textContent(), { timeout: 30_000 }).toContain('fernhollow-employment-by-code.csv');
+    expect(await page.getByTestId('bridge-name').textContent()).toContain('fernhollow-bridge.csv');
+    await expect.poll(async () => page.getByTestId('regional-notes').textContent(), { timeout: 30_000 }).toMatch(/through the bridge fernhollow-bridge\.csv/);
+    expect(await page.getByTestId('regional-error').count()).toBe(0);
+    await shot(page, 'supply-use-county-by-code');
+    await page.getByTestId('use-bridge').uncheck();
     await page.click('[data-screen="supply-use"]');
     await page.getByTestId('sut-accept').click();
     await page.getByTestId('verdict').waitFor({ timeout: 30_000 });
