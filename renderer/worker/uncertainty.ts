@@ -6,7 +6,7 @@
  */
 import {
   beginStudyBands, checkUncertaintySettings, defaultUncertaintySettings, MEASURES, readyLines, studySensitivity, VARIABLES,
-  type BandsRun, type PointBand, type PreparedStudy, type UncertaintyResult,
+  type BandsRun, type HowSure, type IOTable, type PointBand, type PreparedStudy, type UncertaintyResult,
 } from '../../src/study/index.ts';
 import type { BandSettings, BandView, BandsView, ScenarioDraft, SensitivityView, StudyChoices } from './protocol.ts';
 
@@ -35,9 +35,35 @@ export function bandsView(r: UncertaintyResult, target: BandsView['target'], mon
   };
 }
 
+/**
+ * The bands and sensitivity last computed for each table, closure and scenario (null: the multipliers), so the brief
+ * and the workbook include them exactly when they belong to what is exported.
+ */
+export function howSureMemory() {
+  const byTable = new WeakMap<IOTable, Map<string, HowSure>>();
+  const key = (ps: PreparedStudy, scenario: ScenarioDraft | null) =>
+    JSON.stringify([ps.study.settings.closure, scenario ? [scenario.name, readyLines(scenario).lines] : null]);
+  const slot = (ps: PreparedStudy, scenario: ScenarioDraft | null): HowSure => {
+    let m = byTable.get(ps.study.table);
+    if (!m) byTable.set(ps.study.table, (m = new Map()));
+    const k = key(ps, scenario);
+    let h = m.get(k);
+    if (!h) m.set(k, (h = {}));
+    return h;
+  };
+  return {
+    rememberBands(ps: PreparedStudy, scenario: ScenarioDraft | null, r: UncertaintyResult) { slot(ps, scenario).bands = r; },
+    rememberSensitivity(ps: PreparedStudy, scenario: ScenarioDraft, s: NonNullable<HowSure['sensitivity']>) { slot(ps, scenario).sensitivity = s; },
+    of(ps: PreparedStudy, scenario: ScenarioDraft | null): HowSure {
+      return byTable.get(ps.study.table)?.get(key(ps, scenario)) ?? {};
+    },
+  };
+}
+export type HowSureMemory = ReturnType<typeof howSureMemory>;
+
 /** The operations, given the worker's way to the study as the screens have it now. */
-export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: ScenarioDraft[]) => PreparedStudy) {
-  let run: { id: number; bands: BandsRun; target: BandsView['target']; moneyUnit: string } | null = null;
+export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: ScenarioDraft[]) => PreparedStudy, memory: HowSureMemory = howSureMemory()) {
+  let run: { id: number; bands: BandsRun; target: BandsView['target']; moneyUnit: string; ps: PreparedStudy; scenario: ScenarioDraft | null } | null = null;
   let lastId = 0;
   /** The run a step belongs to: a panel whose run was replaced by a newer one (another screen's) is told so. */
   const runOf = (id: number) => {
@@ -51,7 +77,7 @@ export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: Scen
       checkUncertaintySettings(settings);
       const ps = studyAt(args.choices);
       const scenarios = args.scenario ? [readyLines(args.scenario)] : [];
-      run = { id: ++lastId, bands: beginStudyBands(ps, { settings, multipliers: !args.scenario, scenarios }), target: args.scenario ? 'scenario' : 'multipliers', moneyUnit: ps.study.table.moneyUnit };
+      run = { id: ++lastId, bands: beginStudyBands(ps, { settings, multipliers: !args.scenario, scenarios }), target: args.scenario ? 'scenario' : 'multipliers', moneyUnit: ps.study.table.moneyUnit, ps, scenario: args.scenario };
       return { id: run.id, total: run.bands.total };
     },
     bandsStep(args: { id: number; from: number; to: number }): { done: number } {
@@ -60,13 +86,15 @@ export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: Scen
     },
     bandsFinish(args: { id: number }): BandsView {
       const r = runOf(args.id);
-      const view = bandsView(r.bands.finish(), r.target, r.moneyUnit);
+      const result = r.bands.finish();
+      memory.rememberBands(r.ps, r.scenario, result);
       run = null;
-      return view;
+      return bandsView(result, r.target, r.moneyUnit);
     },
     sensitivity(args: { choices: StudyChoices; scenario: ScenarioDraft; step: number }): SensitivityView {
       const ps = studyAt(args.choices);
       const s = studySensitivity(ps, args.scenario, args.step);
+      memory.rememberSensitivity(ps, args.scenario, s);
       return {
         scenario: s.scenario, step: s.step, point: s.point, notes: s.notes, moneyUnit: ps.study.table.moneyUnit,
         items: s.items.map((it) => ({

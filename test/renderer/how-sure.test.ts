@@ -4,6 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { api } from '../../renderer/worker/compute.ts';
 import { bandsView } from '../../renderer/worker/uncertainty.ts';
+import { readWorkbook } from '../support/deliverables.ts';
 import { defaultUncertaintySettings, prepareStudy, SAMPLE_CSV, SAMPLE_FILE_NAME, studyBands, studyFromTableFile, utf8Bytes, type Scenario } from '../../src/study/index.ts';
 
 const choices = { closure: 'households' as const, destination: null };
@@ -34,5 +35,17 @@ describe('How sure? worker operations', () => {
 
   it('refuse settings out of range with the engine\'s words', () => {
     expect(() => api.bandsStart({ choices, settings: { ...settings, draws: 3 }, scenario })).toThrow(/number of draws must be a whole number from 20/);
+  });
+
+  it('put the bands into the workbook of the same scenario, and only of that scenario as it stands', async () => {
+    const start = api.bandsStart({ choices, settings, scenario });
+    api.bandsStep({ id: start.id, from: 0, to: 45 });
+    api.bandsFinish({ id: start.id });
+    api.sensitivity({ choices, scenario, step: 0.1 });
+    const wb = readWorkbook((await api.workbook({ scenario, scenarios: [scenario], choices })).xlsx);
+    expect(wb.names).toEqual(expect.arrayContaining(['Uncertainty bands', 'Sensitivity']));
+    const changed = { ...scenario, lines: [{ ...scenario.lines[0]!, amount: 3000 }] };
+    expect(readWorkbook((await api.workbook({ scenario: changed, scenarios: [changed], choices })).xlsx).names).not.toContain('Uncertainty bands');
+    expect(readWorkbook((await api.workbook({ scenario, scenarios: [scenario], choices: { ...choices, closure: 'none' } })).xlsx).names).not.toContain('Uncertainty bands');
   });
 });

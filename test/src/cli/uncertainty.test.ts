@@ -7,6 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Papa from 'papaparse';
 import { runCli } from '../../support/cli.ts';
+import { readWorkbook } from '../../support/deliverables.ts';
 
 const TABLE = 'sample-data/fernhollow-county.csv';
 const SHOCK = 'sample-data/fernhollow-food-plant.csv';
@@ -57,6 +58,15 @@ describe('scenario --draws', () => {
     const about = readFileSync(join(out, 'fernhollow-food-plant-bands.about.txt'), 'utf8');
     expect(about).toMatch(/Monte Carlo bands from 40 draws \(seed 1\)/);
     expect(about).toMatch(/Estimates, not forecasts/);
+  });
+});
+
+describe('scenario --draws --xlsx', () => {
+  it('puts the bands into the workbook', async () => {
+    const book = join(dir, 'book.xlsx');
+    const r = await runCli(['scenario', TABLE, '--shock', SHOCK, '--draws', '30', '--sensitivity', '--xlsx', book]);
+    expect(r.code, r.err).toBe(0);
+    expect(readWorkbook(readFileSync(book)).names).toEqual(expect.arrayContaining(['Uncertainty bands', 'Sensitivity']));
   });
 });
 
