@@ -10,7 +10,7 @@ import {
 } from '../../src/study/index.ts';
 import type { BandSettings, BandView, BandsView, ScenarioDraft, SensitivityView, StudyChoices } from './protocol.ts';
 
-const VARIABLE_LABELS = { output: 'Output', valueAdded: 'Value added', income: 'Labour income', employment: 'Employment' } as const;
+const VARIABLE_LABELS: Record<string, string> = { output: 'Output', valueAdded: 'Value added', income: 'Labour income', employment: 'Employment', taxes: 'Taxes' };
 
 function band(b: PointBand | null): BandView | null {
   return b ? { point: b.point, p5: b.p5, p50: b.p50, p95: b.p95, mean: b.mean } : null;
@@ -28,7 +28,7 @@ export function bandsView(r: UncertaintyResult, target: BandsView['target'], mon
       const measure = MEASURES.find((x) => x.key === m.key)!;
       return { key: m.key, label: measure.label, unit: measure.unit(moneyUnit), values: m.values.map(band) };
     }) : null,
-    totals: s ? VARIABLES.map((v) => ({ variable: v, label: VARIABLE_LABELS[v], unit: v === 'employment' ? 'jobs' : moneyUnit, band: band(s.totals[v]) })) : null,
+    totals: s ? VARIABLES.map((v) => ({ variable: v, label: VARIABLE_LABELS[v], unit: v === 'employment' ? 'jobs' : moneyUnit, band: band(s.totals[v] ?? null) })) : null,
     sectorOutput: s ? s.bySector.output.map(band) : null,
     sectorJobs: s && s.bySector.employment ? s.bySector.employment.map(band) : null,
     moneyUnit,
@@ -42,7 +42,7 @@ export function bandsView(r: UncertaintyResult, target: BandsView['target'], mon
 export function howSureMemory() {
   const byTable = new WeakMap<IOTable, Map<string, HowSure>>();
   const key = (ps: PreparedStudy, scenario: ScenarioDraft | null) =>
-    JSON.stringify([ps.study.settings.closure, scenario ? [scenario.name, readyLines(scenario).lines] : null]);
+    JSON.stringify([ps.study.settings.closure, scenario ? [scenario.name, readyLines(scenario).phases] : null]);
   const slot = (ps: PreparedStudy, scenario: ScenarioDraft | null): HowSure => {
     let m = byTable.get(ps.study.table);
     if (!m) byTable.set(ps.study.table, (m = new Map()));
@@ -93,8 +93,9 @@ export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: Scen
     },
     sensitivity(args: { choices: StudyChoices; scenario: ScenarioDraft; step: number }): SensitivityView {
       const ps = studyAt(args.choices);
-      const s = studySensitivity(ps, args.scenario, args.step);
-      memory.rememberSensitivity(ps, args.scenario, s);
+      const all = studySensitivity(ps, args.scenario, args.step);
+      memory.rememberSensitivity(ps, args.scenario, all);
+      const s = all[0]!; // the first phase (the panel shows one phase's sensitivity; the workbook has every phase's)
       return {
         scenario: s.scenario, step: s.step, point: s.point, notes: s.notes, moneyUnit: ps.study.table.moneyUnit,
         items: s.items.map((it) => ({
