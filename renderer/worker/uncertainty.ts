@@ -28,7 +28,7 @@ export function bandsView(r: UncertaintyResult, target: BandsView['target'], mon
       const measure = MEASURES.find((x) => x.key === m.key)!;
       return { key: m.key, label: measure.label, unit: measure.unit(moneyUnit), values: m.values.map(band) };
     }) : null,
-    totals: s ? VARIABLES.map((v) => ({ variable: v, label: VARIABLE_LABELS[v], unit: v === 'employment' ? 'jobs' : moneyUnit, band: band(s.totals[v] ?? null) })) : null,
+    totals: s ? VARIABLES.map((v) => ({ variable: v, label: VARIABLE_LABELS[v] ?? v, unit: v === 'employment' ? 'jobs' : moneyUnit, band: band(s.totals[v] ?? null) })) : null,
     sectorOutput: s ? s.bySector.output.map(band) : null,
     sectorJobs: s && s.bySector.employment ? s.bySector.employment.map(band) : null,
     moneyUnit,
