@@ -8,7 +8,7 @@
 import type { Cell } from '../csv/index.ts';
 import type { ScenarioLine, ScenarioResult } from '../scenario/index.ts';
 import { type BriefBlock, type BriefDocument, type BriefTable } from './document.ts';
-import { councilNumber, plainNumber, ROUNDING_NOTE, shareText, type Quantity } from './rounding.ts';
+import { councilNumber, dateText, plainNumber, ROUNDING_NOTE, shareText, type Quantity } from './rounding.ts';
 
 /** The county's base-year totals, in the same definitions as the effects (coefficient × base-year output, summed). */
 export interface BaseEconomy {
@@ -279,7 +279,7 @@ export function briefDocument(input: BriefInput): BriefDocument {
     ['Money', `${input.moneyUnit}; ${input.priceYear ? `prices of ${input.priceYear}` : 'price year not stated (amounts as in the table)'}`],
     ['Model', input.model],
     ['Table check', input.verdict],
-    ['Produced', `${input.date} by Roundwise`],
+    ['Produced', `${dateText(input.date)} by Roundwise`],
   ];
   const blocks: BriefBlock[] = [
     { kind: 'facts', rows: facts },
@@ -297,9 +297,9 @@ export function briefDocument(input: BriefInput): BriefDocument {
   );
   return {
     title: `Economic impact brief: ${input.scenario}`,
-    subtitle: `${input.tableName} · money in ${input.moneyUnit} · produced ${input.date}`,
+    subtitle: `${input.tableName} · money in ${input.moneyUnit} · produced ${dateText(input.date)}`,
     date: input.date,
-    footer: `${input.scenario} — Roundwise brief, ${input.date.slice(0, 10)}. Estimates, not forecasts: see the cautions.`,
+    footer: `${input.scenario} — Roundwise brief, ${dateText(input.date, false)}. Estimates, not forecasts: see the cautions.`,
     blocks,
   };
 }
