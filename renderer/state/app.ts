@@ -30,6 +30,8 @@ export const app = reactive({
   draft: null as ImportDraft | null,
   scenarios: [] as ScenarioDraft[],
   selected: 0,
+  /** The phase of the selected scenario being edited and shown. */
+  phase: 0,
   results: [] as (ScenarioView | { error: string } | null)[],
   /** Type II: include the household closure in scenario results and multipliers (the study's closure setting). */
   closure: true,
@@ -177,8 +179,15 @@ export function editScenarios(fn: (s: ScenarioDraft[]) => void, select?: number)
   app.scenarios = copy;
   if (select !== undefined) app.selected = select;
   app.selected = Math.min(Math.max(0, app.selected), Math.max(0, copy.length - 1));
+  clampPhase();
   syncUndo();
   markDirty(true);
+}
+
+/** Keep the phase index inside the selected scenario's phases. */
+export function clampPhase(): void {
+  const n = app.scenarios[app.selected]?.phases.length ?? 1;
+  app.phase = Math.min(Math.max(0, app.phase), Math.max(0, n - 1));
 }
 
 export function undo(): void {
@@ -186,6 +195,7 @@ export function undo(): void {
   if (!s) return;
   app.scenarios = s.scenarios;
   app.selected = s.selected;
+  clampPhase();
   syncUndo();
   markDirty(true);
 }
@@ -195,6 +205,7 @@ export function redo(): void {
   if (!s) return;
   app.scenarios = s.scenarios;
   app.selected = s.selected;
+  clampPhase();
   syncUndo();
   markDirty(true);
 }

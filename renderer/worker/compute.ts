@@ -5,9 +5,9 @@
  */
 import {
   buildReport, formatLocated, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
-  reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadPattern, studyFromProjectFile,
+  reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
   studyFromTableFile, utf8Bytes, withTable, COLUMN_ROLES, ROW_ROLES,
-  type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingPattern, type Study,
+  type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, TableInfo, TableSource } from './protocol.ts';
 import { analysisView, pathsView, scenarioView, tableInfo } from './views.ts';
@@ -40,13 +40,16 @@ function studyAt(choices: StudyChoices, scenarios: Scenario[] = []): PreparedStu
 function load(study: Study): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft } {
   const ps = prepareStudy(study);
   state = ps;
-  return { table: tableInfo(study.table, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study) };
+  return { table: tableInfo(study, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study) };
 }
 
 function starter(study: Study): ScenarioDraft {
   const s = study.table.sectors;
   const food = s.find((x) => /food/i.test(x));
-  return { name: food ? 'New food plant' : 'Example scenario', lines: [{ sector: food ?? s[0] ?? '', amount: 1000, kind: 'final-demand', localShare: 1 }] };
+  return {
+    name: food ? 'New food plant' : 'Example scenario',
+    phases: [{ name: food ? 'Operating' : 'Phase 1', timing: food ? 'annual' : 'once', lines: [{ sector: food ?? s[0] ?? '', amount: 1000, kind: 'final-demand', localShare: 1 }] }],
+  };
 }
 
 function loadTable(src: TableSource): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft } {
@@ -85,9 +88,11 @@ function runScenario(args: { scenario: ScenarioDraft; choices: StudyChoices }): 
   return scenarioView(runStudyScenario(studyAt(args.choices), readyLines(args.scenario)));
 }
 
-/** Paths to the study's chosen sector (`choices.destination`), or to the default one when none is chosen. */
-function paths(args: { scenario: ScenarioDraft; choices: StudyChoices }): PathsView {
-  return pathsView(runStudyScenario(studyAt(args.choices), readyLines(args.scenario), { paths: 'default' }).paths!);
+/** Paths of one phase to the study's chosen sector (`choices.destination`), or to the default one when none is chosen. */
+function paths(args: { scenario: ScenarioDraft; phase?: number; choices: StudyChoices }): PathsView {
+  const o = runStudyScenario(studyAt(args.choices), readyLines(args.scenario), { paths: 'default' });
+  const p = o.phases[Math.min(args.phase ?? 0, o.phases.length - 1)]!;
+  return pathsView(p.paths!);
 }
 
 function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
@@ -137,8 +142,8 @@ function openProject(args: { text: string; fileName: string }): { table: TableIn
   return { ...loaded, scenarios: study.scenarios, choices: { closure: study.settings.closure, destination: study.settings.paths.destination }, active, name: study.name };
 }
 
-function spread(args: { pattern: SpendingPattern; amount: number; localShare: number }): ScenarioLine[] {
-  return spreadPattern(args.pattern, args.amount, { localShare: args.localShare });
+function spread(args: { mix: SpendingMix; amount: number; localShare: number }): ScenarioLine[] {
+  return spreadMix(args.mix, args.amount, { localShare: args.localShare });
 }
 
 export const api = {
