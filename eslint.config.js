@@ -14,9 +14,10 @@ export const ENGINE_LAYERS = [
   ['diagnostics', 'schema'],
   ['csv', 'linalg', 'bridge'],
   ['table'],
-  ['model'],
+  ['model', 'classification'],
   ['scenario', 'regional'],
-  ['report', 'project'],
+  ['report', 'project', 'sut'],
+  ['uncertainty'],
   ['study', 'node-io'],
   ['cli'],
 ];

@@ -9,15 +9,15 @@ import type { IOTable } from '../table/index.ts';
 import { conditionEstimate1, RESIDUAL_THRESHOLD, UNIT_ROUNDOFF } from '../linalg/index.ts';
 import { formLeontief } from './leontief.ts';
 import { coefficients } from './coefficients.ts';
-import { closedBorder, prepareModel, solveClosed, type PreparedModel } from './prepared.ts';
-import { decideClosedModel, rememberClosedModelDecision, type ClosedModelDecision } from './closed-model.ts';
+import { prepareModel, solveClosed, type PreparedModel } from './prepared.ts';
+import type { ClosedModelDecision } from './closed-model.ts';
+import { decideModels } from './availability.ts';
 import {
   implausibleMultipliers, implausibleMultiplierWarning, negativeValueAdded, negativeValueAddedWarning,
   type ImplausibleMultiplier, type NegativeValueAdded,
 } from './plausibility.ts';
-import { sectorBlocks } from './graph.ts';
-import { perronRoot, type PerronOptions } from './perron.ts';
-import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
+import type { PerronOptions } from './perron.ts';
+import type { HawkinsSimon } from './hawkins.ts';
 import { spectrum as fullSpectrum, SPECTRUM_MAX_SECTORS, type Mode } from './spectrum.ts';
 import { seriesVerdict, type SeriesVerdict } from './rounds.ts';
 import { computeLinkages, computeMultipliers, type Availability, type Linkages, type Multipliers } from './multipliers.ts';
@@ -142,16 +142,8 @@ export interface Analysis {
   warnings: Warning[];
 }
 
-const CONDITION_LIMIT = 1e12;
-
-function hasNegative(a: Float64Array): boolean {
-  for (let k = 0; k < a.length; k++) if (a[k]! < 0) return true;
-  return false;
-}
-
-function absolute(a: Float64Array): Float64Array {
-  return Float64Array.from(a, Math.abs);
-}
+/** Above this 1-norm condition estimate of I − A, results may have lost most of their digits (warned). */
+export const CONDITION_LIMIT = 1e12;
 
 /** ‖I − A‖₁ (maximum absolute column sum), read row by row so the n×n matrix I − A is never formed. */
 function identityMinusNorm1(a: Float64Array, n: number): number {
@@ -202,14 +194,6 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   const warnings: Warning[] = table.warnings.filter((w) => !(w.code === 'inputs-exceed-output' && valueAddedFindings.length > 0));
   const warn = (code: string, message: string): void => { warnings.push({ code, message }); };
 
-  const negativeFlows = hasNegative(A);
-  const absA = negativeFlows ? absolute(A) : A;
-  const blocks = sectorBlocks(A, n);
-  const perron = perronRoot(absA, n, { ...opts.perron, blocks });
-  const hs = hawkinsSimon(A, n, openLU);
-  const irreducible = blocks.length === 1 && (n === 1 ? blocks[0]!.cyclic : true);
-  const period = irreducible ? blocks[0]!.period : null;
-
   let modes: Mode[] | null = null;
   let spectrumNote: string | null = null;
   const wantSpectrum = opts.spectrum ?? 'auto';
@@ -222,25 +206,13 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   }
   const spectralRadius = modes && modes.length ? modes[0]!.modulus : null;
 
-  // The one verdict.
-  let productive: boolean;
-  let verdictNote: string | null = null;
-  if (openLU.singular) {
-    productive = false;
-    verdictNote = 'I − A is singular or within rounding of singular: 1 is an eigenvalue of A, so no finite Leontief inverse exists';
-  } else if (!negativeFlows) {
-    const below = perron.upper < 1;
-    const above = perron.lower >= 1;
-    productive = hs.holds && below;
-    if (hs.holds !== below || (!below && !above) || hs.nearZero) {
-      verdictNote = `the Perron root is within rounding of 1 (bounds ${fmt(perron.lower)}–${fmt(perron.upper)}; Hawkins–Simon ${hs.holds ? 'holds' : 'fails'}${hs.nearZero ? ' by a pivot of rounding size' : ''}); for a non-negative A the two tests agree exactly, so the disagreement is numerical noise: the table is treated as ${productive ? 'productive' : 'not productive'}`;
-    }
-  } else {
-    const radiusBelow = spectralRadius !== null ? spectralRadius < 1 : perron.upper < 1;
-    productive = hs.holds && radiusBelow;
-    verdictNote = `A has negative entries, so Hawkins–Simon and the Perron root are not equivalent tests; the verdict needs both Hawkins–Simon and a spectral radius below 1 (${spectralRadius !== null ? `from the full spectrum, ${fmt(spectralRadius)}` : `bounded by ρ(|A|) ≤ ${fmt(perron.upper)}`})`;
-    warn('negative-flows', 'the table has negative intermediate flows: Perron–Frobenius results apply to |A| only, and multipliers may be negative');
-  }
+  // The one verdict, and the closed-model decision (availability.ts); scenarios on this prepared table read the same.
+  const decision = decideModels(pm, { ...(opts.perron ? { perron: opts.perron } : {}), spectralRadius });
+  const { negativeFlows, blocks, perron, productive, verdictNote, perronRootClosed, perronRootClosedBounds, closedModel } = decision;
+  const hs = decision.hawkinsSimon;
+  const irreducible = blocks.length === 1 && (n === 1 ? blocks[0]!.cyclic : true);
+  const period = irreducible ? blocks[0]!.period : null;
+  if (negativeFlows) warn('negative-flows', 'the table has negative intermediate flows: Perron–Frobenius results apply to |A| only, and multipliers may be negative');
   if (!productive) {
     const hsText = hs.firstFailing
       ? `Hawkins–Simon fails at the leading minor of order ${hs.firstFailing.order} (sector '${sectors[hs.firstFailing.sector]}', pivot ${fmt(hs.firstFailing.pivot)})`
@@ -249,31 +221,11 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   } else if (verdictNote && !negativeFlows) {
     warn('productivity-noise', verdictNote);
   }
-
-  // Closed model: decided once here (closed-model.ts); scenarios on this prepared table read the same decision.
-  let perronRootClosed: number | null = null;
-  let perronRootClosedBounds: [number, number] | null = null;
-  if (closed) {
-    const abar = negativeFlows ? absolute(closed.Abar) : closed.Abar;
-    const pc = perronRoot(abar, closed.m, { ...opts.perron, rightOnly: true });
-    perronRootClosed = pc.root;
-    perronRootClosedBounds = [pc.lower, pc.upper];
-  }
-  const closedModel = decideClosedModel({
-    hasClosure: closed !== null, openProductive: productive, border: closedBorder(pm), closedBounds: perronRootClosedBounds, negativeFlows,
-  });
-  rememberClosedModelDecision(pm, closedModel);
   const closedProductive = closed ? closedModel.usable : null;
-  const closedWhy: true | string = closedModel.usable ? true : closedModel.reason!;
   if (productive && closed && !closedModel.usable) warn('closed-not-productive', `${closedModel.reason}; Type II multipliers are not defined`);
   if (closedModel.accuracyNote) warn('closed-ill-conditioned', closedModel.accuracyNote);
 
-  const avail: Availability = {
-    open: productive ? true : openLU.singular
-      ? 'I − A is singular (1 is an eigenvalue of A), so no finite Leontief inverse exists; check that every sector has value added or imports'
-      : 'the table is not productive (Perron root of A not below 1)',
-    closed: closedWhy,
-  };
+  const avail: Availability = decision.availability;
   const multipliers = computeMultipliers(pm, avail);
   const linkages = computeLinkages(pm, multipliers.output.typeI, avail);
   if (valueAddedFindings.length) warn('negative-value-added', negativeValueAddedWarning(valueAddedFindings, table.moneyUnit));

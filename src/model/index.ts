@@ -1,5 +1,6 @@
 /** The model layer's public API: coefficients, the prepared (factored) model, analyses and their parts. */
 export * from './analysis.ts';
+export * from './availability.ts';
 export * from './closed-model.ts';
 export * from './closure.ts';
 export * from './coefficients.ts';

@@ -116,7 +116,20 @@ function jobsByTableSector(national: IOTable, emp: EmploymentInput): { er: Float
   return { er, en, warnings };
 }
 
+/** The estimate without its comparison with the source (regionalize adds it): for callers that estimate many times. */
+export type RegionalEstimate = Omit<RegionalResult, 'comparison'>;
+
 export function regionalize(national: IOTable, emp: EmploymentInput, opts: RegionalizeOptions): RegionalResult {
+  const est = regionalizeTable(national, emp, opts);
+  // How the estimate compares with its source: always a note, and a warning when it lies outside the plausible range.
+  const { comparison, warning } = compareEstimate(national, est.table, Array.from(est.regionalJobs, (v) => v > 0));
+  est.notes.push(comparison.note);
+  if (warning) { est.warnings.push(warning); est.table.warnings.push(warning); }
+  return { ...est, comparison };
+}
+
+/** The county table and its parts from location quotients (see the file comment). */
+export function regionalizeTable(national: IOTable, emp: EmploymentInput, opts: RegionalizeOptions): RegionalEstimate {
   const delta = opts.delta ?? DEFAULT_FLQ_DELTA;
   if (!Number.isFinite(delta) || delta < 0 || delta > 1) {
     throw new InputError('delta-range', `δ must lie between 0 and 1 (got ${Number.isFinite(delta) ? delta : 'a non-number'})`, {});
@@ -219,10 +232,6 @@ export function regionalize(national: IOTable, emp: EmploymentInput, opts: Regio
     roles,
     warnings: [...warnings],
   };
-  // How the estimate compares with its source: always a note, and a warning when it lies outside the plausible range.
-  const { comparison, warning } = compareEstimate(national, table, Array.from(er, (v) => v > 0));
-  notes.push(comparison.note);
-  if (warning) { warnings.push(warning); table.warnings.push(warning); }
   return {
     method: opts.method,
     delta: opts.method === 'flq' ? delta : null,
@@ -238,7 +247,6 @@ export function regionalize(national: IOTable, emp: EmploymentInput, opts: Regio
     leakage,
     leakageValue,
     table,
-    comparison,
     warnings,
     notes,
   };

@@ -4,7 +4,7 @@
  */
 import type { Cell } from '../csv/index.ts';
 import { reportFiles, type ReportFile, type ReportMeta } from './document.ts';
-import type { Analysis } from '../model/index.ts';
+import { CONDITION_LIMIT, type Analysis } from '../model/index.ts';
 import type { NullNote } from '../model/index.ts';
 import { verdictOf } from './verdict.ts';
 import { LINKAGE_CLASS_NAMES, linkageClass, measureHeader, measuresOf, measureValues } from './measures.ts';
@@ -129,7 +129,7 @@ export function viabilityRows(an: Analysis): Cell[][] {
   const s = an.series;
   rows.push([`rounds until less than ${v.tolerance} of any demand is left`, v.roundsToTolerance, null, null,
     s.converges ? `rigorous bound from a Collatz–Wielandt certificate (${s.certificate.source}, contraction ${s.certificate.beta})` : s.reason]);
-  rows.push(['condition estimate of I − A (1-norm)', an.checks.condition, null, null, 'LAPACK-style estimate; above 1e12 the results lose most digits']);
+  rows.push(['condition estimate of I − A (1-norm)', an.checks.condition, null, null, `LAPACK-style estimate; above ${CONDITION_LIMIT.toExponential(0)} the results lose most digits`]);
   rows.push(['scaled residual of a solve', an.checks.solveResidual, null, null, `LAPACK xGET02 ratio; above ${an.checks.residualThreshold} the factorisation is suspect`]);
   rows.push(['scaled residual of a household-closed solve', an.checks.closedSolveResidual, null, null, `the same ratio for I − Ā, solved by bordering the open factorisation`]);
   return rows;

@@ -45,6 +45,16 @@ export function verdictOf(an: Analysis): Verdict {
     : `Hawkins–Simon condition fails at the minor of order ${ff?.order ?? '?'} (sector '${an.sectors[ff?.sector ?? 0] ?? '?'}').`);
   if (v.verdictNote) detail.push(v.verdictNote);
   if (!v.irreducible && an.n > 1) detail.push(`The table is reducible: its sectors fall into ${v.blocks.length} groups that do not all buy from one another.`);
+  // Plausibility sits beside the decision, never inside it: the verdict says so in the same place.
+  const nva = v.negativeValueAdded;
+  if (nva.length) {
+    const named = nva.slice(0, 5).map((x) => `'${x.label}' (${x.valueAdded.toPrecision(4)} ${an.moneyUnit})`).join(', ');
+    detail.push(`But ${nva.length === 1 ? 'one sector buys' : `${nva.length} sectors buy`} more intermediate inputs and imports than ${nva.length === 1 ? 'its' : 'their'} output, so ${nva.length === 1 ? 'its' : 'their'} value added is negative: ${named}${nva.length > 5 ? ', …' : ''}. A real economy has no such sector; check the table before using its multipliers.`);
+  }
+  for (const m of an.implausibleMultipliers) {
+    const top = m.sectors[0];
+    if (top) detail.push(`${m.measure === 'output.typeI' ? 'Type I' : 'Type II'} output multipliers above ${m.threshold} in ${m.sectors.length} sector${m.sectors.length === 1 ? '' : 's'} (largest ${top.value.toPrecision(3)}, '${top.label}'): far above what county tables usually show; check the table.`);
+  }
   if (v.productive) {
     const closed = an.availability.closed;
     detail.push(closed === true

@@ -8,7 +8,8 @@
 import { InputError } from '../diagnostics/index.ts';
 import {
   aggregateTable, AGGREGATION_BIAS_NOTE, balanceTable, DEFAULT_FLQ_DELTA, LQ_METHODS, parseEmploymentCsv, parseGroupMapping, parseTotals,
-  regionalize, type AggregationResult, type LqMethod, type RegionalResult, type TableBalanceResult,
+  regionalize, regionalizeTable, type AggregationResult, type EmploymentInput, type GroupMapping, type LqMethod, type RegionalEstimate,
+  type RegionalResult, type TableBalanceResult,
 } from '../regional/index.ts';
 import { aboutText } from '../report/index.ts';
 import { sha256Hex, type ImportSettings } from '../project/index.ts';
@@ -60,27 +61,71 @@ function slugOf(fileName: string): string {
   return base.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'county';
 }
 
-export function estimateCountyTable(req: EstimateRequest, date = new Date().toISOString()): CountyEstimate {
+/** The inputs of an estimate, read once, so the same pipeline can run again at another FLQ δ (sensitivity, draws). */
+export interface EstimateInputs {
+  national: IOTable;
+  employment: EmploymentInput;
+  method: LqMethod;
+  balance: { sales: Float64Array; purchases: Float64Array; fileName: string } | null;
+  groups: GroupMapping | null;
+}
+
+interface Steps {
+  regional: RegionalEstimate;
+  balance: TableBalanceResult | null;
+  grouping: AggregationResult | null;
+  table: IOTable;
+  notes: string[];
+}
+
+export function readEstimateInputs(req: EstimateRequest): EstimateInputs {
   if (!(LQ_METHODS as readonly string[]).includes(req.method)) throw new InputError('usage', `the method must be SLQ, CILQ or FLQ (got '${String(req.method)}')`);
   const national = importTable(text(req.national), { fileName: req.national.fileName, ...req.nationalImport });
-  const delta = req.method === 'flq' ? req.delta : DEFAULT_FLQ_DELTA;
-  const regional = regionalize(national, parseEmploymentCsv(text(req.employment), req.employment.fileName), { method: req.method, delta });
+  const employment = parseEmploymentCsv(text(req.employment), req.employment.fileName);
+  const balance = req.balance ? {
+    sales: parseTotals(text(req.balance.rows), req.balance.rows.fileName, national.sectors, 'sector'),
+    purchases: parseTotals(text(req.balance.columns), req.balance.columns.fileName, national.sectors, 'sector'),
+    fileName: req.balance.rows.fileName,
+  } : null;
+  const groups = req.groups ? parseGroupMapping(text(req.groups), req.groups.fileName) : null;
+  return { national, employment, method: req.method, balance, groups };
+}
+
+/** Regionalize (compared with the source when `compare`), then the optional RAS and grouping. */
+function stepsAt(inputs: EstimateInputs, delta: number, compare: boolean): Steps {
+  const opts = { method: inputs.method, delta: inputs.method === 'flq' ? delta : DEFAULT_FLQ_DELTA };
+  const regional = compare ? regionalize(inputs.national, inputs.employment, opts) : regionalizeTable(inputs.national, inputs.employment, opts);
   let table = regional.table;
   const notes = [...regional.notes];
   let balance: TableBalanceResult | null = null;
-  if (req.balance) {
-    const sales = parseTotals(text(req.balance.rows), req.balance.rows.fileName, regional.sectors, 'sector');
-    const purchases = parseTotals(text(req.balance.columns), req.balance.columns.fileName, regional.sectors, 'sector');
-    balance = balanceTable(table, { sales, purchases, fileName: req.balance.rows.fileName });
+  if (inputs.balance) {
+    balance = balanceTable(table, inputs.balance);
     table = { ...balance.table, name: `${regional.table.name}, balanced by RAS` };
     notes.push(...balance.notes);
   }
   let grouping: AggregationResult | null = null;
-  if (req.groups) {
-    grouping = aggregateTable(table, parseGroupMapping(text(req.groups), req.groups.fileName));
+  if (inputs.groups) {
+    grouping = aggregateTable(table, inputs.groups);
     table = grouping.table;
     notes.push(...grouping.notes.filter((x) => x !== AGGREGATION_BIAS_NOTE), AGGREGATION_BIAS_NOTE);
   }
+  return { regional, balance, grouping, table, notes };
+}
+
+/**
+ * The finished county table of the same estimate at FLQ δ = `delta` (the same steps as estimateCountyTable, without
+ * the comparison with the source and the verdict): what FLQ δ sensitivity and draws recompute from.
+ */
+export function countyTableAt(inputs: EstimateInputs, delta: number): IOTable {
+  return stepsAt(inputs, delta, false).table;
+}
+
+export function estimateCountyTable(req: EstimateRequest, date = new Date().toISOString()): CountyEstimate {
+  const inputs = readEstimateInputs(req);
+  const delta = req.method === 'flq' ? req.delta : DEFAULT_FLQ_DELTA;
+  const done = stepsAt(inputs, delta, true);
+  const regional = done.regional as RegionalResult;
+  const { balance, grouping, table, notes } = done;
   const csv = writeTableCsv(table);
   const steps = `${req.method}${req.balance ? '-ras' : ''}${req.groups ? '-grouped' : ''}`;
   const judged = prepareStudy(studyOfTable(table), { spectrum: false });
@@ -95,5 +140,5 @@ export function estimateCountyTable(req: EstimateRequest, date = new Date().toIS
     moneyUnit: table.moneyUnit,
     notes: [...notes, ...warnings, `Verdict on the estimate: ${judged.verdict.say}`],
   });
-  return { national, regional, balance, grouping, table, csv, fileName: `${slugOf(req.employment.fileName)}-${steps}-estimate.csv`, about, notes, judged };
+  return { national: inputs.national, regional, balance, grouping, table, csv, fileName: `${slugOf(req.employment.fileName)}-${steps}-estimate.csv`, about, notes, judged };
 }

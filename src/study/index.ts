@@ -52,3 +52,11 @@ export { importTable, writeTableCsv } from '../table/index.ts';
 export { reportFiles, type ReportMeta, type Cell } from '../report/index.ts';
 export { visibleText } from '../diagnostics/index.ts';
 export { PROJECT_FORMAT, MIGRATED_PHASE } from '../project/index.ts';
+
+// How sure the numbers are (Monte Carlo bands, one-at-a-time sensitivity).
+export { drawSetupOf, studyBands, studySensitivity, bandReports, sensitivityReports, type BandsRequest } from './uncertainty.ts';
+export {
+  defaultSettings as defaultUncertaintySettings, checkSettings as checkUncertaintySettings, parseCvCsv, multiplierBandsJson, scenarioBandsJson, sensitivityJson,
+  drawsProblem, seedProblem, cvProblem, shareRangeProblem, DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_CV, DEFAULT_SHARE_STEP, MIN_DRAWS, MAX_DRAWS, MAX_CV, MIN_ACCEPTED,
+  type UncertaintySettings, type UncertaintyResult, type ScenarioBands, type PointBand, type SensitivityResult, type SensitivityItem, type RunOptions, type CvRule,
+} from '../uncertainty/index.ts';

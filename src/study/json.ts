@@ -6,7 +6,8 @@
  * `rounds` (and `paths`, `net`) stay for a scenario of one phase, as before phases existed. `taxes` and `fte` appear
  * only when the table has those rows.
  */
-import { analysisJson, CAUTIONS, modelTypeOf, SCENARIO_CAUTIONS } from '../report/index.ts';
+import { analysisJson, CAUTIONS, linkageClass, modelTypeOf, SCENARIO_CAUTIONS } from '../report/index.ts';
+import { unitDemandRounds } from './rounds.ts';
 import { VARIABLES, type EffectSplit, type OverTime, type ScenarioResult, type TotalsRecord } from '../scenario/index.ts';
 import type { PreparedStudy } from './prepare.ts';
 import type { PhaseOutcome, ScenarioOutcome } from './scenarios.ts';
@@ -15,8 +16,22 @@ const finite = (x: number | null) => (x === null || !Number.isFinite(x) ? null :
 const arr = (v: Float64Array | null) => (v ? Array.from(v, (x) => finite(x)) : null);
 const splitJson = (s: EffectSplit | null) => (s ? { direct: arr(s.direct), indirect: arr(s.indirect), induced: arr(s.induced), total: arr(s.total) } : null);
 
+/**
+ * The analysis JSON (its keys are a contract) plus what the screens show beside it: the verdict in words, each
+ * sector's Rasmussen class, and the spending rounds of one unit of demand in every sector with the round by which
+ * each share of the open-model total is reached.
+ */
 export function studyAnalysisJson(ps: PreparedStudy): Record<string, unknown> {
-  return { ...analysisJson(ps.analysis), verdict: { ...ps.verdict } };
+  const base = analysisJson(ps.analysis) as Record<string, unknown> & { linkages: Record<string, unknown> };
+  const ur = unitDemandRounds(ps);
+  return {
+    ...base,
+    linkages: { ...base.linkages, classes: ps.analysis.sectors.map((_, j) => linkageClass(ps.analysis, j)) },
+    verdict: { ...ps.verdict },
+    unitDemandRounds: ur.rounds
+      ? { output: ur.rounds.roundTotals, coverage: ur.rounds.coverage, reach: ur.rounds.reach, perronRoot: ur.rounds.perronRoot }
+      : { reason: ur.reason },
+  };
 }
 
 /** Keys of the variables a result has: the four of old always (employment null without jobs), taxes and fte when present. */

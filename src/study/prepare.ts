@@ -3,7 +3,7 @@
  * scenarios may use. Every result of the study (multipliers, scenarios, rounds, paths, reports) is computed from
  * this, so the CLI and the app cannot assemble the pipeline differently.
  */
-import { analyzePrepared, prepareModel, coefficients, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
+import { analyzePrepared, coefficients, modelsForClosure, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
 import { residentShares } from '../scenario/index.ts';
 import { verdictOf, type Verdict } from '../report/index.ts';
 import type { Study } from './study.ts';
@@ -17,7 +17,7 @@ export interface PreparedStudy {
   models: Availability;
 }
 
-export const CLOSURE_OFF = 'the household closure is switched off for this study';
+export { CLOSURE_OFF };
 
 export interface PrepareOptions {
   /** Full spectrum of A ('auto': up to 400 sectors). */
@@ -54,7 +54,5 @@ function sameCommuting(a: Study['commuting'], b: Study['commuting']): boolean {
 }
 
 function finish(study: Study, pm: PreparedModel, analysis: Analysis): PreparedStudy {
-  const a = analysis.availability;
-  const models: Availability = { open: a.open, closed: study.settings.closure === 'none' && a.closed === true ? CLOSURE_OFF : a.closed };
-  return { study, pm, analysis, verdict: verdictOf(analysis), models };
+  return { study, pm, analysis, verdict: verdictOf(analysis), models: modelsForClosure(analysis.availability, study.settings.closure) };
 }

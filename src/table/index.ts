@@ -23,12 +23,13 @@ export type { Delimiter } from './text.ts';
 export type { Dialect } from './dialect.ts';
 export type { DecimalMark, ParsedNumber } from './numbers.ts';
 export { MAX_TABLE_BYTES, checkTableSize, checkNotBinary } from './text.ts';
-export { parseNumberText } from './numbers.ts';
+export { parseNumberText, showNumber } from './numbers.ts';
 export { cleanLabel, matchKey } from './labels.ts';
-export { suggestRoles, suggestRowRole, suggestColumnRole, parseRoleMap, normaliseLabel, ROW_ROLES, COLUMN_ROLES, ROW_LABELS, COLUMN_LABELS } from './roles.ts';
+export { suggestRoles, suggestRowRole, suggestColumnRole, isKnownLabel, parseRoleMap, normaliseLabel, ROW_ROLES, COLUMN_ROLES, ROW_LABELS, COLUMN_LABELS } from './roles.ts';
 export { validateTable, moneyRows, type ValidateOptions } from './validate.ts';
 export { readSmallCsv, checkFieldCount, readNumberCell, numberCell, type SmallCsv, type SmallCsvRow, type SmallCsvOptions } from './small-csv.ts';
 export { writeTableCsv, writtenRoleMap } from './write.ts';
+export { readLabelledGrid, type LabelledGrid, type GridLabel, type LabelledGridOptions } from './labelled-grid.ts';
 export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from './sample.ts';
 
 /** Rows and fields of the file that the preview returns as parsed (the UI shows them as "the file as read"). */

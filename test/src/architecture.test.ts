@@ -51,8 +51,8 @@ describe('import rules', () => {
 describe('engine layers import downward only', () => {
   it('orders the engine folders diagnostics/schema → … → study → cli', () => {
     expect(ENGINE_LAYERS).toEqual([
-      ['diagnostics', 'schema'], ['csv', 'linalg', 'bridge'], ['table'], ['model'], ['scenario', 'regional'],
-      ['report', 'project'], ['study', 'node-io'], ['cli'],
+      ['diagnostics', 'schema'], ['csv', 'linalg', 'bridge'], ['table'], ['model', 'classification'], ['scenario', 'regional'],
+      ['report', 'project', 'sut'], ['uncertainty'], ['study', 'node-io'], ['cli'],
     ]);
   });
   it.each([
@@ -62,6 +62,10 @@ describe('engine layers import downward only', () => {
     ['src/model/bad.ts', '../scenario/index.ts'],
     ['src/report/bad.ts', '../study/index.ts'],
     ['src/study/bad.ts', '../cli/index.ts'],
+    ['src/uncertainty/bad.ts', '../study/index.ts'],
+    ['src/report/bad.ts', '../uncertainty/index.ts'],
+    ['src/sut/bad.ts', '../study/index.ts'],
+    ['src/classification/bad.ts', '../regional/index.ts'],
     ['src/diagnostics/bad.ts', '../schema/index.ts'],
   ])('refuses %s importing %s (upward or sideways)', async (file, spec) => {
     expect(await ruleIds(importing(spec), file)).toContain('no-restricted-imports');
@@ -70,6 +74,8 @@ describe('engine layers import downward only', () => {
     ['src/scenario/bad.ts', '../regional/index.ts'],
     ['src/regional/bad.ts', '../scenario/index.ts'],
     ['src/project/bad.ts', '../report/index.ts'],
+    ['src/sut/bad.ts', '../report/index.ts'],
+    ['src/classification/bad.ts', '../model/index.ts'],
   ])('refuses peers of one layer importing each other: %s → %s', async (file, spec) => {
     expect(await ruleIds(importing(spec), file)).toContain('no-restricted-imports');
   });
@@ -79,6 +85,9 @@ describe('engine layers import downward only', () => {
     ['src/scenario/ok.ts', '../model/index.ts'],
     ['src/report/ok.ts', '../scenario/index.ts'],
     ['src/study/ok.ts', '../report/index.ts'],
+    ['src/sut/ok.ts', '../regional/index.ts'],
+    ['src/study/ok.ts', '../sut/index.ts'],
+    ['src/scenario/ok.ts', '../classification/index.ts'],
     ['src/cli/commands/ok.ts', '../../study/index.ts'],
     ['src/cli/ok.ts', '../table/index.ts'],
   ])('allows %s importing %s (downward)', async (file, spec) => {

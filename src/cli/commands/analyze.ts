@@ -4,7 +4,9 @@
  */
 import {
   MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy, type PrepareOptions, type Study, formatLocated, visibleText,
+  bandReports, multiplierBandsJson, studyBands,
 } from '../../study/index.ts';
+import { multiplierBandsSummary, uncertaintySettingsOf, UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand } from '../command.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
@@ -54,15 +56,23 @@ export function summary(ps: PreparedStudy): string {
   return lines.join('\n') + '\n';
 }
 
-/** The engine part of the command: the prepared study (helper threads for large tables). */
-export async function prepare(study: Study, opts: PrepareOptions = {}): Promise<PreparedStudy> {
-  const threaded = study.table.n >= PARALLEL_MIN_SECTORS && startParallelKernels() > 0;
+/**
+ * `work` with helper threads for the factorisations' updates when the table is large (`sectors`); the numbers are
+ * the same with or without them (each update's chunks are computed by the same kernel, whoever runs them).
+ */
+export async function withHelperThreads<T>(sectors: number, work: () => T): Promise<T> {
+  const threaded = sectors >= PARALLEL_MIN_SECTORS && startParallelKernels() > 0;
   try {
     if (threaded) await parallelKernelsReady(2000);
-    return prepareStudy(study, opts);
+    return work();
   } finally {
     if (threaded) await stopParallelKernels();
   }
+}
+
+/** The engine part of the command: the prepared study (helper threads for large tables). */
+export async function prepare(study: Study, opts: PrepareOptions = {}): Promise<PreparedStudy> {
+  return withHelperThreads(study.table.n, () => prepareStudy(study, opts));
 }
 
 export const analyze = defineCommand({
@@ -74,20 +84,23 @@ export const analyze = defineCommand({
     'allow-negative': { type: 'boolean', help: 'accept negative flows (e.g. subsidies or stock changes) instead of refusing them' },
     tolerance: { type: 'number', value: 'T', help: 'rounds to tolerance: count spending rounds until less than T of any demand is left (0 < T < 1; default 1e-6)', check: (t) => (t > 0 && t < 1 ? null : 'must be a number between 0 and 1') },
     ...TABLE_DIALECT_OPTIONS,
+    ...UNCERTAINTY_OPTIONS,
   },
-  outHelp: 'write multipliers, coefficients, Leontief inverse, viability, Perron vectors and spectrum (n ≤ 400) as CSV, each with an .about.txt',
+  outHelp: 'write multipliers, coefficients, Leontief inverse, viability, Perron vectors and spectrum (n ≤ 400) as CSV, each with an .about.txt; with --draws also multiplier-bands',
   notes: ['Warnings (e.g. an unproductive table) go to stderr; an unproductive table is analysed (exit 0), its multipliers left blank.'],
   async run({ input, values }, ctx) {
     const roles = ctx.roleMap(values.map);
     const file = ctx.input(input);
     const study = studyFromTableFile(file.bytes, file.name, { ...tableDialect(values), allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
     if (values.tolerance !== undefined) study.settings.rounds.tolerance = values.tolerance;
+    const settings = uncertaintySettingsOf(values, ctx);
     const ps = await prepare(study, { inverse: values.out !== undefined });
     for (const w of ps.analysis.warnings) ctx.warn(formatLocated(w));
+    const bands = settings ? await withHelperThreads(study.table.n, () => studyBands(ps, { settings, multipliers: true, scenarios: [] })!) : null;
     return {
-      summary: () => summary(ps),
-      json: () => studyAnalysisJson(ps),
-      ...(values.out !== undefined ? { reports: tableReportSet(ps, ctx.date, { inverse: true }) } : {}),
+      summary: () => summary(ps) + (bands ? `${multiplierBandsSummary(bands).join('\n')}\n` : ''),
+      json: () => ({ ...studyAnalysisJson(ps), ...(bands ? { uncertainty: multiplierBandsJson(bands) } : {}) }),
+      ...(values.out !== undefined ? { reports: [...tableReportSet(ps, ctx.date, { inverse: true }), ...(bands ? bandReports(ps, bands, ctx.date) : [])] } : {}),
     };
   },
 });

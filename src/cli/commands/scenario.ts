@@ -12,8 +12,11 @@ import {
   tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, parseMixCsv, parseActivityCsv,
   parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
   type Closure, type EffectTotals, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult, type Variable,
+  bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studyBands, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
+import { withHelperThreads } from './analyze.ts';
+import { scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
 const fmt = (v: number | null | undefined) => (v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
 
@@ -137,8 +140,9 @@ export const scenario = defineCommand({
     'commuting-share': { type: 'number', value: 'S', help: 'the same share for every sector not in --commuting, and for activities\' payrolls (default 0)', check: share },
     project: { type: 'string', value: 'FILE.json', help: 'save the study (table, shock, settings and the files above) as a project file the app opens; an existing file is replaced only if it is a Roundwise project' },
     ...TABLE_DIALECT_OPTIONS,
+    ...SCENARIO_UNCERTAINTY_OPTIONS,
   },
-  outHelp: 'write the scenario\'s reports (NAME-inputs, NAME-phases, and per phase NAME[-PHASE]-impact, -net-impact with displacement or deadweight, -implied-multipliers, -rounds, -rounds-by-sector, and -paths with --paths; NAME from the shock file) and the table\'s multipliers as CSV, each with an .about.txt',
+  outHelp: 'write the scenario\'s reports (NAME-inputs, NAME-phases, and per phase NAME[-PHASE]-impact, -net-impact with displacement or deadweight, -implied-multipliers, -rounds, -rounds-by-sector, and -paths with --paths; NAME from the shock file; NAME-bands with --draws, NAME-sensitivity with --sensitivity) and the table\'s multipliers as CSV, each with an .about.txt',
   async run({ input, values }, ctx) {
     const tableFile = ctx.input(input);
     const roles = ctx.roleMap(values.map);
@@ -172,17 +176,34 @@ export const scenario = defineCommand({
       if (destination === null) throw new InputError('unknown-sector', `--paths: unknown sector '${values.paths}'`, { rowLabel: values.paths });
       study.settings.paths.destination = destination;
     }
+    const settings = uncertaintySettingsOf(values, ctx);
+    if (values['share-step'] !== undefined && !values.sensitivity) throw ctx.usageError('--share-step needs --sensitivity');
     const ps = prepareStudy(study, { spectrum: false });
     const outcome = runStudyScenario(ps, scenario, { paths: destination });
+    const bands = settings ? await withHelperThreads(study.table.n, () => studyBands(ps, { settings, multipliers: false, scenarios: [scenario] })!) : null;
+    const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step']) : null;
+    const names = { output: 'output', valueAdded: 'value added', income: 'labour income', employment: 'employment' };
     const files = [];
     if (values.project !== undefined) {
       refuseToOverwriteForeign(values.project);
       files.push({ path: values.project, content: projectFileOf(study) });
     }
     return {
-      summary: () => summary(ps, outcome),
-      json: () => scenarioJson(ps, outcome),
-      ...(values.out !== undefined ? { reports: [...scenarioReportSet(ps, outcome, ctx.date), ...tableReport(ps, 'multipliers', ctx.date)] } : {}),
+      summary: () => summary(ps, outcome)
+        + (bands ? bands.scenarios.map((b) => `${scenarioBandsSummary(bands, b, names).join('\n')}\n`).join('') : '')
+        + (sens ? sens.map((x) => `${sensitivitySummary(x, study.table.moneyUnit).join('\n')}\n`).join('') : ''),
+      json: () => ({
+        ...scenarioJson(ps, outcome),
+        // One phase: an object, as before phases; several: one per phase, in file order (each names its phase).
+        ...(bands ? { uncertainty: bands.scenarios.length === 1 ? scenarioBandsJson(bands, bands.scenarios[0]!) : bands.scenarios.map((b) => scenarioBandsJson(bands, b)) } : {}),
+        ...(sens ? { sensitivity: sens.length === 1 ? sensitivityJson(sens[0]!) : sens.map(sensitivityJson) } : {}),
+      }),
+      ...(values.out !== undefined ? {
+        reports: [
+          ...scenarioReportSet(ps, outcome, ctx.date), ...tableReport(ps, 'multipliers', ctx.date),
+          ...(bands ? bandReports(ps, bands, ctx.date) : []), ...(sens ? sens.flatMap((x) => sensitivityReports(ps, x, ctx.date)) : []),
+        ],
+      } : {}),
       files,
     };
   },

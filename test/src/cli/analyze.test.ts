@@ -9,6 +9,7 @@ import { importTable } from '../../../src/table/index.ts';
 import { analyzeTable } from '../../../src/model/index.ts';
 import { CAUTIONS } from '../../../src/report/index.ts';
 import { runCli } from '../../support/cli.ts';
+import { api } from '../../../renderer/worker/compute.ts';
 
 const SAMPLE = 'sample-data/fernhollow-county.csv';
 let dir: string;
@@ -69,6 +70,21 @@ describe('roundwise analyze --json', () => {
     expect(j.viability.perronRootClosed).toBeNull();
     expect(j.multipliers.output.typeII.every((v: unknown) => v === null)).toBe(true);
     expect(j.multipliers.output.typeI.every((v: unknown) => typeof v === 'number')).toBe(true);
+  });
+});
+
+describe('roundwise analyze --json says what the app\'s Overview says', () => {
+  it('the verdict in words, Rasmussen classes and the round by which 99 % is reached equal the app worker\'s views', async () => {
+    const r = await cli(SAMPLE, '--json');
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    const view = api.loadTable({ text: readFileSync(SAMPLE, 'utf8'), fileName: 'fernhollow-county.csv' }).analysis;
+    expect(j.verdict).toEqual(view.verdict);
+    expect(j.linkages.classes).toEqual(view.multipliers.map((m) => (m.linkage === 'undefined' ? null : m.linkage)));
+    expect(j.unitDemandRounds.reach.find((x: { target: number }) => x.target === 0.99).round).toBe(view.reach99.value);
+    j.unitDemandRounds.coverage.slice(0, view.rounds.length).forEach((c: number, k: number) => expect(c).toBe(view.rounds[k]!.reached));
+    // Rasmussen: a key sector has both indices above 1 (Rasmussen 1956).
+    j.linkages.classes.forEach((c: string, k: number) => expect(c === 'key').toBe(j.linkages.backward[k] > 1 && j.linkages.forward[k] > 1));
   });
 });
 

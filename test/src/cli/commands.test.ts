@@ -39,7 +39,7 @@ describe('command specs', () => {
       expect(r.code).toBe(0);
       const lines = r.out.split('\n');
       for (const name of [...Object.keys(spec.options), 'json', 'out', 'help']) {
-        const line = lines.filter((l) => new RegExp(`^  (-h, )?--${name}\\b`).test(l));
+        const line = lines.filter((l) => new RegExp(`^  (-h, )?--${name}(?![\\w-])`).test(l));
         expect(line, `${spec.name} --${name}`).toHaveLength(1);
         expect(line[0]!.replace(/^\s*\S+( \S+)?\s+/, '').length, `${spec.name} --${name} has help text`).toBeGreaterThan(8);
       }

@@ -1,0 +1,98 @@
+/**
+ * The options of the commands that can say how sure their numbers are: --draws N (Monte Carlo bands), --seed, --cv,
+ * --cv-file (and, for scenarios, --share-range and --sensitivity with --share-step). The ranges are the engine's own
+ * checks (src/uncertainty/settings.ts), so the app refuses the same values with the same words.
+ */
+import {
+  cvProblem, defaultUncertaintySettings, drawsProblem, parseCvCsv, seedProblem, shareRangeProblem,
+  visibleText, DEFAULT_CV, DEFAULT_SEED, DEFAULT_SHARE_STEP,
+  type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
+} from '../../study/index.ts';
+import type { RunContext } from '../command.ts';
+
+export const UNCERTAINTY_OPTIONS = {
+  draws: { type: 'number', value: 'N', help: 'add Monte Carlo bands (5th, 50th, 95th percentiles and mean) from N draws of the table (20–100000; 1000 is usual)', check: drawsProblem },
+  seed: { type: 'number', value: 'S', help: `seed of the draws (whole number 0–4294967295, default ${DEFAULT_SEED}): the same seed gives the same bands`, check: seedProblem },
+  cv: { type: 'number', value: 'X', help: `coefficient of variation of every coefficient's error (default ${DEFAULT_CV}: 10 %)`, check: cvProblem },
+  'cv-file': { type: 'string', value: 'F.csv', help: 'per-cell, per-row or per-column CVs: lines row,column,cv (* for every row or column), applied in order after --cv' },
+} as const;
+
+export const SCENARIO_UNCERTAINTY_OPTIONS = {
+  ...UNCERTAINTY_OPTIONS,
+  'share-range': { type: 'number', value: 'R', help: 'with --draws: also draw each local share uniformly within ± R (0–1, within 0–1)', check: shareRangeProblem },
+  sensitivity: { type: 'boolean', help: 'add one-at-a-time sensitivity of the totals: each local share ± the step, the household closure off and on' },
+  'share-step': { type: 'number', value: 'X', help: `step of the local shares for --sensitivity (default ${DEFAULT_SHARE_STEP})`, check: (x: number) => (x > 0 && x <= 1 ? null : 'must be a number above 0 and at most 1') },
+} as const;
+
+interface Values {
+  draws: number | undefined;
+  seed: number | undefined;
+  cv: number | undefined;
+  'cv-file': string | undefined;
+  'share-range'?: number | undefined;
+}
+
+/** The Monte Carlo settings asked for, or null without --draws (the other options then refused as a usage mistake). */
+export function uncertaintySettingsOf(values: Values, ctx: RunContext): UncertaintySettings | null {
+  if (values.draws === undefined) {
+    const stray = (['seed', 'cv', 'cv-file', 'share-range'] as const).find((k) => values[k] !== undefined);
+    if (stray) throw ctx.usageError(`--${stray} needs --draws N`);
+    return null;
+  }
+  let cvRules: UncertaintySettings['cvRules'] = [];
+  let cvFile: string | null = null;
+  if (values['cv-file'] !== undefined) {
+    const f = ctx.input(values['cv-file']);
+    cvRules = parseCvCsv(f.text, f.name);
+    cvFile = f.name;
+  }
+  return defaultUncertaintySettings({
+    draws: values.draws,
+    ...(values.seed !== undefined ? { seed: values.seed } : {}),
+    ...(values.cv !== undefined ? { cv: values.cv } : {}),
+    cvRules, cvFile,
+    localShareRange: values['share-range'] ?? 0,
+  });
+}
+
+const fmt = (v: number | null | undefined) => (v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
+
+/** Summary lines of a scenario's bands: each variable's total with its 5th–95th percentile range. */
+export function scenarioBandsSummary(r: UncertaintyResult, s: ScenarioBands, names: Record<string, string>): string[] {
+  const lines = ['', `How sure: Monte Carlo bands from ${r.draws} draws (seed ${r.settings.seed}, CV ${r.settings.cv}${r.settings.cvFile ? ` and ${visibleText(r.settings.cvFile)}` : ''}); ${r.accepted} accepted, ${r.rejected} left out.`];
+  lines.push(['', 'point', 'p5', 'p50', 'p95', 'mean'].map((c, k) => (k === 0 ? c.padEnd(14) : c.padStart(12))).join(''));
+  for (const [v, b] of Object.entries(s.totals)) {
+    if (!b) continue;
+    lines.push([names[v]!.padEnd(14), ...[b.point, b.p5, b.p50, b.p95, b.mean].map((x) => fmt(x).padStart(12))].join(''));
+  }
+  for (const n of r.notes.slice(2)) lines.push(visibleText(n));
+  return lines;
+}
+
+/** Summary lines of the multipliers' bands: output Type I and II per sector with their 5th–95th percentile range. */
+export function multiplierBandsSummary(r: UncertaintyResult): string[] {
+  const lines = ['', `How sure: Monte Carlo bands from ${r.draws} draws (seed ${r.settings.seed}, CV ${r.settings.cv}${r.settings.cvFile ? ` and ${visibleText(r.settings.cvFile)}` : ''}); ${r.accepted} accepted, ${r.rejected} left out.`];
+  const keys = ['output.typeI', 'output.typeII'] as const;
+  const cols = keys.map((k) => r.multipliers?.find((m) => m.key === k)?.values ?? null);
+  const width = Math.min(28, Math.max(6, ...r.sectors.map((s) => visibleText(s).length)));
+  const pad = (s: string) => (s.length > width ? s.slice(0, width - 1) + '…' : s.padEnd(width));
+  lines.push([pad('sector'), ...keys.map((k) => `${k === 'output.typeI' ? 'output Type I' : 'output Type II'} [p5, p95]`.padStart(30))].join(' '));
+  r.sectors.forEach((s, j) => {
+    lines.push([pad(visibleText(s)), ...cols.map((c) => {
+      const b = c?.[j];
+      return (b ? `${b.point.toFixed(4)} [${b.p5.toFixed(4)}, ${b.p95.toFixed(4)}]` : 'n/a').padStart(30);
+    })].join(' '));
+  });
+  for (const n of r.notes.slice(2)) lines.push(visibleText(n));
+  return lines;
+}
+
+/** Summary lines of the sensitivity: assumptions by swing in total output. */
+export function sensitivitySummary(s: SensitivityResult, moneyUnit: string): string[] {
+  const lines = ['', `Sensitivity of total output (${visibleText(moneyUnit)}), one assumption at a time, largest swing first:`];
+  lines.push(`${'swing'.padStart(12)}${'at low'.padStart(14)}${'at high'.padStart(14)}  assumption (low → high)`);
+  for (const it of s.items) {
+    lines.push(`${fmt(it.swing.output).padStart(12)}${fmt(it.low.totals.output).padStart(14)}${fmt(it.high.totals.output).padStart(14)}  ${visibleText(it.assumption)} (${visibleText(it.low.setting)} → ${visibleText(it.high.setting)}; as typed ${visibleText(it.base)})`);
+  }
+  return lines;
+}

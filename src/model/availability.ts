@@ -1,0 +1,103 @@
+/**
+ * Which models results may use — the one decision, made from a prepared table: the open model when the table is
+ * productive (Hawkins–Simon and a certified Perron root below 1; for a table with negative flows both tests and a
+ * spectral radius below 1), the household-closed model when closed-model.ts says it is usable. The analysis
+ * (analysis.ts) makes it once per table and words it; the uncertainty draws (src/uncertainty) make it again for every
+ * perturbed table through this same function, so a draw uses a model exactly when the analysis of that table would.
+ */
+import { perronRoot, type PerronOptions, type PerronResult } from './perron.ts';
+import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
+import { sectorBlocks, type SectorBlock } from './graph.ts';
+import { closedBorder, type PreparedModel } from './prepared.ts';
+import { decideClosedModel, rememberClosedModelDecision, type ClosedModelDecision } from './closed-model.ts';
+import type { Availability } from './multipliers.ts';
+
+export interface ModelDecision {
+  /** A has negative entries: the Perron bounds are those of |A|. */
+  negativeFlows: boolean;
+  blocks: SectorBlock[];
+  /** Perron root of A (of |A| with negative flows), with certified bounds and vectors. */
+  perron: PerronResult;
+  hawkinsSimon: HawkinsSimon;
+  productive: boolean;
+  /** Set when the two tests disagree or are decided by rounding, or A has negative entries. */
+  verdictNote: string | null;
+  perronRootClosed: number | null;
+  perronRootClosedBounds: [number, number] | null;
+  closedModel: ClosedModelDecision;
+  availability: Availability;
+}
+
+export interface DecisionOptions {
+  perron?: PerronOptions;
+  /** Spectral radius of A from the full spectrum when it was computed (decides tables with negative flows), else null. */
+  spectralRadius?: number | null;
+}
+
+function fmt(x: number): string {
+  return x.toPrecision(6);
+}
+
+function hasNegative(a: Float64Array): boolean {
+  for (let k = 0; k < a.length; k++) if (a[k]! < 0) return true;
+  return false;
+}
+
+/** The decision for `pm`; the closed-model part is remembered for `pm` (closedModelDecision returns it to scenarios). */
+export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): ModelDecision {
+  const { closed, openLU } = pm;
+  const { n, A } = pm.coef;
+  const negativeFlows = hasNegative(A);
+  const absA = negativeFlows ? Float64Array.from(A, Math.abs) : A;
+  const blocks = sectorBlocks(A, n);
+  const perron = perronRoot(absA, n, { ...opts.perron, blocks });
+  const hs = hawkinsSimon(A, n, openLU);
+  const spectralRadius = opts.spectralRadius ?? null;
+
+  let productive: boolean;
+  let verdictNote: string | null = null;
+  if (openLU.singular) {
+    productive = false;
+    verdictNote = 'I − A is singular or within rounding of singular: 1 is an eigenvalue of A, so no finite Leontief inverse exists';
+  } else if (!negativeFlows) {
+    const below = perron.upper < 1;
+    const above = perron.lower >= 1;
+    productive = hs.holds && below;
+    if (hs.holds !== below || (!below && !above) || hs.nearZero) {
+      verdictNote = `the Perron root is within rounding of 1 (bounds ${fmt(perron.lower)}–${fmt(perron.upper)}; Hawkins–Simon ${hs.holds ? 'holds' : 'fails'}${hs.nearZero ? ' by a pivot of rounding size' : ''}); for a non-negative A the two tests agree exactly, so the disagreement is numerical noise: the table is treated as ${productive ? 'productive' : 'not productive'}`;
+    }
+  } else {
+    const radiusBelow = spectralRadius !== null ? spectralRadius < 1 : perron.upper < 1;
+    productive = hs.holds && radiusBelow;
+    verdictNote = `A has negative entries, so Hawkins–Simon and the Perron root are not equivalent tests; the verdict needs both Hawkins–Simon and a spectral radius below 1 (${spectralRadius !== null ? `from the full spectrum, ${fmt(spectralRadius)}` : `bounded by ρ(|A|) ≤ ${fmt(perron.upper)}`})`;
+  }
+
+  let perronRootClosed: number | null = null;
+  let perronRootClosedBounds: [number, number] | null = null;
+  if (closed) {
+    const abar = negativeFlows ? Float64Array.from(closed.Abar, Math.abs) : closed.Abar;
+    const pc = perronRoot(abar, closed.m, { ...opts.perron, rightOnly: true });
+    perronRootClosed = pc.root;
+    perronRootClosedBounds = [pc.lower, pc.upper];
+  }
+  const closedModel = decideClosedModel({
+    hasClosure: closed !== null, openProductive: productive, border: closedBorder(pm), closedBounds: perronRootClosedBounds, negativeFlows,
+  });
+  rememberClosedModelDecision(pm, closedModel);
+
+  const availability: Availability = {
+    open: productive ? true : openLU.singular
+      ? 'I − A is singular (1 is an eigenvalue of A), so no finite Leontief inverse exists; check that every sector has value added or imports'
+      : 'the table is not productive (Perron root of A not below 1)',
+    closed: closedModel.usable ? true : closedModel.reason!,
+  };
+  return { negativeFlows, blocks, perron, hawkinsSimon: hs, productive, verdictNote, perronRootClosed, perronRootClosedBounds, closedModel, availability };
+}
+
+/** Why a study's scenarios use no household closure when its table has a usable one. */
+export const CLOSURE_OFF = 'the household closure is switched off for this study';
+
+/** The models a study's scenarios use: the decision's availability, with the closure switched off when the study says so. */
+export function modelsForClosure(availability: Availability, closure: 'households' | 'none'): Availability {
+  return { open: availability.open, closed: closure === 'none' && availability.closed === true ? CLOSURE_OFF : availability.closed };
+}

@@ -1,0 +1,80 @@
+/**
+ * How sure the study's numbers are: Monte Carlo bands around its multipliers and scenario totals, and one-at-a-time
+ * sensitivity of a scenario's totals (src/uncertainty), set up from the prepared study so every draw uses the models
+ * the study's own results use. The CLI and the app's worker call these, so the same seed gives the same bands in both.
+ */
+import {
+  multiplierBandReport, runUncertainty, scenarioBandReport, sensitivity, sensitivityReport,
+  type BandReportContext, type DrawSetup, type RunOptions, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
+} from '../uncertainty/index.ts';
+import type { ReportFile } from '../report/index.ts';
+import { residentShares, type LineSet, type Scenario } from '../scenario/index.ts';
+import type { PreparedStudy } from './prepare.ts';
+import { readyLines, shockInputsOf } from './scenarios.ts';
+import { scenarioSlug } from './reports.ts';
+
+export interface BandsRequest {
+  settings: UncertaintySettings;
+  /** Draw every multiplier (the Multipliers screen, analyze). */
+  multipliers: boolean;
+  /** Scenarios whose totals to draw (lines without a sector left out, as everywhere). */
+  scenarios: readonly Scenario[];
+}
+
+/** Each phase of a scenario as the named list of lines that is drawn ("Scenario" for one phase, else "Scenario — Phase"). */
+export function phaseSets(scenario: Scenario): LineSet[] {
+  const s = readyLines(scenario);
+  return s.phases.map((p) => ({ name: s.phases.length > 1 ? `${s.name} — ${p.name}` : s.name, lines: p.lines }));
+}
+
+export function drawSetupOf(ps: PreparedStudy, req: BandsRequest): DrawSetup {
+  return {
+    table: ps.study.table,
+    closure: ps.study.settings.closure,
+    multipliers: req.multipliers,
+    scenarios: req.scenarios.flatMap(phaseSets),
+    inputs: shockInputsOf(ps.study),
+    residentShare: residentShares(ps.study.commuting, ps.study.table.sectors),
+    settings: req.settings,
+    spectrum: ps.analysis.viability.spectrum !== null,
+  };
+}
+
+/** The bands of the request; null when `onProgress` stopped the run. */
+export function studyBands(ps: PreparedStudy, req: BandsRequest, opts: RunOptions = {}): UncertaintyResult | null {
+  return runUncertainty(drawSetupOf(ps, req), {}, opts);
+}
+
+/** One-at-a-time sensitivity of a scenario's totals, phase by phase, in the models the study uses. */
+export function studySensitivity(ps: PreparedStudy, scenario: Scenario, step?: number): SensitivityResult[] {
+  const inputs = shockInputsOf(ps.study);
+  const residentShare = residentShares(ps.study.commuting, ps.study.table.sectors);
+  return phaseSets(scenario).map((set) => sensitivity(ps.pm, set, {
+    available: ps.analysis.availability, closure: ps.study.settings.closure, inputs, residentShare, ...(step !== undefined ? { step } : {}),
+  }));
+}
+
+function bandContext(ps: PreparedStudy, date: string, modelType: string): BandReportContext {
+  const src = ps.study.source;
+  return {
+    tableName: ps.study.table.name, date, moneyUnit: ps.study.table.moneyUnit, modelType,
+    ...(src ? { sourceFile: src.fileName, sourceHash: src.sha256 } : {}),
+  };
+}
+
+const MODEL_OF = (ps: PreparedStudy) => (ps.models.closed === true
+  ? 'open (Type I) and household-closed (Type II) input-output model, each draw recomputed in full'
+  : `open (Type I) input-output model (${ps.models.closed}), each draw recomputed in full`);
+
+/** The bands as reports: multiplier-bands, and NAME-bands for each scenario drawn. */
+export function bandReports(ps: PreparedStudy, r: UncertaintyResult, date: string): ReportFile[] {
+  const ctx = bandContext(ps, date, MODEL_OF(ps));
+  return [
+    ...(r.multipliers ? multiplierBandReport(r, ctx) : []),
+    ...r.scenarios.flatMap((s: ScenarioBands) => scenarioBandReport(r, s, ctx, `${scenarioSlug(s.scenario)}-bands`)),
+  ];
+}
+
+export function sensitivityReports(ps: PreparedStudy, s: SensitivityResult, date: string): ReportFile[] {
+  return sensitivityReport(s, bandContext(ps, date, MODEL_OF(ps)), `${scenarioSlug(s.scenario)}-sensitivity`);
+}

@@ -1,0 +1,53 @@
+/**
+ * One perturbed table. Every non-zero perturbed cell (intermediate flows, labour income, household purchases; see
+ * cv.ts) is multiplied by an independent log-normal factor with mean 1 and the cell's CV:
+ *     f = exp(σ·z − σ²/2),  z ~ N(0, 1),  σ² = ln(1 + cv²)   ⇒  E[f] = 1,  sd(f) = cv.
+ * Total output x is held fixed, so multiplying a flow z_ij is multiplying its coefficient a_ij = z_ij/x_j by the same
+ * factor: the draws are the stochastic coefficient model of West ("A stochastic analysis of an input–output model",
+ * Econometrica 54(2), 1986 — recalled from memory), with independent errors per cell as in Bullard & Sebald ("Monte
+ * Carlo sensitivity analysis of input–output models", Review of Economics and Statistics 70(4), 1988 — recalled from
+ * memory). Why log-normal rather than normal errors: a factor is always positive, so no coefficient changes sign
+ * (a non-negative table stays non-negative without truncating the distribution, which would move its mean) and
+ * a zero stays zero (no trade that the table does not show is invented); the mean and the CV are exactly the ones
+ * asked for. The rows are not re-balanced: a perturbed table's rows need not add up to its total output, as in the
+ * coefficient model itself.
+ * Jobs per unit of output and other value added are not perturbed: they multiply the solution outside the inverse,
+ * so their own uncertainty adds to the bands in proportion and is left to the analyst (stated in every report).
+ */
+import type { IOTable, LabelledVector } from '../table/index.ts';
+import type { SigmaPlan } from './cv.ts';
+import type { Stream } from './random.ts';
+
+function perturbVector(values: Float64Array, sigma: number | Float64Array, rng: Stream): Float64Array {
+  const out = new Float64Array(values.length);
+  if (typeof sigma === 'number') {
+    const shift = -0.5 * sigma * sigma;
+    for (let i = 0; i < values.length; i++) {
+      const v = values[i]!;
+      out[i] = v === 0 ? 0 : v * Math.exp(shift + sigma * rng.normal());
+    }
+  } else {
+    for (let i = 0; i < values.length; i++) {
+      const v = values[i]!;
+      if (v === 0) continue;
+      const s = sigma[i]!;
+      out[i] = v * Math.exp(s * rng.normal() - 0.5 * s * s);
+    }
+  }
+  return out;
+}
+
+function perturbRows(rows: LabelledVector[], sigmas: (number | Float64Array)[], rng: Stream): LabelledVector[] {
+  return rows.map((r, k) => ({ label: r.label, values: perturbVector(r.values, sigmas[k]!, rng) }));
+}
+
+/** The table with its perturbed cells drawn from `rng`; the table itself when nothing is perturbed. */
+export function perturbTable(table: IOTable, plan: SigmaPlan, rng: Stream): IOTable {
+  if (!plan.perturbed) return table;
+  return {
+    ...table,
+    Z: perturbVector(table.Z, plan.z, rng),
+    labourIncome: perturbRows(table.labourIncome, plan.labour, rng),
+    householdConsumption: perturbRows(table.householdConsumption, plan.household, rng),
+  };
+}
