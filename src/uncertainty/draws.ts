@@ -78,14 +78,20 @@ export interface Layout {
   size: number;
 }
 
+/** The variables drawn for a table: taxes and full-time equivalents only when the table has those rows. */
+export function bandVariables(t: IOTable): Variable[] {
+  return VARIABLES.filter((v) => (v !== 'taxes' || (t.taxes?.length ?? 0) > 0) && (v !== 'fte' || (t.fte ?? null) !== null));
+}
+
 export function layoutOf(setup: DrawSetup): Layout {
   const n = setup.table.n;
   let size = 0;
   const multipliers = setup.multipliers ? MULTIPLIER_KEYS.map((key) => { const offset = size; size += n; return { key, offset }; }) : [];
   const hasJobs = setup.table.employment !== null;
+  const variables = bandVariables(setup.table);
   const scenarios = setup.scenarios.map((): ScenarioLayout => {
     const totals = {} as Record<Variable, Record<Part, number>>;
-    for (const v of VARIABLES) {
+    for (const v of variables) {
       const parts = {} as Record<Part, number>;
       for (const p of PARTS) parts[p] = size++;
       totals[v] = parts;
@@ -184,7 +190,7 @@ function multiplierValues(m: Multipliers, key: MultiplierKey): (number | null)[]
 
 function writeScenario(out: Float64Array, base: number, lay: ScenarioLayout, r: ScenarioResult, n: number): boolean {
   let finite = true;
-  for (const v of VARIABLES) {
+  for (const v of Object.keys(lay.totals) as Variable[]) {
     const t = r.totals[v];
     for (const p of PARTS) {
       const x = t ? t[p] : null;
