@@ -18,6 +18,7 @@ export const ENGINE_LAYERS = [
   ['scenario', 'regional'],
   ['report', 'project', 'sut'],
   ['uncertainty'],
+  ['deliverables'],
   ['study', 'node-io'],
   ['cli'],
 ];

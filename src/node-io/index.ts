@@ -6,3 +6,4 @@
 export { errnoCode, fileError, fsReason } from './errors.ts';
 export { MAX_INPUT_BYTES, readFileLimited, type FileIdentity, type ReadFile, type ReadOptions } from './read.ts';
 export { refuseInputOverwrite, removeStaleTemps, resolveWriteTarget, sameFileAs, TMP_SUFFIX, writeFileAtomic, type AtomicWriteOptions } from './write.ts';
+export { readBriefFonts } from './fonts.ts';

@@ -28,6 +28,21 @@ export interface ReportFile {
   /** File name without folder, e.g. "multipliers.csv". */
   name: string;
   content: string;
+  /**
+   * On the CSV of a report: its rows and sidecar facts, so the workbook shows exactly what the CSV holds. Dropped
+   * before files cross to the UI (`filesOnly`), which only writes `content`.
+   */
+  sheet?: ReportSheet;
+}
+
+export interface ReportSheet {
+  meta: ReportMeta;
+  rows: readonly (readonly Cell[])[];
+}
+
+/** The files without their sheets (what a writer needs; small enough to post to the UI). */
+export function filesOnly(files: readonly ReportFile[]): ReportFile[] {
+  return files.map((f) => ({ name: f.name, content: f.content }));
 }
 
 /** First words of every sidecar: how a later run recognises a Roundwise report in an output folder. */
@@ -54,7 +69,7 @@ export function aboutText(meta: ReportMeta): string {
 /** The CSV and its sidecar for one report. `base` is the file name without extension, e.g. "multipliers". */
 export function reportFiles(base: string, meta: ReportMeta, rows: readonly (readonly Cell[])[]): ReportFile[] {
   return [
-    { name: `${base}.csv`, content: toCsv(rows) },
+    { name: `${base}.csv`, content: toCsv(rows), sheet: { meta, rows } },
     { name: `${base}.about.txt`, content: aboutText(meta) },
   ];
 }

@@ -60,3 +60,13 @@ export {
   drawsProblem, seedProblem, cvProblem, shareRangeProblem, DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_CV, DEFAULT_SHARE_STEP, MIN_DRAWS, MAX_DRAWS, MAX_CV, MIN_ACCEPTED,
   type UncertaintySettings, type UncertaintyResult, type ScenarioBands, type PointBand, type SensitivityResult, type SensitivityItem, type RunOptions, type CvRule,
 } from '../uncertainty/index.ts';
+
+// The brief (PDF) and the workbook (XLSX).
+export {
+  studyBrief, studyBriefDocument, studyWorkbook, briefInputOf, baseEconomy, phasesOf, type BriefOptions,
+} from './deliverables.ts';
+export {
+  BRIEF_FONT_FILES, PAPERS, ROUNDING_NOTE, councilNumber, shareText, documentText,
+  type Paper, type BriefFonts, type BriefDocument, type BriefBlock, type BriefTable, type BriefBars,
+} from '../deliverables/index.ts';
+export { csvFileText, UTF8_BOM } from '../csv/index.ts';

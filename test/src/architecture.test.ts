@@ -52,7 +52,7 @@ describe('engine layers import downward only', () => {
   it('orders the engine folders diagnostics/schema → … → study → cli', () => {
     expect(ENGINE_LAYERS).toEqual([
       ['diagnostics', 'schema'], ['csv', 'linalg', 'bridge'], ['table'], ['model', 'classification'], ['scenario', 'regional'],
-      ['report', 'project', 'sut'], ['uncertainty'], ['study', 'node-io'], ['cli'],
+      ['report', 'project', 'sut'], ['uncertainty'], ['deliverables'], ['study', 'node-io'], ['cli'],
     ]);
   });
   it.each([
@@ -65,6 +65,8 @@ describe('engine layers import downward only', () => {
     ['src/uncertainty/bad.ts', '../study/index.ts'],
     ['src/report/bad.ts', '../uncertainty/index.ts'],
     ['src/sut/bad.ts', '../study/index.ts'],
+    ['src/deliverables/bad.ts', '../study/index.ts'],
+    ['src/report/bad.ts', '../deliverables/index.ts'],
     ['src/classification/bad.ts', '../regional/index.ts'],
     ['src/diagnostics/bad.ts', '../schema/index.ts'],
   ])('refuses %s importing %s (upward or sideways)', async (file, spec) => {

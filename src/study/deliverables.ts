@@ -1,0 +1,155 @@
+/**
+ * The study's deliverables: the brief (PDF) of a scenario and the workbook (XLSX) of a study or a scenario, assembled
+ * here once from the prepared study, the scenario outcome and the report registry, so the CLI and the app hand over
+ * the same documents. The typesetting and the spreadsheet writing are src/deliverables'.
+ */
+import {
+  briefDocument, briefPdf, headlineRows, workbookXlsx, type BaseEconomy, type BriefDocument, type BriefFonts, type BriefInput, type BriefPhase,
+  type Paper, type WorkbookSheet,
+} from '../deliverables/index.ts';
+import { CAUTIONS, modelTypeOf, SCENARIO_CAUTIONS, type ReportFile } from '../report/index.ts';
+import type { AnalysisReportKind } from '../report/index.ts';
+import type { PreparedStudy } from './prepare.ts';
+import { reportUnavailable, scenarioReport, tableReport, type ReportKind, type ScenarioReportKind } from './reports.ts';
+import type { ScenarioOutcome } from './scenarios.ts';
+
+export interface BriefOptions {
+  /** ISO 8601 date-time of the run. */
+  date: string;
+  paper: Paper;
+  fonts: BriefFonts;
+}
+
+/** The county's base-year totals in the definitions the effects use: each variable's coefficient × output, summed. */
+export function baseEconomy(ps: PreparedStudy): BaseEconomy {
+  const { x, h, otherVA, e } = ps.pm.coef;
+  let output = 0, income = 0, valueAdded = 0, employment = 0;
+  for (let j = 0; j < x.length; j++) {
+    output += x[j]!;
+    income += h[j]! * x[j]!;
+    valueAdded += (h[j]! + otherVA[j]!) * x[j]!;
+    if (e) employment += e[j]! * x[j]!;
+  }
+  return { output, income, valueAdded, employment: e ? employment : null };
+}
+
+/** The phases of an outcome. A study has one today: the scenario itself, its timing not stated. */
+export function phasesOf(o: ScenarioOutcome): BriefPhase[] {
+  return [{ name: o.scenario.name, timing: 'timing not stated', result: { ...o.result, notes: o.notes }, lines: o.scenario.lines.filter((l) => l.sector !== '') }];
+}
+
+function modelChoices(o: ScenarioOutcome): string[] {
+  const r = o.result;
+  const choices = [
+    r.closure === 'household'
+      ? 'Induced effects from the household-closed model (Type II): local households re-spend their extra labour income in the base-year pattern.'
+      : `No induced effects: ${r.multipliers.output.typeII.reason ?? 'the household closure is not used'}.`,
+    'Final-demand lines enter the model as amount × local share (the part bought inside the county).',
+  ];
+  if (r.shock.fixed.length) {
+    choices.push(`Mixed exogenous/endogenous model: the output of ${r.shock.fixed.map((j) => `'${r.sectors[j]}'`).join(', ')} is fixed from outside by output or jobs lines; the other sectors respond to its purchases.`);
+  }
+  choices.push(
+    'Amounts are producer prices; no trade or transport margins are applied.',
+    'No price-year conversion: amounts are taken in the table\'s money unit.',
+  );
+  return choices;
+}
+
+export function briefInputOf(ps: PreparedStudy, o: ScenarioOutcome, date: string): BriefInput {
+  const { study } = ps;
+  return {
+    scenario: o.scenario.name,
+    ...(o.scenario.description ? { description: o.scenario.description } : {}),
+    tableName: study.table.name,
+    source: study.source ? { fileName: study.source.fileName, sha256: study.source.sha256 } : null,
+    date,
+    moneyUnit: study.table.moneyUnit,
+    priceYear: null,
+    verdict: ps.verdict.say,
+    model: modelTypeOf(o.result),
+    base: baseEconomy(ps),
+    phases: phasesOf(o),
+    modelChoices: modelChoices(o),
+    notes: o.notes,
+    cautions: [...CAUTIONS, ...SCENARIO_CAUTIONS],
+  };
+}
+
+/** The brief's content (what the PDF typesets and the app's print view shows). */
+export function studyBriefDocument(ps: PreparedStudy, o: ScenarioOutcome, date: string): BriefDocument {
+  return briefDocument(briefInputOf(ps, o, date));
+}
+
+/** The brief of one scenario as PDF bytes. */
+export function studyBrief(ps: PreparedStudy, o: ScenarioOutcome, opts: BriefOptions): Promise<Uint8Array> {
+  return briefPdf(studyBriefDocument(ps, o, opts.date), { paper: opts.paper, fonts: opts.fonts });
+}
+
+/** Sheet names of the reports (spreadsheet programs allow 31 characters). */
+const SHEET_NAMES: Partial<Record<ReportKind, string>> = {
+  'scenario-inputs': 'Inputs',
+  'scenario-impact': 'Effects by sector',
+  'scenario-multipliers': 'Scenario multipliers',
+  'scenario-rounds': 'Spending rounds',
+  'scenario-paths': 'Structural paths',
+  multipliers: 'Multipliers',
+  coefficients: 'Coefficients',
+  'leontief-inverse': 'Leontief inverse',
+  viability: 'Viability',
+  'perron-vectors': 'Perron vectors',
+  spectrum: 'Eigenvalues',
+};
+
+const TABLE_KINDS: readonly AnalysisReportKind[] = ['multipliers', 'coefficients', 'leontief-inverse', 'viability', 'perron-vectors', 'spectrum'];
+
+function sheetsOf(kind: ReportKind, files: ReportFile[]): WorkbookSheet[] {
+  return files.flatMap((f, k) => {
+    if (!f.sheet) return [];
+    const m = f.sheet.meta;
+    const base = SHEET_NAMES[kind] ?? m.title;
+    return [{
+      name: k === 0 ? base : `${base} by sector`,
+      rows: f.sheet.rows,
+      title: `${m.title} (${f.name}). Model: ${m.modelType}.`,
+      notes: (m.notes ?? []).filter((n) => !SCENARIO_CAUTIONS.includes(n)),
+    }];
+  });
+}
+
+function provenance(ps: PreparedStudy, date: string, o: ScenarioOutcome | null): [string, string][] {
+  const { study } = ps;
+  return [
+    ...(o ? [['Scenario', o.scenario.name] as [string, string]] : []),
+    ['Table', study.table.name],
+    ['Table file', study.source?.fileName ?? 'not from a file (made in the app or estimated)'],
+    ...(study.source ? [['SHA-256 of the file', study.source.sha256] as [string, string]] : []),
+    ['Money unit', study.table.moneyUnit],
+    ['Model', o ? modelTypeOf(o.result) : (ps.models.closed === true ? 'open (Type I) and household-closed (Type II) input-output model' : 'open (Type I) input-output model')],
+    ['Table check', ps.verdict.say],
+    ['Produced', `${date} by Roundwise`],
+    ['Numbers', 'Cells hold full-precision values; the number formats only round what is shown.'],
+  ];
+}
+
+/**
+ * The workbook: for a scenario, its summary per phase, its reports and the table's; without one, the table's reports
+ * (multipliers, coefficients, the Leontief inverse, viability, Perron vectors, eigenvalues when computed).
+ */
+export function studyWorkbook(ps: PreparedStudy, o: ScenarioOutcome | null, opts: { date: string }): Promise<Uint8Array> {
+  const sheets: WorkbookSheet[] = [];
+  if (o) {
+    sheets.push({
+      name: 'Summary',
+      rows: headlineRows(phasesOf(o), baseEconomy(ps)),
+      title: 'The scenario\'s totals per phase and variable, with the county\'s base-year totals and each total as a share of them.',
+      notes: o.notes,
+    });
+    const kinds: ScenarioReportKind[] = ['scenario-impact', 'scenario-multipliers', 'scenario-inputs', 'scenario-rounds', ...(o.paths ? ['scenario-paths' as const] : [])];
+    for (const k of kinds) sheets.push(...sheetsOf(k, scenarioReport(ps, k, o, opts.date)));
+  }
+  for (const k of TABLE_KINDS) {
+    if (reportUnavailable(ps, k) === null) sheets.push(...sheetsOf(k, tableReport(ps, k, opts.date)));
+  }
+  return workbookXlsx({ provenance: provenance(ps, opts.date, o), sheets, cautions: [...CAUTIONS, ...(o ? SCENARIO_CAUTIONS : [])] });
+}

@@ -1,0 +1,83 @@
+// The sample study (the invented Fernhollow County table and its food-plant scenario) and independent readers of
+// the files the deliverables write: poppler's pdftotext, pdfinfo and pdffonts for PDFs, SheetJS (xlsx, a different
+// library from the writer) for workbooks.
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { createRequire } from 'node:module';
+import {
+  parseShockCsv, prepareStudy, runStudyScenario, studyFromTableFile, type PreparedStudy, type ScenarioOutcome,
+} from '../../src/study/index.ts';
+import { readBriefFonts } from '../../src/node-io/index.ts';
+
+export const SAMPLE_DIR = join(import.meta.dirname, '..', '..', 'sample-data');
+export const SAMPLE_TABLE = join(SAMPLE_DIR, 'fernhollow-county.csv');
+export const SAMPLE_SHOCK = join(SAMPLE_DIR, 'fernhollow-food-plant.csv');
+
+export const fonts = readBriefFonts();
+
+export function sampleStudy(shockText = readFileSync(SAMPLE_SHOCK, 'utf8')): { ps: PreparedStudy; o: ScenarioOutcome } {
+  const scenario = parseShockCsv(shockText, 'fernhollow-food-plant.csv');
+  const study = studyFromTableFile(readFileSync(SAMPLE_TABLE), 'fernhollow-county.csv', {}, { scenarios: [scenario] });
+  const ps = prepareStudy(study, { spectrum: false });
+  return { ps, o: runStudyScenario(ps, scenario, { paths: null }) };
+}
+
+/** Run a poppler tool on PDF bytes; throws when poppler-utils is missing (CI installs it, see .ci/run). */
+export function poppler(tool: 'pdftotext' | 'pdfinfo' | 'pdffonts', pdf: Uint8Array, args: string[] = []): string {
+  const dir = mkdtempSync(join(tmpdir(), 'roundwise-pdf-'));
+  try {
+    const file = join(dir, 'brief.pdf');
+    writeFileSync(file, pdf);
+    const r = spawnSync(tool, tool === 'pdftotext' ? [...args, '-enc', 'UTF-8', file, '-'] : [...args, file], { encoding: 'utf8' });
+    if (r.error) throw new Error(`${tool} (Debian's poppler-utils) is needed to read the brief: ${r.error.message}`);
+    if (r.status !== 0) throw new Error(`${tool} failed: ${r.stderr}`);
+    return r.stdout;
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+/**
+ * The PDF's text, every run of white space made one space (lines wrap differently from the source strings). `layout`
+ * (pdftotext -layout) keeps a table's row on one line; `raw` keeps a wrapped table cell's lines together.
+ */
+export function pdfWords(pdf: Uint8Array, mode: 'layout' | 'raw' = 'layout'): string {
+  return poppler('pdftotext', pdf, mode === 'layout' ? ['-layout'] : []).replace(/\s+/g, ' ');
+}
+
+type SheetJs = typeof import('xlsx');
+export const XLSX: SheetJs = createRequire(import.meta.url)('xlsx') as SheetJs;
+
+/** A workbook read back by SheetJS: each sheet as rows of raw values (numbers as doubles, blanks as null). */
+export function readWorkbook(bytes: Uint8Array): { names: string[]; sheets: Map<string, unknown[][]>; book: import('xlsx').WorkBook } {
+  const book = XLSX.read(bytes, { type: 'array', cellNF: true, cellFormula: true, cellStyles: true });
+  const sheets = new Map<string, unknown[][]>();
+  for (const n of book.SheetNames) {
+    sheets.set(n, XLSX.utils.sheet_to_json(book.Sheets[n]!, { header: 1, raw: true, defval: null, blankrows: true }));
+  }
+  return { names: book.SheetNames, sheets, book };
+}
+
+/** One part of the XLSX package (a zip), as text, read with SheetJS's container reader. */
+export function xlsxPart(bytes: Uint8Array, path: string): string {
+  const cfb = XLSX.CFB.read(Buffer.from(bytes), { type: 'buffer' });
+  const entry = XLSX.CFB.find(cfb, `/${path}`);
+  if (!entry?.content) throw new Error(`no part ${path} in the workbook`);
+  return Buffer.from(entry.content as Uint8Array).toString('utf8');
+}
+
+/** The attributes of every `<tag …/>` element in an XML part (attribute order is free in XML). */
+function elements(xml: string, tag: string): Record<string, string>[] {
+  return [...xml.matchAll(new RegExp(`<${tag}\\s([^>]*?)/?>`, 'g'))].map((m) => Object.fromEntries([...m[1]!.matchAll(/([\w:]+)="([^"]*)"/g)].map((a) => [a[1]!, a[2]!])));
+}
+
+/** The worksheet part of a sheet, found by name through xl/workbook.xml and its relationships (ECMA-376 Part 1). */
+export function sheetPart(bytes: Uint8Array, name: string): string {
+  const unescape = (s: string) => s.replace(/&quot;/g, '"').replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
+  const id = elements(xlsxPart(bytes, 'xl/workbook.xml'), 'sheet').find((e) => unescape(e.name ?? '') === name)?.['r:id'];
+  const target = elements(xlsxPart(bytes, 'xl/_rels/workbook.xml.rels'), 'Relationship').find((e) => e.Id === id)?.Target;
+  if (!target) throw new Error(`no worksheet part for '${name}'`);
+  return xlsxPart(bytes, target.startsWith('/') ? target.slice(1) : `xl/${target}`);
+}
