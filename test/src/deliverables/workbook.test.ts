@@ -61,7 +61,7 @@ describe('the workbook read back independently', () => {
     const rows = sheet('Summary');
     expect(rows[0]).toContain('direct');
     const name = { employment: 'jobs', income: 'labour income', valueAdded: 'value added', output: 'output' } as const;
-    for (const v of VARIABLES) {
+    for (const v of VARIABLES.filter((x) => x in json.totals) as (keyof typeof name)[]) {
       const row = rows.find((r) => r[2] === name[v])!;
       const t = json.totals[v]!;
       expect(row.slice(4, 8), v).toEqual([t.direct, t.indirect, t.induced, t.total]);
