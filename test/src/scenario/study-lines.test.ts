@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import * as math from 'mathjs';
 import { prepareModel, type Availability } from '../../../src/model/index.ts';
 import {
-  annuityFactor, NO_SHOCK_INPUTS, overTime, parseShockCsv, priceFactorOf, runPhaseExpanded,
+  annuityFactor, checkMarginSectors, NO_SHOCK_INPUTS, overTime, parseActivityCsv, parseMarginsCsv, parseShockCsv, priceFactorOf, runPhaseExpanded,
   type Activity, type Margins, type ScenarioLine, type ShockInputs,
 } from '../../../src/scenario/index.ts';
 import { prepareStudy, runStudyScenario, studyOfTable } from '../../../src/study/index.ts';
@@ -127,6 +127,14 @@ describe('an activity not in the table', () => {
   });
 });
 
+describe('activity files', () => {
+  it('purchases adding up to more than the output are refused at the line that passes it', () => {
+    const e = refusal(() => parseActivityCsv('item,sector,amount\noutput,,100\npurchase,Farms,60\npurchase,Services,50\n', 'station.csv'));
+    expect(e.code).toBe('activity-purchases-exceed-output');
+    expect(e.location).toMatchObject({ file: 'station.csv', line: 4 });
+  });
+});
+
 describe('purchaser prices and margins', () => {
   const pm = prepareModel(county4());
   const margins: Margins = {
@@ -141,6 +149,19 @@ describe('purchaser prices and margins', () => {
     expect(sum(parts.map((c) => c.gross))).toBeCloseTo(100, 12);
     // producer 100·(1 − 0.45) = 55 at 0.8 local → 44; retail 30 → Retail; wholesale 10 at 0.5 + transport 5 → Services 10.
     expect(Array.from(result.shock.df)).toEqual([0, 44, 30, 10]);
+  });
+  it('the margins file: shares are read by column, and the purchaser price split is the one above', () => {
+    const m = parseMarginsCsv('sector,retail,wholesale,transport\nmargin sector,Retail,Services,Services\nlocal share,1,0.5,1\nFood processing,0.3,0.1,0.05\n', 'margins.csv');
+    expect(m).toMatchObject({ sectors: margins.sectors, localShare: margins.localShare, rows: [{ sector: 'Food processing', shares: margins.rows[0]!.shares }] });
+  });
+  it('a margins row whose shares exceed 1, or naming a sector the table lacks, is refused at its line and field', () => {
+    const e = refusal(() => parseMarginsCsv('sector,retail,wholesale,transport\nmargin sector,Retail,Services,Services\nFood processing,0.7,0.2,0.2\n', 'margins.csv'));
+    expect(e.code).toBe('margins-exceed');
+    expect(e.location).toMatchObject({ file: 'margins.csv', line: 3, column: 4, rowLabel: 'Food processing' });
+    const unknown = parseMarginsCsv('sector,retail\nmargin sector,Retail\nMining,0.2\n', 'margins.csv');
+    const u = refusal(() => checkMarginSectors(unknown, pm.coef.sectors));
+    expect(u.code).toBe('margins-unknown-sector');
+    expect(u.location).toMatchObject({ file: 'margins.csv', line: 3, rowLabel: 'Mining' });
   });
   it('refused without margins, and on a line kind that is not spending', () => {
     expect(refusal(() => runScenario(pm, { name: 's', lines: [fd('Retail', 1, { prices: 'purchaser' })] })).code).toBe('margins-missing');
@@ -226,6 +247,11 @@ describe('phases over time', () => {
     const [, op, vis] = o.phases;
     expect(o.byTiming[0]!.gross.output!.total).toBeCloseTo(op!.result.totals.output.total + vis!.result.totals.output.total, 9);
     expect(op!.overTime!.cumulative.output!.total).toBeCloseTo(20 * op!.result.totals.output.total, 9);
+  });
+  it('refuses a one-time phase given a number of years, at the line and field', () => {
+    const e = refusal(() => parseShockCsv('sector,amount,phase,timing,years\nRetail,1,Build,once,5\n', 'shock.csv'));
+    expect(e.code).toBe('phase-field-mixed');
+    expect(e.location).toMatchObject({ file: 'shock.csv', line: 2, column: 5 });
   });
   it('refuses a phase whose lines mix timings, at the line and field', () => {
     const e = refusal(() => parseShockCsv('sector,amount,phase,timing\nRetail,1,Build,once\nServices,2,Build,annual\n', 'shock.csv'));
