@@ -2,14 +2,15 @@
  * The app's state and the actions on it. Screens read `app` and call the actions; every computation goes to the
  * engine worker. Scenario edits go through `editScenarios` so they can be undone and mark the project unsaved.
  */
-import { reactive, watch } from 'vue';
+import { markRaw, reactive, watch } from 'vue';
 import { getBridge } from '../bridge/index.ts';
 import { engine, CancelledError, EngineError } from '../worker/client.ts';
 import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, TableInfo, TableSource } from '../worker/protocol.ts';
 import type { ScenarioDraft } from '../worker/protocol.ts';
 import { History } from './history.ts';
+import { lineReady } from '../../src/study/index.ts';
 
-export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional';
+export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional' | 'supply-use';
 
 export interface ImportDraft {
   source: TableSource;
@@ -17,6 +18,8 @@ export interface ImportDraft {
   /** Refusal of the draft as it stands (located message). */
   error: string | null;
 }
+
+export type ScenarioResultState = ScenarioView | { error: string } | { waiting: string } | null;
 
 export const app = reactive({
   screen: 'overview' as ScreenId,
@@ -32,7 +35,18 @@ export const app = reactive({
   selected: 0,
   /** The phase of the selected scenario being edited and shown. */
   phase: 0,
-  results: [] as (ScenarioView | { error: string } | null)[],
+  /**
+   * Results of each scenario: its view, its refusal (located), or `waiting` when no line has a sector yet. They are
+   * `markRaw`: plain data from the worker, read-only on screen, so 2,000-sector vectors get no reactive proxies.
+   */
+  results: [] as ScenarioResultState[],
+  /** True from the moment scenarios or settings change until their results are back: the screen marks them outdated. */
+  resultsStale: false,
+  /**
+   * What the planner typed into the selected scenario that cannot be used (an empty amount, a local share of 150 %),
+   * by line and field ("2:share"): never clipped or dropped silently; results are held back until it is fixed.
+   */
+  inputProblems: {} as Record<string, { message: string; text: string }>,
   /** Type II: include the household closure in scenario results and multipliers (the study's closure setting). */
   closure: true,
   /** Sector the structural paths go to (the study's setting); null: the most affected sector not shocked itself. */
@@ -76,9 +90,9 @@ function markDirty(d: boolean): void {
 export async function loadSample(): Promise<void> {
   try {
     const r = await engine().call('loadSample', {}, 'Opening the sample county…');
-    app.table = r.table;
+    app.table = markRaw(r.table);
     app.source = r.source;
-    app.analysis = r.analysis;
+    app.analysis = markRaw(r.analysis);
     app.ready = true;
     if (app.scenarios.length === 0 || app.starterOnly) {
       app.scenarios = [r.starter];
@@ -117,7 +131,35 @@ export async function setDraftRole(kind: 'rows' | 'columns', label: string, role
   if (!d) return;
   const roles: Record<'rows' | 'columns', Record<string, string>> = { rows: { ...(d.source.roles?.rows ?? {}) }, columns: { ...(d.source.roles?.columns ?? {}) } };
   roles[kind][label] = role;
-  d.source = { ...d.source, roles: roles as TableSource['roles'] };
+  const sectors = d.source.roles?.sectors;
+  d.source = { ...d.source, roles: { ...roles, ...(sectors?.length ? { sectors } : {}) } as TableSource['roles'] };
+  await refreshPreview();
+}
+
+/**
+ * Read a label found as a row and as a column as a sector (`sector` true), or give it back the roles the label rules
+ * suggest: the role map's "sectors" list, which overrides the words of the label.
+ */
+export async function setDraftSector(label: string, sector: boolean): Promise<void> {
+  const d = app.draft;
+  if (!d) return;
+  const r = d.source.roles ?? {};
+  const without = <T>(rec: Record<string, T> | undefined) => Object.fromEntries(Object.entries(rec ?? {}).filter(([l]) => l !== label));
+  const sectors = (r.sectors ?? []).filter((l) => l !== label);
+  if (sector) sectors.push(label);
+  d.source = { ...d.source, roles: { rows: without(r.rows), columns: without(r.columns), ...(sectors.length ? { sectors } : {}) } as TableSource['roles'] };
+  await refreshPreview();
+}
+
+/** Force a delimiter or decimal mark (undefined: let the importer decide again). */
+export async function setDraftDialect(part: 'delimiter' | 'decimalMark', value: string | undefined): Promise<void> {
+  const d = app.draft;
+  if (!d) return;
+  const next: TableSource = { ...d.source };
+  if (value === undefined) delete next[part];
+  else if (part === 'delimiter') next.delimiter = value as NonNullable<TableSource['delimiter']>;
+  else next.decimalMark = value as NonNullable<TableSource['decimalMark']>;
+  d.source = next;
   await refreshPreview();
 }
 
@@ -138,9 +180,9 @@ export async function acceptImport(): Promise<boolean> {
 export async function useTable(source: TableSource): Promise<boolean> {
   try {
     const r = await engine().call('loadTable', source, 'Importing the table…');
-    app.table = r.table;
+    app.table = markRaw(r.table);
     app.source = source;
-    app.analysis = r.analysis;
+    app.analysis = markRaw(r.analysis);
     app.importError = null;
     app.draft = null;
     if (app.pathDestination !== null && !r.table.sectors.includes(app.pathDestination)) app.pathDestination = null;
@@ -191,6 +233,7 @@ export function clampPhase(): void {
 }
 
 export function undo(): void {
+  app.inputProblems = {};
   const s = history.undo({ scenarios: app.scenarios, selected: app.selected });
   if (!s) return;
   app.scenarios = s.scenarios;
@@ -201,6 +244,7 @@ export function undo(): void {
 }
 
 export function redo(): void {
+  app.inputProblems = {};
   const s = history.redo({ scenarios: app.scenarios, selected: app.selected });
   if (!s) return;
   app.scenarios = s.scenarios;
@@ -220,10 +264,15 @@ let recomputeSeq = 0;
 export async function recomputeAll(): Promise<void> {
   if (!app.table) return;
   const seq = ++recomputeSeq;
-  const out: (ScenarioView | { error: string } | null)[] = [];
+  const out: ScenarioResultState[] = [];
   for (const s of app.scenarios) {
+    const lines = s.phases.flatMap((p) => p.lines);
+    if (lines.length > 0 && !lines.some(lineReady)) {
+      out.push({ waiting: lines.length === 1 ? 'Choose the sector of the line above to see the effects.' : 'Choose the sector of a line above to see the effects.' });
+      continue;
+    }
     try {
-      out.push(await engine().call('runScenario', { scenario: JSON.parse(JSON.stringify(s)) as ScenarioDraft, choices: choices() }, 'Computing scenario effects…'));
+      out.push(markRaw(await engine().call('runScenario', { scenario: JSON.parse(JSON.stringify(s)) as ScenarioDraft, choices: choices() }, 'Computing scenario effects…')));
     } catch (e) {
       if (e instanceof CancelledError) return;
       out.push({ error: messageOf(e) });
@@ -231,13 +280,26 @@ export async function recomputeAll(): Promise<void> {
     if (seq !== recomputeSeq) return;
   }
   app.results = out;
+  app.resultsStale = false;
 }
 
 let pending: ReturnType<typeof setTimeout> | null = null;
 watch(() => [app.scenarios, app.closure], () => {
+  app.resultsStale = true;
   if (pending) clearTimeout(pending);
   pending = setTimeout(() => { void recomputeAll(); }, 120);
 }, { deep: true });
+
+/** Note (or clear, with null) a value typed into the selected scenario that cannot be used, with the text as typed. */
+export function setInputProblem(key: string, problem: { message: string; text: string } | null): void {
+  const next = { ...app.inputProblems };
+  if (problem === null) delete next[key];
+  else next[key] = problem;
+  app.inputProblems = next;
+}
+
+// What is shown in the fields after these is the scenario as it stands, so earlier typing problems no longer apply.
+watch(() => [app.selected, app.phase, app.table], () => { app.inputProblems = {}; });
 
 export function resetHistory(): void {
   history.clear();

@@ -2,6 +2,7 @@
  * Project files (src/project: the imported table, its roles, the scenarios and settings, as versioned JSON).
  * The worker writes and reads them with the engine, so what reopens is exactly what was saved.
  */
+import { markRaw } from 'vue';
 import { getBridge } from '../bridge/index.ts';
 import { engine, CancelledError } from '../worker/client.ts';
 import { app, choices, markDirty, messageOf, recomputeAll, resetHistory, say } from './app.ts';
@@ -42,9 +43,9 @@ export async function saveProject(askName: boolean): Promise<boolean> {
 export async function applyProject(text: string, fileName: string, path?: string): Promise<boolean> {
   try {
     const r = await engine().call('openProject', { text, fileName }, 'Opening the project…');
-    app.table = r.table;
-    app.analysis = r.analysis;
-    app.source = null;
+    app.table = markRaw(r.table);
+    app.analysis = markRaw(r.analysis);
+    app.source = r.source;
     app.scenarios = r.scenarios;
     app.selected = r.active;
     app.closure = r.choices.closure === 'households';

@@ -51,11 +51,16 @@ function upgradeV1(s: z.infer<typeof scenarioV1>): unknown {
   return { ...rest, phases: [{ name: MIGRATED_PHASE, timing: 'once', lines: lines.map(({ pattern, ...l }) => ({ ...l, ...(typeof pattern === 'string' ? { mix: pattern } : {}) })) }] };
 }
 
-export function writeRecoveryCopy(c: RecoveryCopy & { savedAt: string; tableName: string; scenarios: ScenarioDraft[] }): string {
-  return JSON.stringify({
+/**
+ * The copy's text. `projectJson` is `JSON.stringify(c.project)` when the caller keeps it: the project text holds the
+ * table's source bytes (20 MB at 2,000 sectors), so escaping it again on every scenario edit would stall the window.
+ */
+export function writeRecoveryCopy(c: RecoveryCopy & { savedAt: string; tableName: string; scenarios: ScenarioDraft[] }, projectJson?: string): string {
+  const head = JSON.stringify({
     format: RECOVERY_FORMAT, version: 2, savedAt: c.savedAt, tableName: c.tableName, projectName: c.projectName,
-    selected: c.selected, scenarios: c.scenarios, project: c.project,
+    selected: c.selected, scenarios: c.scenarios,
   });
+  return `${head.slice(0, -1)},"project":${projectJson ?? JSON.stringify(c.project)}}`;
 }
 
 /** The copy, or a reason it cannot be used (damaged, or not a copy at all). */

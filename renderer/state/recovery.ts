@@ -36,15 +36,15 @@ let timer: ReturnType<typeof setTimeout> | null = null;
 /** Writes run one after another, so a slow older copy never lands after a newer one (or after a removal). */
 let writes: Promise<void> = Promise.resolve();
 /** The project text of the table and settings, rebuilt only when they change (scenario edits are the usual change). */
-let base: { table: unknown; choices: string; name: string; text: string } | null = null;
+let base: { table: unknown; choices: string; name: string; text: string; json: string } | null = null;
 
 async function copyText(): Promise<string> {
   const table = app.table!;
   const name = (app.project?.name ?? table.name ?? 'project').replace(/\.roundwise$/, '');
   const now = choices();
   if (!base || base.table !== toRaw(table) || base.choices !== JSON.stringify(now) || base.name !== name) {
-    const text = await engine().call('recoveryBase', { name, choices: now }, 'Keeping a recovery copy…');
-    base = { table: toRaw(table), choices: JSON.stringify(now), name, text };
+    const text = await engine().call('recoveryBase', { name, choices: now }, null);
+    base = { table: toRaw(table), choices: JSON.stringify(now), name, text, json: JSON.stringify(text) };
   }
   return writeRecoveryCopy({
     savedAt: new Date().toISOString(),
@@ -53,7 +53,7 @@ async function copyText(): Promise<string> {
     project: base.text,
     scenarios: JSON.parse(JSON.stringify(app.scenarios)) as ScenarioDraft[],
     selected: app.selected,
-  });
+  }, base.json);
 }
 
 async function writeCopy(): Promise<void> {

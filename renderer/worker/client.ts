@@ -30,7 +30,8 @@ export const SLOW_MS = 300;
 interface Pending {
   resolve: (v: unknown) => void;
   reject: (e: unknown) => void;
-  label: string;
+  /** null: background work (the recovery copy) that never shows the indicator. */
+  label: string | null;
   started: number;
 }
 
@@ -70,7 +71,8 @@ export class EngineClient {
     return w;
   }
 
-  call<K extends Op>(op: K, args: Args<K>, label = 'Computing…'): Promise<Result<K>> {
+  /** `label` is what the indicator says if the call runs long; null for background work the user did not ask for. */
+  call<K extends Op>(op: K, args: Args<K>, label: string | null = 'Computing…'): Promise<Result<K>> {
     const id = ++this.seq;
     const req: RpcRequest = { id, op, args: plain(args) };
     return new Promise<Result<K>>((resolve, reject) => {
@@ -111,13 +113,14 @@ export class EngineClient {
   private refresh(): void {
     if (this.timer) clearTimeout(this.timer);
     this.timer = null;
-    progress.running = this.pending.size;
-    if (this.pending.size === 0) {
+    const shown = [...this.pending.values()].filter((p) => p.label !== null);
+    progress.running = shown.length;
+    if (shown.length === 0) {
       progress.visible = false;
       return;
     }
-    const oldest = [...this.pending.values()].reduce((a, b) => (a.started <= b.started ? a : b));
-    progress.label = oldest.label;
+    const oldest = shown.reduce((a, b) => (a.started <= b.started ? a : b));
+    progress.label = oldest.label!;
     const wait = SLOW_MS - (Date.now() - oldest.started);
     if (wait <= 0) progress.visible = true;
     else this.timer = setTimeout(() => this.refresh(), wait);

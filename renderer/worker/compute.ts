@@ -4,14 +4,15 @@
  * screen's choices to the study, and hands results to views.ts for shaping. Runs under Node in test/renderer too.
  */
 import {
-  buildReport, formatLocated, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
+  buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable, COLUMN_ROLES, ROW_ROLES,
+  studyFromTableFile, utf8Bytes, withTable,
   type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, TableInfo, TableSource } from './protocol.ts';
-import { analysisView, pathsView, scenarioView, tableInfo } from './views.ts';
+import { analysisView, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
 import { regionalApi } from './regional.ts';
+import { supplyUseApi } from './supply-use.ts';
 
 export const SAMPLE_FILE = SAMPLE_FILE_NAME;
 
@@ -23,7 +24,10 @@ function current(): PreparedStudy {
 }
 
 function importSettings(src: TableSource): ImportSettings {
-  return { ...(src.roles ? { roles: src.roles } : {}), ...(src.layout ? { layout: src.layout as ImportSettings['layout'] } : {}), ...(src.name ? { name: src.name } : {}) };
+  return {
+    ...(src.roles ? { roles: src.roles } : {}), ...(src.layout ? { layout: src.layout as ImportSettings['layout'] } : {}), ...(src.name ? { name: src.name } : {}),
+    ...(src.delimiter ? { delimiter: src.delimiter } : {}), ...(src.decimalMark ? { decimalMark: src.decimalMark } : {}),
+  };
 }
 
 /** The study as the screens have it now: the loaded table with the screen's scenarios and choices. */
@@ -58,39 +62,24 @@ function loadTable(src: TableSource): { table: TableInfo; analysis: AnalysisView
 }
 
 function previewTable(src: TableSource): PreviewView {
-  const p = enginePreview(src.text, { fileName: src.fileName, ...importSettings(src) });
-  const b = p.balance;
-  const balance: PreviewView['balance'] = b ? b.sectors.map((sector, j) => {
-    const gaps = [b.columnGap?.[j], b.rowGap?.[j], b.totalGap?.[j]].filter((g): g is number => typeof g === 'number');
-    const worst = gaps.reduce((w, g) => (Math.abs(g) > Math.abs(w) ? g : w), 0);
-    const inputs = b.purchases?.[j];
-    return { sector, inputs: typeof inputs === 'number' && Number.isFinite(inputs) ? inputs : null, output: b.output[j]!, gap: worst, relative: worst };
-  }).sort((x, y) => Math.abs(y.relative) - Math.abs(x.relative)) : [];
-  return {
-    fileName: src.fileName,
-    layout: p.layout ?? src.layout ?? 'matrix',
-    sectors: p.sectors,
-    rows: p.rows.filter((r) => r.role !== 'sector').map((r) => ({ label: r.label, role: r.role })),
-    columns: p.columns.filter((c) => c.role !== 'sector').map((c) => ({ label: c.label, role: c.role })),
-    rowRoles: ROW_ROLES,
-    columnRoles: COLUMN_ROLES,
-    cells: p.cells,
-    balance: balance.slice(0, 8),
-    balanced: b?.balanced ?? false,
-    tolerance: b?.tolerance ?? 0.001,
-    outputSource: b?.outputSource ?? null,
-    warnings: p.warnings.map((w) => formatLocated(w)),
-    refusal: p.refusal?.formatted ?? null,
-  };
+  return previewView(enginePreview(src.text, { fileName: src.fileName, ...importSettings(src) }), src);
+}
+
+/**
+ * The lines numbered as on screen (within their phase), so a refusal says "line 2 (row 'Transprot'): …" even after
+ * blank lines are left out.
+ */
+function onScreen(s: ScenarioDraft): Scenario {
+  return { ...s, phases: s.phases.map((p) => ({ ...p, lines: p.lines.map((l, k) => (l.origin ? l : { ...l, origin: { line: k + 1 } })) })) };
 }
 
 function runScenario(args: { scenario: ScenarioDraft; choices: StudyChoices }): ScenarioView {
-  return scenarioView(runStudyScenario(studyAt(args.choices), readyLines(args.scenario)));
+  return scenarioView(runStudyScenario(studyAt(args.choices), readyLines(onScreen(args.scenario))));
 }
 
 /** Paths of one phase to the study's chosen sector (`choices.destination`), or to the default one when none is chosen. */
 function paths(args: { scenario: ScenarioDraft; phase?: number; choices: StudyChoices }): PathsView {
-  const o = runStudyScenario(studyAt(args.choices), readyLines(args.scenario), { paths: 'default' });
+  const o = runStudyScenario(studyAt(args.choices), readyLines(onScreen(args.scenario)), { paths: 'default' });
   const p = o.phases[Math.min(args.phase ?? 0, o.phases.length - 1)]!;
   return pathsView(p.paths!);
 }
@@ -135,11 +124,33 @@ function recoveryBase(args: { name: string; choices: StudyChoices }): string {
   return projectFileOf({ ...study, name: args.name, scenarios: [] });
 }
 
-function openProject(args: { text: string; fileName: string }): { table: TableInfo; analysis: AnalysisView; scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string } {
+function openProject(args: { text: string; fileName: string }): { table: TableInfo; analysis: AnalysisView; scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null } {
   const study = studyFromProjectFile(args.text, args.fileName);
   const loaded = load(study);
   const active = Math.max(0, study.scenarios.findIndex((s) => s.name === study.settings.activeScenario));
-  return { ...loaded, scenarios: study.scenarios, choices: { closure: study.settings.closure, destination: study.settings.paths.destination }, active, name: study.name };
+  return {
+    ...loaded, scenarios: study.scenarios, choices: { closure: study.settings.closure, destination: study.settings.paths.destination }, active, name: study.name,
+    source: sourceOf(study),
+  };
+}
+
+/**
+ * The table's source as the Import screen edits it, when the study keeps the file's bytes (so "Change roles" works
+ * after a project is opened too). The bytes are decoded as the importer reads them (UTF-8, byte order mark kept).
+ */
+function sourceOf(study: Study): TableSource | null {
+  const src = study.source;
+  if (!src?.content) return null;
+  const imp = src.import ?? {};
+  return {
+    text: new TextDecoder('utf-8', { ignoreBOM: true }).decode(src.content),
+    fileName: src.fileName,
+    ...(imp.roles ? { roles: imp.roles } : {}),
+    ...(imp.layout ? { layout: imp.layout } : {}),
+    ...(imp.name ? { name: imp.name } : {}),
+    ...(imp.delimiter ? { delimiter: imp.delimiter } : {}),
+    ...(imp.decimalMark ? { decimalMark: imp.decimalMark } : {}),
+  };
 }
 
 function spread(args: { mix: SpendingMix; amount: number; localShare: number }): ScenarioLine[] {
@@ -163,4 +174,5 @@ export const api = {
   recoveryBase,
   openProject,
   ...regionalApi,
+  ...supplyUseApi,
 };

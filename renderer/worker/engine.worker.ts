@@ -23,5 +23,7 @@ scope.onmessage = (e: MessageEvent<RpcRequest>) => {
       res = { id, ok: false, error: { message: msg.split('\n')[0] ?? 'internal error', refused: false } };
     }
   }
-  scope.postMessage(res);
+  // The n×n grids are made fresh for each answer: hand their memory over instead of copying 32 MB at 2,000 sectors.
+  const transfer = res.ok && op === 'grid' ? [(res.value as { values: Float64Array }).values.buffer as ArrayBuffer] : [];
+  scope.postMessage(res, transfer);
 };

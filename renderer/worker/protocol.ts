@@ -4,7 +4,7 @@
  * reason, never NaN.
  */
 import type { api } from './compute.ts';
-import type { Closure, LinkageClass, MeasureKey, RoleMap, Scenario, Timing, Variable } from '../../src/study/index.ts';
+import type { Closure, DecimalMark, Delimiter, LinkageClass, MeasureKey, RoleMap, Scenario, Timing, Variable } from '../../src/study/index.ts';
 
 export type EngineApi = typeof api;
 
@@ -19,6 +19,9 @@ export interface TableSource {
   layout?: string | undefined;
   /** Table name; defaults to the file name. */
   name?: string;
+  /** Field delimiter and decimal mark chosen on the Import screen; detected when absent. */
+  delimiter?: Delimiter;
+  decimalMark?: DecimalMark;
 }
 
 /** The screen's choices that the study keeps in its settings. */
@@ -136,13 +139,28 @@ export interface PreviewView {
   columns: { label: string; role: string }[];
   rowRoles: readonly string[];
   columnRoles: readonly string[];
-  /** First cells of the file, as read. */
+  /** Labels found both as a row and as a column that were not read as sectors: each may be made a sector. */
+  mayBeSectors: string[];
+  /** Labels read as sectors because the role map says so (they can be given back their roles). */
+  chosenSectors: string[];
+  /** How the file was split: each part with how it was decided and a sentence for the screen; null before it was known. */
+  dialect: {
+    delimiter: Delimiter; delimiterFrom: 'option' | 'sep-line' | 'guessed'; delimiterNote: string;
+    decimalMark: DecimalMark; decimalMarkFrom: 'option' | 'delimiter' | 'numbers' | 'guessed'; decimalMarkNote: string;
+  } | null;
+  /** First cells of the file, exactly as parsed (quotes removed, decimal commas inside their cells). */
   cells: string[][];
-  /** Purchases are null when the table has no value-added or import rows. */
-  balance: { sector: string; inputs: number | null; output: number; gap: number; relative: number }[];
+  /**
+   * The sectors furthest from balance, worst first: on which side (the row's sales, the column's inputs, or the stated
+   * total input), that sum, what it is compared with, and the relative gap.
+   */
+  balance: { sector: string; side: 'sales' | 'inputs' | 'total input'; sum: number | null; against: number; againstName: string; gap: number }[];
   balanced: boolean;
+  /** Relative tolerance the import used (0.001 = 0.1 %). */
   tolerance: number;
   outputSource: string | null;
+  /** Rows or columns of one role that are added together (two labour-income rows), in words. */
+  combined: string[];
   warnings: string[];
   /** Why the file, as it stands, would be refused (located), or null. */
   refusal: string | null;

@@ -4,11 +4,11 @@
  * number comes from the prepared study (src/study).
  */
 import {
-  formatLocated, linkageClass, MEASURES, measureValues, unitDemandRounds, shockInputsOf, VARIABLES,
+  formatLocated, linkageClass, matchKey, ROW_ROLES, COLUMN_ROLES, type TablePreview, MEASURES, measureValues, unitDemandRounds, shockInputsOf, VARIABLES,
   type ModeKind, type PreparedStudy, type ScenarioOutcome, type PhaseOutcome, type Study, type EffectSplit, type EffectTotals, type ScenarioMultiplier,
   type Variable, type PathAnalysis, type TotalsRecord,
 } from '../../src/study/index.ts';
-import type { AnalysisView, EffectView, Eigen, MultiplierRow, PathsView, PhaseView, ScenarioView, TableInfo, TotalsView } from './protocol.ts';
+import type { AnalysisView, EffectView, Eigen, MultiplierRow, PathsView, PhaseView, PreviewView, ScenarioView, TableInfo, TableSource, TotalsView } from './protocol.ts';
 
 const finite = (v: number | null | undefined): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
 
@@ -165,5 +165,68 @@ export function pathsView(p: PathAnalysis): PathsView {
     explainedShare: p.explainedShare,
     truncated: p.truncated,
     paths: p.paths.map((x) => ({ labels: x.labels, contribution: x.contribution, share: x.share, direct: x.direct, pathMultiplier: x.pathMultiplier })),
+  };
+}
+
+/** Sectors listed in the preview's balance report. */
+const BALANCE_SHOWN = 8;
+
+const ROLE_PLURAL: Record<string, string> = {
+  labourIncome: 'labour income (compensation of employees)', otherValueAdded: 'other value added', imports: 'imports', employment: 'employment',
+  householdConsumption: 'household consumption', otherFinalDemand: 'other final demand',
+};
+
+export function previewView(p: TablePreview, src: TableSource): PreviewView {
+  const b = p.balance;
+  const balance: PreviewView['balance'] = [];
+  if (b) {
+    const at = (v: number[] | null, j: number): number | null => (v && typeof v[j] === 'number' && Number.isFinite(v[j]) ? v[j]! : null);
+    b.sectors.forEach((sector, j) => {
+      // The worst of the three comparisons the import makes (finish.ts), with the sums it compared.
+      const sides: PreviewView['balance'] = [
+        { sector, side: 'sales', sum: at(b.sales, j), against: b.output[j]!, againstName: 'total output', gap: at(b.rowGap, j) ?? 0 },
+        { sector, side: 'inputs', sum: at(b.purchases, j), against: at(b.statedTotalInput, j) ?? b.output[j]!, againstName: b.statedTotalInput ? 'total input' : 'total output', gap: at(b.columnGap, j) ?? 0 },
+        { sector, side: 'total input', sum: at(b.statedTotalInput, j), against: b.output[j]!, againstName: 'total output', gap: at(b.totalGap, j) ?? 0 },
+      ];
+      balance.push(sides.reduce((w, x) => (Math.abs(x.gap) > Math.abs(w.gap) ? x : w)));
+    });
+    balance.sort((x, y) => Math.abs(y.gap) - Math.abs(x.gap));
+  }
+  const rowKeys = new Map(p.rows.filter((r) => r.role !== 'sector').map((r) => [matchKey(r.label), r.label]));
+  const mayBeSectors = p.columns.filter((c) => c.role !== 'sector' && rowKeys.has(matchKey(c.label))).map((c) => rowKeys.get(matchKey(c.label))!);
+  const chosen = new Set((src.roles?.sectors ?? []).map(matchKey));
+  const combined: string[] = [];
+  const group = (xs: { label: string; role: string }[], axis: 'rows' | 'columns') => {
+    const by = new Map<string, string[]>();
+    for (const x of xs) if (ROLE_PLURAL[x.role]) by.set(x.role, [...(by.get(x.role) ?? []), x.label]);
+    for (const [role, labels] of by) {
+      if (labels.length > 1) combined.push(`${labels.length} ${axis} are read as ${ROLE_PLURAL[role]} (${labels.map((l) => `'${l}'`).join(', ')}): they are added together${role === 'labourIncome' ? ' into the household income of the Type II model' : role === 'householdConsumption' ? ' into the households’ spending pattern of the Type II model' : ''}.`);
+    }
+  };
+  group(p.rows, 'rows');
+  group(p.columns, 'columns');
+  const d = p.dialect;
+  return {
+    fileName: src.fileName,
+    layout: p.layout ?? src.layout ?? 'matrix',
+    sectors: p.sectors,
+    rows: p.rows.filter((r) => r.role !== 'sector').map((r) => ({ label: r.label, role: r.role })),
+    columns: p.columns.filter((c) => c.role !== 'sector').map((c) => ({ label: c.label, role: c.role })),
+    rowRoles: ROW_ROLES,
+    columnRoles: COLUMN_ROLES,
+    mayBeSectors,
+    chosenSectors: p.sectors.filter((s) => chosen.has(matchKey(s))),
+    dialect: d ? {
+      delimiter: d.delimiter, delimiterFrom: d.delimiterFrom, delimiterNote: d.delimiterNote,
+      decimalMark: d.decimalMark, decimalMarkFrom: d.decimalMarkFrom, decimalMarkNote: d.decimalMarkNote,
+    } : null,
+    cells: p.cells,
+    balance: balance.slice(0, BALANCE_SHOWN),
+    balanced: b?.balanced ?? false,
+    tolerance: b?.tolerance ?? 0.001,
+    outputSource: b?.outputSource ?? null,
+    combined,
+    warnings: p.warnings.map((w) => formatLocated(w)),
+    refusal: p.refusal?.formatted ?? null,
   };
 }

@@ -22,7 +22,7 @@ export { estimateCountyTable, type CountyEstimate, type EstimateRequest, type Es
 // What the front ends need besides the study itself (they import engine code only through this file).
 export type Closure = import('./study.ts').StudySettings['closure'];
 export { formatLocated, isInputError, InputError, type Location, type Warning } from '../diagnostics/index.ts';
-export { previewTable, matchKey, ROW_ROLES, COLUMN_ROLES, type IOTable, type TablePreview, type RoleMap } from '../table/index.ts';
+export { previewTable, matchKey, ROW_ROLES, COLUMN_ROLES, type IOTable, type TablePreview, type RoleMap, type Delimiter, type DecimalMark } from '../table/index.ts';
 export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../table/index.ts';
 export { luInverse } from '../linalg/index.ts';
 export type { ModeKind } from '../model/index.ts';
@@ -52,6 +52,20 @@ export { importTable, writeTableCsv } from '../table/index.ts';
 export { reportFiles, type ReportMeta, type Cell } from '../report/index.ts';
 export { visibleText } from '../diagnostics/index.ts';
 export { PROJECT_FORMAT, MIGRATED_PHASE } from '../project/index.ts';
+
+// Supply and use tables → a symmetric table (the `sut` command and the "Start from supply and use tables" screen).
+export {
+  symmetricFromSupplyUse, studyFromSupplyUse, supplyUseTotals, assumptionOf, SYMMETRIC_TABLE_FILE,
+  type SupplyUseRequest, type SymmetricFromSupplyUse,
+} from './supply-use.ts';
+export {
+  ASSUMPTIONS, ASSUMPTION_BY, ASSUMPTION_NAMES, DEFAULT_ASSUMPTION, TABLE_BY, NEGATIVES_REMEDIES, SUT_DEFAULT_TOLERANCE, parseSutRoleMap,
+  SUPPLY_SAMPLE_CSV, USE_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_FILE_NAME, SUT_SAMPLE_NOTE,
+  type Assumption, type TableBy, type NegativesRemedy, type SutRoleMap, type NegativesReport, type ProductBalance,
+} from '../sut/index.ts';
+
+// Classification bridges: employment, shock and spending-mix files that name codes instead of sectors.
+export { readBridge, employmentByBridge, scenarioByBridge, spendingMixByBridge, type Bridge } from './bridges.ts';
 
 // How sure the numbers are (Monte Carlo bands, one-at-a-time sensitivity).
 export { drawSetupOf, studyBands, studySensitivity, bandReports, sensitivityReports, type BandsRequest } from './uncertainty.ts';

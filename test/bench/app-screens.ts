@@ -1,0 +1,173 @@
+/**
+ * The app at a large table, as a planner uses it: Debian's Chromium (playwright-core) against Vite's dev server, a
+ * table of n sectors chosen on the Import screen, accepted, then every screen visited, a sector typed into a scenario
+ * line's picker, a filter typed into the multiplier table, and a scenario amount changed.
+ *
+ * Measured in the page: long tasks (PerformanceObserver 'longtask': the main thread busy for more than 50 ms, the
+ * Long Tasks API's definition), and keystroke latency from the Event Timing API ('event' entries: from the key
+ * event's time stamp to the next paint after its handlers ran). Times are wall times in the page (performance.now()).
+ *
+ * Run alone: `npx tsx test/bench/app-screens.ts [n]` (writes the table to bench-results/ first); `npm run bench` runs
+ * it at the largest size. Speed is measured here only, never in tests.
+ */
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { createServer } from 'vite';
+import { chromium, type Page } from 'playwright-core';
+
+const REPO = fileURLToPath(new URL('../..', import.meta.url));
+const CHROMIUM = process.env.ROUNDWISE_CHROMIUM ?? '/usr/bin/chromium';
+
+export interface Step {
+  /** What was done. */
+  step: string;
+  /** Wall time until its result was on screen. */
+  ms: number;
+  /** Longest main-thread task during the step and the settling time after it, 0 when none was over 50 ms. */
+  longestTaskMs: number;
+  longTasks: number;
+}
+
+export interface Keystrokes {
+  field: string;
+  typed: string;
+  /** Event Timing durations of the keydown events (key event to the next paint), ms. */
+  durationsMs: number[];
+  maxMs: number;
+  medianMs: number;
+}
+
+export interface AppRun {
+  n: number;
+  steps: Step[];
+  keystrokes: Keystrokes[];
+  /** Longest long task over the whole run (from choosing the file on). */
+  maxTaskMs: number;
+}
+
+declare global {
+  interface Window {
+    __tasks?: { start: number; duration: number }[];
+    __keys?: { name: string; start: number; duration: number }[];
+  }
+}
+
+const SETTLE_MS = 400;
+
+async function now(page: Page): Promise<number> {
+  return page.evaluate(() => performance.now());
+}
+
+async function tasksBetween(page: Page, t0: number, t1: number): Promise<{ start: number; duration: number }[]> {
+  return page.evaluate(([a, b]) => (window.__tasks ?? []).filter((t) => t.start + t.duration > a! && t.start < b!), [t0, t1]);
+}
+
+/** Run `act`, wait for `done`, let the page settle, and note the time and the long tasks in that window. */
+async function step(page: Page, steps: Step[], name: string, act: () => Promise<unknown>, done: () => Promise<unknown>): Promise<void> {
+  const t0 = await now(page);
+  await act();
+  await done();
+  const t1 = await now(page);
+  await page.waitForTimeout(SETTLE_MS);
+  const tasks = await tasksBetween(page, t0, await now(page));
+  steps.push({ step: name, ms: t1 - t0, longestTaskMs: Math.max(0, ...tasks.map((t) => t.duration)), longTasks: tasks.length });
+}
+
+async function typeInto(page: Page, selector: string, field: string, text: string): Promise<Keystrokes> {
+  const input = page.locator(selector).first();
+  await input.click();
+  await input.fill('');
+  await page.waitForTimeout(200);
+  const t0 = await now(page);
+  await input.pressSequentially(text, { delay: 120 });
+  await page.waitForTimeout(600); // the last entries arrive after the next paint
+  const keys = await page.evaluate((a) => (window.__keys ?? []).filter((k) => k.start >= a && k.name === 'keydown'), t0);
+  const d = keys.map((k) => k.duration).sort((a, b) => a - b);
+  return { field, typed: text, durationsMs: keys.map((k) => k.duration), maxMs: d.at(-1) ?? 0, medianMs: d.length ? d[Math.floor(d.length / 2)]! : 0 };
+}
+
+export async function appScreens(file: string, n: number): Promise<AppRun | { skipped: string }> {
+  if (!existsSync(CHROMIUM)) return { skipped: `no Chromium at ${CHROMIUM}` };
+  const server = await createServer({ configFile: join(REPO, 'renderer', 'vite.config.ts'), server: { port: 0, hmr: false }, logLevel: 'error' });
+  await server.listen();
+  const browser = await chromium.launch({ executablePath: CHROMIUM, args: ['--no-sandbox', '--disable-gpu'], headless: true });
+  try {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, locale: 'en-US' });
+    const page = await context.newPage();
+    page.setDefaultTimeout(180_000);
+    await page.addInitScript(() => {
+      window.__tasks = [];
+      window.__keys = [];
+      new PerformanceObserver((l) => { for (const e of l.getEntries()) window.__tasks!.push({ start: e.startTime, duration: e.duration }); })
+        .observe({ type: 'longtask', buffered: true });
+      new PerformanceObserver((l) => { for (const e of l.getEntries()) window.__keys!.push({ name: e.name, start: e.startTime, duration: e.duration }); })
+        .observe({ type: 'event', durationThreshold: 16, buffered: true } as PerformanceObserverInit);
+    });
+    await page.goto(server.resolvedUrls!.local[0]!);
+    await page.getByTestId('verdict').waitFor();
+    // Compile every screen once on the sample county, so the run measures the app, not Vite's first compile.
+    for (const s of ['table', 'structure', 'multipliers', 'scenarios', 'export', 'overview']) {
+      await page.click(`[data-screen="${s}"]`);
+      await page.waitForTimeout(300);
+    }
+    await page.click('[data-screen="import"]');
+    const steps: Step[] = [];
+    const tRun = await now(page);
+    await step(page, steps, 'preview of the chosen file', () => page.getByTestId('file-input').setInputFiles(file),
+      () => page.locator('[data-testid="accept-import"]:not([disabled])').waitFor());
+    const sectors = `${n.toLocaleString('en-US')} sectors`;
+    await step(page, steps, '"Use this table" to the Overview verdict', () => page.getByTestId('accept-import').click(),
+      () => page.waitForFunction((s) => document.querySelector('[data-testid="table-name"]')?.textContent?.includes(s) && !document.querySelector('[data-testid="progress"]'), sectors));
+    const visit = (screen: string, ready: string) => step(page, steps, `${screen} screen`, () => page.click(`[data-screen="${screen}"]`), () => page.locator(ready).first().waitFor());
+    await visit('overview', '[data-testid="verdict"]');
+    await visit('table', '.matrix .m-cell');
+    await step(page, steps, 'Leontief inverse view', () => page.click('[data-matrix="L"]'),
+      () => page.waitForFunction(() => document.querySelector('[data-matrix="L"]')?.getAttribute('aria-pressed') === 'true' && document.querySelector('.matrix .m-cell') && !document.querySelector('[data-testid="progress"]')));
+    await visit('structure', '[data-testid="rounds99"]');
+    await visit('multipliers', '[data-testid="multiplier-table"] tbody tr');
+    const filter = await typeInto(page, '[data-testid="multiplier-table"] input[type="search"]', 'multiplier table filter', 'Sector 1999');
+    await visit('scenarios', '[data-testid="total-effect"]');
+    await visit('overview', '[data-testid="verdict"]');
+    await visit('scenarios', '[data-testid="total-effect"]');
+    const picker = await typeInto(page, '[aria-label="Sector of line 1"]', 'scenario line sector picker', 'Sector 1999');
+    await page.keyboard.press('Enter');
+    await page.waitForFunction(() => !document.querySelector('[data-testid="scenario-results"][aria-busy="true"]'));
+    const before = await page.getByTestId('total-effect').textContent();
+    await step(page, steps, 'scenario amount changed to new results', async () => {
+      await page.locator('[data-line-amount="0"]').fill('2500');
+      await page.locator('[data-line-amount="0"]').press('Tab');
+    }, () => page.waitForFunction((b) => {
+      const t = document.querySelector('[data-testid="total-effect"]')?.textContent;
+      return t && t !== b && !document.querySelector('[data-testid="scenario-results"][aria-busy="true"]');
+    }, before));
+    await visit('export', '[data-report]');
+    const all = await tasksBetween(page, tRun, await now(page));
+    return { n, steps, keystrokes: [picker, filter], maxTaskMs: Math.max(0, ...all.map((t) => t.duration)) };
+  } finally {
+    await browser.close().catch(() => {});
+    await server.close();
+  }
+}
+
+export function printAppRun(r: AppRun | { skipped: string }): void {
+  if ('skipped' in r) { console.log(`App at the largest table: ${r.skipped}.`); return; }
+  const f = (ms: number): string => (ms >= 1000 ? `${(ms / 1000).toFixed(2)} s` : `${Math.round(ms)} ms`);
+  console.log(`App at n=${r.n} (Chromium, Vite dev server, 1280×800): longest main-thread task over the run ${f(r.maxTaskMs)} (target: none over 50 ms).`);
+  for (const s of r.steps) console.log(`  ${s.step}: ${f(s.ms)}; ${s.longTasks ? `${s.longTasks} long task(s), longest ${f(s.longestTaskMs)}` : 'no long task'}`);
+  for (const k of r.keystrokes) console.log(`  typing "${k.typed}" into the ${k.field}: keystroke to paint median ${f(k.medianMs)}, worst ${f(k.maxMs)} (target under 50 ms)`);
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  const n = Number(process.argv[2] ?? 2000);
+  const dir = join(REPO, 'bench-results');
+  mkdirSync(dir, { recursive: true });
+  const file = join(dir, `invented-${n}.csv`);
+  if (!existsSync(file)) {
+    const { jobCsv } = await import('./job.ts');
+    writeFileSync(file, jobCsv(n));
+  }
+  const r = await appScreens(file, n);
+  printAppRun(r);
+  writeFileSync(join(dir, `app-${n}.json`), JSON.stringify(r, null, 2));
+}

@@ -1,0 +1,105 @@
+/**
+ * What a planner types into a scenario, in real Chromium on the sample county: a misspelt sector or a local share of
+ * 150 % stops the results from updating and says why (no stale numbers, no silent clipping), a new scenario's blank
+ * line asks for its sector instead of claiming there are no lines, lines spread by a spending mix show short amounts,
+ * and the sector picker is a combobox that shows whole names and answers the keyboard.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
+
+let s: Session;
+let page: Page;
+
+function poll<T>(fn: () => T | Promise<T>) {
+  return expect.poll(fn, { interval: 100, timeout: 30_000 });
+}
+async function shot(name: string): Promise<void> {
+  expect(await page.locator('body').innerText(), name).not.toMatch(/\bNaN\b|Infinity|∞/);
+  await photograph(page, name);
+}
+const total = () => page.getByTestId('total-effect');
+
+describe.skipIf(skipBrowser)('scenario input', () => {
+  beforeAll(async () => {
+    s = await startSession();
+    page = s.page;
+    page.setDefaultTimeout(60_000);
+    await page.goto(s.url);
+    await page.getByTestId('verdict').waitFor({ timeout: 150_000 });
+    await page.click('[data-screen="scenarios"]');
+  });
+  afterAll(async () => { await s?.close(); });
+
+  it('asks for the sector of a new scenario\'s blank line', async () => {
+    await page.getByTestId('new-scenario').click();
+    await poll(() => page.getByTestId('scenario-waiting').textContent()).toMatch(/Choose the sector of the line above/);
+    expect(await page.locator('body').innerText()).not.toMatch(/has no lines/);
+  });
+
+  it('finds sectors as the planner types and shows whole names', async () => {
+    const picker = page.getByRole('combobox', { name: 'Sector of line 1' });
+    await picker.fill('serv');
+    const list = page.getByRole('listbox', { name: 'Matching sectors' });
+    await poll(() => list.getByRole('option').allTextContents()).toEqual(['Professional services', 'Accommodation and food service']);
+    // Whole names: the list is not clipped by the table around the field.
+    const box = await list.getByRole('option').last().evaluate((el) => ({ s: el.scrollWidth, c: el.clientWidth }));
+    expect(box.s).toBeLessThanOrEqual(box.c);
+    await shot('scenario-picker-open');
+    await picker.press('ArrowDown');
+    await picker.press('ArrowDown');
+    expect(await picker.getAttribute('aria-activedescendant')).toMatch(/-opt-1$/);
+    await picker.press('Enter');
+    await poll(() => picker.inputValue()).toBe('Accommodation and food service');
+    await page.locator('[data-line-amount="0"]').fill('1000');
+    await page.locator('[data-line-amount="0"]').press('Tab');
+    await poll(() => total().count()).toBe(1);
+  });
+
+  it('holds results back while a sector is misspelt, and says which line', async () => {
+    const before = await total().textContent();
+    const picker = page.getByRole('combobox', { name: 'Sector of line 1' });
+    await picker.fill('Transprot');
+    await picker.press('Tab');
+    await poll(() => page.getByTestId('scenario-error').textContent()).toMatch(/Transprot/);
+    expect(await total().count()).toBe(0);
+    expect(await picker.getAttribute('aria-invalid')).toBe('true');
+    await shot('scenario-misspelt-sector');
+    await picker.fill('Accommodation and food service');
+    await picker.press('Tab');
+    await poll(() => total().textContent()).toBe(before);
+  });
+
+  it('refuses a local share of 150 % instead of clipping it', async () => {
+    const share = page.getByLabel('Local share of line 1, percent');
+    await share.fill('150');
+    await share.press('Tab');
+    await poll(() => page.getByTestId('scenario-problems').textContent()).toMatch(/line 1: the local share must be a percentage from 0 to 100 \(it reads 150 %\)/);
+    expect(await total().count()).toBe(0);
+    // The field keeps what was typed, marked, rather than a silently clipped 100.
+    expect(await share.inputValue()).toBe('150');
+    expect(await share.getAttribute('aria-invalid')).toBe('true');
+    await shot('scenario-share-150');
+    await share.fill('60');
+    await share.press('Tab');
+    await poll(() => total().count()).toBe(1);
+    expect(await page.getByTestId('scenario-problems').count()).toBe(0);
+  });
+
+  it('shows lines spread by a spending mix with short amounts', async () => {
+    await page.locator('details:has(select) summary').click();
+    const mix = page.locator('details select').first();
+    await mix.selectOption({ index: 1 });
+    await page.locator('details input[type="number"]').first().fill('1000');
+    await page.locator('details button').click();
+    await poll(() => page.locator('[data-line-amount]').count()).toBeGreaterThan(2);
+    const amounts = await page.locator('[data-line-amount]').evaluateAll((els) => els.map((e) => (e as HTMLInputElement).value));
+    // At most two decimals on screen (the field's title keeps every digit).
+    expect(amounts.every((a) => /^-?\d+(\.\d{1,2})?$/.test(a))).toBe(true);
+    await shot('scenario-spread-lines');
+  });
+
+  it('shows no console errors', () => {
+    expect(s.errors).toEqual([]);
+  });
+});
