@@ -109,6 +109,21 @@ export function sampleModuleText(): string {
   ].join('\n');
 }
 
+/** src/classification/sample.ts: the sample bridge and county jobs by code for the app's "Larger table" screen. */
+export function bridgeSampleModuleText(): string {
+  return [
+    '/**',
+    ' * The bundled classification bridge and county jobs by its codes (invented; the codes FH-01 … belong to no real',
+    ' * classification). Written by sample-data/generate-supply-use.ts; do not edit by hand.',
+    ' */',
+    `export const BRIDGE_SAMPLE_FILE_NAME = 'fernhollow-bridge.csv';`,
+    `export const EMPLOYMENT_BY_CODE_SAMPLE_FILE_NAME = 'fernhollow-employment-by-code.csv';`,
+    `export const BRIDGE_SAMPLE_CSV = ${JSON.stringify(bridgeCsv())};`,
+    `export const EMPLOYMENT_BY_CODE_SAMPLE_CSV = ${JSON.stringify(employmentByCodeCsv())};`,
+    '',
+  ].join('\n');
+}
+
 if (import.meta.url === `file://${process.argv[1]}`) {
   const { writeFileSync } = await import('node:fs');
   const { supply, use } = supplyUseCsv();
@@ -117,4 +132,5 @@ if (import.meta.url === `file://${process.argv[1]}`) {
   writeFileSync(new URL('./fernhollow-bridge.csv', import.meta.url), bridgeCsv());
   writeFileSync(new URL('./fernhollow-employment-by-code.csv', import.meta.url), employmentByCodeCsv());
   writeFileSync(new URL('../src/sut/sample.ts', import.meta.url), sampleModuleText());
+  writeFileSync(new URL('../src/classification/sample.ts', import.meta.url), bridgeSampleModuleText());
 }

@@ -6,7 +6,7 @@
  */
 import { reactive } from 'vue';
 import {
-  DEFAULT_ASSUMPTION, SUPPLY_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_CSV, USE_SAMPLE_FILE_NAME,
+  DEFAULT_ASSUMPTION, SUT_DEFAULT_TOLERANCE, SUPPLY_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_CSV, USE_SAMPLE_FILE_NAME,
   type Assumption, type NegativesRemedy, type TableBy,
 } from '../../src/study/index.ts';
 import { engine, CancelledError } from '../worker/client.ts';
@@ -31,6 +31,8 @@ export const supplyUse = reactive({
   by: 'industry' as TableBy,
   assumption: DEFAULT_ASSUMPTION.industry as Assumption,
   negatives: 'keep' as NegativesRemedy,
+  /** Supply–use tolerance in percent, as typed (a string, so a half-typed value is refused without being lost). */
+  tolerance: String(SUT_DEFAULT_TOLERANCE * 100),
   view: null as SupplyUseView | null,
   /** Located one-line refusal of the pair as it stands; the table in use is untouched. */
   error: null as string | null,
@@ -49,14 +51,29 @@ export function setBy(by: TableBy): void {
   supplyUse.assumption = DEFAULT_ASSUMPTION[by];
 }
 
+/** The tolerance as a fraction, or a refusal in words. */
+export function toleranceValue(): { value: number } | { error: string } {
+  const t = supplyUse.tolerance.trim().replace(',', '.').replace(/\s*%$/, '');
+  const v = t === '' ? Number.NaN : Number(t);
+  if (!Number.isFinite(v)) return { error: `the tolerance '${supplyUse.tolerance}' is not a number; give a percentage such as 0.1` };
+  if (!(v > 0 && v < 100)) return { error: `the tolerance must lie between 0 and 100 % (got ${v})` };
+  return { value: v / 100 };
+}
+
 let seq = 0;
 /** Derive the symmetric table from the pair as it stands. Refusals are kept as the located message. */
 export async function derive(): Promise<void> {
   const my = ++seq;
+  const tol = toleranceValue();
+  if ('error' in tol) {
+    supplyUse.view = null;
+    supplyUse.error = tol.error;
+    return;
+  }
   supplyUse.busy = true;
   try {
     const v = await engine().call('buildSymmetric', {
-      supply: supplyUse.supply, use: supplyUse.use, by: supplyUse.by, assumption: supplyUse.assumption, negatives: supplyUse.negatives,
+      supply: supplyUse.supply, use: supplyUse.use, by: supplyUse.by, assumption: supplyUse.assumption, negatives: supplyUse.negatives, tolerance: tol.value,
     }, 'Deriving the symmetric table…');
     if (my !== seq) return;
     supplyUse.view = v;

@@ -13,6 +13,8 @@ export interface SupplyUseRequest {
   by: TableBy;
   assumption: Assumption;
   negatives: NegativesRemedy;
+  /** Relative tolerance of supply against use by product (default SUT_DEFAULT_TOLERANCE). */
+  tolerance?: number;
 }
 
 export interface SupplyUseSectorRow {
@@ -56,7 +58,10 @@ const asFile = (f: RegionalFile) => ({ bytes: utf8Bytes(f.text), fileName: f.fil
 const sum = (v: ArrayLike<number>): number => { let s = 0; for (let i = 0; i < v.length; i++) s += v[i]!; return s; };
 
 export function buildSymmetric(req: SupplyUseRequest): SupplyUseView {
-  const r = symmetricFromSupplyUse({ supply: asFile(req.supply), use: asFile(req.use), by: req.by, assumption: req.assumption, negatives: req.negatives });
+  const r = symmetricFromSupplyUse({
+    supply: asFile(req.supply), use: asFile(req.use), by: req.by, assumption: req.assumption, negatives: req.negatives,
+    ...(req.tolerance !== undefined ? { tolerance: req.tolerance } : {}),
+  });
   const t = r.table;
   const n = t.n;
   const fd = [...t.householdConsumption, ...t.otherFinalDemand];

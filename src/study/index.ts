@@ -66,6 +66,7 @@ export {
 
 // Classification bridges: employment, shock and spending-mix files that name codes instead of sectors.
 export { readBridge, employmentByBridge, scenarioByBridge, spendingMixByBridge, type Bridge } from './bridges.ts';
+export { BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, EMPLOYMENT_BY_CODE_SAMPLE_CSV, EMPLOYMENT_BY_CODE_SAMPLE_FILE_NAME } from '../classification/index.ts';
 
 // How sure the numbers are (Monte Carlo bands, one-at-a-time sensitivity).
 export { drawSetupOf, studyBands, studySensitivity, bandReports, sensitivityReports, type BandsRequest } from './uncertainty.ts';
@@ -84,3 +85,4 @@ export {
   type Paper, type BriefFonts, type BriefDocument, type BriefBlock, type BriefTable, type BriefBars,
 } from '../deliverables/index.ts';
 export { csvFileText, UTF8_BOM } from '../csv/index.ts';
+export { filesOnly } from '../report/index.ts';

@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { bridgeCsv, employmentByCodeCsv, sampleModuleText, supplyUseCsv } from '../../../sample-data/generate-supply-use.ts';
+import { bridgeCsv, bridgeSampleModuleText, employmentByCodeCsv, sampleModuleText, supplyUseCsv } from '../../../sample-data/generate-supply-use.ts';
 import { readSupplyUse } from '../../../src/sut/index.ts';
 
 const read = (name: string) => readFileSync(join(import.meta.dirname, '../../../sample-data', name), 'utf8');
@@ -15,6 +15,7 @@ describe('sample supply and use pair', () => {
     expect(read('fernhollow-bridge.csv')).toBe(bridgeCsv());
     expect(read('fernhollow-employment-by-code.csv')).toBe(employmentByCodeCsv());
     expect(readFileSync(join(import.meta.dirname, '../../../src/sut/sample.ts'), 'utf8')).toBe(sampleModuleText());
+    expect(readFileSync(join(import.meta.dirname, '../../../src/classification/sample.ts'), 'utf8')).toBe(bridgeSampleModuleText());
   });
 
   it('balances exactly: every product\'s use is its output, every industry\'s inputs and value added its output', () => {
