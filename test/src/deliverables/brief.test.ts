@@ -94,9 +94,9 @@ describe('a table with taxes and full-time equivalents', () => {
     const text = pdfWords(await studyBrief(p, out, { date, paper: 'a4', fonts }));
     const t = out.phases[0]!.result.totals;
     const f = t.fte!;
-    expect(text).toContain(`Full-time equivalents ${[f.direct, f.indirect, f.induced, f.total].map((x) => en(Math.round(x))).join(' ')}`);
+    expect(text).toContain(`Full-time equivalents ${[f.direct, f.indirect, f.induced!, f.total].map((x) => en(Math.round(x))).join(' ')}`);
     const x = t.taxes!;
-    expect(text).toContain(`Taxes less subsidies (thousand dollars) ${[x.direct, x.indirect, x.induced, x.total].map(sig3).join(' ')}`);
+    expect(text).toContain(`Taxes less subsidies (thousand dollars) ${[x.direct, x.indirect, x.induced!, x.total].map(sig3).join(' ')}`);
     const countyFte = fteRow.slice(1, 1 + p.study.table.n).reduce((a, v) => a + Number(v), 0);
     expect(text).toContain(`${en(Math.round(f.total))} full-time equivalents (${((f.total / countyFte) * 100).toFixed(1)} % of county full-time equivalents)`);
   });
