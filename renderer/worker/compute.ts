@@ -6,8 +6,8 @@
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadPattern, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable,
-  type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingPattern, type Study,
+  studyFromTableFile, utf8Bytes, withTable, filesOnly, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingPattern, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, TableInfo, TableSource } from './protocol.ts';
 import { analysisView, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
@@ -98,7 +98,32 @@ function reports(args: { scenarios: ScenarioDraft[]; choices: StudyChoices }): {
 
 function report(args: { kind: ReportKind; scenario?: ScenarioDraft; scenarios: ScenarioDraft[]; choices: StudyChoices }): ReportFile[] {
   const ps = studyAt(args.choices, args.scenarios);
-  return buildReport(ps, args.kind, { date: new Date().toISOString(), ...(args.scenario ? { scenario: readyLines(args.scenario) } : {}) });
+  return filesOnly(buildReport(ps, args.kind, { date: new Date().toISOString(), ...(args.scenario ? { scenario: readyLines(args.scenario) } : {}) }));
+}
+
+/** The scenario's outcome as the CLI computes it: structural paths only when the study names their destination. */
+function outcomeOf(ps: PreparedStudy, scenario: ScenarioDraft) {
+  return runStudyScenario(ps, readyLines(scenario), { paths: ps.study.settings.paths.destination });
+}
+
+/**
+ * The scenario's brief: the PDF (made by the study layer's studyBrief, as `roundwise scenario --brief`) and its
+ * document, which the print view shows. The fonts come from the UI (fetched once from the app's assets).
+ */
+async function brief(args: { scenario: ScenarioDraft; scenarios: ScenarioDraft[]; choices: StudyChoices; paper: Paper; fonts: BriefFonts; date?: string }): Promise<{ name: string; pdf: Uint8Array; document: BriefDocument }> {
+  const ps = studyAt(args.choices, args.scenarios);
+  const o = outcomeOf(ps, args.scenario);
+  const date = args.date ?? new Date().toISOString();
+  const document = studyBriefDocument(ps, o, date);
+  return { name: `${scenarioSlug(o.scenario.name)}-brief.pdf`, pdf: await studyBrief(ps, o, { date, paper: args.paper, fonts: args.fonts }), document };
+}
+
+/** The workbook of the study, with the scenario's sheets when one is given (studyWorkbook, as `--xlsx`). */
+async function workbook(args: { scenario?: ScenarioDraft; scenarios: ScenarioDraft[]; choices: StudyChoices; date?: string }): Promise<{ name: string; xlsx: Uint8Array }> {
+  const ps = studyAt(args.choices, args.scenarios);
+  const o = args.scenario ? outcomeOf(ps, args.scenario) : null;
+  const name = `${scenarioSlug(o ? o.scenario.name : ps.study.table.name)}.xlsx`;
+  return { name, xlsx: await studyWorkbook(ps, o, { date: args.date ?? new Date().toISOString() }) };
 }
 
 function saveProject(args: { name: string; scenarios: ScenarioDraft[]; choices: StudyChoices; active: number }): string {
@@ -162,6 +187,8 @@ export const api = {
   grid,
   reports,
   report,
+  brief,
+  workbook,
   saveProject,
   recoveryBase,
   openProject,

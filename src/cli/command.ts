@@ -20,10 +20,12 @@ type ValueOf<S extends OptionSpec> = S extends { type: 'boolean' } ? boolean
   : S extends { required: true } ? string
   : string | undefined;
 
-/** Options every command has: --json and --out DIR (and --help, handled before `run`). */
+/** Options every command has: --json, --out DIR and --no-bom (and --help, handled before `run`). */
 export interface CommonValues {
   json: boolean;
   out: string | undefined;
+  /** CSV reports without the UTF-8 byte-order mark. */
+  'no-bom': boolean;
 }
 
 export type Values<O extends OptionSpecs> = { [K in keyof O]: ValueOf<O[K]> } & CommonValues;
@@ -57,7 +59,8 @@ export interface RunContext {
 /** A file at a path the user named (e.g. `--project FILE`), written with the reports, under the same checks. */
 export interface NamedFile {
   path: string;
-  content: string;
+  /** Text (written as UTF-8) or bytes (a PDF brief, an XLSX workbook). */
+  content: string | Uint8Array;
 }
 
 export interface CommandResult {

@@ -62,7 +62,7 @@ async function runCommand(spec: CommandSpec, argv: string[], io: CliIO): Promise
     const args = parseCommandArgs(spec, argv);
     const result = await spec.run(args, run);
     const out = args.values.out;
-    const written = writeOutputs(out, out === undefined ? [] : result.reports ?? [], result.files ?? [], run.inputs);
+    const written = writeOutputs(out, out === undefined ? [] : result.reports ?? [], result.files ?? [], run.inputs, { bom: !args.values['no-bom'] });
     if (written.stale.length) {
       run.warn(`${written.stale.length} Roundwise report files in ${out} are from an earlier run and were not rewritten: ${written.stale.join(', ')} (left in place; remove them if they no longer apply)`);
     }

@@ -12,6 +12,7 @@ function allOptions(spec: CommandSpec): [string, OptionSpec][] {
     ...Object.entries(spec.options),
     ['json', { type: 'boolean', help: 'print one JSON object on stdout instead of the summary' }],
     ['out', { type: 'string', value: 'DIR', help: spec.outHelp }],
+    ['no-bom', { type: 'boolean', help: 'write the CSV reports without the UTF-8 byte-order mark (by default they start with one, so spreadsheet programs on Windows read "–", "−" and accented letters right)' }],
   ];
 }
 

@@ -103,6 +103,11 @@ const SHEET_NAMES: Partial<Record<ReportKind, string>> = {
 
 const TABLE_KINDS: readonly AnalysisReportKind[] = ['multipliers', 'coefficients', 'leontief-inverse', 'viability', 'perron-vectors', 'spectrum'];
 
+/** The n × n sheets (coefficients, Leontief inverse) only up to this many sectors: beyond, a workbook of millions of
+ * cells is slow to write and to open, and the CSV reports hold the matrices. Common practice, no source. */
+export const WORKBOOK_MATRIX_LIMIT = 500;
+const MATRIX_KINDS: readonly AnalysisReportKind[] = ['coefficients', 'leontief-inverse'];
+
 function sheetsOf(kind: ReportKind, files: ReportFile[]): WorkbookSheet[] {
   return files.flatMap((f, k) => {
     if (!f.sheet) return [];
@@ -148,8 +153,14 @@ export function studyWorkbook(ps: PreparedStudy, o: ScenarioOutcome | null, opts
     const kinds: ScenarioReportKind[] = ['scenario-impact', 'scenario-multipliers', 'scenario-inputs', 'scenario-rounds', ...(o.paths ? ['scenario-paths' as const] : [])];
     for (const k of kinds) sheets.push(...sheetsOf(k, scenarioReport(ps, k, o, opts.date)));
   }
+  const n = ps.study.table.n;
+  const left: string[] = [];
   for (const k of TABLE_KINDS) {
-    if (reportUnavailable(ps, k) === null) sheets.push(...sheetsOf(k, tableReport(ps, k, opts.date)));
+    if (reportUnavailable(ps, k) !== null) continue;
+    if (n > WORKBOOK_MATRIX_LIMIT && MATRIX_KINDS.includes(k)) { left.push(`${k}.csv`); continue; }
+    sheets.push(...sheetsOf(k, tableReport(ps, k, opts.date)));
   }
-  return workbookXlsx({ provenance: provenance(ps, opts.date, o), sheets, cautions: [...CAUTIONS, ...(o ? SCENARIO_CAUTIONS : [])] });
+  const prov = provenance(ps, opts.date, o);
+  if (left.length) prov.push(['Left out', `The ${n} × ${n} matrices of this table are not in the workbook (over ${WORKBOOK_MATRIX_LIMIT} sectors); the CSV reports ${left.join(' and ')} hold them.`]);
+  return workbookXlsx({ provenance: prov, sheets, cautions: [...CAUTIONS, ...(o ? SCENARIO_CAUTIONS : [])] });
 }

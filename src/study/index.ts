@@ -77,3 +77,4 @@ export {
   type Paper, type BriefFonts, type BriefDocument, type BriefBlock, type BriefTable, type BriefBars,
 } from '../deliverables/index.ts';
 export { csvFileText, UTF8_BOM } from '../csv/index.ts';
+export { filesOnly } from '../report/index.ts';

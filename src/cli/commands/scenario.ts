@@ -4,6 +4,7 @@
  * and the study saved as a project file. Everything is computed by src/study, as in the app.
  */
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
+import { BRIEF_OPTIONS, deliverableFiles, XLSX_OPTION } from './deliverables.ts';
 import { readFileLimited } from '../../node-io/index.ts';
 import {
   CAUTIONS, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile, tableReport, studyFromTableFile, VARIABLES, type Closure, type PreparedStudy, type ScenarioOutcome, InputError, visibleText, parseShockCsv, matchKey, readBridge, scenarioByBridge,
@@ -70,6 +71,8 @@ export const scenario = defineCommand({
     paths: { type: 'string', value: 'SECTOR', help: 'add the structural paths that carry the effect to SECTOR (printed in the summary too)' },
     bridge: { type: 'string', value: 'BRIDGE.csv', help: 'code,sector[,share]: the shock file names codes of another classification, mapped to the table\'s sectors (shares split a code)' },
     project: { type: 'string', value: 'FILE.json', help: 'save the study (table, shock, settings) as a project file the app opens; an existing file is replaced only if it is a Roundwise project' },
+    ...BRIEF_OPTIONS,
+    ...XLSX_OPTION,
     ...TABLE_DIALECT_OPTIONS,
     ...SCENARIO_UNCERTAINTY_OPTIONS,
   },
@@ -99,7 +102,7 @@ export const scenario = defineCommand({
     const bands = settings ? await withHelperThreads(study.table.n, () => studyBands(ps, { settings, multipliers: false, scenarios: [scenario] })!) : null;
     const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step']) : null;
     const names = { output: 'output', valueAdded: 'value added', income: 'labour income', employment: 'employment' };
-    const files = [];
+    const files = await deliverableFiles(ps, outcome, values, ctx);
     if (values.project !== undefined) {
       refuseToOverwriteForeign(values.project);
       files.push({ path: values.project, content: projectFileOf(study) });

@@ -13,7 +13,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import Papa from 'papaparse';
 import {
-  prepareStudy, runStudyScenario, studyFromTableFile, utf8Bytes, writeTableCsv, type Scenario, type ScenarioLine,
+  csvFileText, prepareStudy, runStudyScenario, studyFromTableFile, utf8Bytes, writeTableCsv, type Scenario, type ScenarioLine,
 } from '../../../src/study/index.ts';
 import { api } from '../../../renderer/worker/compute.ts';
 import { tableFromParts } from '../../support/io-table.ts';
@@ -148,9 +148,10 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
         expect(rel(pv.total, view.effects.output!.total[j]!)).toBeLessThanOrEqual(1e-12);
         const exported = api.report({ kind: 'scenario-impact', scenario, scenarios: [scenario], choices });
         same(column(csvRows(exported[0]!.content), 'output total (thousand dollars)'), Array.from(r.effects.output.total), 'worker export impact');
-        expect(exported[0]!.content).toBe(readFileSync(join(out, 'plant-impact.csv'), 'utf8'));
+        // The CLI writes the byte-order mark the app's export adds when it saves (csvFileText).
+        expect(csvFileText(exported[0]!.content)).toBe(readFileSync(join(out, 'plant-impact.csv'), 'utf8'));
         const exportedPaths = api.report({ kind: 'scenario-paths', scenario, scenarios: [scenario], choices });
-        expect(exportedPaths[0]!.content).toBe(readFileSync(join(out, 'plant-paths.csv'), 'utf8'));
+        expect(csvFileText(exportedPaths[0]!.content)).toBe(readFileSync(join(out, 'plant-paths.csv'), 'utf8'));
       },
     ), { numRuns: 25, seed: 1702 });
   });
