@@ -10,6 +10,8 @@ import type { RoleMap } from '../table/index.ts';
 export type OptionSpec =
   | { type: 'boolean'; help: string }
   | { type: 'string'; value: string; help: string; required?: boolean; choices?: readonly string[] }
+  /** A string option that may be given several times (`--activity A.csv --activity B.csv`); its value is a list. */
+  | { type: 'strings'; value: string; help: string }
   /** A number option; `check` returns what is wrong with a value (a usage error) or null. */
   | { type: 'number'; value: string; help: string; check?: (v: number) => string | null };
 
@@ -17,6 +19,7 @@ export type OptionSpecs = Record<string, OptionSpec>;
 
 type ValueOf<S extends OptionSpec> = S extends { type: 'boolean' } ? boolean
   : S extends { type: 'number' } ? number | undefined
+  : S extends { type: 'strings' } ? string[]
   : S extends { required: true } ? string
   : string | undefined;
 

@@ -19,7 +19,7 @@ let s: Session;
 let page: Page;
 
 /** The scenario the app starts with on the sample (renderer/worker/compute.ts `starter`). */
-const STARTER: Scenario = { name: 'New food plant', lines: [{ sector: 'Food processing', amount: 1000, kind: 'final-demand', localShare: 1 }] };
+const STARTER: Scenario = { name: 'New food plant', phases: [{ name: 'Operating', timing: 'annual', lines: [{ sector: 'Food processing', amount: 1000, kind: 'final-demand', localShare: 1 }] }] };
 
 function sampleOutcome() {
   const study = studyFromTableFile(utf8Bytes(SAMPLE_CSV), SAMPLE_FILE_NAME, { name: 'Fernhollow County (invented sample)' }, { scenarios: [STARTER] });

@@ -13,9 +13,9 @@ const ON: StudyChoices = { closure: 'households', destination: null };
 const date = '2026-12-02T10:00:00.000Z';
 const SCENARIO: Scenario = {
   name: 'Plant and road',
-  lines: [
-    { sector: 'Food processing', amount: 120, kind: 'jobs', localShare: 1, note: 'a new plant' },
-    { sector: 'Construction', amount: 5000, kind: 'final-demand', localShare: 0.7 },
+  phases: [
+    { name: 'Building the road', timing: 'once', year: 2026, lines: [{ sector: 'Construction', amount: 5000, kind: 'final-demand', localShare: 0.7 }] },
+    { name: 'Operating the plant', timing: 'annual', year: 2027, years: 15, lines: [{ sector: 'Food processing', amount: 120, kind: 'jobs', localShare: 1, note: 'a new plant' }] },
   ],
 };
 
