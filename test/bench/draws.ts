@@ -12,6 +12,7 @@ import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { writeTableCsv } from '../../src/table/index.ts';
 import { prepareStudy, studyBands, studyOfTable, defaultUncertaintySettings, type Scenario } from '../../src/study/index.ts';
+import { linesOf, onePhase } from '../support/scenario.ts';
 import { inventedTable } from './table.ts';
 import { childEnv } from './numpy.ts';
 
@@ -46,7 +47,7 @@ print(json.dumps({"perDrawMs": ms / draws}))
 `;
 
 function scenarioOf(sectors: string[]): Scenario {
-  return { name: 'bench', lines: [{ sector: sectors[0]!, amount: 25_000, kind: 'final-demand', localShare: 1 }, { sector: sectors[10]!, amount: 5_000, kind: 'final-demand', localShare: 0.8 }] };
+  return onePhase('bench', [{ sector: sectors[0]!, amount: 25_000, kind: 'final-demand', localShare: 1 }, { sector: sectors[10]!, amount: 5_000, kind: 'final-demand', localShare: 0.8 }]);
 }
 
 export function benchDraws(n: number, draws: number, outDir: string, withNumpy: boolean, cliDraws: number): DrawsBench {
@@ -76,7 +77,7 @@ export function benchDraws(n: number, draws: number, outDir: string, withNumpy: 
     const csv = join(outDir, `draws-${n}.csv`);
     const shock = join(outDir, `draws-${n}-shock.csv`);
     writeFileSync(csv, writeTableCsv(table));
-    writeFileSync(shock, `sector,amount,kind,local_share\n${scenario.lines.map((l) => `${l.sector},${l.amount},${l.kind},${l.localShare}`).join('\n')}\n`);
+    writeFileSync(shock, `sector,amount,kind,local_share\n${linesOf(scenario).map((l) => `${l.sector},${l.amount},${l.kind},${l.localShare}`).join('\n')}\n`);
     const t0 = performance.now();
     const r = spawnSync(process.execPath, [join('src', 'cli', 'roundwise.mjs'), 'scenario', csv, '--shock', shock, '--draws', String(cliDraws), '--json'], { encoding: 'utf8', maxBuffer: 1 << 28 });
     if (r.status === 0) cli = { draws: cliDraws, wallMs: performance.now() - t0 };

@@ -7,6 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { shot, skipBrowser, startSession, type Session } from './harness.ts';
+import { onePhase } from '../support/scenario.ts';
 import {
   SAMPLE_CSV, SAMPLE_FILE_NAME, defaultUncertaintySettings, prepareStudy, studyBands, studyFromTableFile, studySensitivity, utf8Bytes, type Scenario,
 } from '../../src/study/index.ts';
@@ -68,7 +69,7 @@ describe.skipIf(skipBrowser)('How sure? in the browser', () => {
     await page.getByTestId('how-sure').waitFor({ timeout: 30_000 });
     await compute(200, 3, 0.1);
     const food = ps.study.table.sectors.find((x) => /food/i.test(x))!;
-    const scenario: Scenario = { name: 'New food plant', lines: [{ sector: food, amount: 1000, kind: 'final-demand', localShare: 1 }] };
+    const scenario: Scenario = onePhase('New food plant', [{ sector: food, amount: 1000, kind: 'final-demand', localShare: 1 }]);
     const ref = studyBands(ps, { settings: defaultUncertaintySettings({ draws: 200, seed: 3, cv: 0.1 }), multipliers: false, scenarios: [scenario] })!;
     const out = ref.scenarios[0]!.totals.output!;
     const row = page.getByTestId('band-totals').locator('tr[data-variable="output"] td');
@@ -78,7 +79,7 @@ describe.skipIf(skipBrowser)('How sure? in the browser', () => {
 
     await page.getByTestId('sens-compute').click();
     await page.getByTestId('sens-table').waitFor();
-    const sens = studySensitivity(ps, scenario, 0.1);
+    const sens = studySensitivity(ps, scenario, 0.1)[0]!; // the panel shows the first phase's
     const names = (await page.getByTestId('sens-table').locator('tbody th').allTextContents()).map((t) => t.trim());
     expect(names).toEqual(sens.items.map((i) => i.assumption));
     await page.getByTestId('sens-table').scrollIntoViewIfNeeded();

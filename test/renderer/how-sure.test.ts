@@ -5,11 +5,12 @@ import { describe, expect, it } from 'vitest';
 import { api } from '../../renderer/worker/compute.ts';
 import { bandsView } from '../../renderer/worker/uncertainty.ts';
 import { readWorkbook } from '../support/deliverables.ts';
+import { linesOf, onePhase } from '../support/scenario.ts';
 import { defaultUncertaintySettings, prepareStudy, SAMPLE_CSV, SAMPLE_FILE_NAME, studyBands, studyFromTableFile, utf8Bytes, type Scenario } from '../../src/study/index.ts';
 
 const choices = { closure: 'households' as const, destination: null };
 const settings = { draws: 45, seed: 21, cv: 0.15, localShareRange: 0.1 };
-const scenario: Scenario = { name: 'Visitors', lines: [{ sector: 'Accommodation and food service', amount: 2000, kind: 'final-demand', localShare: 0.7 }, { sector: '', amount: 0, kind: 'final-demand', localShare: 1 }] };
+const scenario: Scenario = onePhase('Visitors', [{ sector: 'Accommodation and food service', amount: 2000, kind: 'final-demand', localShare: 0.7 }, { sector: '', amount: 0, kind: 'final-demand', localShare: 1 }]);
 
 describe('How sure? worker operations', () => {
   api.loadSample({});
@@ -20,9 +21,9 @@ describe('How sure? worker operations', () => {
     expect(start.total).toBe(45);
     for (const [from, to] of [[0, 1], [1, 17], [17, 44], [44, 45]] as const) api.bandsStep({ id: start.id, from, to });
     const view = api.bandsFinish({ id: start.id });
-    const ref = studyBands(ps, { settings: defaultUncertaintySettings(settings), multipliers: false, scenarios: [{ ...scenario, lines: scenario.lines.slice(0, 1) }] })!;
+    const ref = studyBands(ps, { settings: defaultUncertaintySettings(settings), multipliers: false, scenarios: [onePhase(scenario.name, linesOf(scenario).slice(0, 1))] })!;
     expect(view).toEqual(bandsView(ref, 'scenario', ps.study.table.moneyUnit));
-    expect(view.totals!.find((t) => t.variable === 'output')!.band!.point).toBe(api.runScenario({ scenario, choices }).effects.output!.totals.total);
+    expect(view.totals!.find((t) => t.variable === 'output')!.band!.point).toBe(api.runScenario({ scenario, choices }).phases[0]!.effects.output!.totals.total);
   });
 
   it('refuse steps of a run that a newer one replaced', () => {
@@ -44,7 +45,7 @@ describe('How sure? worker operations', () => {
     api.sensitivity({ choices, scenario, step: 0.1 });
     const wb = readWorkbook((await api.workbook({ scenario, scenarios: [scenario], choices })).xlsx);
     expect(wb.names).toEqual(expect.arrayContaining(['Uncertainty bands', 'Sensitivity']));
-    const changed = { ...scenario, lines: [{ ...scenario.lines[0]!, amount: 3000 }] };
+    const changed = onePhase(scenario.name, [{ ...linesOf(scenario)[0]!, amount: 3000 }]);
     expect(readWorkbook((await api.workbook({ scenario: changed, scenarios: [changed], choices })).xlsx).names).not.toContain('Uncertainty bands');
     expect(readWorkbook((await api.workbook({ scenario, scenarios: [scenario], choices: { ...choices, closure: 'none' } })).xlsx).names).not.toContain('Uncertainty bands');
   });
