@@ -147,7 +147,7 @@ export function sensitivity(pm: PreparedModel, scenario: LineSet, opts: Sensitiv
   items.sort((a, b) => key(b) - key(a));
   notes.push(
     `One-at-a-time sensitivity: each assumption moved on its own to a low and a high setting (local shares ± ${step}, within 0–1), every other assumption as typed; sorted by the swing in total output. The swings do not add up and say nothing about assumptions moved together.`,
-    'Margin shares of purchaser-price lines are not varied: scenarios have no purchaser-price lines yet.',
+    'The margin shares of purchaser-price lines, and the margins\' local shares, are not varied.',
   );
   return { scenario: scenario.name, point, step, items, notes };
 }
