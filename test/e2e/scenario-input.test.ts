@@ -54,6 +54,9 @@ describe.skipIf(skipBrowser)('scenario input', () => {
     await page.locator('[data-line-amount="0"]').fill('1000');
     await page.locator('[data-line-amount="0"]').press('Tab');
     await poll(() => total().count()).toBe(1);
+    // The results of the 1,000 typed, not an earlier recompute's: nothing pending, and a total above zero.
+    await poll(() => page.getByTestId('scenario-results').getAttribute('aria-busy')).toBe('false');
+    await poll(async () => Number((await total().textContent())!.replace(/[^0-9.]/g, ''))).toBeGreaterThan(0);
   });
 
   it('holds results back while a sector is misspelt, and says which line', async () => {
