@@ -5,7 +5,7 @@
 import { markRaw, reactive, watch } from 'vue';
 import { getBridge } from '../bridge/index.ts';
 import { engine, CancelledError, EngineError } from '../worker/client.ts';
-import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, TableInfo, TableSource } from '../worker/protocol.ts';
+import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, StudyInputsView, TableInfo, TableSource } from '../worker/protocol.ts';
 import type { ScenarioDraft } from '../worker/protocol.ts';
 import { History } from './history.ts';
 import { lineReady } from '../../src/study/index.ts';
@@ -35,6 +35,12 @@ export const app = reactive({
   selected: 0,
   /** The phase of the selected scenario being edited and shown. */
   phase: 0,
+  /** Study inputs kept in the study's settings: discount rate (share a year, null none), commuting share, table money year. */
+  discountRate: null as number | null,
+  commutingShare: 0,
+  tableYear: null as number | null,
+  /** The study's input files in words (mixes, activities, margins, price index, commuting by sector). */
+  studyInputs: { mix: null, activity: null, margins: null, 'price-index': null, commuting: null } as StudyInputsView,
   /**
    * Results of each scenario: its view, its refusal (located), or `waiting` when no line has a sector yet. They are
    * `markRaw`: plain data from the worker, read-only on screen, so 2,000-sector vectors get no reactive proxies.
@@ -256,7 +262,10 @@ export function redo(): void {
 
 /** The screen's choices as the study's settings. */
 export function choices(): StudyChoices {
-  return { closure: app.closure ? 'households' : 'none', destination: app.pathDestination };
+  return {
+    closure: app.closure ? 'households' : 'none', destination: app.pathDestination,
+    discountRate: app.discountRate, commutingShare: app.commutingShare, tableYear: app.tableYear,
+  };
 }
 
 let recomputeSeq = 0;
@@ -284,7 +293,7 @@ export async function recomputeAll(): Promise<void> {
 }
 
 let pending: ReturnType<typeof setTimeout> | null = null;
-watch(() => [app.scenarios, app.closure], () => {
+watch(() => [app.scenarios, app.closure, app.discountRate, app.commutingShare, app.tableYear, app.studyInputs], () => {
   app.resultsStale = true;
   if (pending) clearTimeout(pending);
   pending = setTimeout(() => { void recomputeAll(); }, 120);
