@@ -34,6 +34,7 @@ export const COMMANDS: readonly CommandInfo[] = [
   entry('export-report', 'Export reports…', 'File'),
   entry('undo', 'Undo scenario edit', 'Edit'),
   entry('redo', 'Redo scenario edit', 'Edit'),
+  entry('guide', 'Guide', 'Help'),
   entry('about', 'About Roundwise', 'Help'),
 ];
 

@@ -35,7 +35,7 @@ export type ExportKind = 'csv' | 'txt' | 'png' | 'json';
 /** Commands the native menu (desktop) or the in-window menu (browser) sends to the UI. */
 export type MenuCommand =
   | 'open-table' | 'open-project' | 'save-project' | 'save-project-as'
-  | 'export-report' | 'undo' | 'redo' | 'about';
+  | 'export-report' | 'undo' | 'redo' | 'guide' | 'about';
 
 export interface RoundwiseBridge {
   readonly mode: 'desktop' | 'browser';
