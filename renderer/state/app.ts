@@ -87,6 +87,7 @@ function markDirty(d: boolean): void {
 export async function loadSample(): Promise<void> {
   try {
     const r = await engine().call('loadSample', {}, 'Opening the sample county…');
+    if (app.source?.text !== r.source.text) app.project = null; // another study, as in useTable
     app.table = markRaw(r.table);
     app.source = r.source;
     app.analysis = markRaw(r.analysis);
@@ -177,6 +178,9 @@ export async function acceptImport(): Promise<boolean> {
 export async function useTable(source: TableSource): Promise<boolean> {
   try {
     const r = await engine().call('loadTable', source, 'Importing the table…');
+    // Another file is another study: the opened project's name no longer applies (Save asks for one). New roles for
+    // the same file keep it.
+    if (app.source?.text !== source.text) app.project = null;
     app.table = markRaw(r.table);
     app.source = source;
     app.analysis = markRaw(r.analysis);
