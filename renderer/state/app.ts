@@ -9,7 +9,7 @@ import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, TableInfo, 
 import type { ScenarioDraft } from '../worker/protocol.ts';
 import { History } from './history.ts';
 
-export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional' | 'guide';
+export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional' | 'supply-use' | 'guide';
 
 export interface ImportDraft {
   source: TableSource;

@@ -3,19 +3,21 @@
  * δ, the estimate the engine returned, and the last refusal. The estimate is only a preview: the table in use changes
  * when the planner presses "Use this table", which loads the estimate's CSV like any imported file.
  */
-import { type LqMethod, DEFAULT_FLQ_DELTA, EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV, GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME } from '../../src/study/index.ts';
+import { type LqMethod, BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, EMPLOYMENT_BY_CODE_SAMPLE_CSV, EMPLOYMENT_BY_CODE_SAMPLE_FILE_NAME, DEFAULT_FLQ_DELTA, EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV, GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME } from '../../src/study/index.ts';
 import { reactive } from 'vue';
 import { engine, CancelledError } from '../worker/client.ts';
 import type { RegionalFile, RegionalView } from '../worker/regional.ts';
 import { app, messageOf, say, useTable } from './app.ts';
 import { exportReportFiles } from './exporting.ts';
 
-export type InputSlot = 'national' | 'employment' | 'rows' | 'columns' | 'groups';
+export type InputSlot = 'national' | 'employment' | 'rows' | 'columns' | 'groups' | 'bridge';
 
-export const BUNDLED: Record<'national' | 'employment' | 'groups', RegionalFile> = {
+export const BUNDLED: Record<'national' | 'employment' | 'groups' | 'bridge' | 'employmentByCode', RegionalFile> = {
   national: { text: NATIONAL_SAMPLE_CSV, fileName: NATIONAL_SAMPLE_FILE_NAME },
   employment: { text: EMPLOYMENT_SAMPLE_CSV, fileName: EMPLOYMENT_SAMPLE_FILE_NAME },
   groups: { text: GROUPS_SAMPLE_CSV, fileName: GROUPS_SAMPLE_FILE_NAME },
+  bridge: { text: BRIDGE_SAMPLE_CSV, fileName: BRIDGE_SAMPLE_FILE_NAME },
+  employmentByCode: { text: EMPLOYMENT_BY_CODE_SAMPLE_CSV, fileName: EMPLOYMENT_BY_CODE_SAMPLE_FILE_NAME },
 };
 
 export const regional = reactive({
@@ -31,6 +33,9 @@ export const regional = reactive({
   columns: null as RegionalFile | null,
   useGroups: false,
   groups: null as RegionalFile | null,
+  /** Employment by codes of another classification, read through a bridge `code,sector[,share]`. */
+  useBridge: false,
+  bridge: null as RegionalFile | null,
   view: null as RegionalView | null,
   /** Located one-line refusal of the inputs as they stand; the table in use is untouched. */
   error: null as string | null,
@@ -48,8 +53,14 @@ export function deltaValue(): { value: number } | { error: string } {
 
 export function setInput(slot: InputSlot, file: RegionalFile | null): void {
   if (slot === 'national') { regional.national = file ?? { ...BUNDLED.national }; regional.nationalBundled = file === null; }
-  else if (slot === 'employment') { regional.employment = file ?? { ...BUNDLED.employment }; regional.employmentBundled = file === null; }
+  else if (slot === 'employment') { regional.employment = file ?? { ...(regional.useBridge ? BUNDLED.employmentByCode : BUNDLED.employment) }; regional.employmentBundled = file === null; }
   else regional[slot] = file;
+}
+
+/** Employment by codes through a bridge, or by sector; the bundled employment follows (jobs by code, or by sector). */
+export function setUseBridge(on: boolean): void {
+  regional.useBridge = on;
+  if (regional.employmentBundled) regional.employment = { ...(on ? BUNDLED.employmentByCode : BUNDLED.employment) };
 }
 
 let seq = 0;
@@ -64,10 +75,11 @@ export async function estimate(): Promise<void> {
   }
   const balance = regional.useBalance && regional.rows && regional.columns ? { rows: regional.rows, columns: regional.columns } : null;
   const groups = regional.useGroups ? regional.groups ?? BUNDLED.groups : null;
+  const bridge = regional.useBridge ? regional.bridge ?? BUNDLED.bridge : null;
   regional.busy = true;
   try {
     const v = await engine().call('buildRegional', {
-      national: regional.national, employment: regional.employment, method: regional.method, delta: d.value, balance, groups,
+      national: regional.national, employment: regional.employment, method: regional.method, delta: d.value, balance, groups, bridge,
     }, 'Estimating the county table…');
     if (my !== seq) return;
     regional.view = v;

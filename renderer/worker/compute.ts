@@ -12,6 +12,7 @@ import {
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, TableInfo, TableSource } from './protocol.ts';
 import { analysisView, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
 import { regionalApi } from './regional.ts';
+import { supplyUseApi } from './supply-use.ts';
 
 export const SAMPLE_FILE = SAMPLE_FILE_NAME;
 
@@ -165,4 +166,5 @@ export const api = {
   recoveryBase,
   openProject,
   ...regionalApi,
+  ...supplyUseApi,
 };

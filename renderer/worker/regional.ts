@@ -22,6 +22,8 @@ export interface RegionalRequest {
   balance?: { rows: RegionalFile; columns: RegionalFile } | null;
   /** `sector,group`: merge the county table's sectors into groups. */
   groups?: RegionalFile | null;
+  /** `code,sector[,share]`: the employment file names codes of another classification. */
+  bridge?: RegionalFile | null;
 }
 
 export interface RegionalSectorRow {
@@ -83,6 +85,7 @@ export function buildRegional(req: RegionalRequest): RegionalView {
     delta: req.delta,
     ...(req.balance ? { balance: { rows: asFile(req.balance.rows), columns: asFile(req.balance.columns) } } : {}),
     ...(req.groups ? { groups: asFile(req.groups) } : {}),
+    ...(req.bridge ? { bridge: asFile(req.bridge) } : {}),
   });
   const res = est.regional;
   const { sectors } = res;

@@ -75,12 +75,14 @@ export interface CommandSpec<O extends OptionSpecs = OptionSpecs> {
   /** One line for the main help: what the command gives. */
   summary: string;
   positional: { name: string; help: string };
+  /** A second positional file, required when given (e.g. the use table after the supply table). */
+  second?: { name: string; help: string };
   options: O;
   /** What `--out DIR` writes (one line). */
   outHelp: string;
   /** Paragraphs of --help below the option list (methods, sources, file formats). */
   notes?: string[];
-  run(args: { input: string; values: Values<O> }, ctx: RunContext): CommandResult | Promise<CommandResult>;
+  run(args: { input: string; second?: string; values: Values<O> }, ctx: RunContext): CommandResult | Promise<CommandResult>;
 }
 
 /** Declare a command; `const` keeps literal option types so `values` is typed from the spec. */

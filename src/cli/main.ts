@@ -16,8 +16,9 @@ import { scenario } from './commands/scenario.ts';
 import { regionalize } from './commands/regionalize.ts';
 import { balance } from './commands/balance.ts';
 import { aggregate } from './commands/aggregate.ts';
+import { sut } from './commands/sut.ts';
 
-export const COMMANDS: readonly CommandSpec[] = [analyze, scenario, regionalize, balance, aggregate] as unknown as CommandSpec[];
+export const COMMANDS: readonly CommandSpec[] = [analyze, scenario, regionalize, balance, aggregate, sut] as unknown as CommandSpec[];
 
 export function usage(): string {
   return mainHelp(COMMANDS);

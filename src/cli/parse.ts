@@ -20,16 +20,21 @@ function optionText(name: string, o: OptionSpec): string {
   return `--${name} ${o.type === 'string' && o.choices ? o.choices.join('|') : o.value}`;
 }
 
+function positionalNames(spec: CommandSpec): string {
+  return spec.second ? `${spec.positional.name} ${spec.second.name}` : spec.positional.name;
+}
+
 /** "roundwise analyze TABLE.csv [--map MAP.json] … [--json] [--out DIR]": every option, required ones unbracketed. */
 export function usageLine(spec: CommandSpec): string {
   const opts = allOptions(spec).map(([name, o]) => (o.type === 'string' && o.required ? optionText(name, o) : `[${optionText(name, o)}]`));
-  return `roundwise ${spec.name} ${spec.positional.name} ${opts.join(' ')}`;
+  return `roundwise ${spec.name} ${positionalNames(spec)} ${opts.join(' ')}`;
 }
 
 /** `roundwise <command> --help`: usage, summary, then one line per option. */
 export function commandHelp(spec: CommandSpec): string {
   const rows: [string, string][] = [
     [spec.positional.name, spec.positional.help],
+    ...(spec.second ? [[spec.second.name, spec.second.help] as [string, string]] : []),
     ...allOptions(spec).map(([name, o]): [string, string] => [optionText(name, o), (o.type === 'string' && o.required ? '(required) ' : '') + o.help]),
     ['-h, --help', 'show this help'],
   ];
@@ -105,7 +110,7 @@ function joinDashValues(argv: readonly string[], all: [string, OptionSpec][]): s
 }
 
 /** Parse `argv` (after the command name) against `spec`; usage mistakes throw usageError. */
-export function parseCommandArgs<O extends OptionSpecs>(spec: CommandSpec<O>, argv: readonly string[]): { input: string; values: Values<O> } {
+export function parseCommandArgs<O extends OptionSpecs>(spec: CommandSpec<O>, argv: readonly string[]): { input: string; second?: string; values: Values<O> } {
   const all = allOptions(spec as CommandSpec);
   let parsed;
   try {
@@ -122,7 +127,10 @@ export function parseCommandArgs<O extends OptionSpecs>(spec: CommandSpec<O>, ar
   const raw = parsed.values as Record<string, string | boolean | undefined>;
   const fail = (message: string) => usageError(spec as CommandSpec, message);
   if (positionals.length === 0) throw fail(`no ${spec.positional.name} given`);
-  if (positionals.length > 1) throw fail(`one ${spec.positional.name} expected, got ${positionals.length}: ${positionals.map((p) => `'${p}'`).join(', ')}`);
+  if (spec.second) {
+    if (positionals.length === 1) throw fail(`no ${spec.second.name} given after ${spec.positional.name}`);
+    if (positionals.length > 2) throw fail(`two files expected (${positionalNames(spec as CommandSpec)}), got ${positionals.length}: ${positionals.map((p) => `'${p}'`).join(', ')}`);
+  } else if (positionals.length > 1) throw fail(`one ${spec.positional.name} expected, got ${positionals.length}: ${positionals.map((p) => `'${p}'`).join(', ')}`);
   const values: Record<string, unknown> = {};
   for (const [name, o] of all) {
     const v = raw[name];
@@ -148,5 +156,5 @@ export function parseCommandArgs<O extends OptionSpecs>(spec: CommandSpec<O>, ar
       values[name] = n;
     }
   }
-  return { input: positionals[0]!, values: values as Values<O> };
+  return { input: positionals[0]!, ...(spec.second ? { second: positionals[1]! } : {}), values: values as Values<O> };
 }

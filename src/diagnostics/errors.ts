@@ -130,6 +130,7 @@ export const ERROR_CODES = [
   'sut-singular',
   'sut-assumption',
   'sut-remedy-infeasible',
+  'sut-negative-jobs',
   // Classification bridges (src/classification)
   'bridge-columns',
   'bridge-code-empty',

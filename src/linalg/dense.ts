@@ -9,7 +9,11 @@ export function identity(n: number): Float64Array {
 
 /** I − A for a square n×n matrix. */
 export function identityMinus(a: Float64Array, n: number): Float64Array {
-  const out = new Float64Array(n * n);
+  return identityMinusInto(a, n, new Float64Array(n * n));
+}
+
+/** out ← I − A (n×n; `out` may be a factorisation's storage, see luFactorFrom). Returns `out`. */
+export function identityMinusInto(a: Float64Array, n: number, out: Float64Array): Float64Array {
   for (let k = 0; k < n * n; k++) out[k] = -a[k]!;
   for (let i = 0; i < n; i++) out[i * n + i] = out[i * n + i]! + 1;
   return out;

@@ -29,6 +29,7 @@ export function kernelMode(): KernelMode { return mode; }
 /** The Wasm kernel whose memory holds the current workspace (see workspace.ts), or null. */
 let active: WasmKernel | null = null;
 export function activateWasm(k: WasmKernel | null): void { active = k; }
+export function activeWasm(): WasmKernel | null { return active; }
 
 /**
  * C[m×n] −= A[m×k]·B[k×n], where X[i][j] lives at x[xOff + i·ldx + j]. The three regions must not overlap

@@ -13,7 +13,7 @@
  * transposed solve (I − A)ᵀ mᵀ = cᵀ. `luInverse` is for when the user asks to see or export the whole matrix.
  */
 import { gemmSubtract } from './gemm.ts';
-import { withWorkspace } from './workspace.ts';
+import { factorStorage, withKernel, withWorkspace } from './workspace.ts';
 
 export interface LU {
   n: number;
@@ -44,20 +44,39 @@ function half(w: number): number {
 
 /** Factor an n×n matrix (the input is not modified). */
 export function luFactor(a: Float64Array, n: number): LU {
+  return luFactorFrom(n, (w) => w.set(a.subarray(0, n * n)));
+}
+
+/**
+ * Factor the n×n matrix that `fill` writes into the (zero-filled) array it is given, row-major — so a caller forms its
+ * matrix (I − A, say) straight where it is factored, with no n×n copy of its own. Large factors are computed in storage
+ * that they keep (workspace.ts `factorStorage`); small ones in a workspace, copied out.
+ */
+export function luFactorFrom(n: number, fill: (w: Float64Array) => void): LU {
   const piv = new Int32Array(n);
   for (let i = 0; i < n; i++) piv[i] = i;
   let swaps = 0;
-  const lu = withWorkspace([n * n], ([w]) => {
-    w!.set(a.subarray(0, n * n));
-    swaps = factorColumns(w!, n, 0, n, piv);
-    return w!.slice();
-  });
+  let maxAbs = 0;
+  const factor = (w: Float64Array): void => {
+    fill(w);
+    for (let k = 0; k < n * n; k++) { const v = Math.abs(w[k]!); if (v > maxAbs) maxAbs = v; }
+    swaps = factorColumns(w, n, 0, n, piv);
+  };
+  const own = factorStorage(n * n);
+  let lu: Float64Array;
+  if (own !== null) {
+    lu = own.view;
+    withKernel(own.kernel, () => factor(lu));
+  } else {
+    lu = withWorkspace([n * n], ([w]) => {
+      factor(w!);
+      return w!.slice();
+    });
+  }
   // Singular: a pivot that is zero, or so small that A is within rounding of a singular matrix. Blocking computes U's
   // rows and the trailing rows by differently ordered sums, so an exactly singular input (two equal rows, say) may
   // leave a pivot of rounding size rather than an exact zero; |u_jj| ≤ n·ε·max|a_ij| catches that (setting u_jj to
   // zero moves A by at most |u_jj| per entry, since |l_ij| ≤ 1 under partial pivoting).
-  let maxAbs = 0;
-  for (let k = 0; k < n * n; k++) { const v = Math.abs(a[k]!); if (v > maxAbs) maxAbs = v; }
   const tiny = n * Number.EPSILON * maxAbs;
   let singular = false;
   for (let i = 0; i < n; i++) if (!(Math.abs(lu[i * n + i]!) > tiny)) singular = true;

@@ -3,8 +3,17 @@
  * linear memory (the kernel can only read and write there), otherwise ordinary Float64Arrays. Buffers live only for
  * the duration of one call: results are copied out, so no caller ever holds a view that a later memory growth could
  * detach. While helper threads are attached (parallel.ts) every workspace lives in their shared memory.
+ *
+ * A factorisation's own storage (`factorStorage`) is the exception: the factors are computed where they stay, so a
+ * large matrix is written once and never copied in or out of the kernel's memory (on a machine where every fresh page
+ * costs a fault, a 2,000-sector copy costs more than the arithmetic around it; test/bench). Such storage is a Wasm
+ * memory of its own that nothing ever grows, freed with the factorisation. While helper threads are attached, only
+ * the first large factorisation is kept in their shared memory (at its start; later workspaces are placed after it, and
+ * a shared memory's growth never detaches existing views): that memory never shrinks, so factors kept there one per
+ * Monte Carlo draw, say, would never be freed; later factorisations are copied out. Only the CLI attaches helpers,
+ * for one table per process, whose factorisation is that first one.
  */
-import { activateWasm, kernelMode } from './gemm.ts';
+import { activateWasm, activeWasm, kernelMode } from './gemm.ts';
 import { instantiateGemm, type WasmKernel } from './wasm-gemm.ts';
 import { sharedKernel } from './parallel.ts';
 
@@ -18,23 +27,78 @@ const ALIGN_BYTES = 64;
 let cached: WasmKernel | null = null;
 let busy = false;
 
+/** Factorisations from this many elements get storage of their own (below it, copying in and out costs next to nothing). */
+export const OWN_STORAGE_MIN_ELEMENTS = 256 * 256;
+
+/** The helpers' shared memory whose start holds a kept factorisation, and that factorisation's size in bytes. */
+let pinned: { kernel: WasmKernel; end: number } | null = null;
+
+function pinnedEnd(shared: WasmKernel): number {
+  return pinned !== null && pinned.kernel === shared ? pinned.end : 0;
+}
+
+const aligned = (bytes: number): number => Math.ceil(bytes / ALIGN_BYTES) * ALIGN_BYTES;
+
+export interface FactorStorage {
+  /** Where the factors are computed and kept (zero-filled). */
+  view: Float64Array;
+  /** The kernel whose memory holds `view` (activate it while factoring), or null for a plain array. */
+  kernel: WasmKernel | null;
+}
+
+/**
+ * Storage for a factorisation of `elements` entries that outlives the call, or null when the factors should be
+ * computed in an ordinary workspace and copied out (small matrices, the JavaScript kernel, a factorisation already kept
+ * in the helpers' shared memory, or no memory to spare).
+ */
+export function factorStorage(elements: number): FactorStorage | null {
+  if (busy || kernelMode() === 'js' || elements < OWN_STORAGE_MIN_ELEMENTS) return null;
+  const bytes = aligned(8 * elements);
+  const shared = sharedKernel();
+  if (shared !== null) {
+    if (pinnedEnd(shared) > 0 || grown(shared, bytes) === null) return null;
+    pinned = { kernel: shared, end: bytes };
+    const view = new Float64Array(shared.memory.buffer, 0, elements);
+    view.fill(0);
+    return { view, kernel: shared };
+  }
+  const kernel = instantiateGemm(bytes);
+  if (kernel === null) return null;
+  return { view: new Float64Array(kernel.memory.buffer, 0, elements), kernel };
+}
+
+/** Run `work` with `kernel` as the active Wasm kernel (the previous one restored after). */
+export function withKernel<T>(kernel: WasmKernel | null, work: () => T): T {
+  const before = activeWasm();
+  const wasBusy = busy;
+  busy = true;
+  activateWasm(kernel);
+  try {
+    return work();
+  } finally {
+    activateWasm(before);
+    busy = wasBusy;
+  }
+}
+
 /** Run `work` with zero-filled buffers of the given lengths (elements). Re-entrant calls get plain arrays. */
 export function withWorkspace<T>(lengths: readonly number[], work: (bufs: Float64Array[]) => T): T {
   let elements = 0;
   for (const l of lengths) elements += l;
   if (busy || kernelMode() === 'js' || elements < MIN_WASM_ELEMENTS) return work(lengths.map((l) => new Float64Array(l)));
   let bytes = 0;
-  for (const l of lengths) bytes += Math.ceil((8 * l) / ALIGN_BYTES) * ALIGN_BYTES;
+  for (const l of lengths) bytes += aligned(8 * l);
   const shared = sharedKernel();
-  const kernel = shared !== null ? grown(shared, bytes) : bytes <= REUSE_LIMIT_BYTES ? cachedKernel(bytes) : instantiateGemm(bytes);
+  const base = shared !== null ? pinnedEnd(shared) : 0;
+  const kernel = shared !== null ? grown(shared, base + bytes) : bytes <= REUSE_LIMIT_BYTES ? cachedKernel(bytes) : instantiateGemm(bytes);
   if (kernel === null) return work(lengths.map((l) => new Float64Array(l)));
   const bufs: Float64Array[] = [];
-  let at = 0;
+  let at = base;
   for (const l of lengths) {
     const view = new Float64Array(kernel.memory.buffer, at, l);
     view.fill(0);
     bufs.push(view);
-    at += Math.ceil((8 * l) / ALIGN_BYTES) * ALIGN_BYTES;
+    at += aligned(8 * l);
   }
   busy = true;
   activateWasm(kernel);

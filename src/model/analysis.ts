@@ -18,6 +18,7 @@ import {
 } from './plausibility.ts';
 import type { PerronOptions } from './perron.ts';
 import type { HawkinsSimon } from './hawkins.ts';
+import { borderedOf, type Bordered } from './closure.ts';
 import { spectrum as fullSpectrum, SPECTRUM_MAX_SECTORS, type Mode } from './spectrum.ts';
 import { seriesVerdict, type SeriesVerdict } from './rounds.ts';
 import { computeLinkages, computeMultipliers, type Availability, type Linkages, type Multipliers } from './multipliers.ts';
@@ -171,6 +172,46 @@ function openSolveResidual(a: Float64Array, n: number, x: Float64Array, b: Float
   return denom > 0 ? resid / denom : Number.POSITIVE_INFINITY;
 }
 
+/** ‖I − Ā‖₁ from the parts of Ā (closure.ts), accumulated in the order `identityMinusNorm1` uses on the formed matrix. */
+function borderedIdentityMinusNorm1(b: Bordered): number {
+  const { A, n, hc, hr, corner } = b;
+  const col = new Float64Array(n + 1);
+  for (let i = 0; i < n; i++) {
+    const row = i * n;
+    for (let j = 0; j < n; j++) col[j] = col[j]! + Math.abs((i === j ? 1 : 0) - A[row + j]!);
+    col[n] = col[n]! + Math.abs(0 - hc[i]!);
+  }
+  for (let j = 0; j < n; j++) col[j] = col[j]! + Math.abs(0 - hr[j]!);
+  col[n] = col[n]! + Math.abs(1 - corner);
+  let best = 0;
+  for (let j = 0; j <= n; j++) if (col[j]! > best) best = col[j]!;
+  return best;
+}
+
+/** `openSolveResidual` for the closed system, from the parts of Ā (each row summed in the formed matrix's order). */
+function borderedSolveResidual(b: Bordered, x: Float64Array, rhs: Float64Array, norm: number): number {
+  const { A, n, hc, hr, corner } = b;
+  const m = n + 1;
+  let resid = 0, xnorm = 0;
+  const xn = x[n]!;
+  for (let i = 0; i < n; i++) {
+    let s = rhs[i]! - x[i]!;
+    const row = i * n;
+    for (let j = 0; j < n; j++) s += A[row + j]! * x[j]!;
+    s += hc[i]! * xn;
+    resid += Math.abs(s);
+    xnorm += Math.abs(x[i]!);
+  }
+  let s = rhs[n]! - xn;
+  for (let j = 0; j < n; j++) s += hr[j]! * x[j]!;
+  s += corner * xn;
+  resid += Math.abs(s);
+  xnorm += Math.abs(xn);
+  if (resid === 0) return 0;
+  const denom = norm * xnorm * m * UNIT_ROUNDOFF;
+  return denom > 0 ? resid / denom : Number.POSITIVE_INFINITY;
+}
+
 function fmt(x: number): string {
   return x.toPrecision(6);
 }
@@ -246,10 +287,10 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
       residual = Number.isFinite(r) ? r : null;
     }
     if (opts.inverse && productive) ({ L: leontief, residual: inverseResidual } = formLeontief(pm));
-    if (closed && closedProductive) {
-      const m = closed.m;
-      const ones = new Float64Array(m).fill(1);
-      const r = openSolveResidual(closed.Abar, m, solveClosed(pm, ones), ones, identityMinusNorm1(closed.Abar, m));
+    const parts = closed ? borderedOf(coef.A, coef.n, closed) : null;
+    if (parts && closedProductive) {
+      const ones = new Float64Array(n + 1).fill(1);
+      const r = borderedSolveResidual(parts, solveClosed(pm, ones), ones, borderedIdentityMinusNorm1(parts));
       closedResidual = Number.isFinite(r) ? r : null;
     }
     for (const [what, r] of [['solve', residual], ['inverse', inverseResidual], ['household-closed solve', closedResidual]] as const) {

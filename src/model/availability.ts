@@ -5,7 +5,8 @@
  * (analysis.ts) makes it once per table and words it; the uncertainty draws (src/uncertainty) make it again for every
  * perturbed table through this same function, so a draw uses a model exactly when the analysis of that table would.
  */
-import { perronRoot, type PerronOptions, type PerronResult } from './perron.ts';
+import { perronRoot, perronRootBordered, type PerronOptions, type PerronResult } from './perron.ts';
+import { borderedAbs, borderedOf } from './closure.ts';
 import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
 import { sectorBlocks, type SectorBlock } from './graph.ts';
 import { closedBorder, type PreparedModel } from './prepared.ts';
@@ -75,8 +76,10 @@ export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): Mod
   let perronRootClosed: number | null = null;
   let perronRootClosedBounds: [number, number] | null = null;
   if (closed) {
-    const abar = negativeFlows ? Float64Array.from(closed.Abar, Math.abs) : closed.Abar;
-    const pc = perronRoot(abar, closed.m, { ...opts.perron, rightOnly: true });
+    // On Ā as A plus its border, never formed (closure.ts); bit for bit the iteration on the formed matrix.
+    const parts = borderedOf(A, n, closed);
+    const { blocks: _openBlocks, rightOnly: _right, ...perronOpts } = opts.perron ?? {};
+    const pc = perronRootBordered(negativeFlows ? borderedAbs(parts, absA) : parts, perronOpts);
     perronRootClosed = pc.root;
     perronRootClosedBounds = [pc.lower, pc.upper];
   }

@@ -30,7 +30,8 @@
  */
 import type { ClosedBorder, PreparedModel } from './prepared.ts';
 import { closedBorder } from './prepared.ts';
-import { perronRoot, type PerronOptions } from './perron.ts';
+import { perronRootBordered, type PerronOptions } from './perron.ts';
+import { borderedAbs, borderedOf, householdCorner } from './closure.ts';
 
 const UNIT_ROUNDOFF = 2 ** -53;
 const SAFETY = 4;
@@ -72,7 +73,7 @@ function short(x: number): string {
 export function schurRoundingBound(b: ClosedBorder): number {
   const { lu, piv, n } = b.openLU;
   const { u, w, closed } = b;
-  const corner = Math.abs(closed.Abar[n * closed.m + n] ?? 0);
+  const corner = Math.abs(householdCorner(closed));
   let terms = 1 + corner;
   for (let i = 0; i < n; i++) terms += Math.abs(closed.hr[i]! * u[i]!);
   // t = |U|·|û|, then |L|·t (unit diagonal), then the dot with Pᵀ-permuted |w|: row i of P·B is row piv[i] of B.
@@ -151,8 +152,9 @@ export function closedModelDecision(pm: PreparedModel, perron: PerronOptions = {
   for (let k = 0; k < pm.coef.A.length; k++) if (pm.coef.A[k]! < 0) { negativeFlows = true; break; }
   let closedBounds: [number, number] | null = null;
   if (pm.closed) {
-    const abar = negativeFlows ? Float64Array.from(pm.closed.Abar, Math.abs) : pm.closed.Abar;
-    const pc = perronRoot(abar, pm.closed.m, { ...perron, rightOnly: true });
+    const parts = borderedOf(pm.coef.A, pm.coef.n, pm.closed);
+    const { blocks: _openBlocks, rightOnly: _right, ...opts } = perron;
+    const pc = perronRootBordered(negativeFlows ? borderedAbs(parts, Float64Array.from(pm.coef.A, Math.abs)) : parts, opts);
     closedBounds = [pc.lower, pc.upper];
   }
   const decision = decideClosedModel({ hasClosure: pm.closed !== null, openProductive: !pm.openLU.singular, border, closedBounds, negativeFlows });

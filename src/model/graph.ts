@@ -179,3 +179,58 @@ export function sectorBlocks(a: Float64Array, n: number): SectorBlock[] {
     return { sectors, cyclic: period !== null, period };
   });
 }
+
+/**
+ * The closed matrix Ā = [A hc; hrᵀ corner] (closure.ts) without forming it: its period when its graph is strongly
+ * connected (null when it has no cycle), or undefined when it is not (the caller then forms Ā and takes its blocks).
+ * Levels come from the same breadth-first search as on the formed matrix (arcs in column order, the border last).
+ */
+export function borderedPeriod(b: { A: Float64Array; n: number; hc: Float64Array; hr: Float64Array; corner: number }): number | null | undefined {
+  const { A, n, hc, hr, corner } = b;
+  const m = n + 1;
+  const level = new Int32Array(m).fill(-1);
+  const queue = new Int32Array(m);
+  level[0] = 0;
+  let head = 0, tail = 1;
+  while (head < tail) {
+    const u = queue[head++]!;
+    const next = level[u]! + 1;
+    if (u < n) {
+      const row = u * n;
+      for (let v = 0; v < n; v++) if (level[v] === -1 && A[row + v] !== 0) { level[v] = next; queue[tail++] = v; }
+      if (level[n] === -1 && hc[u] !== 0) { level[n] = next; queue[tail++] = n; }
+    } else {
+      for (let v = 0; v < n; v++) if (level[v] === -1 && hr[v] !== 0) { level[v] = next; queue[tail++] = v; }
+    }
+  }
+  if (tail < m) return undefined;
+  // Backward: every vertex reaches vertex 0.
+  const seen = new Uint8Array(m);
+  seen[0] = 1;
+  queue[0] = 0;
+  head = 0; tail = 1;
+  while (head < tail) {
+    const v = queue[head++]!;
+    if (v < n) {
+      for (let u = 0; u < n; u++) if (!seen[u] && A[u * n + v] !== 0) { seen[u] = 1; queue[tail++] = u; }
+      if (!seen[n] && hr[v] !== 0) { seen[n] = 1; queue[tail++] = n; }
+    } else {
+      for (let u = 0; u < n; u++) if (!seen[u] && hc[u] !== 0) { seen[u] = 1; queue[tail++] = u; }
+    }
+  }
+  if (tail < m) return undefined;
+  // Period: gcd over all arcs u → v of level(u) + 1 − level(v), stopping at 1.
+  let d = 0;
+  const arc = (u: number, v: number): boolean => {
+    d = gcd(d, level[u]! + 1 - level[v]!);
+    return d === 1;
+  };
+  for (let u = 0; u < n; u++) {
+    const row = u * n;
+    for (let v = 0; v < n; v++) if (A[row + v] !== 0 && arc(u, v)) return 1;
+    if (hc[u] !== 0 && arc(u, n)) return 1;
+  }
+  for (let v = 0; v < n; v++) if (hr[v] !== 0 && arc(n, v)) return 1;
+  if (corner !== 0 && arc(n, n)) return 1;
+  return d === 0 ? null : d;
+}

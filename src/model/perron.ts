@@ -12,7 +12,8 @@
  * largest over the diagonal blocks of its Frobenius normal form, Horn & Johnson §8.3); a periodic block is iterated with
  * the shift B + I, which is primitive with the same Perron vector, so the iteration converges instead of cycling.
  */
-import { sectorBlocks, type SectorBlock } from './graph.ts';
+import { borderedPeriod, sectorBlocks, type SectorBlock } from './graph.ts';
+import { borderedMatrix, type Bordered } from './closure.ts';
 
 const UNIT_ROUNDOFF = 2 ** -53;
 
@@ -129,13 +130,60 @@ function defaultCap(m: number, work = 4e8): number {
   return Math.max(50, Math.min(2000, Math.floor(work / (m * m))));
 }
 
+/** What the power iteration needs of its matrix: its order, the products, and the largest row sum of |b|. */
+interface Operator {
+  m: number;
+  products(v: Float64Array, w: Float64Array, av: Float64Array, wa: Float64Array, rightOnly: boolean): void;
+  maxRowSum(): number;
+}
+
+function dense(b: Float64Array, m: number): Operator {
+  return { m, products: (v, w, av, wa, rightOnly) => products(b, m, v, w, av, wa, rightOnly), maxRowSum: () => maxRowSum(b, m) };
+}
+
+/**
+ * Ā = [A hc; hrᵀ corner] without forming it, right products only. Each row's sum runs over the same entries in the
+ * same order as a row of the formed matrix (A's part, then the border), so the iteration is bit for bit the one on Ā.
+ */
+function bordered(b: Bordered): Operator {
+  const { A, n, hc, hr, corner } = b;
+  return {
+    m: n + 1,
+    products: (v, _w, av, _wa, rightOnly) => {
+      if (!rightOnly) throw new Error('bordered Perron iteration: right vector only');
+      rightProduct(A, n, v, av);
+      const vn = v[n]!;
+      let s = 0;
+      for (let i = 0; i < n; i++) {
+        av[i] = av[i]! + hc[i]! * vn;
+        s += hr[i]! * v[i]!;
+      }
+      av[n] = s + corner * vn;
+    },
+    maxRowSum: () => {
+      let best = 0;
+      for (let i = 0; i < n; i++) {
+        let s = 0;
+        for (let j = 0; j < n; j++) s += Math.abs(A[i * n + j]!);
+        s += Math.abs(hc[i]!);
+        if (s > best) best = s;
+      }
+      let s = 0;
+      for (let j = 0; j < n; j++) s += Math.abs(hr[j]!);
+      s += Math.abs(corner);
+      return Math.max(best, s);
+    },
+  };
+}
+
 /**
  * Power iteration on the m×m non-negative matrix b, right and left vectors together in one pass over b per step.
  * `shift` is added to the diagonal of the iteration matrix only (the bounds are always computed for b itself).
  * `vectorsOnly`: stop when the vectors settle (max change ≤ tol·max entry) instead of when the bounds meet — for the
  * whole of a reducible matrix, whose Perron vector may have zeros so its upper bound need not converge.
  */
-function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter: number, rightOnly = false, vectorsOnly = false): Iterated {
+function iterate(op: Operator, shift: number, tol: number, maxIter: number, rightOnly = false, vectorsOnly = false): Iterated {
+  const m = op.m;
   let v = new Float64Array(m).fill(1);
   let w = new Float64Array(m).fill(1);
   const g = safety(m);
@@ -146,7 +194,7 @@ function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter
   const av = new Float64Array(m);
   const wa = new Float64Array(m);
   for (; it < maxIter; it++) {
-    products(b, m, v, w, av, wa, rightOnly);
+    op.products(v, w, av, wa, rightOnly);
     let loR = Number.POSITIVE_INFINITY, hiR = 0, loL = Number.POSITIVE_INFINITY, hiL = 0;
     let allPositive = true;
     for (let i = 0; i < m; i++) {
@@ -203,7 +251,7 @@ function iterate(b: Float64Array, m: number, shift: number, tol: number, maxIter
     }
     if (vectorsOnly && change <= tol) { it++; break; }
   }
-  if (upper === Number.POSITIVE_INFINITY) upper = Math.max(lower, maxRowSum(b, m) * (1 + g));
+  if (upper === Number.POSITIVE_INFINITY) upper = Math.max(lower, op.maxRowSum() * (1 + g));
   normalise(v);
   if (rightOnly) w = new Float64Array(m);
   else normalise(w);
@@ -250,7 +298,7 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
       if (blocks.length === 1) single = { lower: d, upper: d, right: Float64Array.of(1), left: Float64Array.of(1), iterations: 0, converged: true };
       continue;
     }
-    const r = iterate(m === n ? a : subMatrix(a, n, blk.sectors), m, blk.period === 1 ? 0 : 1, tol, Math.min(opts.maxIterations ?? defaultCap(m), PERRON_MAX_STEPS), opts.rightOnly ?? false);
+    const r = iterate(dense(m === n ? a : subMatrix(a, n, blk.sectors), m), blk.period === 1 ? 0 : 1, tol, Math.min(opts.maxIterations ?? defaultCap(m), PERRON_MAX_STEPS), opts.rightOnly ?? false);
     iterations += r.iterations;
     converged &&= r.converged;
     if (r.lower > lower) lower = r.lower;
@@ -265,7 +313,7 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
   } else {
     // Reducible: whole-matrix vectors from the shifted iteration A + I (non-negative eigenvectors for ρ, not unique;
     // with a smaller work cap, since the bounds already come from the blocks).
-    const whole = iterate(a, n, 1, tol, Math.min(opts.maxIterations ?? defaultCap(n, 1e8), PERRON_MAX_STEPS), opts.rightOnly ?? false, true);
+    const whole = iterate(dense(a, n), 1, tol, Math.min(opts.maxIterations ?? defaultCap(n, 1e8), PERRON_MAX_STEPS), opts.rightOnly ?? false, true);
     iterations += whole.iterations;
     right = whole.right;
     left = whole.left;
@@ -274,4 +322,23 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
   }
   if (upper < lower) upper = lower;
   return { root: (lower + upper) / 2, lower, upper, right, left, iterations, converged, blockBounds, blocks };
+}
+
+/**
+ * ρ(Ā) of the household-closed matrix Ā = [A hc; hrᵀ corner] (non-negative), certified as `perronRoot` does, right
+ * vector only. When the closed sector graph is strongly connected (households buy from and sell to the sectors, the
+ * usual case) the iteration runs on the parts and Ā is never formed; otherwise Ā is formed and analysed block by block.
+ */
+export function perronRootBordered(b: Bordered, opts: Omit<PerronOptions, 'blocks' | 'rightOnly'> = {}): PerronResult {
+  const m = b.n + 1;
+  const period = borderedPeriod(b);
+  if (period === undefined) return perronRoot(borderedMatrix(b.A, b.n, b.hc, b.hr, b.corner), m, { ...opts, rightOnly: true });
+  const tol = opts.tolerance ?? 1e-12;
+  const blocks: SectorBlock[] = [{ sectors: Array.from({ length: m }, (_, i) => i), cyclic: period !== null, period }];
+  if (period === null) {
+    return { root: 0, lower: 0, upper: 0, right: new Float64Array(m), left: new Float64Array(m), iterations: 0, converged: true, blockBounds: [[0, 0]], blocks };
+  }
+  const r = iterate(bordered(b), period === 1 ? 0 : 1, tol, Math.min(opts.maxIterations ?? defaultCap(m), PERRON_MAX_STEPS), true);
+  const upper = r.upper < r.lower ? r.lower : r.upper;
+  return { root: (r.lower + upper) / 2, lower: r.lower, upper, right: r.right, left: r.left, iterations: r.iterations, converged: r.converged, blockBounds: [[r.lower, r.upper]], blocks };
 }

@@ -16,8 +16,8 @@
  */
 import type { IOTable } from '../table/index.ts';
 import { coefficients, type Coefficients } from './coefficients.ts';
-import { closeHouseholds, type ClosedCoefficients } from './closure.ts';
-import { identityMinus, luFactor, luSolve, luSolveTransposed, type LU } from '../linalg/index.ts';
+import { closeHouseholds, householdCorner, type ClosedCoefficients } from './closure.ts';
+import { identityMinusInto, luFactorFrom, luSolve, luSolveTransposed, type LU } from '../linalg/index.ts';
 
 /** The bordering of I − Ā on the open factorisation (see the file comment). */
 export interface ClosedBorder {
@@ -56,7 +56,8 @@ function dot(p: Float64Array, q: Float64Array, n: number): number {
 export function prepareModel(table: IOTable, coef: Coefficients = coefficients(table)): PreparedModel {
   const closed = closeHouseholds(coef);
   const n = coef.n;
-  const openLU = luFactor(identityMinus(coef.A, n), n);
+  // I − A is formed where it is factored (no n×n copy of its own).
+  const openLU = luFactorFrom(n, (w) => identityMinusInto(coef.A, n, w));
   return { table, coef, closed, openLU, border: closed ? makeBorder(closed, openLU) : null };
 }
 
@@ -65,7 +66,7 @@ function makeBorder(closed: ClosedCoefficients, openLU: LU): ClosedBorder | null
   const n = openLU.n;
   const u = luSolve(openLU, closed.hc);
   const w = luSolveTransposed(openLU, closed.hr);
-  const corner = closed.Abar[n * closed.m + n] ?? 0;
+  const corner = householdCorner(closed);
   return { closed, openLU, u, w, s: 1 - corner - dot(closed.hr, u, n) };
 }
 

@@ -16,6 +16,7 @@ import { sha256Hex, type ImportSettings } from '../project/index.ts';
 import { importTable, writeTableCsv, type IOTable } from '../table/index.ts';
 import { prepareStudy, type PreparedStudy } from './prepare.ts';
 import { studyOfTable } from './study.ts';
+import { employmentByBridge, readBridge } from './bridges.ts';
 
 /** One input file as read: its bytes (hashed as they are) and its name. */
 export interface EstimateFile {
@@ -33,6 +34,8 @@ export interface EstimateRequest {
   delta: number;
   /** Known county intermediate sales (rows) and purchases (columns), `sector,total`: balance the estimate by RAS. */
   balance?: { rows: EstimateFile; columns: EstimateFile } | null;
+  /** `code,sector[,share]`: the employment file names codes of another classification (src/classification). */
+  bridge?: EstimateFile | null;
   /** `sector,group`: merge the county table's sectors into groups. */
   groups?: EstimateFile | null;
 }
@@ -68,6 +71,8 @@ export interface EstimateInputs {
   method: LqMethod;
   balance: { sales: Float64Array; purchases: Float64Array; fileName: string } | null;
   groups: GroupMapping | null;
+  /** The bridge the employment file was read through, if any (its codes are already sectors here). */
+  bridgeFile: string | null;
 }
 
 interface Steps {
@@ -81,14 +86,16 @@ interface Steps {
 export function readEstimateInputs(req: EstimateRequest): EstimateInputs {
   if (!(LQ_METHODS as readonly string[]).includes(req.method)) throw new InputError('usage', `the method must be SLQ, CILQ or FLQ (got '${String(req.method)}')`);
   const national = importTable(text(req.national), { fileName: req.national.fileName, ...req.nationalImport });
-  const employment = parseEmploymentCsv(text(req.employment), req.employment.fileName);
+  const byCode = parseEmploymentCsv(text(req.employment), req.employment.fileName);
+  // With a bridge the employment file names codes of another classification: jobs by code → jobs by sector.
+  const employment = req.bridge ? employmentByBridge(byCode, readBridge(req.bridge, national.sectors), national.sectors) : byCode;
   const balance = req.balance ? {
     sales: parseTotals(text(req.balance.rows), req.balance.rows.fileName, national.sectors, 'sector'),
     purchases: parseTotals(text(req.balance.columns), req.balance.columns.fileName, national.sectors, 'sector'),
     fileName: req.balance.rows.fileName,
   } : null;
   const groups = req.groups ? parseGroupMapping(text(req.groups), req.groups.fileName) : null;
-  return { national, employment, method: req.method, balance, groups };
+  return { national, employment, method: req.method, balance, groups, bridgeFile: req.bridge?.fileName ?? null };
 }
 
 /** Regionalize (compared with the source when `compare`), then the optional RAS and grouping. */
@@ -97,6 +104,7 @@ function stepsAt(inputs: EstimateInputs, delta: number, compare: boolean): Steps
   const regional = compare ? regionalize(inputs.national, inputs.employment, opts) : regionalizeTable(inputs.national, inputs.employment, opts);
   let table = regional.table;
   const notes = [...regional.notes];
+  if (inputs.bridgeFile) notes.unshift(`County employment by code of another classification, mapped to the table's sectors through the bridge ${inputs.bridgeFile} (a code's jobs split by its shares).`);
   let balance: TableBalanceResult | null = null;
   if (inputs.balance) {
     balance = balanceTable(table, inputs.balance);

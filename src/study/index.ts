@@ -45,6 +45,21 @@ export { reportFiles, type ReportMeta, type Cell } from '../report/index.ts';
 export { visibleText } from '../diagnostics/index.ts';
 export { PROJECT_FORMAT } from '../project/index.ts';
 
+// Supply and use tables → a symmetric table (the `sut` command and the "Start from supply and use tables" screen).
+export {
+  symmetricFromSupplyUse, studyFromSupplyUse, supplyUseTotals, assumptionOf, SYMMETRIC_TABLE_FILE,
+  type SupplyUseRequest, type SymmetricFromSupplyUse,
+} from './supply-use.ts';
+export {
+  ASSUMPTIONS, ASSUMPTION_BY, ASSUMPTION_NAMES, DEFAULT_ASSUMPTION, TABLE_BY, NEGATIVES_REMEDIES, SUT_DEFAULT_TOLERANCE, parseSutRoleMap,
+  SUPPLY_SAMPLE_CSV, USE_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_FILE_NAME, SUT_SAMPLE_NOTE,
+  type Assumption, type TableBy, type NegativesRemedy, type SutRoleMap, type NegativesReport, type ProductBalance,
+} from '../sut/index.ts';
+
+// Classification bridges: employment, shock and spending-mix files that name codes instead of sectors.
+export { readBridge, employmentByBridge, scenarioByBridge, spendingMixByBridge, type Bridge } from './bridges.ts';
+export { BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, EMPLOYMENT_BY_CODE_SAMPLE_CSV, EMPLOYMENT_BY_CODE_SAMPLE_FILE_NAME } from '../classification/index.ts';
+
 // How sure the numbers are (Monte Carlo bands, one-at-a-time sensitivity).
 export { drawSetupOf, studyBands, studySensitivity, bandReports, sensitivityReports, type BandsRequest } from './uncertainty.ts';
 export {

@@ -10,3 +10,4 @@ export { parseSutRoleMap, suggestSupplyRole, namesTotal } from './roles.ts';
 export { transform, ASSUMPTION_NAMES, SUT_CONDITION_LIMIT, type SymmetricFlows } from './transform.ts';
 export { findNegatives, negativesNote, zeroAndBalance, type NegativesReport, type NegativeCell } from './negatives.ts';
 export { deriveSymmetric, type DerivedTable, type DeriveOptions } from './symmetric.ts';
+export { SUPPLY_SAMPLE_CSV, USE_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_FILE_NAME, SUT_SAMPLE_NOTE } from './sample.ts';

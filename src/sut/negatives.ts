@@ -70,7 +70,7 @@ export function negativesNote(r: NegativesReport, unit: string): string | null {
   if (r.flows === 0 && r.others === 0) return null;
   const where = r.largest.slice(0, 5).map((c) => `${showNumber(c.value)} from '${c.row}' to '${c.column}'${c.part === 'flows' ? '' : ` (${c.part})`}`).join('; ');
   const parts = [
-    r.flows ? `${r.flows} negative intermediate flow${r.flows > 1 ? 's' : ''} (together ${showNumber(r.flowSum)} ${unit}, ${(r.flowShare * 100).toFixed(2)} % of the positive flows)` : '',
+    r.flows ? `${r.flows} negative intermediate flow${r.flows > 1 ? 's' : ''} (together ${showNumber(r.flowSum)} ${unit}, ${Number((r.flowShare * 100).toPrecision(2))} % of the positive flows)` : '',
     r.others ? `${r.others} negative cell${r.others > 1 ? 's' : ''} in final demand or value added that the transformation made` : '',
   ].filter(Boolean);
   return `The transformation gave ${parts.join(' and ')}; the largest: ${where}.`;

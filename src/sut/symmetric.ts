@@ -2,7 +2,7 @@
  * A supply and use pair → a symmetric IOTable by one named transformation (transform.ts), with the negatives it gave
  * (negatives.ts) and notes that say what was assumed and where every part of the table came from.
  */
-import type { Warning } from '../diagnostics/index.ts';
+import { InputError, type Warning } from '../diagnostics/index.ts';
 import { showNumber, type IOTable, type LabelledVector, type RoleMap } from '../table/index.ts';
 import { findNegatives, negativesNote, zeroAndBalance, type NegativesReport } from './negatives.ts';
 import { ASSUMPTION_NAMES, transform, type SymmetricFlows } from './transform.ts';
@@ -90,6 +90,27 @@ function tableOf(s: SupplyUse, f: SymmetricFlows, name: string): { table: IOTabl
   return { table, warnings };
 }
 
+/**
+ * Jobs per unit of product under the product technology (w·(Vᵀ)⁻¹·q̂) can come out negative, like its flows; a table
+ * cannot hold negative jobs (the importer and validateTable refuse them), and zeroing jobs would change the totals the
+ * transformation keeps, so the pair is refused for this assumption, naming the product and the alternatives.
+ */
+function refuseNegativeJobs(s: SupplyUse, f: SymmetricFlows): void {
+  for (const r of f.rows) {
+    if (r.role !== 'employment') continue;
+    let worst = -1;
+    r.values.forEach((v, j) => { if (v < 0 && (worst < 0 || v < r.values[worst]!)) worst = j; });
+    if (worst < 0) continue;
+    const count = r.values.filter((v) => v < 0).length;
+    throw new InputError(
+      'sut-negative-jobs',
+      `the ${f.assumption === 'product' ? 'product technology' : 'fixed industry sales structure'} gives negative jobs for ${count === 1 ? `'${f.sectors[worst]}'` : `${count} sectors, the most for '${f.sectors[worst]}'`} (${showNumber(r.values[worst]!)}): ` +
+        'the secondary products of the industries that make it would employ more than those industries do; use the industry technology (product by product) or the fixed product sales structure (industry by industry), which never give negatives',
+      { file: s.useFile, rowLabel: r.label, columnLabel: f.sectors[worst]! },
+    );
+  }
+}
+
 export function deriveSymmetric(s: SupplyUse, opts: DeriveOptions): DerivedTable {
   const { assumption } = opts;
   const by = ASSUMPTION_BY[assumption];
@@ -108,6 +129,7 @@ export function deriveSymmetric(s: SupplyUse, opts: DeriveOptions): DerivedTable
     flows = r.flows;
     remedyIterations = r.iterations;
   }
+  refuseNegativeJobs(s, flows);
   const method = ASSUMPTION_NAMES[assumption];
   const { table, warnings } = tableOf(s, flows, `${s.name} (${by} by ${by}, ${assumption === 'product-sales' ? 'fixed product sales structure' : assumption === 'industry-sales' ? 'fixed industry sales structure' : `${assumption} technology`})`);
   const unit = s.moneyUnit;

@@ -3,16 +3,18 @@
  *
  * Files with a quote character are parsed by papaparse (quoted fields, doubled quotes, line breaks inside quotes).
  * Files without one — nearly every large numeric export — take a measured fast path: without quotes an RFC 4180
- * record is exactly one line and a field exactly the text between delimiters, so the grid keeps only the field
- * offsets into the original string and numbers are read from it in place (see numbers.ts `scanPlain`).
+ * record is exactly one line and a field exactly the text between delimiters, so the grid keeps only where each line
+ * starts and ends, finds a record's fields when it is first asked for them, and reads a record's numbers in one pass
+ * over its characters (numbers.ts `scanPlainFields`, the same numbers `scanPlain` reads field by field).
  * A papaparse pass over a 36 MB, 2000-sector table plus Number() on each cell took 0.6–1.4 s on the development
- * machine; the offset scan and in-place numbers take a fraction of that (test/bench measures it).
+ * machine; keeping every field's offsets cost 16 MB at 2,000 sectors and a second pass over the text; the one-pass
+ * read takes a fraction of either (test/bench measures it).
  * Both grids are checked against each other by test/src/table/grid.test.ts.
  */
 import Papa from 'papaparse';
 import { InputError } from '../diagnostics/index.ts';
 import type { Delimiter } from './text.ts';
-import { scanPlain } from './numbers.ts';
+import { scanPlain, scanPlainFields } from './numbers.ts';
 
 export interface Grid {
   /** Number of records, blank lines included. */
@@ -22,65 +24,116 @@ export interface Grid {
   cell(r: number, c: number): string;
   /** The field as a plain number (see scanPlain), NaN when it needs the general path. */
   plain(r: number, c: number, decimalCode: number): number;
+  /** out[c] = plain(r, c, decimalCode) for every c < out.length (NaN beyond the record's width). */
+  plainRow(r: number, decimalCode: number, out: Float64Array): void;
   /** True when every field of the record is empty or spaces. */
   blank(r: number): boolean;
   /** 1-based line in the file where record r starts. */
   line(r: number): number;
 }
 
-/** Quote-free text: offsets only. */
+/** Rows whose field offsets are kept at a time (readers go through a record's fields, then on to the next). */
+const CACHED_ROWS = 4;
+
+/** Is the character white space as String.prototype.trim sees it (ECMAScript WhiteSpace and LineTerminator)? */
+function isTrimSpace(c: number): boolean {
+  return c === 32 || (c >= 9 && c <= 13) || c === 0xa0 || c === 0x1680 || (c >= 0x2000 && c <= 0x200a) || c === 0x2028 || c === 0x2029 || c === 0x202f || c === 0x205f || c === 0x3000 || c === 0xfeff;
+}
+
+/** Quote-free text: line offsets, and field offsets of the few records being read. */
 class OffsetGrid implements Grid {
   private readonly text: string;
-  /** Per record, field boundaries: field c is text[b[c], b[c+1]-1) (the −1 skips the delimiter; the last one is adjusted). */
-  private readonly bounds: Int32Array[];
+  private readonly delimiter: Delimiter;
+  private readonly delimiterCode: number;
+  /** Record r is text[starts[r], stops[r]) (a CR before the LF excluded). */
+  private readonly starts: Int32Array;
+  private readonly stops: Int32Array;
+  private readonly widths: Int32Array;
+  /** Field boundaries of recently read records: field c is text[b[c], b[c+1]-1). */
+  private readonly cachedRow = new Int32Array(CACHED_ROWS).fill(-1);
+  private readonly cachedBounds: Int32Array[] = [];
+  private nextSlot = 0;
   constructor(text: string, delimiter: Delimiter) {
     this.text = text;
-    const lineEnd = text.indexOf('\n') >= 0 ? 10 : 13; // lone CR line ends only when the file has no LF at all
-    const bounds: Int32Array[] = [];
+    this.delimiter = delimiter;
+    this.delimiterCode = delimiter.charCodeAt(0);
+    const lf = text.indexOf('\n') >= 0; // lone CR line ends only when the file has no LF at all
+    const end = lf ? '\n' : '\r';
+    let count = 0;
+    for (let p = text.indexOf(end); p >= 0; p = text.indexOf(end, p + 1)) count++;
     const len = text.length;
+    const rows = count + (len > 0 && text.charCodeAt(len - 1) !== end.charCodeAt(0) ? 1 : 0);
+    this.starts = new Int32Array(rows);
+    this.stops = new Int32Array(rows);
     let start = 0;
-    const scratch: number[] = [];
-    let next = text.indexOf(delimiter);
-    while (start < len) {
-      let end = text.indexOf(lineEnd === 10 ? '\n' : '\r', start);
-      if (end < 0) end = len;
-      let stop = end;
-      if (lineEnd === 10 && stop > start && text.charCodeAt(stop - 1) === 13) stop--;
-      scratch.length = 0;
-      scratch.push(start);
-      // indexOf is the engine's native search, several times faster than a charCodeAt loop on long lines.
-      // `next` is kept across lines so that every character is searched once, also in a file with few delimiters.
-      if (next >= 0 && next < start) next = text.indexOf(delimiter, start);
-      while (next >= 0 && next < stop) {
-        scratch.push(next + 1);
-        next = text.indexOf(delimiter, next + 1);
-      }
-      scratch.push(stop + 1);
-      bounds.push(Int32Array.from(scratch));
-      start = end + 1;
+    for (let r = 0; r < rows; r++) {
+      let e = text.indexOf(end, start);
+      if (e < 0) e = len;
+      let stop = e;
+      if (lf && stop > start && text.charCodeAt(stop - 1) === 13) stop--;
+      this.starts[r] = start;
+      this.stops[r] = stop;
+      start = e + 1;
     }
-    this.bounds = bounds;
+    this.widths = new Int32Array(rows).fill(-1);
   }
   get rowCount(): number {
-    return this.bounds.length;
+    return this.starts.length;
   }
   width(r: number): number {
-    return this.bounds[r]!.length - 1;
+    let w = this.widths[r]!;
+    if (w < 0) {
+      const stop = this.stops[r]!;
+      w = 1;
+      for (let p = this.text.indexOf(this.delimiter, this.starts[r]!); p >= 0 && p < stop; p = this.text.indexOf(this.delimiter, p + 1)) w++;
+      this.widths[r] = w;
+    }
+    return w;
+  }
+  private bounds(r: number): Int32Array {
+    for (let k = 0; k < CACHED_ROWS; k++) if (this.cachedRow[k] === r) return this.cachedBounds[k]!;
+    const w = this.width(r);
+    const slot = this.nextSlot;
+    this.nextSlot = (slot + 1) % CACHED_ROWS;
+    let b = this.cachedBounds[slot];
+    if (!b || b.length < w + 1) b = this.cachedBounds[slot] = new Int32Array(Math.max(w + 1, 2 * (b?.length ?? 0)));
+    const stop = this.stops[r]!;
+    b[0] = this.starts[r]!;
+    let c = 1;
+    for (let p = this.text.indexOf(this.delimiter, b[0]); p >= 0 && p < stop; p = this.text.indexOf(this.delimiter, p + 1)) b[c++] = p + 1;
+    b[c] = stop + 1;
+    this.cachedRow[slot] = r;
+    return b;
   }
   cell(r: number, c: number): string {
-    const b = this.bounds[r]!;
-    if (c + 1 >= b.length) return '';
+    if (c >= this.width(r)) return '';
+    if (c === 0) {
+      const start = this.starts[r]!, stop = this.stops[r]!;
+      const d = this.text.indexOf(this.delimiter, start);
+      return this.text.slice(start, d >= 0 && d < stop ? d : stop);
+    }
+    const b = this.bounds(r);
     return this.text.slice(b[c]!, b[c + 1]! - 1);
   }
   plain(r: number, c: number, decimalCode: number): number {
-    const b = this.bounds[r]!;
-    if (c + 1 >= b.length) return NaN;
+    if (c >= this.width(r)) return NaN;
+    const b = this.bounds(r);
     return scanPlain(this.text, b[c]!, b[c + 1]! - 1, decimalCode);
   }
+  plainRow(r: number, decimalCode: number, out: Float64Array): void {
+    if (decimalCode === this.delimiterCode) {
+      for (let c = 0; c < out.length; c++) out[c] = this.plain(r, c, decimalCode);
+      return;
+    }
+    scanPlainFields(this.text, this.starts[r]!, this.stops[r]!, this.delimiterCode, decimalCode, out, Math.min(out.length, this.width(r)));
+    out.fill(NaN, Math.min(out.length, this.width(r)));
+  }
   blank(r: number): boolean {
-    const b = this.bounds[r]!;
-    const w = b.length - 1;
-    for (let c = 0; c < w; c++) if (this.text.slice(b[c]!, b[c + 1]! - 1).trim() !== '') return false;
+    const stop = this.stops[r]!;
+    for (let p = this.starts[r]!; p < stop; p++) {
+      const ch = this.text.charCodeAt(p);
+      if (ch !== this.delimiterCode && !isTrimSpace(ch)) return false;
+    }
     return true;
   }
   line(r: number): number {
@@ -109,6 +162,9 @@ class PapaGrid implements Grid {
   plain(r: number, c: number, decimalCode: number): number {
     const s = this.rows[r]![c];
     return s === undefined ? NaN : scanPlain(s, 0, s.length, decimalCode);
+  }
+  plainRow(r: number, decimalCode: number, out: Float64Array): void {
+    for (let c = 0; c < out.length; c++) out[c] = this.plain(r, c, decimalCode);
   }
   blank(r: number): boolean {
     return this.rows[r]!.every((s) => s.trim() === '');

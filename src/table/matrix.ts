@@ -144,22 +144,30 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
   const at = (r: number, c: number, rowLabel: string, columnLabel: string): Location => ({ file: fileName, line: grid.line(r), column: c + 1, rowLabel, columnLabel });
   const sectors = cl.sectors;
   const Z = new Float64Array(n * n);
+  // Each record's numbers in one pass (grid.plainRow); a cell that is not a plain number goes through readCell.
+  const values = new Float64Array(W);
   for (let i = 0; i < n; i++) {
     const r = sectorRow[i]!;
+    grid.plainRow(r, dc, values);
     const base = i * n;
     for (let j = 0; j < n; j++) {
       const c = sectorCol[j]!;
-      let v = grid.plain(r, c, dc);
+      let v = values[c]!;
       if (v !== v) v = readCell(grid, r, c, dc, mark, true, () => at(r, c, sectors[i]!, sectors[j]!));
       if (v < 0 && !allowNegative) throw negativeFlow(v, at(r, c, sectors[i]!, sectors[j]!));
       Z[base + j] = v;
     }
-    for (const { c, col } of extraCols) col.values[i] = readCell(grid, r, c, dc, mark, false, () => at(r, c, sectors[i]!, col.label));
+    for (const { c, col } of extraCols) {
+      const v = values[c]!;
+      col.values[i] = v === v ? v : readCell(grid, r, c, dc, mark, false, () => at(r, c, sectors[i]!, col.label));
+    }
   }
   for (const { r, row } of extraRows) {
+    grid.plainRow(r, dc, values);
     for (let j = 0; j < n; j++) {
       const c = sectorCol[j]!;
-      row.values[j] = readCell(grid, r, c, dc, mark, false, () => at(r, c, row.label, sectors[j]!));
+      const v = values[c]!;
+      row.values[j] = v === v ? v : readCell(grid, r, c, dc, mark, false, () => at(r, c, row.label, sectors[j]!));
     }
   }
   // Labour income paid by final-demand columns (government wages): household income too (finish.ts).

@@ -14,15 +14,50 @@ export type DecimalMark = '.' | ',';
 
 const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
 
+/** Where the last `scanNumber` stopped reading (the index of the first character it did not take). */
+let scanStop = 0;
+
 /** Plain number in s[start, end), or NaN when the cell is not a plain number (or needs the slow path). */
 export function scanPlain(s: string, start: number, end: number, decimalCode: number): number {
+  const v = scanNumber(s, start, end, decimalCode);
+  return scanStop === end ? v : NaN;
+}
+
+/**
+ * Read fields start.. of one record whose text ends at `stop` (its delimiters are `delimiterCode`) as plain numbers,
+ * into out[0..count), in one pass over the characters: the same numbers `scanPlain` reads from each field, NaN where a
+ * field is not a plain number (the caller reads those through the general path). Fields the record lacks are NaN.
+ * The decimal mark must differ from the delimiter (the dialect never pairs them).
+ */
+export function scanPlainFields(s: string, start: number, stop: number, delimiterCode: number, decimalCode: number, out: Float64Array, count: number): void {
   let p = start;
+  let c = 0;
+  for (; c < count && p <= stop; c++) {
+    const v = scanNumber(s, p, stop, decimalCode);
+    const at = scanStop;
+    if (at === stop || s.charCodeAt(at) === delimiterCode) {
+      out[c] = v;
+      p = at + 1;
+    } else {
+      // Not a plain number: the field runs to the next delimiter.
+      out[c] = NaN;
+      const next = s.indexOf(String.fromCharCode(delimiterCode), at);
+      p = next < 0 || next > stop ? stop + 1 : next + 1;
+    }
+  }
+  for (; c < count; c++) out[c] = NaN;
+}
+
+/** The number at s[start..) read as far as it is a plain number (at most `end`); `scanStop` says where it stopped. */
+function scanNumber(s: string, start: number, end: number, decimalCode: number): number {
+  let p = start;
+  scanStop = p;
   if (p >= end) return NaN;
   let neg = false;
   let c = s.charCodeAt(p);
   if (c === 45 /* - */ || c === 43 /* + */) {
     neg = c === 45;
-    if (++p >= end) return NaN;
+    if (++p >= end) { scanStop = p; return NaN; }
   }
   let m = 0;
   let sig = 0; // significant digits accumulated into m
@@ -34,7 +69,7 @@ export function scanPlain(s: string, start: number, end: number, decimalCode: nu
     if (c < 48 || c > 57) break;
     anyDigit = true;
     if (m !== 0 || c !== 48) {
-      if (sig >= 15) return NaN;
+      if (sig >= 15) { scanStop = p; return NaN; }
       m = m * 10 + (c - 48);
       sig++;
     }
@@ -47,7 +82,7 @@ export function scanPlain(s: string, start: number, end: number, decimalCode: nu
       if (c < 48 || c > 57) break;
       anyDigit = true;
       if (m !== 0 || c !== 48) {
-        if (sig >= 15) return NaN;
+        if (sig >= 15) { scanStop = p; return NaN; }
         m = m * 10 + (c - 48);
         sig++;
       }
@@ -55,10 +90,10 @@ export function scanPlain(s: string, start: number, end: number, decimalCode: nu
       p++;
     }
   }
-  if (!anyDigit) return NaN;
+  if (!anyDigit) { scanStop = p; return NaN; }
   if (p < end && (c === 101 || c === 69) /* e E */) {
     p++;
-    if (p >= end) return NaN;
+    if (p >= end) { scanStop = p; return NaN; }
     let eneg = false;
     c = s.charCodeAt(p);
     if (c === 45 || c === 43) {
@@ -71,13 +106,13 @@ export function scanPlain(s: string, start: number, end: number, decimalCode: nu
       c = s.charCodeAt(p);
       if (c < 48 || c > 57) break;
       e = e * 10 + (c - 48);
-      if (++eDigits > 4) return NaN;
+      if (++eDigits > 4) { scanStop = p; return NaN; }
       p++;
     }
-    if (eDigits === 0) return NaN;
+    if (eDigits === 0) { scanStop = p; return NaN; }
     scale += eneg ? -e : e;
   }
-  if (p !== end) return NaN;
+  scanStop = p;
   let v: number;
   if (m === 0) v = 0;
   else if (scale === 0) v = m;

@@ -1,8 +1,9 @@
 /**
  * `npm run bench`: dense kernels, and the whole job when its parts exist, on seeded invented matrices of
  * n = 50, 200, 500, 1000, 2000, side by side with ml-matrix and (when python3 has numpy) numpy/OpenBLAS.
- * Prints a table and writes JSON to bench-results/. Options: --sizes 50,200  --quick (fewer repeats)  --no-app (skip the
- * long-task run of the app in Chromium).
+ * Prints a table and writes JSON to bench-results/. Options: --sizes 50,200  --quick (fewer repeats)  --pairs K (runs of
+ * each whole job, default 5)  --no-app (skip the app in Chromium)  --large N (the large-table run, default 5000; 0 skips)
+ * --whole (the whole-process jobs only: no kernel rows, no in-process job rows).
  * Speed is measured here only, never in unit tests.
  */
 import { mkdirSync, writeFileSync, readFileSync } from 'node:fs';
@@ -16,7 +17,7 @@ import { leontiefMatrix } from './matrices.ts';
 import { time, runsFor, type Timing } from './timing.ts';
 import { numpyAvailable, numpyInverse, type NumpyTiming } from './numpy.ts';
 import { benchJob, jobCsv, type JobRow } from './job.ts';
-import { cliJob, type CliJob } from './cli-job.ts';
+import { analyzeJob, scenarioJob, pythonExecutable, EQUAL_TOLERANCE, type PairedJob } from './cli-job.ts';
 import { appLongTasks, type LongTasks } from './longtasks.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../src/cli/parallel.ts';
 
@@ -24,6 +25,13 @@ const args = process.argv.slice(2);
 const sizesArg = args[args.indexOf('--sizes') + 1];
 const SIZES = args.includes('--sizes') && sizesArg ? sizesArg.split(',').map(Number) : [50, 200, 500, 1000, 2000];
 const QUICK = args.includes('--quick');
+const option = (name: string, fallback: number): number => (args.includes(name) ? Number(args[args.indexOf(name) + 1]) : fallback);
+/** Pairs (ours, numpy) of each whole job. */
+const PAIRS = option('--pairs', QUICK ? 1 : 5);
+/** Sectors of the large-table run (0: skipped). */
+const LARGE = option('--large', 5000);
+/** Only the whole-process jobs (the kernels and the in-process job are skipped). */
+const WHOLE = args.includes('--whole');
 /** ml-matrix's inverse is skipped above n = 1000 when the n = 1000 time predicts more than this (O(n³) scaling). */
 const ML_INVERSE_BUDGET_MS = 40_000;
 /** Helper threads for the threaded runs: one per extra core. */
@@ -55,7 +63,7 @@ const started = new Date();
 const rows: Row[] = [];
 let mlInverse1000: number | null = null;
 
-for (const n of SIZES) {
+for (const n of WHOLE ? [] : SIZES) {
   const m = leontiefMatrix(n);
   const runs = QUICK ? Math.max(1, Math.ceil(runsFor(n) / 3)) : runsFor(n);
   process.stderr.write(`n=${n}: ours…`);
@@ -101,14 +109,41 @@ for (const n of SIZES) {
   rows.push({ n, luOurs, luOursJs, luThreads, invThreads, luReference, luMl, invOurs, invMl, invMlSkipped, invNumpy, residual, peakMB: mem?.peakMB ?? null, baselineMB: mem?.baselineMB ?? null });
 }
 
+/** The bench's shock: a final-demand line, a fixed output and a jobs line (invented amounts), paths to sector 10 (or the last). */
+function shockFile(n: number): { file: string; destination: string } {
+  const file = join(outDir, 'shock.csv');
+  writeFileSync(file, 'sector,amount,kind,local_share,note\nInvented sector 1,25000,final-demand,0.8,new plant sales (invented)\n'
+    + 'Invented sector 2,10000,output,,contract (invented)\nInvented sector 3,50,jobs,,new jobs (invented)\n');
+  return { file, destination: `Invented sector ${Math.min(10, n)}` };
+}
+
 const jobs: JobRow[] = [];
-const clis: CliJob[] = [];
+const clis: PairedJob[] = [];
+const scenarios: PairedJob[] = [];
 for (const n of SIZES) {
   process.stderr.write(`job n=${n}…`);
   const csv = jobCsv(n);
-  jobs.push(benchJob(n, QUICK ? Math.max(1, Math.ceil(runsFor(n) / 3)) : runsFor(n), csv));
-  process.stderr.write(' CLI…');
-  clis.push(cliJob(n, csv, outDir, QUICK ? 1 : 3, numpyVersion !== null));
+  if (!WHOLE) jobs.push(benchJob(n, QUICK ? Math.max(1, Math.ceil(runsFor(n) / 3)) : runsFor(n), csv));
+  const file = join(outDir, `invented-${n}.csv`);
+  writeFileSync(file, csv);
+  process.stderr.write(' CLI analyze…');
+  clis.push(analyzeJob(n, file, PAIRS, numpyVersion !== null));
+  if (n >= 5) {
+    process.stderr.write(' CLI scenario…');
+    const shock = shockFile(n);
+    scenarios.push(scenarioJob(n, file, shock.file, shock.destination, PAIRS, numpyVersion !== null));
+  }
+  process.stderr.write(' done\n');
+}
+
+// The large table: one pair (numpy too, when present), time and peak memory of the whole process.
+let large: PairedJob | null = null;
+if (LARGE > 0) {
+  process.stderr.write(`large n=${LARGE}: writing the table…`);
+  const file = join(outDir, `invented-${LARGE}.csv`);
+  writeFileSync(file, jobCsv(LARGE));
+  process.stderr.write(' CLI analyze…');
+  large = analyzeJob(LARGE, file, 1, numpyVersion !== null);
   process.stderr.write(' done\n');
 }
 
@@ -141,29 +176,34 @@ const loadAfter = loadavg();
 const machine = { cpu: cpuModel(), cores: cpus().length, memoryGB: +(totalmem() / 2 ** 30).toFixed(1), node: process.version, numpy: numpyVersion };
 console.log(`Roundwise bench — ${started.toISOString()} — ${machine.cpu}, ${machine.cores} cores, Node ${machine.node}${numpyVersion ? `, numpy ${numpyVersion}` : ', numpy not available'}`);
 console.log(`load average before ${loadBefore.map((x) => x.toFixed(2)).join(' ')}, after ${loadAfter.map((x) => x.toFixed(2)).join(' ')} (medians of repeated runs; times in ms unless marked s)`);
-printTable(header, table);
-console.log(`LU = factorisation with partial pivoting; inverse = factorisation + explicit inverse (ours: Wasm SIMD kernel, 1 thread unless marked; ${T} thr = with ${HELPERS} helper thread(s)); ours/numpy and ml-matrix/ours use our faster column; residual = ‖M·X − I‖₁/(‖M‖₁‖X‖₁nε) of our inverse (LAPACK threshold 30); peak RSS = factorisation + inverse in a fresh Node process (1 thread).`);
+if (rows.length) printTable(header, table);
+if (rows.length) console.log(`LU = factorisation with partial pivoting; inverse = factorisation + explicit inverse (ours: Wasm SIMD kernel, 1 thread unless marked; ${T} thr = with ${HELPERS} helper thread(s)); ours/numpy and ml-matrix/ours use our faster column; residual = ‖M·X − I‖₁/(‖M‖₁‖X‖₁nε) of our inverse (LAPACK threshold 30); peak RSS = factorisation + inverse in a fresh Node process (1 thread).`);
 for (const r of rows) if (r.invMlSkipped) console.log(`ml-matrix inverse at n=${r.n} ${r.invMlSkipped}.`);
 if (!numpyVersion) console.log('numpy columns empty: `python3 -c "import numpy"` failed on this machine.');
 
 const jobHeader = ['n', 'CSV', 'import', 'prepare (coefficients + LU + bordering)', 'full analysis', 'one scenario'];
 const jobTable = jobs.map((j) => [String(j.n), `${j.csvMB.toFixed(1)} MB`, fmt(j.importMs.medianMs), fmt(j.prepareMs.medianMs), fmt(j.analysisMs.medianMs), fmt(j.scenarioMs.medianMs)]);
-printTable(jobHeader, jobTable);
-console.log('Whole job on invented tables written by writeTableCsv, in process, 1 thread: import = importTable on the CSV text; full analysis = analyzeTable (defaults: spectrum only up to 400 sectors, no explicit inverse); one scenario = runScenario after preparation (a final-demand line in one sector).');
-const cliHeader = ['n', 'roundwise analyze --json', 'numpy script', 'ours/numpy', 'peak RSS ours', 'peak RSS numpy', 'max rel. diff'];
-const cliTable = clis.map((c) => [String(c.n), fmt(c.ours?.medianMs), fmt(c.numpy?.medianMs), ratio(c.ours?.medianMs, c.numpy?.medianMs),
-  c.ours?.peakMB == null ? '—' : `${c.ours.peakMB.toFixed(0)} MB`, c.numpy?.peakMB == null ? '—' : `${c.numpy.peakMB.toFixed(0)} MB`,
-  c.maxRelDiff == null ? '—' : c.maxRelDiff.toExponential(1)]);
-printTable(cliHeader, cliTable);
-console.log('Process start to exit. numpy script = test/bench/numpy_job.py (loadtxt, two inv, the same multipliers); max rel. diff = largest relative difference between the two outputs over every multiplier and linkage.');
-for (const c of clis) if (c.note) console.log(`n=${c.n}: ${c.note}`);
+if (jobs.length) printTable(jobHeader, jobTable);
+if (jobs.length) console.log('Whole job on invented tables written by writeTableCsv, in process, 1 thread: import = importTable on the CSV text; full analysis = analyzeTable (defaults: spectrum only up to 400 sectors, no explicit inverse); one scenario = runScenario after preparation (a final-demand line in one sector).');
+const mb = (x: number | null | undefined): string => (x == null ? '—' : `${x.toFixed(0)} MB`);
+const spread = (j: PairedJob): string => (j.ratio ? `${j.ratio.min.toFixed(2)} / ${j.ratio.median.toFixed(2)} / ${j.ratio.max.toFixed(2)}` : '—');
+const wholeHeader = ['job', 'n', 'load', 'ours (median, min–max)', 'numpy (median, min–max)', 'ours/numpy min / median / max', 'peak RSS ours', 'peak RSS numpy', `equal to ${EQUAL_TOLERANCE}`];
+const range = (x: PairedJob['ours']): string => (x ? `${fmt(x.medianMs)} (${fmt(x.minMs)}–${fmt(x.maxMs)})` : '—');
+const wholeRow = (j: PairedJob, name: string): string[] => [name, String(j.n), `${j.load[0].toFixed(1)}–${j.load[1].toFixed(1)}`, range(j.ours), range(j.numpy), spread(j), mb(j.ours?.peakMB), mb(j.numpy?.peakMB),
+  j.equal === null ? '—' : `${j.equal ? 'yes' : 'NO'} (${j.maxRelDiff!.toExponential(1)})`];
+printTable(wholeHeader, [...clis.map((c) => wholeRow(c, 'analyze --json')), ...scenarios.map((c) => wholeRow(c, 'scenario --paths --json')), ...(large ? [wholeRow(large, 'analyze --json (large)')] : [])]);
+console.log(`Whole process, start to exit, ${PAIRS} pair(s) per row, ours and numpy back to back in alternating order; ratios per pair. numpy = ${pythonExecutable() ?? 'python3'} running test/bench/numpy_job.py (loadtxt, two inv, the same multipliers, linkages and Perron root) or numpy_scenario.py (the same mixed shock, effects, rounds and structural paths), OPENBLAS_CORETYPE and OPENBLAS_L2_SIZE unset for numpy only. equal = every number numpy prints matches ours to ${EQUAL_TOLERANCE} (relative; cli-job.ts compare).`);
+for (const c of [...clis, ...scenarios, ...(large ? [large] : [])]) {
+  if (c.note) console.log(`${c.job} n=${c.n}: ${c.note}`);
+  if (c.equal === false) console.log(`${c.job} n=${c.n}: OUTPUTS DIFFER: relative difference ${c.maxRelDiff} at ${c.worstAt}`);
+}
 if ('skipped' in app) console.log(`App long tasks: ${app.skipped}.`);
 else {
   console.log(`App at n=${app.n} (Chromium, Vite dev server): file chosen to multiplier table on screen ${fmt(app.totalMs)}; ${app.tasks.length} long task(s) (> 50 ms) on the main thread, ${app.over100} over 100 ms, longest ${fmt(app.maxMs)}.`);
   for (const t of app.tasks) console.log(`  long task at +${fmt(t.startMs)}: ${fmt(t.durationMs)} (${t.phase})`);
 }
 
-const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis, app };
+const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis, scenarios, large, app };
 const stamp = started.toISOString().replace(/[:.]/g, '-');
 writeFileSync(join(outDir, `bench-${stamp}.json`), JSON.stringify(json, null, 2));
 writeFileSync(join(outDir, 'latest.json'), JSON.stringify(json, null, 2));

@@ -59,7 +59,7 @@ describe.skipIf(skipBrowser)('accessibility', () => {
 
   const SCREENS: [string, string][] = [
     ['overview', 'verdict'], ['import', 'file-input'], ['table', ''], ['structure', ''], ['multipliers', 'multiplier-table'],
-    ['scenarios', 'scenario-editor'], ['export', ''], ['regional', ''], ['guide', 'guide-terms'],
+    ['scenarios', 'scenario-editor'], ['export', ''], ['regional', ''], ['supply-use', ''], ['guide', 'guide-terms'],
   ];
   for (const [screen, marker] of SCREENS) {
     it(`finds no serious or critical problem on the ${screen} screen`, async () => {

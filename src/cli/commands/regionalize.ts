@@ -78,6 +78,7 @@ export const regionalize = defineCommand({
     employment: { type: 'string', value: 'EMP.csv', required: true, help: 'CSV sector,regional,national: jobs in the county and the nation (labels as in the table); national may be left out when the table has an Employment row' },
     method: { type: 'string', value: 'M', required: true, choices: LQ_METHODS, help: 'slq (simple), cilq (cross-industry) or flq (Flegg) location quotients' },
     delta: { type: 'number', value: 'D', help: 'FLQ exponent δ, 0 to 1 (default 0.3; Flegg & Tohmo 2013 report 0.25–0.35 fitting survey tables)', check: (d) => (d >= 0 && d <= 1 ? null : 'must lie between 0 and 1') },
+    bridge: { type: 'string', value: 'BRIDGE.csv', help: 'code,sector[,share]: the employment file names codes of another classification, mapped to the table\'s sectors (shares split a code)' },
     map: { type: 'string', value: 'MAP.json', help: 'role overrides for the national table\'s rows and columns' },
     ...TABLE_DIALECT_OPTIONS,
   },
@@ -93,6 +94,7 @@ export const regionalize = defineCommand({
       employment: { bytes: ctx.input(values.employment).bytes, fileName: values.employment },
       method,
       delta: values.delta ?? DEFAULT_FLQ_DELTA,
+      ...(values.bridge !== undefined ? { bridge: { bytes: ctx.input(values.bridge).bytes, fileName: values.bridge } } : {}),
     }, ctx.date);
     const res = est.regional;
     const verdict = est.judged.verdict;

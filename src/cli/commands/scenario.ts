@@ -6,7 +6,7 @@
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { readFileLimited } from '../../node-io/index.ts';
 import {
-  CAUTIONS, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile, tableReport, studyFromTableFile, VARIABLES, type Closure, type PreparedStudy, type ScenarioOutcome, InputError, visibleText, parseShockCsv, matchKey,
+  CAUTIONS, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile, tableReport, studyFromTableFile, VARIABLES, type Closure, type PreparedStudy, type ScenarioOutcome, InputError, visibleText, parseShockCsv, matchKey, readBridge, scenarioByBridge,
   bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studyBands, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
@@ -68,6 +68,7 @@ export const scenario = defineCommand({
     map: { type: 'string', value: 'MAP.json', help: 'role overrides for the table\'s rows and columns' },
     closure: { type: 'string', value: 'households|none', choices: ['households', 'none'], help: 'households (default, when the table allows it): induced effects from the household closure; none: open model only' },
     paths: { type: 'string', value: 'SECTOR', help: 'add the structural paths that carry the effect to SECTOR (printed in the summary too)' },
+    bridge: { type: 'string', value: 'BRIDGE.csv', help: 'code,sector[,share]: the shock file names codes of another classification, mapped to the table\'s sectors (shares split a code)' },
     project: { type: 'string', value: 'FILE.json', help: 'save the study (table, shock, settings) as a project file the app opens; an existing file is replaced only if it is a Roundwise project' },
     ...TABLE_DIALECT_OPTIONS,
     ...SCENARIO_UNCERTAINTY_OPTIONS,
@@ -76,8 +77,11 @@ export const scenario = defineCommand({
   async run({ input, values }, ctx) {
     const tableFile = ctx.input(input);
     const roles = ctx.roleMap(values.map);
-    const scenario = parseShockCsv(ctx.input(values.shock).text, values.shock);
-    const study = studyFromTableFile(tableFile.bytes, tableFile.name, { ...tableDialect(values), ...(roles ? { roles } : {}) }, { scenarios: [scenario] });
+    const shock = parseShockCsv(ctx.input(values.shock).text, values.shock);
+    const study = studyFromTableFile(tableFile.bytes, tableFile.name, { ...tableDialect(values), ...(roles ? { roles } : {}) });
+    // With a bridge the shock file's sector column holds codes: each line is split among the code's sectors.
+    const scenario = values.bridge === undefined ? shock : scenarioByBridge(shock, readBridge({ bytes: ctx.input(values.bridge).bytes, fileName: values.bridge }, study.table.sectors));
+    study.scenarios = [scenario];
     if (values.closure !== undefined) study.settings.closure = values.closure as Closure;
     study.settings.activeScenario = scenario.name;
     let destination: string | null = null;

@@ -25,11 +25,12 @@ const VALID: Record<string, string[]> = {
   regionalize: ['sample-data/national-table.csv', '--employment', 'sample-data/fernhollow-employment.csv', '--method', 'slq'],
   balance: ['test/fixtures/regional/flows.csv', '--rows', 'test/fixtures/regional/flow-rows.csv', '--columns', 'test/fixtures/regional/flow-columns.csv'],
   aggregate: ['sample-data/fernhollow-county.csv', '--groups', 'sample-data/fernhollow-groups.csv'],
+  sut: ['sample-data/national-supply.csv', 'sample-data/national-use.csv'],
 };
 
 describe('command specs', () => {
-  it('there are the five commands, each with valid sample arguments here', () => {
-    expect(COMMANDS.map((c) => c.name)).toEqual(['analyze', 'scenario', 'regionalize', 'balance', 'aggregate']);
+  it('there are the six commands, each with valid sample arguments here', () => {
+    expect(COMMANDS.map((c) => c.name)).toEqual(['analyze', 'scenario', 'regionalize', 'balance', 'aggregate', 'sut']);
     expect(Object.keys(VALID)).toEqual(COMMANDS.map((c) => c.name));
   });
 
@@ -64,8 +65,9 @@ describe('command specs', () => {
     for (const spec of COMMANDS) {
       const valid = VALID[spec.name]!;
       const cases: [string[], RegExp][] = [
-        [valid.slice(1), new RegExp(`^no ${spec.positional.name.replace('.', '\\.')} given$`)],
-        [[...valid, 'extra.csv'], new RegExp(`^one ${spec.positional.name.replace('.', '\\.')} expected, got 2: `)],
+        [valid.slice(spec.second ? 2 : 1), new RegExp(`^no ${spec.positional.name.replace('.', '\\.')} given$`)],
+        [[...valid, 'extra.csv'], spec.second ? /^two files expected \(\S+ \S+\), got 3: / : new RegExp(`^one ${spec.positional.name.replace('.', '\\.')} expected, got 2: `)],
+        ...(spec.second ? [[[valid[0]!], new RegExp(`^no ${spec.second.name.replace('.', '\\.')} given after `)] as [string[], RegExp]] : []),
         [[...valid, '--colour'], /^unknown option '--colour'$/],
         [[...valid, '--json=yes'], /^--json takes no value$/],
         [[...valid, '--out'], /^--out needs a value \(DIR\)$/],
@@ -105,7 +107,7 @@ describe('command specs', () => {
     expect(unknown.err.split('\n')[0]).toBe("roundwise: unknown command 'analyse'");
     expect(none.err.split('\n')[0]).toBe('roundwise: no command given');
     expect(unknown.err.split('\n')[1]).toBe(none.err.split('\n')[1]);
-    expect(none.err).toContain('analyze, scenario, regionalize, balance, aggregate');
+    expect(none.err).toContain('analyze, scenario, regionalize, balance, aggregate, sut');
   });
 
   it('a value may start with a dash (a sector label, a negative number) and is then checked as a value', async () => {

@@ -32,7 +32,7 @@ describe('README command-line examples', () => {
   it('each runs with exit 0 (outputs redirected into a temporary folder)', async () => {
     for (const line of lines) {
       const args = argv(line.replace(/\s*>.*$/, '')).slice(2) // drop "npx roundwise" and any shell redirection
-        .map((a) => (/^(reports|county|grouped)\/.*/.test(a) ? join(dir, a) : a));
+        .map((a) => (/^(reports|county|grouped|derived)\/.*/.test(a) ? join(dir, a) : a));
       const r = await run(args);
       expect(r.err.split('\n').filter((l) => !l.includes('warning')).join(''), line).toBe('');
       expect(r.code, line).toBe(0);

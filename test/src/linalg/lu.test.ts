@@ -11,6 +11,7 @@ import {
   luFactorReference, luInverseReference, luSolveManyReference, luSolveReference, luSolveTransposedReference,
 } from '../../../src/linalg/lu-reference.ts';
 import { setKernelMode, type KernelMode } from '../../../src/linalg/gemm.ts';
+import { OWN_STORAGE_MIN_ELEMENTS } from '../../../src/linalg/workspace.ts';
 import { randomMatrix, seeded } from '../../support/random.ts';
 
 function toRows(a: Float64Array, n: number, m = n): number[][] {
@@ -28,7 +29,8 @@ function relDiff(ours: ArrayLike<number>, ref: ArrayLike<number>): number {
   return s === 0 ? d : d / s;
 }
 
-const SIZES = [1, 2, 3, 8, 25, LU_BLOCK - 1, LU_BLOCK, LU_BLOCK + 1, 2 * LU_BLOCK + 7, 200];
+// The last size is factored in storage of its own rather than a workspace copied out (workspace.ts factorStorage).
+const SIZES = [1, 2, 3, 8, 25, LU_BLOCK - 1, LU_BLOCK, LU_BLOCK + 1, 2 * LU_BLOCK + 7, 200, Math.ceil(Math.sqrt(OWN_STORAGE_MIN_ELEMENTS)) + 3];
 
 // Every test runs twice: with the Wasm SIMD kernel (the default where the engine has it) and the JavaScript one.
 for (const mode of ['auto', 'js'] as KernelMode[]) {

@@ -1,7 +1,7 @@
 import { describe, it, expect } from 'vitest';
 import { createHash } from 'node:crypto';
 import fc from 'fast-check';
-import { sha256Hex, utf8Bytes } from '../../../src/project/sha256.ts';
+import { sha256Hex, utf8Bytes, utf8BytesByHand } from '../../../src/project/sha256.ts';
 
 const ascii = (s: string) => Uint8Array.from(s, (c) => c.charCodeAt(0));
 
@@ -17,10 +17,18 @@ describe('SHA-256', () => {
       expect(sha256Hex(bytes)).toBe(createHash('sha256').update(bytes).digest('hex'));
     }), { numRuns: 300 });
   });
-  it('UTF-8 encoding agrees with TextEncoder', () => {
+  it('agrees with Node’s crypto on a message of many blocks (bytes with the top bit set included)', () => {
+    const big = new Uint8Array(1_000_003);
+    for (let k = 0; k < big.length; k++) big[k] = (k * 2654435761) >>> 24;
+    expect(sha256Hex(big)).toBe(createHash('sha256').update(big).digest('hex'));
+  });
+  it('UTF-8 encoding agrees with TextEncoder, by hand too', () => {
     fc.assert(fc.property(fc.string({ unit: 'binary' }), (s) => {
-      expect(Array.from(utf8Bytes(s))).toEqual(Array.from(new TextEncoder().encode(s)));
+      const want = Array.from(new TextEncoder().encode(s));
+      expect(Array.from(utf8Bytes(s))).toEqual(want);
+      expect(Array.from(utf8BytesByHand(s))).toEqual(want);
     }), { numRuns: 300 });
     expect(Array.from(utf8Bytes('\ud800x'))).toEqual(Array.from(new TextEncoder().encode('\ud800x')));
+    expect(Array.from(utf8BytesByHand('\ud800x'))).toEqual(Array.from(new TextEncoder().encode('\ud800x')));
   });
 });

@@ -115,6 +115,20 @@ describe('the 2×2 pair worked by hand', () => {
     expect(fixed.notes.join(' ')).toMatch(/set to zero and the intermediate block rebalanced by RAS/);
   });
 
+  it('refuses the product technology when it gives negative jobs, naming the product and the alternatives', () => {
+    // Jobs (10, 1): (10, 1)·(Vᵀ)⁻¹ = (10/90, −10/450 + 1/50) = (1/9, −1/450); × q = (100/9, −1/9): product b "employs"
+    // fewer than nobody, since industry B's secondary product a takes A's jobs per unit (1/9) × 10 > B's 1 job.
+    const use = USE.replace('Employment,10,6,', 'Employment,10,1,');
+    const pair = readSupplyUse({ text: SUPPLY, fileName: 'supply.csv' }, { text: use, fileName: 'use.csv' });
+    const e = (() => { try { deriveSymmetric(pair, { assumption: 'product' }); } catch (x) { return x as { code: string; message: string; location: unknown }; } return null; })();
+    expect(e).toMatchObject({ code: 'sut-negative-jobs', location: { file: 'use.csv', rowLabel: 'Employment', columnLabel: 'Product b' } });
+    expect(e!.message).toMatch(/negative jobs for 'Product b' \(-0\.1111111111\)/);
+    // The industry technology splits B's one job by output shares: (10, 1)·ĝ⁻¹·V = (10 + 1/6, 5/6).
+    const t = deriveSymmetric(pair, { assumption: 'industry' }).table;
+    expect(Math.abs(t.employment![0]! - (10 + 1 / 6))).toBeLessThan(1e-12);
+    expect(Math.abs(t.employment![1]! - 5 / 6)).toBeLessThan(1e-12);
+  });
+
   it('writes each derived table so that importTable reads back the same sectors and numbers', () => {
     for (const a of ['product-sales', 'industry-sales', 'industry', 'product'] as const) {
       const d = derive(a);

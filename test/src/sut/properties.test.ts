@@ -57,7 +57,19 @@ describe('every transformation keeps the identities of the pair', () => {
     fc.assert(
       fc.property(fc.integer({ min: 1, max: 1e6 }), fc.integer({ min: 2, max: 9 }), (seed, n) => {
         const s = pairOf(seed, { products: n, industries: n, secondary: 0.3, jobs: true });
-        for (const a of ASSUMPTIONS) identities(s, deriveSymmetric(s, { assumption: a }));
+        for (const a of ASSUMPTIONS) {
+          // The two that invert the make table may give negative jobs, which is refused (hand-worked.test.ts); the
+          // identities are checked whenever a table is made.
+          let d: DerivedTable;
+          try {
+            d = deriveSymmetric(s, { assumption: a });
+          } catch (e) {
+            expect(a === 'product' || a === 'industry-sales').toBe(true);
+            expect((e as { code: string }).code).toBe('sut-negative-jobs');
+            continue;
+          }
+          identities(s, d);
+        }
       }),
       { seed: 14014, numRuns: 40 },
     );

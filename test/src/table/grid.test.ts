@@ -2,7 +2,17 @@
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
 import { buildGrid, recordStartLines, type Grid } from '../../../src/table/grid.ts';
+import { scanPlain, scanPlainFields } from '../../../src/table/numbers.ts';
 import type { Delimiter } from '../../../src/table/text.ts';
+
+/** A record's numbers read in one pass equal the field-by-field reads, bit for bit (NaN where either says NaN). */
+function expectRowsRead(g: Grid, decimalCode: number): void {
+  for (let r = 0; r < g.rowCount; r++) {
+    const out = new Float64Array(g.width(r) + 2).fill(7);
+    g.plainRow(r, decimalCode, out);
+    for (let c = 0; c < out.length; c++) expect(Object.is(out[c], g.plain(r, c, decimalCode))).toBe(true);
+  }
+}
 
 function cellsOf(g: Grid): string[][] {
   const out: string[][] = [];
@@ -29,9 +39,43 @@ describe('grid', () => {
             expect(fast.blank(r)).toBe(papa.blank(r));
             for (let c = 0; c < fast.width(r); c++) expect(Object.is(fast.plain(r, c, 46), papa.plain(r, c, 46))).toBe(true);
           }
+          expectRowsRead(fast, 46);
+          expectRowsRead(papa, 46);
         },
       ),
       { numRuns: 500, seed: 4180 },
+    );
+  });
+  it('reads a record\'s numbers in one pass exactly as field by field (scanPlain), any decimal mark and delimiter', () => {
+    const digits = fc.constantFrom('0', '1', '5', '9');
+    const unit = fc.oneof({ weight: 6, arbitrary: digits }, { weight: 1, arbitrary: fc.constantFrom('.', ',', '-', '+', 'e', 'E', ' ', 'x', '\u2212') });
+    const field = fc.oneof(
+      fc.string({ unit, maxLength: 24 }),
+      // long mantissas and exponents: the 15-digit and 10^±22 limits of the fast path
+      fc.tuple(fc.bigInt({ min: 0n, max: 10n ** 20n }), fc.integer({ min: -40, max: 40 })).map(([m, e]) => `${m}e${e}`),
+      fc.double({ noNaN: true }).map(String),
+    );
+    fc.assert(
+      fc.property(
+        fc.constantFrom<[Delimiter, number]>([',', 46], [';', 44], [';', 46], ['\t', 44], ['\t', 46]),
+        fc.array(fc.array(field, { minLength: 1, maxLength: 8 }), { minLength: 1, maxLength: 5 }),
+        fc.constantFrom('\n', '\r\n'),
+        ([d, dc], rows, eol) => {
+          const text = rows.map((r) => r.join(d)).join(eol) + eol;
+          expectRowsRead(buildGrid(text, d, 't.csv'), dc);
+          // and straight against scanPlain on each field of one record (whose fields hold no delimiter)
+          if (rows[0]!.some((f) => f.includes(d))) return;
+          const line = rows[0]!.join(d);
+          const out = new Float64Array(rows[0]!.length);
+          scanPlainFields(line, 0, line.length, d.charCodeAt(0), dc, out, out.length);
+          let at = 0;
+          rows[0]!.forEach((f, c) => {
+            expect(Object.is(out[c], scanPlain(line, at, at + f.length, dc))).toBe(true);
+            at += f.length + 1;
+          });
+        },
+      ),
+      { numRuns: 400, seed: 2024 },
     );
   });
   it('finds the starting line of records with quoted line breaks', () => {
