@@ -8,6 +8,7 @@
 import { closeSync, lstatSync, openSync, readSync } from 'node:fs';
 import { basename, dirname, resolve } from 'node:path';
 import type { ExportKind, FileKind, OpenedFile, RecentEntry, SavedFile } from '../src/bridge/contract.ts';
+import { BINARY_EXPORTS } from '../src/bridge/contract.ts';
 import { EXPORT_TYPES, OPEN_EXTENSIONS, OPEN_FILTER_NAMES, PROJECT_EXTENSION, projectFileName, withExtension } from '../src/bridge/files.ts';
 import { sanitizeFileName, stripDataUrl } from '../src/bridge/validate.ts';
 import { InputError } from '../src/diagnostics/index.ts';
@@ -181,7 +182,7 @@ export function createBridgeHost(deps: BridgeHostDeps): BridgeHost {
       const filters = [{ name: type.filterName, extensions: [type.extension] }];
       const target = await pickSaveTarget('Export', resolve(deps.documentsDir, suggested), filters, (p) => withExtension(p, type.extension));
       if (!target) return null;
-      writeFileAtomic(target, kind === 'png' ? Buffer.from(stripDataUrl(content), 'base64') : content);
+      writeFileAtomic(target, BINARY_EXPORTS.includes(kind) ? Buffer.from(stripDataUrl(content), 'base64') : content);
       return { name: basename(target), path: target };
     },
 

@@ -37,6 +37,7 @@ export function menuTemplate(send: (cmd: MenuCommand) => void, opts: MenuOptions
         item('Save project as…', 'save-project-as'),
         sep,
         item('Export report…', 'export-report'),
+        item('Print the brief…', 'print-brief'),
         ...(opts.isMac ? [] : [sep, { role: 'quit' } as MenuItemConstructorOptions]),
       ],
     },

@@ -22,8 +22,14 @@ export default defineConfig({
   },
   preview: { host: '127.0.0.1', port: Number.isInteger(port) && port >= 0 ? port : 5178, strictPort: true },
   worker: { format: 'es' },
-  // Pre-bundle up front so the first page load never triggers a dependency re-optimisation and reload.
-  optimizeDeps: { include: ['vue', 'chart.js', 'papaparse', 'ml-matrix', 'zod'], entries: ['index.html', 'worker/engine.worker.ts'] },
+  // fontkit's brotli decoder reads WOFF2 fonts only; the brief embeds TrueType (src/deliverables/no-woff2.ts).
+  resolve: { alias: [{ find: /^brotli\/decompress(\.js)?$/, replacement: fileURLToPath(new URL('../src/deliverables/no-woff2.ts', import.meta.url)) }] },
+  // Pre-bundle up front so the first page load never triggers a dependency re-optimisation and reload (the brief's
+  // and the workbook's libraries are imported on first use, so they are listed here too).
+  optimizeDeps: {
+    include: ['vue', 'chart.js', 'papaparse', 'ml-matrix', 'zod', '@cantoo/pdf-lib', '@cantoo/fontkit', 'write-excel-file/universal'],
+    entries: ['index.html', 'worker/engine.worker.ts'],
+  },
   // A dependency cache of its own, beside Vite's default one.
   cacheDir: fileURLToPath(new URL('../node_modules/.vite/renderer', import.meta.url)),
   build: {

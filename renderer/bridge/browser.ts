@@ -6,6 +6,7 @@
  * it without a browser.
  */
 import type { ExportKind, FileKind, MenuCommand, OpenedFile, RecentEntry, RoundwiseBridge, SavedFile } from '../../src/bridge/contract.ts';
+import { BINARY_EXPORTS } from '../../src/bridge/contract.ts';
 import { EXPORT_TYPES, MAX_OPEN_BYTES, OPEN_EXTENSIONS, fileTooLarge, projectFileName, withExtension } from '../../src/bridge/files.ts';
 import { commandForKey, isTextEditing } from '../../src/bridge/shortcuts.ts';
 import { addRecent, parseRecentList, sanitizeFileName } from '../../src/bridge/validate.ts';
@@ -206,7 +207,7 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
   async function exportFile(suggestedName: string, kind: ExportKind, content: string): Promise<SavedFile | null> {
     const type = EXPORT_TYPES[kind];
     const name = withExtension(sanitizeFileName(suggestedName), type.extension);
-    const body: BlobPart = kind === 'png' ? (base64ToBytes(content) as Uint8Array<ArrayBuffer>) : content;
+    const body: BlobPart = BINARY_EXPORTS.includes(kind) ? (base64ToBytes(content) as Uint8Array<ArrayBuffer>) : content;
     download(name, new Blob([body], { type: type.mime }));
     return { name };
   }

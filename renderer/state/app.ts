@@ -8,6 +8,7 @@ import { engine, CancelledError, EngineError } from '../worker/client.ts';
 import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, TableInfo, TableSource } from '../worker/protocol.ts';
 import type { ScenarioDraft } from '../worker/protocol.ts';
 import { History } from './history.ts';
+import { lineReady } from '../../src/study/index.ts';
 
 export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional' | 'supply-use' | 'guide';
 
@@ -32,6 +33,8 @@ export const app = reactive({
   draft: null as ImportDraft | null,
   scenarios: [] as ScenarioDraft[],
   selected: 0,
+  /** The phase of the selected scenario being edited and shown. */
+  phase: 0,
   /**
    * Results of each scenario: its view, its refusal (located), or `waiting` when no line has a sector yet. They are
    * `markRaw`: plain data from the worker, read-only on screen, so 2,000-sector vectors get no reactive proxies.
@@ -229,8 +232,15 @@ export function editScenarios(fn: (s: ScenarioDraft[]) => void, select?: number)
   app.scenarios = copy;
   if (select !== undefined) app.selected = select;
   app.selected = Math.min(Math.max(0, app.selected), Math.max(0, copy.length - 1));
+  clampPhase();
   syncUndo();
   markDirty(true);
+}
+
+/** Keep the phase index inside the selected scenario's phases. */
+export function clampPhase(): void {
+  const n = app.scenarios[app.selected]?.phases.length ?? 1;
+  app.phase = Math.min(Math.max(0, app.phase), Math.max(0, n - 1));
 }
 
 export function undo(): void {
@@ -239,6 +249,7 @@ export function undo(): void {
   if (!s) return;
   app.scenarios = s.scenarios;
   app.selected = s.selected;
+  clampPhase();
   syncUndo();
   markDirty(true);
 }
@@ -249,6 +260,7 @@ export function redo(): void {
   if (!s) return;
   app.scenarios = s.scenarios;
   app.selected = s.selected;
+  clampPhase();
   syncUndo();
   markDirty(true);
 }
@@ -265,8 +277,9 @@ export async function recomputeAll(): Promise<void> {
   const seq = ++recomputeSeq;
   const out: ScenarioResultState[] = [];
   for (const s of app.scenarios) {
-    if (s.lines.length > 0 && s.lines.every((l) => l.sector === '')) {
-      out.push({ waiting: s.lines.length === 1 ? 'Choose the sector of the line above to see the effects.' : 'Choose the sector of a line above to see the effects.' });
+    const lines = s.phases.flatMap((p) => p.lines);
+    if (lines.length > 0 && !lines.some(lineReady)) {
+      out.push({ waiting: lines.length === 1 ? 'Choose the sector of the line above to see the effects.' : 'Choose the sector of a line above to see the effects.' });
       continue;
     }
     try {
@@ -297,7 +310,7 @@ export function setInputProblem(key: string, problem: { message: string; text: s
 }
 
 // What is shown in the fields after these is the scenario as it stands, so earlier typing problems no longer apply.
-watch(() => [app.selected, app.table], () => { app.inputProblems = {}; });
+watch(() => [app.selected, app.phase, app.table], () => { app.inputProblems = {}; });
 
 export function resetHistory(): void {
   history.clear();

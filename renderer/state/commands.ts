@@ -32,6 +32,7 @@ export const COMMANDS: readonly CommandInfo[] = [
   entry('save-project', 'Save project', 'File'),
   entry('save-project-as', 'Save project as…', 'File'),
   entry('export-report', 'Export reports…', 'File'),
+  entry('print-brief', 'Print the brief…', 'File'),
   entry('undo', 'Undo scenario edit', 'Edit'),
   entry('redo', 'Redo scenario edit', 'Edit'),
   entry('guide', 'Guide', 'Help'),

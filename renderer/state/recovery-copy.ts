@@ -5,7 +5,7 @@
  * kept as typed: the copy is what was on screen, not what a save would accept.
  * Copies written by the first versions (a plain project file) are read too.
  */
-import { PROJECT_FORMAT } from '../../src/study/index.ts';
+import { LINE_KINDS, PROJECT_FORMAT, TIMINGS, MIGRATED_PHASE } from '../../src/study/index.ts';
 import { z } from '../../src/schema/index.ts';
 import type { ScenarioDraft } from '../worker/protocol.ts';
 
@@ -27,22 +27,29 @@ export interface RecoveryCopy {
 const line = z.looseObject({
   sector: z.string(),
   amount: z.number(),
-  kind: z.enum(['final-demand', 'output', 'jobs']),
+  kind: z.enum(LINE_KINDS as [string, ...string[]]),
   localShare: z.number(),
   note: z.string().optional(),
-  pattern: z.string().optional(),
 });
-const scenario = z.object({ name: z.string(), description: z.string().optional(), lines: z.array(line) });
-const copySchema = z.object({
+// Version 1 copies: a scenario was one list of lines (before phases); read as one one-time phase, as projects are.
+const scenarioV1 = z.object({ name: z.string(), description: z.string().optional(), lines: z.array(line) });
+const phase = z.looseObject({ name: z.string(), timing: z.enum(TIMINGS as [string, ...string[]]), lines: z.array(line) });
+const scenario = z.object({ name: z.string(), description: z.string().optional(), phases: z.array(phase) });
+const common = {
   format: z.literal(RECOVERY_FORMAT),
-  version: z.literal(1),
   savedAt: z.string(),
   tableName: z.string(),
   projectName: z.string().nullable(),
   selected: z.number().int().min(0),
-  scenarios: z.array(scenario),
   project: z.string(),
-});
+};
+const copySchema = z.object({ ...common, version: z.literal(2), scenarios: z.array(scenario) });
+const copyV1Schema = z.object({ ...common, version: z.literal(1), scenarios: z.array(scenarioV1) });
+
+function upgradeV1(s: z.infer<typeof scenarioV1>): unknown {
+  const { lines, ...rest } = s;
+  return { ...rest, phases: [{ name: MIGRATED_PHASE, timing: 'once', lines: lines.map(({ pattern, ...l }) => ({ ...l, ...(typeof pattern === 'string' ? { mix: pattern } : {}) })) }] };
+}
 
 /**
  * The copy's text. `projectJson` is `JSON.stringify(c.project)` when the caller keeps it: the project text holds the
@@ -50,7 +57,7 @@ const copySchema = z.object({
  */
 export function writeRecoveryCopy(c: RecoveryCopy & { savedAt: string; tableName: string; scenarios: ScenarioDraft[] }, projectJson?: string): string {
   const head = JSON.stringify({
-    format: RECOVERY_FORMAT, version: 1, savedAt: c.savedAt, tableName: c.tableName, projectName: c.projectName,
+    format: RECOVERY_FORMAT, version: 2, savedAt: c.savedAt, tableName: c.tableName, projectName: c.projectName,
     selected: c.selected, scenarios: c.scenarios,
   });
   return `${head.slice(0, -1)},"project":${projectJson ?? JSON.stringify(c.project)}}`;
@@ -69,13 +76,15 @@ export function readRecoveryCopy(text: string): RecoveryCopy | { damaged: string
     const table = (raw as { table?: { name?: unknown } }).table;
     return { savedAt: null, tableName: typeof table?.name === 'string' ? table.name : null, projectName: null, project: text, scenarios: null, selected: 0 };
   }
-  const r = copySchema.safeParse(raw);
+  const v1 = typeof raw === 'object' && raw !== null && (raw as { version?: unknown }).version === 1;
+  const r = v1 ? copyV1Schema.safeParse(raw) : copySchema.safeParse(raw);
   if (!r.success) {
     const issue = r.error.issues[0];
     return { damaged: `the copy is damaged${issue?.path.length ? ` at ${issue.path.join('.')}` : ''}` };
   }
   const d = r.data;
-  return { savedAt: d.savedAt, tableName: d.tableName, projectName: d.projectName, project: d.project, scenarios: d.scenarios as ScenarioDraft[], selected: d.selected };
+  const scenarios = (d.version === 1 ? d.scenarios.map(upgradeV1) : d.scenarios) as ScenarioDraft[];
+  return { savedAt: d.savedAt, tableName: d.tableName, projectName: d.projectName, project: d.project, scenarios, selected: d.selected };
 }
 
 function when(iso: string | null, locale?: string): string {

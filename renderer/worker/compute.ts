@@ -5,9 +5,9 @@
  */
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
-  reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadPattern, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable,
-  type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingPattern, type Study,
+  reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
+  studyFromTableFile, utf8Bytes, withTable, filesOnly, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, TableInfo, TableSource } from './protocol.ts';
 import { analysisView, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
@@ -44,13 +44,16 @@ function studyAt(choices: StudyChoices, scenarios: Scenario[] = []): PreparedStu
 function load(study: Study): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft } {
   const ps = prepareStudy(study);
   state = ps;
-  return { table: tableInfo(study.table, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study) };
+  return { table: tableInfo(study, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study) };
 }
 
 function starter(study: Study): ScenarioDraft {
   const s = study.table.sectors;
   const food = s.find((x) => /food/i.test(x));
-  return { name: food ? 'New food plant' : 'Example scenario', lines: [{ sector: food ?? s[0] ?? '', amount: 1000, kind: 'final-demand', localShare: 1 }] };
+  return {
+    name: food ? 'New food plant' : 'Example scenario',
+    phases: [{ name: food ? 'Operating' : 'Phase 1', timing: food ? 'annual' : 'once', lines: [{ sector: food ?? s[0] ?? '', amount: 1000, kind: 'final-demand', localShare: 1 }] }],
+  };
 }
 
 function loadTable(src: TableSource): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft } {
@@ -62,18 +65,23 @@ function previewTable(src: TableSource): PreviewView {
   return previewView(enginePreview(src.text, { fileName: src.fileName, ...importSettings(src) }), src);
 }
 
-/** The lines numbered as on screen, so a refusal says "line 2 (row 'Transprot'): …" even after blank lines are left out. */
+/**
+ * The lines numbered as on screen (within their phase), so a refusal says "line 2 (row 'Transprot'): …" even after
+ * blank lines are left out.
+ */
 function onScreen(s: ScenarioDraft): Scenario {
-  return { ...s, lines: s.lines.map((l, k) => (l.origin ? l : { ...l, origin: { line: k + 1 } })) };
+  return { ...s, phases: s.phases.map((p) => ({ ...p, lines: p.lines.map((l, k) => (l.origin ? l : { ...l, origin: { line: k + 1 } })) })) };
 }
 
 function runScenario(args: { scenario: ScenarioDraft; choices: StudyChoices }): ScenarioView {
   return scenarioView(runStudyScenario(studyAt(args.choices), readyLines(onScreen(args.scenario))));
 }
 
-/** Paths to the study's chosen sector (`choices.destination`), or to the default one when none is chosen. */
-function paths(args: { scenario: ScenarioDraft; choices: StudyChoices }): PathsView {
-  return pathsView(runStudyScenario(studyAt(args.choices), readyLines(onScreen(args.scenario)), { paths: 'default' }).paths!);
+/** Paths of one phase to the study's chosen sector (`choices.destination`), or to the default one when none is chosen. */
+function paths(args: { scenario: ScenarioDraft; phase?: number; choices: StudyChoices }): PathsView {
+  const o = runStudyScenario(studyAt(args.choices), readyLines(onScreen(args.scenario)), { paths: 'default' });
+  const p = o.phases[Math.min(args.phase ?? 0, o.phases.length - 1)]!;
+  return pathsView(p.paths!);
 }
 
 function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
@@ -98,7 +106,32 @@ function reports(args: { scenarios: ScenarioDraft[]; choices: StudyChoices }): {
 
 function report(args: { kind: ReportKind; scenario?: ScenarioDraft; scenarios: ScenarioDraft[]; choices: StudyChoices }): ReportFile[] {
   const ps = studyAt(args.choices, args.scenarios);
-  return buildReport(ps, args.kind, { date: new Date().toISOString(), ...(args.scenario ? { scenario: readyLines(args.scenario) } : {}) });
+  return filesOnly(buildReport(ps, args.kind, { date: new Date().toISOString(), ...(args.scenario ? { scenario: readyLines(args.scenario) } : {}) }));
+}
+
+/** The scenario's outcome as the CLI computes it: structural paths only when the study names their destination. */
+function outcomeOf(ps: PreparedStudy, scenario: ScenarioDraft) {
+  return runStudyScenario(ps, readyLines(scenario), { paths: ps.study.settings.paths.destination });
+}
+
+/**
+ * The scenario's brief: the PDF (made by the study layer's studyBrief, as `roundwise scenario --brief`) and its
+ * document, which the print view shows. The fonts come from the UI (fetched once from the app's assets).
+ */
+async function brief(args: { scenario: ScenarioDraft; scenarios: ScenarioDraft[]; choices: StudyChoices; paper: Paper; fonts: BriefFonts; date?: string }): Promise<{ name: string; pdf: Uint8Array; document: BriefDocument }> {
+  const ps = studyAt(args.choices, args.scenarios);
+  const o = outcomeOf(ps, args.scenario);
+  const date = args.date ?? new Date().toISOString();
+  const document = studyBriefDocument(ps, o, date);
+  return { name: `${scenarioSlug(o.scenario.name)}-brief.pdf`, pdf: await studyBrief(ps, o, { date, paper: args.paper, fonts: args.fonts }), document };
+}
+
+/** The workbook of the study, with the scenario's sheets when one is given (studyWorkbook, as `--xlsx`). */
+async function workbook(args: { scenario?: ScenarioDraft; scenarios: ScenarioDraft[]; choices: StudyChoices; date?: string }): Promise<{ name: string; xlsx: Uint8Array }> {
+  const ps = studyAt(args.choices, args.scenarios);
+  const o = args.scenario ? outcomeOf(ps, args.scenario) : null;
+  const name = `${scenarioSlug(o ? o.scenario.name : ps.study.table.name)}.xlsx`;
+  return { name, xlsx: await studyWorkbook(ps, o, { date: args.date ?? new Date().toISOString() }) };
 }
 
 function saveProject(args: { name: string; scenarios: ScenarioDraft[]; choices: StudyChoices; active: number }): string {
@@ -145,8 +178,8 @@ function sourceOf(study: Study): TableSource | null {
   };
 }
 
-function spread(args: { pattern: SpendingPattern; amount: number; localShare: number }): ScenarioLine[] {
-  return spreadPattern(args.pattern, args.amount, { localShare: args.localShare });
+function spread(args: { mix: SpendingMix; amount: number; localShare: number }): ScenarioLine[] {
+  return spreadMix(args.mix, args.amount, { localShare: args.localShare });
 }
 
 export const api = {
@@ -162,6 +195,8 @@ export const api = {
   grid,
   reports,
   report,
+  brief,
+  workbook,
   saveProject,
   recoveryBase,
   openProject,

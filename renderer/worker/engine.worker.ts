@@ -9,13 +9,14 @@ import type { RpcRequest, RpcResponse } from './rpc.ts';
 
 const scope = self as unknown as DedicatedWorkerGlobalScope;
 
-scope.onmessage = (e: MessageEvent<RpcRequest>) => {
+// Most operations answer at once; the brief and the workbook are promises (their libraries load on first use).
+scope.onmessage = async (e: MessageEvent<RpcRequest>) => {
   const { id, op, args } = e.data;
   let res: RpcResponse;
   try {
     const fn = (api as Record<string, (a: unknown) => unknown>)[op];
     if (!fn) throw new Error(`unknown operation '${op}'`);
-    res = { id, ok: true, value: fn(args) };
+    res = { id, ok: true, value: await fn(args) };
   } catch (err) {
     if (isInputError(err)) res = { id, ok: false, error: { message: formatLocated(err), refused: true, code: err.code } };
     else {

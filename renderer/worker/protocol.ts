@@ -4,7 +4,7 @@
  * reason, never NaN.
  */
 import type { api } from './compute.ts';
-import type { Closure, DecimalMark, Delimiter, LinkageClass, MeasureKey, RoleMap, Scenario, Variable } from '../../src/study/index.ts';
+import type { Closure, DecimalMark, Delimiter, LinkageClass, MeasureKey, RoleMap, Scenario, Timing, Variable } from '../../src/study/index.ts';
 
 export type EngineApi = typeof api;
 
@@ -49,8 +49,12 @@ export interface TableInfo {
   /** Total output per sector, money. */
   output: number[];
   totalOutput: number;
-  /** Spending patterns read from the table's final-demand columns (shares of each column), for scenario lines. */
-  patterns: { name: string; shares: { sector: string; share: number }[] }[];
+  /** Spending mixes: the study's own and those read from the table's final-demand columns (shares of each column). */
+  mixes: { name: string; shares: { sector: string; share: number }[] }[];
+  /** Activities not in the table that the study describes (their names, for activity lines). */
+  activities: string[];
+  hasTaxes: boolean;
+  hasFte: boolean;
   /** Roles as imported (for the project file and the role editor). */
   roles: { rows: Record<string, string>; columns: Record<string, string> };
 }
@@ -172,14 +176,29 @@ export interface EffectView {
   typeII: number | null;
 }
 
-export interface ScenarioView {
+/** Totals of one variable (direct, indirect, induced, total). */
+export interface TotalsView { direct: number; indirect: number; induced: number | null; total: number }
+
+/** The results of one phase of a scenario. */
+export interface PhaseView {
+  /** The phase's name, and the label its results carry ("Scenario" for one phase, else "Scenario — Phase"). */
+  phase: string;
   name: string;
+  timing: Timing;
+  year: number | null;
+  years: number | null;
   sectors: string[];
   moneyUnit: string;
   closure: 'household' | 'none';
   /** Why there are no induced effects, or null when there are. */
   inducedReason: string | null;
   effects: Record<Variable, EffectView | null>;
+  /** Net of displacement and deadweight (totals per variable), or null when no line of the phase has such shares. */
+  net: Partial<Record<Variable, TotalsView | null>> | null;
+  /** Rows of direct effects outside the sectors (activities not in the table, household income paid directly). */
+  outside: { label: string; direct: Partial<Record<Variable, number | null>> }[];
+  /** An annual phase with a number of years: years × one year (gross), and the present value of money variables. */
+  overTime: { years: number; cumulative: Partial<Record<Variable, TotalsView | null>>; presentValue: Partial<Record<Variable, TotalsView | null>> | null; rate: number | null } | null;
   /** Output of each round (open model) and the share of the open-model total reached after it. */
   rounds: { round: number; output: number; reached: number }[];
   /** The round by which 99 % of the open-model total is reached, or null. */
@@ -189,6 +208,15 @@ export interface ScenarioView {
   roundZeroFixed: string[];
   effectiveDemand: number[];
   notes: string[];
+}
+
+/** A scenario's results: per phase; sums only across phases of the same timing (never one-time plus annual). */
+export interface ScenarioView {
+  name: string;
+  phases: PhaseView[];
+  byTiming: { timing: Timing; phases: string[]; totals: Partial<Record<Variable, TotalsView | null>> }[];
+  /** What the study adds to every report's model line (commuting, margins, price conversion). */
+  model: string[];
 }
 
 export interface PathsView {

@@ -4,17 +4,19 @@
  * number comes from the prepared study (src/study).
  */
 import {
-  formatLocated, linkageClass, matchKey, ROW_ROLES, COLUMN_ROLES, type TablePreview, MEASURES, measureValues, unitDemandRounds, tablePatterns, VARIABLES,
-  type ModeKind, type PreparedStudy, type ScenarioOutcome, type IOTable, type EffectSplit, type EffectTotals, type ScenarioMultiplier, type Variable, type PathAnalysis,
+  formatLocated, linkageClass, matchKey, ROW_ROLES, COLUMN_ROLES, type TablePreview, MEASURES, measureValues, unitDemandRounds, shockInputsOf, VARIABLES,
+  type ModeKind, type PreparedStudy, type ScenarioOutcome, type PhaseOutcome, type Study, type EffectSplit, type EffectTotals, type ScenarioMultiplier,
+  type Variable, type PathAnalysis, type TotalsRecord,
 } from '../../src/study/index.ts';
-import type { AnalysisView, EffectView, Eigen, MultiplierRow, PathsView, PreviewView, ScenarioView, TableInfo, TableSource } from './protocol.ts';
+import type { AnalysisView, EffectView, Eigen, MultiplierRow, PathsView, PhaseView, PreviewView, ScenarioView, TableInfo, TableSource, TotalsView } from './protocol.ts';
 
 const finite = (v: number | null | undefined): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
 
 /** Rounds listed on the screens (the reports carry all of them). */
 const ROUNDS_SHOWN = 40;
 
-export function tableInfo(t: IOTable, fileName: string): TableInfo {
+export function tableInfo(study: Study, fileName: string): TableInfo {
+  const t = study.table;
   let total = 0;
   for (let j = 0; j < t.n; j++) total += t.x[j]!;
   return {
@@ -29,7 +31,10 @@ export function tableInfo(t: IOTable, fileName: string): TableInfo {
     warnings: t.warnings.map((w) => formatLocated(w)),
     output: Array.from(t.x),
     totalOutput: total,
-    patterns: tablePatterns(t),
+    mixes: shockInputsOf(study).mixes.map((m) => ({ name: m.name, shares: m.shares.map((x) => ({ sector: x.sector, share: x.share })) })),
+    activities: study.activities.map((a) => a.name),
+    hasTaxes: (t.taxes?.length ?? 0) > 0,
+    hasFte: t.fte != null,
     roles: { rows: { ...t.roles.rows }, columns: { ...t.roles.columns } },
   };
 }
@@ -131,24 +136,47 @@ function effectView(s: EffectSplit | null, t: EffectTotals | null, m: ScenarioMu
   };
 }
 
-export function scenarioView(o: ScenarioOutcome): ScenarioView {
-  const r = o.result;
+function totalsView(rec: TotalsRecord): Partial<Record<Variable, TotalsView | null>> {
+  const out: Partial<Record<Variable, TotalsView | null>> = {};
+  for (const [v, t] of Object.entries(rec) as [Variable, EffectTotals | null][]) out[v] = t ? { direct: t.direct, indirect: t.indirect, induced: t.induced, total: t.total } : null;
+  return out;
+}
+
+function phaseView(p: PhaseOutcome): PhaseView {
+  const r = p.result;
   const effects = {} as Record<Variable, EffectView | null>;
   for (const v of VARIABLES) effects[v] = effectView(r.effects[v], r.totals[v], r.multipliers[v]);
   const fixed = r.shock.fixed.map((j) => r.sectors[j]!);
+  const ot = p.overTime;
   return {
-    name: r.scenario,
+    phase: p.phase.name,
+    name: p.label,
+    timing: p.phase.timing,
+    year: p.phase.year ?? null,
+    years: p.phase.years ?? null,
     sectors: r.sectors,
     moneyUnit: r.moneyUnit,
     closure: r.closure,
     inducedReason: r.closure === 'household' ? null : r.multipliers.output.typeII.reason ?? 'no household closure',
     effects,
-    rounds: o.rounds.roundTotals.slice(0, ROUNDS_SHOWN).map((x, k) => ({ round: k, output: x, reached: o.rounds.coverage[k] ?? 0 })),
-    reach99: o.rounds.reach.find((x) => x.target === 0.99)?.round ?? null,
-    roundsComputed: o.rounds.rounds.length,
+    net: p.net ? totalsView(p.net.totals) : null,
+    outside: r.outside.map((o) => ({ label: o.label, direct: { ...o.direct } })),
+    overTime: ot ? { years: ot.years, cumulative: totalsView(ot.cumulative), presentValue: ot.presentValue ? totalsView(ot.presentValue) : null, rate: ot.rate } : null,
+    rounds: p.rounds.roundTotals.slice(0, ROUNDS_SHOWN).map((x, k) => ({ round: k, output: x, reached: p.rounds.coverage[k] ?? 0 })),
+    reach99: p.rounds.reach.find((x) => x.target === 0.99)?.round ?? null,
+    roundsComputed: p.rounds.rounds.length,
     roundZeroFixed: fixed,
     effectiveDemand: Array.from(r.effectiveDemand),
-    notes: o.notes,
+    notes: p.notes,
+  };
+}
+
+export function scenarioView(o: ScenarioOutcome): ScenarioView {
+  return {
+    name: o.scenario.name,
+    phases: o.phases.map(phaseView),
+    byTiming: o.byTiming.map((t) => ({ timing: t.timing, phases: t.phases, totals: totalsView(t.gross) })),
+    model: o.model,
   };
 }
 

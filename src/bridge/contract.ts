@@ -30,12 +30,15 @@ export interface RecentEntry {
 }
 
 export type FileKind = 'table' | 'project';
-export type ExportKind = 'csv' | 'txt' | 'png' | 'json';
+export type ExportKind = 'csv' | 'txt' | 'png' | 'json' | 'pdf' | 'xlsx';
+
+/** Export kinds whose content crosses the bridge as base64 of the file's bytes (the others are text, written UTF-8). */
+export const BINARY_EXPORTS: readonly ExportKind[] = ['png', 'pdf', 'xlsx'];
 
 /** Commands the native menu (desktop) or the in-window menu (browser) sends to the UI. */
 export type MenuCommand =
   | 'open-table' | 'open-project' | 'save-project' | 'save-project-as'
-  | 'export-report' | 'undo' | 'redo' | 'guide' | 'about';
+  | 'export-report' | 'print-brief' | 'undo' | 'redo' | 'guide' | 'about';
 
 export interface RoundwiseBridge {
   readonly mode: 'desktop' | 'browser';
@@ -43,7 +46,7 @@ export interface RoundwiseBridge {
   openFile(kind: FileKind): Promise<OpenedFile | null>;
   /** Save a project: to `path` when given (desktop "Save"), else ask. Written atomically (temp file + rename). */
   saveProject(suggestedName: string, content: string, path?: string): Promise<SavedFile | null>;
-  /** Export a report or chart: a save dialog in desktop mode, a download in browser mode. `content` is text or base64 for png. */
+  /** Export a report or chart: a save dialog in desktop mode, a download in browser mode. `content` is text, or base64 for the binary kinds (BINARY_EXPORTS). */
   exportFile(suggestedName: string, kind: ExportKind, content: string): Promise<SavedFile | null>;
   recentProjects(): Promise<RecentEntry[]>;
   openRecent(ref: string): Promise<OpenedFile | null>;

@@ -38,6 +38,8 @@ export const EXPORT_TYPES: Record<ExportKind, { extension: string; mime: string;
   txt: { extension: 'txt', mime: 'text/plain;charset=utf-8', filterName: 'Text' },
   png: { extension: 'png', mime: 'image/png', filterName: 'PNG image' },
   json: { extension: 'json', mime: 'application/json', filterName: 'JSON' },
+  pdf: { extension: 'pdf', mime: 'application/pdf', filterName: 'PDF document' },
+  xlsx: { extension: 'xlsx', mime: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet', filterName: 'Spreadsheet workbook' },
 };
 
 /** `name` with `ext` as its extension: kept when it already ends with `ext` or one of `alsoAccepted`, else added. */

@@ -19,6 +19,7 @@ export const SHORTCUTS: readonly Shortcut[] = [
   { command: 'save-project', accelerator: 'CmdOrCtrl+S', key: 's', shift: false },
   { command: 'save-project-as', accelerator: 'CmdOrCtrl+Shift+S', key: 's', shift: true },
   { command: 'export-report', accelerator: 'CmdOrCtrl+E', key: 'e', shift: false },
+  { command: 'print-brief', accelerator: 'CmdOrCtrl+P', key: 'p', shift: false },
   { command: 'undo', accelerator: 'CmdOrCtrl+Z', key: 'z', shift: false },
   { command: 'redo', accelerator: 'CmdOrCtrl+Shift+Z', key: 'z', shift: true },
 ];

@@ -17,7 +17,7 @@ export const MAX_PATH_CHARS = 4096;
 export const MAX_RECENT = 10;
 
 const fileKind = z.enum(['table', 'project'] satisfies FileKind[]);
-const exportKind = z.enum(['csv', 'txt', 'png', 'json'] satisfies ExportKind[]);
+const exportKind = z.enum(['csv', 'txt', 'png', 'json', 'pdf', 'xlsx'] satisfies ExportKind[]);
 const name = z.string().min(1, 'empty file name').max(MAX_NAME_CHARS, `file name longer than ${MAX_NAME_CHARS} characters`);
 const content = z.string().max(MAX_SAVE_CHARS, 'content larger than the save limit');
 const path = z.string().min(1, 'empty path').max(MAX_PATH_CHARS, 'path too long').refine((p) => !p.includes('\0'), 'path contains a NUL character');
@@ -39,6 +39,25 @@ export function isPngBase64(b64: string): boolean {
   return body.length % 4 === 0 && BASE64.test(body) && body.startsWith(PNG_SIGNATURE_B64);
 }
 
+/**
+ * The first bytes of each binary export, base64-encoded (each prefix is a multiple of 3 bytes, so its encoding is a
+ * fixed string): "%PDF-1" (ISO 32000-1, 7.5.2) and a zip local file header "PK\x03\x04" plus two version bytes
+ * ("PK\x03\x04\x14\x00" or "\x0a\x00": an XLSX is a zip package, ECMA-376 Part 2) — checked as a regular expression.
+ */
+const SIGNATURES_B64: Partial<Record<ExportKind, RegExp>> = {
+  png: new RegExp(`^${PNG_SIGNATURE_B64}`),
+  pdf: /^JVBERi0x/,
+  xlsx: /^UEsDB[A-Za-z0-9+/]/,
+};
+
+/** True when `content` is well-formed base64 of a file of the binary export `kind` (true for the text kinds). */
+export function isExportContent(kind: ExportKind, content: string): boolean {
+  const sig = SIGNATURES_B64[kind];
+  if (!sig) return true;
+  const body = kind === 'png' ? stripDataUrl(content) : content;
+  return body.length % 4 === 0 && BASE64.test(body) && sig.test(body);
+}
+
 function check<T>(schema: z.ZodType<T>, args: unknown, what: string): Validated<T> {
   const r = schema.safeParse(args);
   if (r.success) return { ok: true, value: r.data };
@@ -50,8 +69,8 @@ function check<T>(schema: z.ZodType<T>, args: unknown, what: string): Validated<
 export const argSchemas = {
   openFile: z.tuple([fileKind]),
   saveProject: z.tuple([name, content, path.optional()]),
-  exportFile: z.tuple([name, exportKind, content]).refine(([, kind, body]) => kind !== 'png' || isPngBase64(body), {
-    message: 'png content is not base64 of a PNG image',
+  exportFile: z.tuple([name, exportKind, content]).refine(([, kind, body]) => isExportContent(kind, body), {
+    message: 'content is not base64 of a file of that kind (png, pdf or xlsx)',
     path: [2],
   }),
   recentProjects: z.tuple([]),

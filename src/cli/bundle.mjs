@@ -3,24 +3,40 @@
 // which is most of a county-sized job. The launcher (roundwise.mjs) uses the bundle only while it is newer than
 // every source file, and falls back to tsx otherwise, so a stale or missing bundle is never run.
 // Never fails an install: on any error it says so in one line and the launcher keeps using tsx.
-import { copyFileSync, mkdirSync } from 'node:fs';
+import { copyFileSync, mkdirSync, rmSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const out = join(here, '..', '..', 'dist', 'cli');
 
+// The PDF and XLSX libraries are imported on first use (src/deliverables), so they go into chunks of their own that
+// only a run writing a brief or a workbook loads; fontkit's brotli decoder (WOFF2 only; the brief embeds TrueType)
+// is replaced by a stub. Old chunks are removed first, as their names carry content hashes.
+const noWoff2 = {
+  name: 'no-woff2',
+  setup(b) {
+    b.onResolve({ filter: /^brotli\/decompress(\.js)?$/ }, () => ({ path: join(here, '..', 'deliverables', 'no-woff2.ts') }));
+  },
+};
+
 try {
   const { build } = await import('esbuild');
+  rmSync(join(out, 'chunks'), { recursive: true, force: true });
   mkdirSync(out, { recursive: true });
   await build({
     entryPoints: [join(here, 'main.ts')],
-    outfile: join(out, 'main.mjs'),
+    outdir: out,
+    outExtension: { '.js': '.mjs' },
+    entryNames: '[name]',
+    chunkNames: 'chunks/[name]-[hash]',
+    splitting: true,
     bundle: true,
     platform: 'node',
     format: 'esm',
     target: 'node20',
     logLevel: 'warning',
+    plugins: [noWoff2],
   });
   copyFileSync(join(here, 'parallel-worker.mjs'), join(out, 'parallel-worker.mjs'));
 } catch (e) {

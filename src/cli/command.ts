@@ -10,6 +10,8 @@ import type { RoleMap } from '../table/index.ts';
 export type OptionSpec =
   | { type: 'boolean'; help: string }
   | { type: 'string'; value: string; help: string; required?: boolean; choices?: readonly string[] }
+  /** A string option that may be given several times (`--activity A.csv --activity B.csv`); its value is a list. */
+  | { type: 'strings'; value: string; help: string }
   /** A number option; `check` returns what is wrong with a value (a usage error) or null. */
   | { type: 'number'; value: string; help: string; check?: (v: number) => string | null };
 
@@ -17,13 +19,16 @@ export type OptionSpecs = Record<string, OptionSpec>;
 
 type ValueOf<S extends OptionSpec> = S extends { type: 'boolean' } ? boolean
   : S extends { type: 'number' } ? number | undefined
+  : S extends { type: 'strings' } ? string[]
   : S extends { required: true } ? string
   : string | undefined;
 
-/** Options every command has: --json and --out DIR (and --help, handled before `run`). */
+/** Options every command has: --json, --out DIR and --no-bom (and --help, handled before `run`). */
 export interface CommonValues {
   json: boolean;
   out: string | undefined;
+  /** CSV reports without the UTF-8 byte-order mark. */
+  'no-bom': boolean;
 }
 
 export type Values<O extends OptionSpecs> = { [K in keyof O]: ValueOf<O[K]> } & CommonValues;
@@ -57,7 +62,8 @@ export interface RunContext {
 /** A file at a path the user named (e.g. `--project FILE`), written with the reports, under the same checks. */
 export interface NamedFile {
   path: string;
-  content: string;
+  /** Text (written as UTF-8) or bytes (a PDF brief, an XLSX workbook). */
+  content: string | Uint8Array;
 }
 
 export interface CommandResult {

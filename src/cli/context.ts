@@ -8,6 +8,11 @@ import type { CommandSpec, InputFile, RunContext } from './command.ts';
 import { usageError } from './parse.ts';
 import type { CliIO } from './io.ts';
 
+/** SHA-256 by Node's crypto (the engine's sha256Hex uses it during a run: main.ts). */
+export function nodeSha256(data: Uint8Array): string {
+  return createHash('sha256').update(data).digest('hex');
+}
+
 class LoadedInput implements InputFile {
   readonly name: string;
   constructor(readonly path: string, readonly bytes: Uint8Array) {
@@ -17,7 +22,7 @@ class LoadedInput implements InputFile {
     return new TextDecoder('utf-8').decode(this.bytes);
   }
   get sha256(): string {
-    return createHash('sha256').update(this.bytes).digest('hex');
+    return nodeSha256(this.bytes);
   }
 }
 

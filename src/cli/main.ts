@@ -6,7 +6,8 @@
  */
 import { formatLocated, InputError, isInputError } from '../diagnostics/index.ts';
 import type { CommandSpec } from './command.ts';
-import { CommandRun } from './context.ts';
+import { usePlatformSha256 } from '../project/index.ts';
+import { CommandRun, nodeSha256 } from './context.ts';
 import { processIO, type CliIO } from './io.ts';
 import { writeOutputs } from './output.ts';
 import { commandHelp, mainHelp, parseCommandArgs, wantsHelp } from './parse.ts';
@@ -55,11 +56,13 @@ async function runCommand(spec: CommandSpec, argv: string[], io: CliIO): Promise
     return EXIT.ok;
   }
   const run = new CommandRun(spec, io);
+  // Source fingerprints by Node's crypto for this run (the same function, faster than the engine's portable code).
+  usePlatformSha256(nodeSha256);
   try {
     const args = parseCommandArgs(spec, argv);
     const result = await spec.run(args, run);
     const out = args.values.out;
-    const written = writeOutputs(out, out === undefined ? [] : result.reports ?? [], result.files ?? [], run.inputs);
+    const written = writeOutputs(out, out === undefined ? [] : result.reports ?? [], result.files ?? [], run.inputs, { bom: !args.values['no-bom'] });
     if (written.stale.length) {
       run.warn(`${written.stale.length} Roundwise report files in ${out} are from an earlier run and were not rewritten: ${written.stale.join(', ')} (left in place; remove them if they no longer apply)`);
     }
@@ -79,5 +82,7 @@ async function runCommand(spec: CommandSpec, argv: string[], io: CliIO): Promise
     const msg = e instanceof Error ? e.message : String(e);
     io.stderr(`${prefix}: internal error: ${terminalText(msg.split('\n')[0]!)}\n`);
     return EXIT.internal;
+  } finally {
+    usePlatformSha256(null);
   }
 }

@@ -3,6 +3,7 @@
  * named (--project), each written atomically through src/node-io.
  *  - Nothing is written unless every target passes: a target that is one of the run's input files (same file on
  *    disk, through links too) is refused before the first write, naming both.
+ *  - CSV reports start with the UTF-8 byte-order mark unless --no-bom (src/csv csvFileText says why).
  *  - Reports from an earlier run left in the same folder are flagged, not deleted: a Roundwise report is recognised
  *    by its sidecar's first words (ABOUT_SIGNATURE); one this run did not rewrite is listed as stale, with its CSV.
  *    Deleting would destroy files a person may have edited or still cites; listing them is enough to keep an old
@@ -13,6 +14,7 @@ import { join, resolve } from 'node:path';
 import { ABOUT_SIGNATURE, type ReportFile } from '../report/index.ts';
 import { readFileLimited, refuseInputOverwrite, writeFileAtomic, type FileIdentity } from '../node-io/index.ts';
 import { InputError } from '../diagnostics/index.ts';
+import { csvFileText } from '../csv/index.ts';
 import type { NamedFile } from './command.ts';
 
 export interface Written {
@@ -24,9 +26,9 @@ export interface Written {
 
 const ABOUT = '.about.txt';
 
-export function writeOutputs(outDir: string | undefined, reports: readonly ReportFile[], named: readonly NamedFile[], inputs: readonly FileIdentity[]): Written {
+export function writeOutputs(outDir: string | undefined, reports: readonly ReportFile[], named: readonly NamedFile[], inputs: readonly FileIdentity[], opts: { bom: boolean } = { bom: true }): Written {
   const targets: NamedFile[] = [
-    ...(outDir === undefined ? [] : reports.map((f) => ({ path: join(outDir, f.name), content: f.content }))),
+    ...(outDir === undefined ? [] : reports.map((f) => ({ path: join(outDir, f.name), content: f.name.endsWith('.csv') ? csvFileText(f.content, opts) : f.content }))),
     ...named,
   ];
   const seen = new Map<string, string>();

@@ -12,6 +12,7 @@ function allOptions(spec: CommandSpec): [string, OptionSpec][] {
     ...Object.entries(spec.options),
     ['json', { type: 'boolean', help: 'print one JSON object on stdout instead of the summary' }],
     ['out', { type: 'string', value: 'DIR', help: spec.outHelp }],
+    ['no-bom', { type: 'boolean', help: 'write the CSV reports without the UTF-8 byte-order mark (by default they start with one, so spreadsheet programs on Windows read "–", "−" and accented letters right)' }],
   ];
 }
 
@@ -20,13 +21,19 @@ function optionText(name: string, o: OptionSpec): string {
   return `--${name} ${o.type === 'string' && o.choices ? o.choices.join('|') : o.value}`;
 }
 
+/** An option in the usage line: required ones bare, others in brackets; a repeatable one followed by "…". */
+function usageText(name: string, o: OptionSpec): string {
+  if (o.type === 'string' && o.required) return optionText(name, o);
+  return `[${optionText(name, o)}]${o.type === 'strings' ? '…' : ''}`;
+}
+
 function positionalNames(spec: CommandSpec): string {
   return spec.second ? `${spec.positional.name} ${spec.second.name}` : spec.positional.name;
 }
 
 /** "roundwise analyze TABLE.csv [--map MAP.json] … [--json] [--out DIR]": every option, required ones unbracketed. */
 export function usageLine(spec: CommandSpec): string {
-  const opts = allOptions(spec).map(([name, o]) => (o.type === 'string' && o.required ? optionText(name, o) : `[${optionText(name, o)}]`));
+  const opts = allOptions(spec).map(([name, o]) => usageText(name, o));
   return `roundwise ${spec.name} ${positionalNames(spec)} ${opts.join(' ')}`;
 }
 
@@ -35,7 +42,7 @@ export function commandHelp(spec: CommandSpec): string {
   const rows: [string, string][] = [
     [spec.positional.name, spec.positional.help],
     ...(spec.second ? [[spec.second.name, spec.second.help] as [string, string]] : []),
-    ...allOptions(spec).map(([name, o]): [string, string] => [optionText(name, o), (o.type === 'string' && o.required ? '(required) ' : '') + o.help]),
+    ...allOptions(spec).map(([name, o]): [string, string] => [optionText(name, o), (o.type === 'string' && o.required ? '(required) ' : '') + (o.type === 'strings' ? '(may be given more than once) ' : '') + o.help]),
     ['-h, --help', 'show this help'],
   ];
   const width = Math.max(...rows.map(([l]) => l.length)) + 2;
@@ -118,13 +125,13 @@ export function parseCommandArgs<O extends OptionSpecs>(spec: CommandSpec<O>, ar
       args: joinDashValues(argv, all),
       allowPositionals: true,
       strict: true,
-      options: Object.fromEntries(all.map(([name, o]) => [name, { type: o.type === 'boolean' ? 'boolean' : 'string' } as const])),
+      options: Object.fromEntries(all.map(([name, o]) => [name, { type: o.type === 'boolean' ? 'boolean' : 'string', ...(o.type === 'strings' ? { multiple: true } : {}) } as const])),
     });
   } catch (e) {
     throw usageError(spec as CommandSpec, parseArgsMessage(e, spec as CommandSpec));
   }
   const { positionals } = parsed;
-  const raw = parsed.values as Record<string, string | boolean | undefined>;
+  const raw = parsed.values as Record<string, string | string[] | boolean | undefined>;
   const fail = (message: string) => usageError(spec as CommandSpec, message);
   if (positionals.length === 0) throw fail(`no ${spec.positional.name} given`);
   if (spec.second) {
@@ -136,6 +143,12 @@ export function parseCommandArgs<O extends OptionSpecs>(spec: CommandSpec<O>, ar
     const v = raw[name];
     if (o.type === 'boolean') {
       values[name] = v === true;
+      continue;
+    }
+    if (o.type === 'strings') {
+      const list = (v as string[] | undefined) ?? [];
+      if (list.some((s) => s.trim() === '')) throw fail(`--${name} needs a value (${o.value})`);
+      values[name] = list;
       continue;
     }
     if (v === undefined) {

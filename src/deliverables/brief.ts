@@ -94,6 +94,9 @@ const LINE_KIND_WORDS: Record<string, string> = {
   'final-demand': 'final demand',
   output: 'fixed output',
   jobs: 'fixed jobs',
+  'labour-income': 'household income',
+  mix: 'spending mix',
+  activity: 'activity not in the table',
 };
 
 function unitOf(q: Quantity, moneyUnit: string): string {
@@ -225,7 +228,7 @@ function inputTable(phases: BriefPhase[], moneyUnit: string, priceYear: string |
         `${plainNumber(l.amount)} ${l.kind === 'jobs' ? 'jobs' : moneyUnit}`,
         l.kind === 'final-demand' ? plainNumber(l.localShare) : '—',
         priceYear ?? 'as the table',
-        [l.pattern ? `spread by '${l.pattern}'` : '', l.note ?? ''].filter(Boolean).join('; '),
+        [l.mix ? `spread by '${l.mix}'` : '', l.note ?? ''].filter(Boolean).join('; '),
       ]);
     }
   }

@@ -5,8 +5,8 @@
  * eval, the same code in Node (the CLI) and the app's worker, and deterministic: the same document, paper and fonts
  * give the same bytes (pdf-lib's font-name suffixes come from a seeded generator; dates are the run's).
  */
-import { PDFDocument, rgb, type PDFFont, type PDFPage, type RGB } from '@cantoo/pdf-lib';
-import fontkit from '@cantoo/fontkit';
+import type { PDFDocument, PDFFont, PDFPage, RGB } from '@cantoo/pdf-lib';
+import type * as Fontkit from '@cantoo/fontkit';
 import { visibleText } from '../diagnostics/index.ts';
 import { documentText, type BriefBars, type BriefBlock, type BriefDocument, type BriefTable } from './document.ts';
 import { councilNumber } from './rounding.ts';
@@ -34,12 +34,17 @@ export interface PdfOptions {
   fonts: BriefFonts;
 }
 
-const INK = rgb(0.1, 0.1, 0.1);
-const MUTED = rgb(0.33, 0.33, 0.33);
-const RULE = rgb(0.55, 0.55, 0.55);
-const HAIRLINE = rgb(0.85, 0.85, 0.85);
+/** Colours as red, green, blue in 0–1 (made pdf-lib colours once the library is loaded). */
+const COLOURS = {
+  INK: [0.1, 0.1, 0.1],
+  MUTED: [0.33, 0.33, 0.33],
+  RULE: [0.55, 0.55, 0.55],
+  HAIRLINE: [0.85, 0.85, 0.85],
+} as const;
 /** Series colours: dark to light, told apart in grey print too. */
-const SERIES: RGB[] = [rgb(0.12, 0.3, 0.47), rgb(0.36, 0.6, 0.82), rgb(0.74, 0.84, 0.93), rgb(0.55, 0.55, 0.55)];
+const SERIES_COLOURS = [[0.12, 0.3, 0.47], [0.36, 0.6, 0.82], [0.74, 0.84, 0.93], [0.55, 0.55, 0.55]] as const;
+
+interface Palette { INK: RGB; MUTED: RGB; RULE: RGB; HAIRLINE: RGB; SERIES: RGB[] }
 
 const SIZE = { overline: 8, title: 17, subtitle: 9, h2: 11.5, body: 9, table: 8.2, small: 7.6, footer: 7 };
 const LEADING = 1.3;
@@ -51,7 +56,7 @@ interface Faces { regular: PDFFont; bold: PDFFont }
 /** What a string becomes on the page: controls shown as escapes, characters the font lacks as "?". */
 type Clean = (s: string) => string;
 
-function fontChecker(bytes: Uint8Array, want: string): { has(cp: number): boolean } {
+function fontChecker(fontkit: typeof Fontkit.default, bytes: Uint8Array, want: string): { has(cp: number): boolean } {
   const f = fontkit.create(bytes);
   if (!('hasGlyphForCodePoint' in f) || f.postscriptName !== want) {
     throw new Error(`the brief needs the font ${want}; got ${'postscriptName' in f ? f.postscriptName : 'a font collection'}`);
@@ -67,7 +72,7 @@ class Typesetter {
   readonly h: number;
   readonly width: number;
 
-  constructor(private readonly pdf: PDFDocument, readonly f: Faces, paper: Paper, readonly clean: Clean) {
+  constructor(private readonly pdf: PDFDocument, readonly f: Faces, readonly c: Palette, paper: Paper, readonly clean: Clean) {
     [this.w, this.h] = PAGE_SIZE[paper];
     this.width = this.w - MARGIN.left - MARGIN.right;
     this.newPage();
@@ -138,11 +143,11 @@ class Typesetter {
 }
 
 function drawTitle(t: Typesetter, doc: BriefDocument): void {
-  t.y -= t.lines(['Roundwise · economic impact brief'], MARGIN.left, t.y, t.f.regular, SIZE.overline, MUTED);
-  for (const l of t.wrap(doc.title, t.f.bold, SIZE.title, t.width)) t.y -= t.lines([l], MARGIN.left, t.y, t.f.bold, SIZE.title, INK);
-  for (const l of t.wrap(doc.subtitle, t.f.regular, SIZE.subtitle, t.width)) t.y -= t.lines([l], MARGIN.left, t.y, t.f.regular, SIZE.subtitle, MUTED);
+  t.y -= t.lines(['Roundwise · economic impact brief'], MARGIN.left, t.y, t.f.regular, SIZE.overline, t.c.MUTED);
+  for (const l of t.wrap(doc.title, t.f.bold, SIZE.title, t.width)) t.y -= t.lines([l], MARGIN.left, t.y, t.f.bold, SIZE.title, t.c.INK);
+  for (const l of t.wrap(doc.subtitle, t.f.regular, SIZE.subtitle, t.width)) t.y -= t.lines([l], MARGIN.left, t.y, t.f.regular, SIZE.subtitle, t.c.MUTED);
   t.y -= 4;
-  t.rule(t.y, RULE, 0.8);
+  t.rule(t.y, t.c.RULE, 0.8);
   t.y -= 6;
 }
 
@@ -153,8 +158,8 @@ function drawFacts(t: Typesetter, rows: [string, string][]): void {
     const ks = t.wrap(k, t.f.bold, SIZE.body, labelW - 6);
     const h = Math.max(vs.length, ks.length) * SIZE.body * LEADING;
     t.need(h);
-    t.lines(ks, MARGIN.left, t.y, t.f.bold, SIZE.body, INK);
-    t.lines(vs, MARGIN.left + labelW, t.y, t.f.regular, SIZE.body, INK);
+    t.lines(ks, MARGIN.left, t.y, t.f.bold, SIZE.body, t.c.INK);
+    t.lines(vs, MARGIN.left + labelW, t.y, t.f.regular, SIZE.body, t.c.INK);
     t.y -= h + 1.5;
   }
 }
@@ -184,12 +189,12 @@ function drawTable(t: Typesetter, tb: BriefTable): void {
   const header = cellLines(tb.columns.map((c) => c.label), t.f.bold);
   const headerH = Math.max(...header.map((l) => l.length)) * lineH + 3;
   const drawRow = (cells: string[][], font: PDFFont, h: number) => {
-    cells.forEach((ls, k) => t.lines(ls, xs[k]! + CELL_PAD, t.y - 1, font, size, INK, tb.columns[k]!.align, widths[k]! - 2 * CELL_PAD));
+    cells.forEach((ls, k) => t.lines(ls, xs[k]! + CELL_PAD, t.y - 1, font, size, t.c.INK, tb.columns[k]!.align, widths[k]! - 2 * CELL_PAD));
     t.y -= h;
   };
   const drawHeader = () => {
     drawRow(header, t.f.bold, headerH);
-    t.rule(t.y, RULE, 0.8);
+    t.rule(t.y, t.c.RULE, 0.8);
   };
   const rows = tb.rows.map((r, k) => ({ isTotal: tb.totalRow === true && k === tb.rows.length - 1, cells: cellLines(r, tb.totalRow === true && k === tb.rows.length - 1 ? t.f.bold : t.f.regular) }));
   const firstH = rows.length ? Math.max(...rows[0]!.cells.map((l) => l.length)) * lineH + 3 : 0;
@@ -198,9 +203,9 @@ function drawTable(t: Typesetter, tb: BriefTable): void {
   for (const r of rows) {
     const h = Math.max(1, ...r.cells.map((l) => l.length)) * lineH + 3;
     if (t.y - h < MARGIN.bottom) { t.newPage(); drawHeader(); }
-    if (r.isTotal) t.rule(t.y, RULE, 0.8);
+    if (r.isTotal) t.rule(t.y, t.c.RULE, 0.8);
     drawRow(r.cells, r.isTotal ? t.f.bold : t.f.regular, h);
-    if (!r.isTotal) t.rule(t.y, HAIRLINE, 0.4);
+    if (!r.isTotal) t.rule(t.y, t.c.HAIRLINE, 0.4);
   }
   t.y -= 4;
 }
@@ -225,14 +230,14 @@ function drawBars(t: Typesetter, b: BriefBars): void {
   const heightNeeded = titleLines.length * SIZE.body * LEADING + 16 + b.bars.length * (barH + gap) + 18;
   t.y -= 6;
   t.need(heightNeeded);
-  t.y -= t.lines(titleLines, MARGIN.left, t.y, t.f.bold, SIZE.body, INK);
+  t.y -= t.lines(titleLines, MARGIN.left, t.y, t.f.bold, SIZE.body, t.c.INK);
   // Legend.
   let lx = MARGIN.left;
   t.y -= 4;
   b.series.forEach((s, k) => {
-    t.page.drawRectangle({ x: lx, y: t.y - 8, width: 8, height: 8, color: SERIES[k % SERIES.length]!, borderColor: RULE, borderWidth: 0.3 });
+    t.page.drawRectangle({ x: lx, y: t.y - 8, width: 8, height: 8, color: t.c.SERIES[k % t.c.SERIES.length]!, borderColor: t.c.RULE, borderWidth: 0.3 });
     const label = t.wrap(s, t.f.regular, size, 200)[0] ?? '';
-    t.lines([label], lx + 11, t.y + 1, t.f.regular, size, INK);
+    t.lines([label], lx + 11, t.y + 1, t.f.regular, size, t.c.INK);
     lx += 11 + t.textWidth(label, t.f.regular, size) + 14;
   });
   t.y -= 14;
@@ -254,16 +259,16 @@ function drawBars(t: Typesetter, b: BriefBars): void {
   const plotH = b.bars.length * (barH + gap);
   for (const tick of ticks) {
     const x = sx(tick);
-    t.page.drawLine({ start: { x, y: top }, end: { x, y: top - plotH }, thickness: tick === 0 ? 0.8 : 0.3, color: tick === 0 ? RULE : HAIRLINE });
+    t.page.drawLine({ start: { x, y: top }, end: { x, y: top - plotH }, thickness: tick === 0 ? 0.8 : 0.3, color: tick === 0 ? t.c.RULE : t.c.HAIRLINE });
     const label = councilNumber(tick, 'money');
     const lw = t.textWidth(label, t.f.regular, size);
-    t.lines([label], x - lw / 2, top - plotH - 1, t.f.regular, size, MUTED);
+    t.lines([label], x - lw / 2, top - plotH - 1, t.f.regular, size, t.c.MUTED);
   }
   b.bars.forEach((bar, k) => {
     const yTop = top - k * (barH + gap) - gap / 2;
     let label = t.clean(bar.label);
     while (label.length > 1 && t.textWidth(label, t.f.regular, size) > labelW) label = `${label.slice(0, -2)}…`;
-    t.lines([label], MARGIN.left, yTop + 1.5, t.f.regular, size, INK, 'right', labelW);
+    t.lines([label], MARGIN.left, yTop + 1.5, t.f.regular, size, t.c.INK, 'right', labelW);
     let pos = 0;
     let neg = 0;
     bar.values.forEach((v, s) => {
@@ -272,12 +277,12 @@ function drawBars(t: Typesetter, b: BriefBars): void {
       const x0 = sx(from);
       const x1 = sx(from + Math.abs(v));
       if (v > 0) pos += v; else neg += v;
-      t.page.drawRectangle({ x: x0, y: yTop - barH, width: Math.max(0.2, x1 - x0), height: barH, color: SERIES[s % SERIES.length]! });
+      t.page.drawRectangle({ x: x0, y: yTop - barH, width: Math.max(0.2, x1 - x0), height: barH, color: t.c.SERIES[s % t.c.SERIES.length]! });
     });
-    t.lines([bar.total], plotX + plotW, yTop + 1.5, t.f.regular, size, INK, 'right', valueW);
+    t.lines([bar.total], plotX + plotW, yTop + 1.5, t.f.regular, size, t.c.INK, 'right', valueW);
   });
   t.y = top - plotH - 16;
-  t.lines([`${b.unit}`], plotX, t.y + 2, t.f.regular, size, MUTED, 'right', plotW);
+  t.lines([`${b.unit}`], plotX, t.y + 2, t.f.regular, size, t.c.MUTED, 'right', plotW);
   t.y -= 6;
 }
 
@@ -287,19 +292,19 @@ function drawBlock(t: Typesetter, b: BriefBlock): void {
       const size = b.level === 1 ? SIZE.title : SIZE.h2;
       t.y -= 8;
       t.need(size * LEADING + 60);
-      for (const l of t.wrap(b.text, t.f.bold, size, t.width)) t.y -= t.lines([l], MARGIN.left, t.y, t.f.bold, size, INK);
+      for (const l of t.wrap(b.text, t.f.bold, size, t.width)) t.y -= t.lines([l], MARGIN.left, t.y, t.f.bold, size, t.c.INK);
       t.y -= 2;
       return;
     }
     case 'paragraph': {
       const font = b.tone === 'strong' ? t.f.bold : t.f.regular;
       const size = b.tone === 'muted' ? SIZE.small : SIZE.body;
-      t.paragraph(b.text, font, size, b.tone === 'muted' ? MUTED : INK);
+      t.paragraph(b.text, font, size, b.tone === 'muted' ? t.c.MUTED : t.c.INK);
       t.y -= 3;
       return;
     }
     case 'facts': drawFacts(t, b.rows); t.y -= 2; return;
-    case 'list': drawList(t, b.items, b.tone === 'muted' ? MUTED : INK); return;
+    case 'list': drawList(t, b.items, b.tone === 'muted' ? t.c.MUTED : t.c.INK); return;
     case 'table': drawTable(t, b); return;
     case 'bars': drawBars(t, b); return;
   }
@@ -313,16 +318,23 @@ function drawFooters(t: Typesetter, footer: string): void {
     const rw = t.textWidth(right, t.f.regular, SIZE.footer);
     const left = t.wrap(footer, t.f.regular, SIZE.footer, t.width - rw - 12);
     const y = MARGIN.bottom - 18;
-    t.rule(y + 2, HAIRLINE, 0.4);
-    t.lines(left, MARGIN.left, y, t.f.regular, SIZE.footer, MUTED);
-    t.lines([right], MARGIN.left, y, t.f.regular, SIZE.footer, MUTED, 'right', t.width);
+    t.rule(y + 2, t.c.HAIRLINE, 0.4);
+    t.lines(left, MARGIN.left, y, t.f.regular, SIZE.footer, t.c.MUTED);
+    t.lines([right], MARGIN.left, y, t.f.regular, SIZE.footer, t.c.MUTED, 'right', t.width);
   });
 }
 
 /** The brief typeset as PDF bytes. */
 export async function briefPdf(doc: BriefDocument, opts: PdfOptions): Promise<Uint8Array> {
-  const regular = fontChecker(opts.fonts.regular, BRIEF_FONT_FILES.regular.postscriptName);
-  const bold = fontChecker(opts.fonts.bold, BRIEF_FONT_FILES.bold.postscriptName);
+  // Loaded on first use: the libraries are most of the CLI's and the worker's code, and most runs make no brief.
+  const [{ PDFDocument, rgb }, { default: fontkit }] = await Promise.all([import('@cantoo/pdf-lib'), import('@cantoo/fontkit')]);
+  const colour = ([r, g, b]: readonly [number, number, number]) => rgb(r, g, b);
+  const palette: Palette = {
+    INK: colour(COLOURS.INK), MUTED: colour(COLOURS.MUTED), RULE: colour(COLOURS.RULE), HAIRLINE: colour(COLOURS.HAIRLINE),
+    SERIES: SERIES_COLOURS.map(colour),
+  };
+  const regular = fontChecker(fontkit, opts.fonts.regular, BRIEF_FONT_FILES.regular.postscriptName);
+  const bold = fontChecker(fontkit, opts.fonts.bold, BRIEF_FONT_FILES.bold.postscriptName);
   const missing = new Set<string>();
   const clean: Clean = (s) => Array.from(visibleText(s), (ch) => {
     const cp = ch.codePointAt(0)!;
@@ -352,7 +364,7 @@ export async function briefPdf(doc: BriefDocument, opts: PdfOptions): Promise<Ui
     pdf.setCreationDate(date);
     pdf.setModificationDate(date);
   }
-  const t = new Typesetter(pdf, faces, opts.paper, clean);
+  const t = new Typesetter(pdf, faces, palette, opts.paper, clean);
   drawTitle(t, doc);
   for (const b of blocks) drawBlock(t, b);
   drawFooters(t, doc.footer);

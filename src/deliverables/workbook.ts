@@ -7,7 +7,6 @@
  * escaped as in CSV (src/csv safeText: a formula lead behind a single quote, control characters as escapes). An
  * "About" sheet holds the provenance, each sheet's notes and the cautions.
  */
-import writeXlsxFile from 'write-excel-file/universal';
 import type { Cell as XlsxCell, Row, SheetData } from 'write-excel-file/universal';
 import { safeText, type Cell } from '../csv/index.ts';
 
@@ -98,11 +97,12 @@ function sheetData(rows: readonly (readonly Cell[])[]): { data: SheetData; width
     w = Math.max(w, longestWord, Math.min(head.length, 14));
     widths.push(Math.min(MAX_WIDTH, Math.max(MIN_WIDTH, w + 2)));
   }
-  const headerLines = Math.max(1, ...header.map((h, c) => (typeof h === 'string' ? Math.ceil(h.length / Math.max(1, widths[c]! - 1)) : 1)));
+  // Lines a wrapped header takes (a column of width w holds about w characters of the bold header font).
+  const headerLines = Math.max(1, ...header.map((h, c) => (typeof h === 'string' ? Math.ceil(h.length / Math.max(1, widths[c]!)) : 1)));
   const data: SheetData = [];
   data.push(Array.from({ length: ncol }, (_, c): XlsxCell => {
     const h = header[c];
-    return { ...HEADER_STYLE, value: h === null || h === undefined ? '' : safeText(String(h)), type: String, height: 15 * Math.min(headerLines, 8) };
+    return { ...HEADER_STYLE, value: h === null || h === undefined ? '' : safeText(String(h)), type: String, height: 14 * Math.min(headerLines, 8) + 2 };
   }));
   for (const r of body) {
     const row: Row = [];
@@ -141,6 +141,8 @@ export async function workbookXlsx(input: WorkbookInput): Promise<Uint8Array> {
     return { data, sheet: names[k]!, columns: widths.map((width) => ({ width })), stickyRowsCount: 1, ...(firstColumnNames ? { stickyColumnsCount: 1 } : {}) };
   });
   sheets.push({ data: aboutData(input, names), sheet: names[names.length - 1]!, columns: [{ width: 34 }, { width: 110 }], stickyRowsCount: 0 });
+  // Loaded on first use, like the PDF library: most runs write no workbook.
+  const { default: writeXlsxFile } = await import('write-excel-file/universal');
   const blob = await writeXlsxFile(sheets, { fontFamily: 'Calibri', fontSize: 11 }).toBlob();
   return new Uint8Array(await blob.arrayBuffer());
 }

@@ -108,8 +108,12 @@ export interface CoefficientsOut {
   x: Float64Array;
   labourIncome: Float64Array;
   otherValueAdded: Float64Array;
+  /** Taxes less subsidies per unit of output, or null without a taxes row. */
+  taxes: Float64Array | null;
   imports: Float64Array;
   employment: Float64Array | null;
+  /** Full-time equivalents per unit of output, or null without an FTE row. */
+  fte: Float64Array | null;
   /** Household purchases from each sector per unit of household income; null without closure. */
   householdConsumption: Float64Array | null;
   householdIncomeTotal: number;
@@ -356,8 +360,10 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
       x: coef.x,
       labourIncome: coef.h,
       otherValueAdded: coef.otherVA,
+      taxes: coef.taxes,
       imports: coef.imports,
       employment: coef.e,
+      fte: coef.fte,
       householdConsumption: closed ? closed.hc : null,
       householdIncomeTotal: coef.householdIncomeTotal,
     },

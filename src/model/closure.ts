@@ -17,7 +17,7 @@ export interface ClosedCoefficients {
   readonly Abar: Float64Array;
   /** Household consumption coefficients c_i / x_h (the new column), length n. */
   hc: Float64Array;
-  /** Household income coefficients h_j (the new row), length n. */
+  /** Household income coefficients (the new row): h_j, or h_j times the resident share under commuting; length n. */
   hr: Float64Array;
   /**
    * ā_hh, households' purchases from households per unit of household income: 0 in our closure. A closure assembled by
@@ -26,8 +26,15 @@ export interface ClosedCoefficients {
   corner?: number;
 }
 
-/** Null when the table has no household income or no household consumption: Type II is then undefined. */
-export function closeHouseholds(c: Coefficients): ClosedCoefficients | null {
+/**
+ * Null when the table has no household income or no household consumption: Type II is then undefined.
+ *
+ * `residentShare` (0–1 per sector, default 1) is the part of each sector's labour income paid to people living in
+ * the region: the rest (commuters' pay) leaks out before household spending, so the household row is h_j·share_j.
+ * Consumption per unit of household income stays the table's c_i / x_h. A smaller row never makes the closed model
+ * less productive (Ā only loses weight, so ρ(Ā) cannot grow: Perron–Frobenius monotonicity).
+ */
+export function closeHouseholds(c: Coefficients, residentShare?: Float64Array): ClosedCoefficients | null {
   const { n, A, h, householdConsumption, householdIncomeTotal } = c;
   let consumption = 0;
   for (let i = 0; i < n; i++) consumption += householdConsumption[i]!;
@@ -35,7 +42,7 @@ export function closeHouseholds(c: Coefficients): ClosedCoefficients | null {
   const m = n + 1;
   const hc = new Float64Array(n);
   for (let i = 0; i < n; i++) hc[i] = householdConsumption[i]! / householdIncomeTotal;
-  const hr = Float64Array.from(h);
+  const hr = residentShare ? Float64Array.from(h, (v, j) => v * residentShare[j]!) : Float64Array.from(h);
   let formed: Float64Array | null = null;
   return {
     m,

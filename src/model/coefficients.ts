@@ -1,6 +1,9 @@
 /**
  * Technical coefficients and per-unit-output coefficients (Miller & Blair, Input–Output Analysis, 2nd ed. 2009, §2.2):
- * a_ij = z_ij / x_j; labour-income, other value-added, import and employment coefficients are the rows divided by x_j.
+ * a_ij = z_ij / x_j; labour-income, other value-added, taxes, import, employment and FTE coefficients are the rows
+ * divided by x_j. Value added per unit of output is h_j + other value added_j + taxes_j (`valueAddedPerUnit`): the
+ * national-accounts total, compensation plus other value added plus taxes less subsidies on production (SNA 2008
+ * ch. 7 — recalled from memory).
  */
 import type { IOTable, LabelledVector } from '../table/index.ts';
 
@@ -12,12 +15,16 @@ export interface Coefficients {
   x: Float64Array;
   /** Household (labour) income per unit of output, h_j (all labour-income rows summed). */
   h: Float64Array;
-  /** Other value added per unit of output. */
+  /** Other value added per unit of output (taxes not included). */
   otherVA: Float64Array;
+  /** Taxes less subsidies per unit of output (all taxes rows summed), or null when the table has no taxes row. */
+  taxes: Float64Array | null;
   /** Imports per unit of output. */
   imports: Float64Array;
   /** Jobs per unit of output, or null when the table has no employment row. */
   e: Float64Array | null;
+  /** Full-time equivalents per unit of output, or null when the table has no FTE row. */
+  fte: Float64Array | null;
   /** Household consumption from each sector (all household columns summed), money. */
   householdConsumption: Float64Array;
   /**
@@ -60,9 +67,18 @@ export function coefficients(t: IOTable): Coefficients {
     x,
     h: perUnit(labour, x),
     otherVA: perUnit(sumVectors(t.otherValueAdded, n), x),
+    taxes: t.taxes?.length ? perUnit(sumVectors(t.taxes, n), x) : null,
     imports: perUnit(sumVectors(t.imports, n), x),
     e: t.employment ? perUnit(t.employment, x) : null,
+    fte: t.fte ? perUnit(t.fte, x) : null,
     householdConsumption: sumVectors(t.householdConsumption, n),
     householdIncomeTotal,
   };
+}
+
+/** Value added per unit of output: labour income + other value added + taxes less subsidies (when the table has them). */
+export function valueAddedPerUnit(c: Coefficients): Float64Array {
+  const va = new Float64Array(c.n);
+  for (let j = 0; j < c.n; j++) va[j] = c.h[j]! + c.otherVA[j]! + (c.taxes ? c.taxes[j]! : 0);
+  return va;
 }

@@ -3,15 +3,20 @@
  * Rasmussen, Studies in Inter-Sectoral Relations, 1956, for the linkage indices), open model L = (I − A)⁻¹ and
  * household-closed model L̄ = (I − Ā)⁻¹:
  *   output      typeI = column sums of L; typeII = column sums of the first n rows of L̄ (production sectors only)
- *   income      simple = (h·L)_j; typeI = simple/h_j; total = L̄(n+1, j); typeII = total/h_j
+ *   income      simple = (h·L)_j; typeI = simple/h_j; total = (h·L̄[1..n,·])_j; typeII = total/h_j
  *   employment  simple = (e·L)_j; typeI = simple/e_j; total = (e·L̄[1..n,·])_j; typeII = total/e_j
- *   valueAdded  v = labour income + other value added per unit output (imports excluded):
+ *   valueAdded  v = labour income + other value added + taxes less subsidies per unit output (imports excluded):
  *               simple = (v·L)_j; total = (v·L̄[1..n,·])_j
+ *   taxes       t = taxes less subsidies per unit output: simple = (t·L)_j; total = (t·L̄[1..n,·])_j (when the table has them)
+ *   fte         as employment, with full-time equivalents per unit output (when the table has them)
+ * Income "total" is labour income in the sectors, (h·L̄[1..n,·])_j: it equals L̄(n+1, j) when every sector's income
+ * re-enters household spending, and stays the sectors' labour income when commuting leaks part of it out.
  *   linkages    backward_j = n·colsum_j(L)/ΣL; forward_i = n·rowsum_i(L)/ΣL; key sectors have both above 1.
  * Every multiplier row vector is one transposed solve against the factorisation; no inverse is formed.
  * A value that cannot be defined is null, with the reason in `notes`, never NaN or Infinity.
  */
 import { solveClosedTransposed, solveOpen, solveOpenTransposed, type PreparedModel } from './prepared.ts';
+import { valueAddedPerUnit } from './coefficients.ts';
 
 export type Values = (number | null)[];
 
@@ -28,6 +33,10 @@ export interface Multipliers {
   income: { simple: Values; typeI: Values; total: Values; typeII: Values };
   employment: { simple: Values; typeI: Values; total: Values; typeII: Values };
   valueAdded: { simple: Values; total: Values };
+  /** Null when the table has no taxes row. */
+  taxes: { simple: Values; total: Values } | null;
+  /** Null when the table has no full-time-equivalents row. */
+  fte: { simple: Values; typeI: Values; total: Values; typeII: Values } | null;
   notes: NullNote[];
 }
 
@@ -89,15 +98,14 @@ function extend(v: Float64Array, n: number, last: number): Float64Array {
 }
 
 export function computeMultipliers(pm: PreparedModel, avail: Availability): Multipliers {
-  const { n, h, e, otherVA } = pm.coef;
+  const { n, h, e, fte, taxes } = pm.coef;
   const notes: NullNote[] = [];
   const all = (measure: string, reason: string): Values => {
     notes.push({ measure, sectors: 'all', reason });
     return nulls(n);
   };
   const ones = new Float64Array(n).fill(1);
-  const va = new Float64Array(n);
-  for (let j = 0; j < n; j++) va[j] = h[j]! + otherVA[j]!;
+  const va = valueAddedPerUnit(pm.coef);
   const open = avail.open === true;
   const closed = avail.closed === true;
   const openWhy = avail.open === true ? '' : avail.open;
@@ -108,24 +116,29 @@ export function computeMultipliers(pm: PreparedModel, avail: Availability): Mult
 
   const incomeSimple = open ? toValues(solveOpenTransposed(pm, h), n) : all('income.simple', openWhy);
   const incomeI = open ? ratio(incomeSimple, h, 'income.typeI', 'labour income per unit of output (h_j)', notes) : all('income.typeI', openWhy);
-  const unitHousehold = new Float64Array(n + 1);
-  unitHousehold[n] = 1;
-  const incomeTotal = closed ? toValues(firstN(solveClosedTransposed(pm, unitHousehold), n), n) : all('income.total', closedWhy);
+  const incomeTotal = closed ? toValues(firstN(solveClosedTransposed(pm, extend(h, n, 0)), n), n) : all('income.total', closedWhy);
   const incomeII = closed ? ratio(incomeTotal, h, 'income.typeII', 'labour income per unit of output (h_j)', notes) : all('income.typeII', closedWhy);
 
-  let empSimple: Values, empI: Values, empTotal: Values, empII: Values;
+  /** Simple, Type I, total and Type II of a per-unit-output row (jobs, FTE). */
+  const headcount = (group: string, c: Float64Array, what: string) => {
+    const simple = open ? toValues(solveOpenTransposed(pm, c), n) : all(`${group}.simple`, openWhy);
+    const typeI = open ? ratio(simple, c, `${group}.typeI`, what, notes) : all(`${group}.typeI`, openWhy);
+    const total = closed ? toValues(firstN(solveClosedTransposed(pm, extend(c, n, 0)), n), n) : all(`${group}.total`, closedWhy);
+    const typeII = closed ? ratio(total, c, `${group}.typeII`, what, notes) : all(`${group}.typeII`, closedWhy);
+    return { simple, typeI, total, typeII };
+  };
+  let employment: Multipliers['employment'];
   if (!e) {
     const why = 'the table has no employment row';
-    empSimple = all('employment.simple', why);
-    empI = all('employment.typeI', why);
-    empTotal = all('employment.total', why);
-    empII = all('employment.typeII', why);
+    employment = { simple: all('employment.simple', why), typeI: all('employment.typeI', why), total: all('employment.total', why), typeII: all('employment.typeII', why) };
   } else {
-    empSimple = open ? toValues(solveOpenTransposed(pm, e), n) : all('employment.simple', openWhy);
-    empI = open ? ratio(empSimple, e, 'employment.typeI', 'jobs per unit of output (e_j)', notes) : all('employment.typeI', openWhy);
-    empTotal = closed ? toValues(firstN(solveClosedTransposed(pm, extend(e, n, 0)), n), n) : all('employment.total', closedWhy);
-    empII = closed ? ratio(empTotal, e, 'employment.typeII', 'jobs per unit of output (e_j)', notes) : all('employment.typeII', closedWhy);
+    employment = headcount('employment', e, 'jobs per unit of output (e_j)');
   }
+  const fteOut = fte ? headcount('fte', fte, 'full-time equivalents per unit of output') : null;
+  const taxesOut = taxes ? {
+    simple: open ? toValues(solveOpenTransposed(pm, taxes), n) : all('taxes.simple', openWhy),
+    total: closed ? toValues(firstN(solveClosedTransposed(pm, extend(taxes, n, 0)), n), n) : all('taxes.total', closedWhy),
+  } : null;
 
   const vaSimple = open ? toValues(solveOpenTransposed(pm, va), n) : all('valueAdded.simple', openWhy);
   const vaTotal = closed ? toValues(firstN(solveClosedTransposed(pm, extend(va, n, 0)), n), n) : all('valueAdded.total', closedWhy);
@@ -133,8 +146,10 @@ export function computeMultipliers(pm: PreparedModel, avail: Availability): Mult
   return {
     output: { typeI: outputI, typeII: outputII },
     income: { simple: incomeSimple, typeI: incomeI, total: incomeTotal, typeII: incomeII },
-    employment: { simple: empSimple, typeI: empI, total: empTotal, typeII: empII },
+    employment,
     valueAdded: { simple: vaSimple, total: vaTotal },
+    taxes: taxesOut,
+    fte: fteOut,
     notes,
   };
 }

@@ -52,9 +52,14 @@ function dot(p: Float64Array, q: Float64Array, n: number): number {
   return s;
 }
 
+export interface PrepareModelOptions {
+  /** Resident share of each sector's labour income (commuting; see closeHouseholds). Default: all residents. */
+  residentShare?: Float64Array;
+}
+
 /** Prepare from a table; `coef` may be passed when already computed. */
-export function prepareModel(table: IOTable, coef: Coefficients = coefficients(table)): PreparedModel {
-  const closed = closeHouseholds(coef);
+export function prepareModel(table: IOTable, coef: Coefficients = coefficients(table), opts: PrepareModelOptions = {}): PreparedModel {
+  const closed = closeHouseholds(coef, opts.residentShare);
   const n = coef.n;
   // I − A is formed where it is factored (no n×n copy of its own).
   const openLU = luFactorFrom(n, (w) => identityMinusInto(coef.A, n, w));

@@ -1,7 +1,8 @@
 /**
  * Project files: one JSON document per study — the source file as read (its bytes, name, SHA-256 and the import
- * settings: layout, role map, options), the scenarios, spending patterns and settings (household closure, paths,
- * rounds). Results are never stored. Loading re-imports the source bytes through the table importer, so a project
+ * settings: layout, role map, options), the scenarios and their phases, spending mixes, activities not in the table,
+ * margins, the price index, commuting, and settings (household closure, paths, rounds, discount rate). Results are
+ * never stored. Loading re-imports the source bytes through the table importer, so a project
  * passes exactly the validations a table file does, and compares the bytes with their recorded SHA-256; studies from
  * older versions that kept only the imported numbers are checked by the importer's whole-table validations instead.
  * Loading refuses, with one clear message, a file that is empty, truncated, not JSON, not a Roundwise project,
@@ -10,19 +11,22 @@
  */
 import { InputError, type Warning } from '../diagnostics/index.ts';
 import { importTable, type ImportOptions } from '../table/index.ts';
-import type { Scenario, SpendingPattern } from '../scenario/index.ts';
+import {
+  checkActivity, checkActivitySectors, checkMarginSectors, checkMixSectors, mixShares, mixesOfTable,
+  type Activity, type Commuting, type Margins, type PriceIndex, type Scenario, type SpendingMix,
+} from '../scenario/index.ts';
 import { validateTable, type IOTable, type LabelledVector, type RoleMap } from '../table/index.ts';
 import { writeJson, type Json } from './json.ts';
 import {
-  DEFAULT_SETTINGS, PROJECT_FORMAT, PROJECT_VERSION, migrateV1, migrateV2, projectV1Schema, projectV2Schema, projectV3Schema,
-  type ProjectV2Doc, type ProjectV3Doc,
+  DEFAULT_SETTINGS, PROJECT_FORMAT, PROJECT_VERSION, migrateV1, migrateV2, migrateV3, projectV1Schema, projectV2Schema, projectV3Schema,
+  projectV4Schema, type ProjectV2Doc, type ProjectV3Doc, type ProjectV4Doc,
 } from './schema.ts';
 import { sha256Hex } from './sha256.ts';
 import { fromBase64, toBase64 } from './base64.ts';
 
 export { PROJECT_FORMAT, PROJECT_VERSION } from './schema.ts';
 
-export type ProjectSettings = ProjectV3Doc['settings'];
+export type ProjectSettings = ProjectV4Doc['settings'];
 
 /** How a source file was imported: everything importTable needs besides the text and the file name. */
 export type ImportSettings = Omit<ImportOptions, 'fileName' | 'moneyUnit'>;
@@ -38,13 +42,24 @@ export interface SourceInfo {
   import?: ImportSettings;
 }
 
+/** The price index and the table's money year (null: read from the table's corner cell, if it holds one year). */
+export interface StudyPrices {
+  tableYear: number | null;
+  index: PriceIndex | null;
+}
+
 export interface Project {
   name: string;
   source: SourceInfo | null;
   /** The table as imported; `table.roles` is the role map that is saved. */
   table: IOTable;
   scenarios: Scenario[];
-  patterns: SpendingPattern[];
+  /** Spending mixes the user made or imported (the table's own, from its final-demand columns, are added on use). */
+  mixes: SpendingMix[];
+  activities: Activity[];
+  margins: Margins | null;
+  prices: StudyPrices;
+  commuting: Commuting;
   settings: ProjectSettings;
 }
 
@@ -62,16 +77,20 @@ export function importSource(source: SourceInfo & { content: Uint8Array }): IOTa
 }
 
 export function defaultSettings(): ProjectSettings {
-  return { closure: DEFAULT_SETTINGS.closure, paths: { ...DEFAULT_SETTINGS.paths }, rounds: { ...DEFAULT_SETTINGS.rounds }, activeScenario: null };
+  return { closure: DEFAULT_SETTINGS.closure, paths: { ...DEFAULT_SETTINGS.paths }, rounds: { ...DEFAULT_SETTINGS.rounds }, activeScenario: null, discountRate: null };
 }
 
-export function createProject(table: IOTable, opts: { name?: string; source?: SourceInfo | null; scenarios?: Scenario[]; patterns?: SpendingPattern[] } = {}): Project {
+export function createProject(table: IOTable, opts: { name?: string; source?: SourceInfo | null; scenarios?: Scenario[]; mixes?: SpendingMix[] } = {}): Project {
   return {
     name: opts.name ?? table.name,
     source: opts.source ?? null,
     table,
     scenarios: opts.scenarios ?? [],
-    patterns: opts.patterns ?? [],
+    mixes: opts.mixes ?? [],
+    activities: [],
+    margins: null,
+    prices: { tableYear: null, index: null },
+    commuting: { overall: 0, sectors: [] },
     settings: defaultSettings(),
   };
 }
@@ -81,7 +100,7 @@ export function createProject(table: IOTable, opts: { name?: string; source?: So
 const arr = (v: Float64Array): number[] => Array.from(v);
 const labelledDoc = (vs: LabelledVector[]) => vs.map((v) => ({ label: v.label, values: arr(v.values) }));
 
-function tableDoc(t: IOTable): NonNullable<ProjectV3Doc['table']> {
+function tableDoc(t: IOTable): NonNullable<ProjectV4Doc['table']> {
   return {
     name: t.name,
     sectors: [...t.sectors],
@@ -91,8 +110,10 @@ function tableDoc(t: IOTable): NonNullable<ProjectV3Doc['table']> {
     x: arr(t.x),
     labourIncome: labelledDoc(t.labourIncome),
     otherValueAdded: labelledDoc(t.otherValueAdded),
+    ...(t.taxes?.length ? { taxes: labelledDoc(t.taxes) } : {}),
     imports: labelledDoc(t.imports),
     employment: t.employment ? arr(t.employment) : null,
+    ...(t.fte ? { fte: arr(t.fte) } : {}),
     householdConsumption: labelledDoc(t.householdConsumption),
     otherFinalDemand: labelledDoc(t.otherFinalDemand),
     ...(t.householdIncomeFromFinalDemand?.length ? { householdIncomeFromFinalDemand: t.householdIncomeFromFinalDemand.map((c) => ({ row: c.row, column: c.column, value: c.value })) } : {}),
@@ -100,7 +121,7 @@ function tableDoc(t: IOTable): NonNullable<ProjectV3Doc['table']> {
   };
 }
 
-function rolesDoc(r: Partial<RoleMap>): ProjectV3Doc['roles'] {
+function rolesDoc(r: Partial<RoleMap>): ProjectV4Doc['roles'] {
   return { rows: { ...(r.rows ?? {}) }, columns: { ...(r.columns ?? {}) }, ...(r.sectors?.length ? { sectors: [...r.sectors] } : {}) };
 }
 
@@ -112,7 +133,7 @@ function contentDoc(bytes: Uint8Array): { encoding: 'utf-8' | 'base64'; data: st
   }
 }
 
-function importDoc(s: ImportSettings | undefined): NonNullable<ProjectV3Doc['source']>['import'] {
+function importDoc(s: ImportSettings | undefined): NonNullable<ProjectV4Doc['source']>['import'] {
   const i = s ?? {};
   return {
     ...(i.layout !== undefined ? { layout: i.layout } : {}),
@@ -125,12 +146,14 @@ function importDoc(s: ImportSettings | undefined): NonNullable<ProjectV3Doc['sou
   };
 }
 
-function toDoc(p: Project): ProjectV3Doc {
+const opt = <K extends string, V>(k: K, v: V | undefined): { [P in K]?: V } => (v === undefined ? {} : { [k]: v } as { [P in K]: V });
+
+function toDoc(p: Project): ProjectV4Doc {
   const t = p.table;
   const src = p.source;
   return {
     format: PROJECT_FORMAT,
-    version: 3,
+    version: 4,
     name: p.name,
     source: src ? {
       fileName: src.fileName,
@@ -142,17 +165,39 @@ function toDoc(p: Project): ProjectV3Doc {
     // The numbers only when the source bytes are not at hand: otherwise the table is re-imported from them.
     ...(src?.content ? {} : { table: tableDoc(t) }),
     roles: rolesDoc(t.roles),
-    // Line origins (shock-file lines) describe where a line was typed, not the study: they are not saved.
+    // Line origins (file lines) describe where a line was typed, not the study: they are not saved.
     scenarios: p.scenarios.map((s) => ({
       name: s.name,
-      ...(s.description !== undefined ? { description: s.description } : {}),
-      lines: s.lines.map((l) => ({
-        sector: l.sector, amount: l.amount, kind: l.kind, localShare: l.localShare,
-        ...(l.note !== undefined ? { note: l.note } : {}), ...(l.pattern !== undefined ? { pattern: l.pattern } : {}),
+      ...opt('description', s.description),
+      phases: s.phases.map((ph) => ({
+        name: ph.name,
+        timing: ph.timing,
+        ...opt('year', ph.year),
+        ...opt('years', ph.years),
+        lines: ph.lines.map((l) => ({
+          sector: l.sector, amount: l.amount, kind: l.kind, localShare: l.localShare,
+          ...opt('prices', l.prices), ...opt('priceYear', l.priceYear), ...opt('displacement', l.displacement), ...opt('deadweight', l.deadweight),
+          ...opt('note', l.note), ...opt('mix', l.mix),
+        })),
       })),
     })),
-    patterns: p.patterns.map((pt) => ({ name: pt.name, shares: pt.shares.map((s) => ({ sector: s.sector, share: s.share })) })),
-    settings: { closure: p.settings.closure, paths: { ...p.settings.paths }, rounds: { ...p.settings.rounds }, activeScenario: p.settings.activeScenario },
+    mixes: p.mixes.map((m) => ({ name: m.name, shares: m.shares.map((s) => ({ sector: s.sector, share: s.share })) })),
+    activities: p.activities.map((a) => ({
+      name: a.name, output: a.output,
+      ...opt('jobs', a.jobs), ...opt('fte', a.fte), ...opt('labourIncome', a.labourIncome), ...opt('valueAdded', a.valueAdded), ...opt('taxes', a.taxes),
+      purchases: a.purchases.map((x) => ({ sector: x.sector, amount: x.amount, localShare: x.localShare })),
+    })),
+    margins: p.margins ? {
+      sectors: { ...p.margins.sectors },
+      localShare: { ...p.margins.localShare },
+      rows: p.margins.rows.map((r) => ({ sector: r.sector, shares: { ...r.shares } })),
+    } : null,
+    prices: { tableYear: p.prices.tableYear, index: p.prices.index ? p.prices.index.points.map((x) => ({ year: x.year, index: x.index })) : null },
+    commuting: { overall: p.commuting.overall, sectors: p.commuting.sectors.map((c) => ({ sector: c.sector, share: c.share })) },
+    settings: {
+      closure: p.settings.closure, paths: { ...p.settings.paths }, rounds: { ...p.settings.rounds }, activeScenario: p.settings.activeScenario,
+      discountRate: p.settings.discountRate,
+    },
   };
 }
 
@@ -234,30 +279,73 @@ function invalid(file: string, path: string, message: string): InputError {
   return new InputError('project-invalid', `the project file is damaged or was edited by hand: ${path}: ${message}`, { file });
 }
 
-function checkTableDoc(t: NonNullable<ProjectV3Doc['table']>, file: string): void {
+function checkTableDoc(t: NonNullable<ProjectV4Doc['table']>, file: string): void {
   const n = t.sectors.length;
   if (new Set(t.sectors).size !== n) throw invalid(file, 'table.sectors', 'sector labels repeat');
   if (t.Z.length !== n * n) throw invalid(file, 'table.Z', `expected ${n * n} flows for ${n} sectors, found ${t.Z.length}`);
   if (t.x.length !== n) throw invalid(file, 'table.x', `expected ${n} outputs, found ${t.x.length}`);
   if (t.employment && t.employment.length !== n) throw invalid(file, 'table.employment', `expected ${n} values, found ${t.employment.length}`);
-  for (const key of ['labourIncome', 'otherValueAdded', 'imports', 'householdConsumption', 'otherFinalDemand'] as const) {
-    t[key].forEach((v, k) => {
+  if (t.fte && t.fte.length !== n) throw invalid(file, 'table.fte', `expected ${n} values, found ${t.fte.length}`);
+  for (const key of ['labourIncome', 'otherValueAdded', 'taxes', 'imports', 'householdConsumption', 'otherFinalDemand'] as const) {
+    (t[key] ?? []).forEach((v, k) => {
       if (v.values.length !== n) throw invalid(file, `table.${key}[${k}].values`, `expected ${n} values, found ${v.values.length}`);
     });
   }
 }
 
-function checkSectors(d: ProjectV3Doc, sectors: readonly string[], file: string): void {
-  const known = new Set(sectors);
-  d.scenarios.forEach((s, i) => s.lines.forEach((l, j) => {
-    if (!known.has(l.sector)) throw invalid(file, `scenarios[${i}].lines[${j}].sector`, `unknown sector '${l.sector}'`);
-  }));
-  d.patterns.forEach((p, i) => p.shares.forEach((s, j) => {
-    if (!known.has(s.sector)) throw invalid(file, `patterns[${i}].shares[${j}].sector`, `unknown sector '${s.sector}'`);
-  }));
+/**
+ * The study's content against its table: every line's sector (or mix, or activity), every mix, activity, margin and
+ * commuting sector; a phase name used twice in a scenario; activity budgets and mix shares that cannot be.
+ */
+function checkContent(d: ProjectV4Doc, table: IOTable, file: string): void {
+  const known = new Set(table.sectors);
+  const mixNames = new Set([...d.mixes.map((m) => m.name), ...mixesOfTable(table).map((m) => m.name)]);
+  const activityNames = new Set(d.activities.map((a) => a.name));
+  d.scenarios.forEach((s, i) => {
+    const phaseNames = new Set<string>();
+    s.phases.forEach((ph, p) => {
+      if (phaseNames.has(ph.name)) throw invalid(file, `scenarios[${i}].phases[${p}].name`, `phase '${ph.name}' appears twice in scenario '${s.name}'`);
+      phaseNames.add(ph.name);
+      if (ph.years !== undefined && ph.timing !== 'annual') throw invalid(file, `scenarios[${i}].phases[${p}].years`, 'only an annual phase has a number of years');
+      ph.lines.forEach((l, j) => {
+        const at = `scenarios[${i}].phases[${p}].lines[${j}].sector`;
+        if (l.kind === 'labour-income') {
+          if (l.sector !== '') throw invalid(file, at, `a labour-income line has no sector (found '${l.sector}')`);
+        } else if (l.kind === 'mix') {
+          if (!mixNames.has(l.sector)) throw invalid(file, at, `unknown spending mix '${l.sector}'`);
+        } else if (l.kind === 'activity') {
+          if (!activityNames.has(l.sector)) throw invalid(file, at, `unknown activity '${l.sector}'`);
+        } else if (!known.has(l.sector)) {
+          throw invalid(file, at, `unknown sector '${l.sector}'`);
+        }
+      });
+    });
+  });
+  const wrap = (path: string, f: () => void): void => {
+    try {
+      f();
+    } catch (e) {
+      if (e instanceof InputError) throw invalid(file, path, e.message);
+      throw e;
+    }
+  };
+  d.mixes.forEach((m, i) => wrap(`mixes[${i}]`, () => { mixShares(m); checkMixSectors([m], table.sectors); }));
+  d.activities.forEach((a, i) => wrap(`activities[${i}]`, () => { checkActivity(a); checkActivitySectors([a], table.sectors); }));
+  if (d.margins) {
+    const m = d.margins;
+    wrap('margins', () => {
+      checkMarginSectors(m, table.sectors);
+      m.rows.forEach((r) => {
+        if (r.shares.retail + r.shares.wholesale + r.shares.transport > 1 + 1e-12) throw new InputError('margins-exceed', `the margin shares of '${r.sector}' add up to more than 1`);
+      });
+    });
+  }
+  d.commuting.sectors.forEach((c, i) => {
+    if (!known.has(c.sector)) throw invalid(file, `commuting.sectors[${i}].sector`, `unknown sector '${c.sector}'`);
+  });
 }
 
-function tableFromDoc(t: NonNullable<ProjectV3Doc['table']>, roles: ProjectV3Doc['roles']): IOTable {
+function tableFromDoc(t: NonNullable<ProjectV4Doc['table']>, roles: ProjectV4Doc['roles']): IOTable {
   const f64 = (v: number[]) => Float64Array.from(v);
   const labelledVec = (vs: { label: string; values: number[] }[]) => vs.map((v) => ({ label: v.label, values: f64(v.values) }));
   return {
@@ -268,8 +356,10 @@ function tableFromDoc(t: NonNullable<ProjectV3Doc['table']>, roles: ProjectV3Doc
     x: f64(t.x),
     labourIncome: labelledVec(t.labourIncome),
     otherValueAdded: labelledVec(t.otherValueAdded),
+    ...(t.taxes?.length ? { taxes: labelledVec(t.taxes) } : {}),
     imports: labelledVec(t.imports),
     employment: t.employment ? f64(t.employment) : null,
+    ...(t.fte ? { fte: f64(t.fte) } : {}),
     householdConsumption: labelledVec(t.householdConsumption),
     otherFinalDemand: labelledVec(t.otherFinalDemand),
     ...(t.householdIncomeFromFinalDemand ? { householdIncomeFromFinalDemand: t.householdIncomeFromFinalDemand } : {}),
@@ -281,7 +371,7 @@ function tableFromDoc(t: NonNullable<ProjectV3Doc['table']>, roles: ProjectV3Doc
 }
 
 /** The source's bytes from the document, with their recorded hash checked (a mismatch is said, not hidden). */
-function sourceFromDoc(src: NonNullable<ProjectV3Doc['source']>, file: string): { source: SourceInfo; warning: Warning | null } {
+function sourceFromDoc(src: NonNullable<ProjectV4Doc['source']>, file: string): { source: SourceInfo; warning: Warning | null } {
   const base: SourceInfo = { fileName: src.fileName, sha256: src.sha256, ...(src.bytes !== undefined ? { bytes: src.bytes } : {}), import: src.import as ImportSettings };
   if (!src.content) return { source: base, warning: null };
   const bytes = src.content.encoding === 'utf-8' ? new TextEncoder().encode(src.content.data) : fromBase64(src.content.data);
@@ -295,7 +385,7 @@ function sourceFromDoc(src: NonNullable<ProjectV3Doc['source']>, file: string): 
   return { source: { ...base, sha256: actual, bytes: bytes.length, content: bytes }, warning };
 }
 
-function fromDoc(d: ProjectV3Doc, file: string, notes: string[]): Project {
+function fromDoc(d: ProjectV4Doc, file: string, notes: string[]): Project {
   let source: SourceInfo | null = null;
   let table: IOTable;
   const found = d.source ? sourceFromDoc(d.source, file) : null;
@@ -324,8 +414,21 @@ function fromDoc(d: ProjectV3Doc, file: string, notes: string[]): Project {
     }
   }
   for (const message of notes) table.warnings.push({ code: 'project-migrated', message, location: { file } });
-  checkSectors(d, table.sectors, file);
-  return { name: d.name, source, table, scenarios: d.scenarios, patterns: d.patterns, settings: d.settings };
+  checkContent(d, table, file);
+  return {
+    name: d.name, source, table,
+    scenarios: d.scenarios.map((sc) => ({
+      name: sc.name,
+      ...(sc.description !== undefined ? { description: sc.description } : {}),
+      phases: sc.phases.map((ph) => ({ ...ph, lines: ph.lines.map((l) => ({ ...l })) })),
+    })),
+    mixes: d.mixes,
+    activities: d.activities,
+    margins: d.margins,
+    prices: { tableYear: d.prices.tableYear, index: d.prices.index ? { points: d.prices.index.map((x) => ({ ...x })) } : null },
+    commuting: d.commuting,
+    settings: d.settings,
+  };
 }
 
 function parsed<T>(r: { success: true; data: T } | { success: false; error: { issues: { path: PropertyKey[]; message: string }[] } }, file: string): T {
@@ -350,9 +453,12 @@ export function parseProject(text: string, fileName = 'project'): Project {
     throw new InputError('project-newer', `the project was saved by a newer Roundwise (project version ${version}; this one reads up to ${PROJECT_VERSION}) — open it there, or update`, { file: fileName });
   }
   const notes: string[] = [];
-  let doc: ProjectV3Doc;
+  let v3: ProjectV3Doc;
+  if (version === 4) {
+    return fromDoc(parsed(projectV4Schema.safeParse(raw), fileName), fileName, notes);
+  }
   if (version === 3) {
-    doc = parsed(projectV3Schema.safeParse(raw), fileName);
+    v3 = parsed(projectV3Schema.safeParse(raw), fileName);
   } else {
     let v2: ProjectV2Doc;
     if (version === 1) {
@@ -366,8 +472,10 @@ export function parseProject(text: string, fileName = 'project'): Project {
       v2 = parsed(projectV2Schema.safeParse(raw), fileName);
     }
     const m = migrateV2(v2);
-    doc = m.doc;
+    v3 = m.doc;
     notes.push(m.note);
   }
-  return fromDoc(doc, fileName, notes);
+  const m4 = migrateV3(v3);
+  if (m4.note) notes.push(m4.note);
+  return fromDoc(m4.doc, fileName, notes);
 }

@@ -1,17 +1,19 @@
 /**
- * Project file schemas, checked with zod on load. Version 3 is current: the study's source file itself (its bytes,
- * hash and import settings) instead of the imported numbers, and the household closure as a setting of its own.
- * Version 2 (imported numbers; closure only implied by the path model) and version 1 (nested flow rows, flat source
- * fields, `roleMap`, `share` on scenario lines, no spending patterns) are migrated on load.
+ * Project file schemas, checked with zod on load. Version 4 is current: scenarios of phases (one-time or annual), the
+ * new line kinds and line fields (purchaser prices, price year, displacement and deadweight), spending mixes,
+ * activities not in the table, margins, the price index and the table's money year, commuting and the discount rate.
+ * Version 3 (the source file itself with its import settings; scenarios as flat line lists; "patterns"), version 2
+ * (imported numbers; closure only implied by the path model) and version 1 (nested flow rows, flat source fields,
+ * `roleMap`, `share` on scenario lines, no spending mixes) are migrated on load.
  * A new version: add its schema here, a `migrateVn` from the previous one, and bump PROJECT_VERSION.
  */
 import { z } from '../schema/index.ts';
 
 export const PROJECT_FORMAT = 'roundwise-project';
-export const PROJECT_VERSION = 3;
+export const PROJECT_VERSION = 4;
 
 const num = z.number();
-const rowRole = z.enum(['labourIncome', 'otherValueAdded', 'imports', 'employment', 'totalInput', 'ignore']);
+const rowRole = z.enum(['labourIncome', 'otherValueAdded', 'taxes', 'imports', 'employment', 'fte', 'totalInput', 'ignore']);
 const columnRole = z.enum(['householdConsumption', 'otherFinalDemand', 'totalOutput', 'ignore']);
 export const roleMapSchema = z.object({
   rows: z.record(z.string(), rowRole),
@@ -38,8 +40,12 @@ function tableFields<F extends z.ZodType>(flows: F) {
     x: z.array(num),
     labourIncome: z.array(labelled),
     otherValueAdded: z.array(labelled),
+    /** Taxes less subsidies rows (version 4; optional, absent when none). */
+    taxes: z.array(labelled).optional(),
     imports: z.array(labelled),
     employment: z.array(num).nullable(),
+    /** Full-time equivalents (version 4; optional, absent when none). */
+    fte: z.array(num).optional(),
     householdConsumption: z.array(labelled),
     otherFinalDemand: z.array(labelled),
     /** Labour income paid by final-demand columns (household income in the closed model); optional, absent when none. */
@@ -48,7 +54,7 @@ function tableFields<F extends z.ZodType>(flows: F) {
   };
 }
 
-// ---- version 2 (current) ----
+// ---- version 2 ----
 const lineV2 = z.object({
   sector: z.string(), amount: num, kind, localShare: num.min(0).max(1),
   note: z.string().optional(), pattern: z.string().optional(),
@@ -95,7 +101,7 @@ export const projectV1Schema = z.object({
 });
 export type ProjectV1Doc = z.infer<typeof projectV1Schema>;
 
-// ---- version 3 (current) ----
+// ---- version 3 ----
 const importSettings = z.object({
   layout: z.enum(['matrix', 'long', 'coefficients']).optional(),
   delimiter: z.enum([',', ';', '\t']).optional(),
@@ -195,5 +201,92 @@ export function migrateV1(d: ProjectV1Doc): ProjectV2Doc {
     })),
     patterns: [],
     settings: { paths: { ...DEFAULT_V2_SETTINGS.paths }, rounds: { ...DEFAULT_V2_SETTINGS.rounds }, activeScenario: null },
+  };
+}
+
+// ---- version 4 (current) ----
+const share = num.min(0).max(1);
+const year = z.number().int().min(1000).max(9999);
+const lineV4 = z.object({
+  sector: z.string(), amount: num, kind: z.enum(['final-demand', 'output', 'jobs', 'labour-income', 'mix', 'activity']), localShare: share,
+  prices: z.enum(['producer', 'purchaser']).optional(), priceYear: year.optional(),
+  displacement: share.optional(), deadweight: share.optional(),
+  note: z.string().optional(), mix: z.string().optional(),
+});
+const phaseV4 = z.object({
+  name: z.string().min(1), timing: z.enum(['once', 'annual']), year: year.optional(), years: z.number().int().min(1).max(1000).optional(),
+  lines: z.array(lineV4),
+});
+const scenarioV4 = z.object({ name: z.string(), description: z.string().optional(), phases: z.array(phaseV4).min(1) });
+const mixV4 = z.object({ name: z.string().min(1), shares: z.array(z.object({ sector: z.string(), share })) });
+const activityV4 = z.object({
+  name: z.string().min(1), output: num.positive(),
+  jobs: num.min(0).optional(), fte: num.min(0).optional(), labourIncome: num.optional(), valueAdded: num.optional(), taxes: num.optional(),
+  purchases: z.array(z.object({ sector: z.string(), amount: num.min(0), localShare: share })),
+});
+const marginRecord = z.object({ retail: share, wholesale: share, transport: share });
+const marginsV4 = z.object({
+  sectors: z.object({ retail: z.string().nullable(), wholesale: z.string().nullable(), transport: z.string().nullable() }),
+  localShare: marginRecord,
+  rows: z.array(z.object({ sector: z.string(), shares: marginRecord })),
+});
+export const settingsV4Schema = settingsV3Schema.extend({
+  /** Discount rate for the present value of annual phases (a share per year), or null for none. */
+  discountRate: num.min(0).lt(1).nullable(),
+});
+export const projectV4Schema = z.object({
+  format: z.literal(PROJECT_FORMAT),
+  version: z.literal(4),
+  name: z.string(),
+  source: projectV3Schema.shape.source,
+  table: z.object(tableFields(z.array(num))).optional(),
+  roles: roleMapSchema,
+  scenarios: z.array(scenarioV4),
+  mixes: z.array(mixV4),
+  activities: z.array(activityV4),
+  margins: marginsV4.nullable(),
+  prices: z.object({ tableYear: year.nullable(), index: z.array(z.object({ year, index: num.positive() })).nullable() }),
+  commuting: z.object({ overall: share, sectors: z.array(z.object({ sector: z.string(), share })) }),
+  settings: settingsV4Schema,
+});
+export type ProjectV4Doc = z.infer<typeof projectV4Schema>;
+
+/** The phase every scenario of an older project becomes (its lines, one-time: the shock file's default timing). */
+export const MIGRATED_PHASE = 'Phase 1';
+
+/**
+ * v3 → v4: each scenario's lines become one one-time phase (a scenario before phases was one list of lines; one-time
+ * is what a shock file without a timing column means, so an old file and its migrated study say the same); "patterns"
+ * become spending mixes and a line's `pattern` tag its `mix`; no activities, margins, price index, commuting or
+ * discount rate.
+ */
+export function migrateV3(d: ProjectV3Doc): { doc: ProjectV4Doc; note: string | null } {
+  return {
+    doc: {
+      format: PROJECT_FORMAT,
+      version: 4,
+      name: d.name,
+      source: d.source,
+      ...(d.table ? { table: d.table } : {}),
+      roles: d.roles,
+      scenarios: d.scenarios.map((s) => ({
+        name: s.name,
+        ...(s.description !== undefined ? { description: s.description } : {}),
+        phases: [{
+          name: MIGRATED_PHASE,
+          timing: 'once' as const,
+          lines: s.lines.map(({ pattern, ...l }) => ({ ...l, ...(pattern !== undefined ? { mix: pattern } : {}) })),
+        }],
+      })),
+      mixes: d.patterns,
+      activities: [],
+      margins: null,
+      prices: { tableYear: null, index: null },
+      commuting: { overall: 0, sectors: [] },
+      settings: { ...d.settings, discountRate: null },
+    },
+    note: d.scenarios.length
+      ? `this project was saved before scenarios had phases: each scenario's lines became one one-time phase, '${MIGRATED_PHASE}'; set its timing to annual where the lines recur every year`
+      : null,
   };
 }

@@ -96,7 +96,7 @@ function sumColumns(v: LabelledVector, groupOf: Int32Array, k: number): Labelled
 export function aggregateTable(t: IOTable, mapping: GroupMapping, opts: { name?: string } = {}): AggregationResult {
   const file = mapping.fileName;
   const index = new Map(t.sectors.map((s, i) => [s, i]));
-  const others = new Set([...t.labourIncome, ...t.otherValueAdded, ...t.imports, ...t.householdConsumption, ...t.otherFinalDemand].map((v) => v.label));
+  const others = new Set([...t.labourIncome, ...t.otherValueAdded, ...(t.taxes ?? []), ...t.imports, ...t.householdConsumption, ...t.otherFinalDemand].map((v) => v.label));
   const groups: string[] = [];
   const groupIndex = new Map<string, number>();
   const groupOf = new Int32Array(t.n).fill(-1);
@@ -133,8 +133,10 @@ export function aggregateTable(t: IOTable, mapping: GroupMapping, opts: { name?:
     x: sum(t.x),
     labourIncome: t.labourIncome.map((v) => sumColumns(v, groupOf, k)),
     otherValueAdded: t.otherValueAdded.map((v) => sumColumns(v, groupOf, k)),
+    ...(t.taxes ? { taxes: t.taxes.map((v) => sumColumns(v, groupOf, k)) } : {}),
     imports: t.imports.map((v) => sumColumns(v, groupOf, k)),
     employment: t.employment ? sum(t.employment) : null,
+    ...(t.fte ? { fte: sum(t.fte) } : {}),
     householdConsumption: t.householdConsumption.map((v) => sumColumns(v, groupOf, k)),
     otherFinalDemand: t.otherFinalDemand.map((v) => sumColumns(v, groupOf, k)),
     roles: { rows: { ...t.roles.rows }, columns: { ...t.roles.columns } },

@@ -46,7 +46,7 @@ export function balanceTable(t: IOTable, targets: TableTargets, opts: Omit<RasOp
   const res = ras(t.Z, n, n, targets.sales, targets.purchases, { ...opts, rowLabels: sectors, columnLabels: sectors, ...(file ? { fileName: file } : {}) });
   const copy = (vs: LabelledVector[]) => vs.map((v) => ({ label: v.label, values: Float64Array.from(v.values) }));
   const finalDemand = [copy(t.householdConsumption), copy(t.otherFinalDemand)];
-  const inputs = [copy(t.labourIncome), copy(t.otherValueAdded), copy(t.imports)];
+  const inputs = [copy(t.labourIncome), copy(t.otherValueAdded), copy(t.imports), copy(t.taxes ?? [])];
   const warnings: Warning[] = [];
   const fdAll = finalDemand.flat();
   const vaAll = inputs.flat();
@@ -57,11 +57,12 @@ export function balanceTable(t: IOTable, targets: TableTargets, opts: Omit<RasOp
     share(vaAll, k, Math.max(0, x[k]! - targets.purchases[k]!));
   }
   const [hh, ofd] = finalDemand as [LabelledVector[], LabelledVector[]];
-  const [li, ova, im] = inputs as [LabelledVector[], LabelledVector[], LabelledVector[]];
+  const [li, ova, im, tx] = inputs as [LabelledVector[], LabelledVector[], LabelledVector[], LabelledVector[]];
   const roles = { rows: { ...t.roles.rows }, columns: { ...t.roles.columns } };
   if (t.householdConsumption.length + t.otherFinalDemand.length === 0) { ofd.push(fdAll[0]!); roles.columns[fdAll[0]!.label] = 'otherFinalDemand'; }
-  if (t.labourIncome.length + t.otherValueAdded.length + t.imports.length === 0) { ova.push(vaAll[0]!); roles.rows[vaAll[0]!.label] = 'otherValueAdded'; }
-  const employment = t.employment ? t.employment.map((e, j) => (t.x[j]! > 0 ? (e * x[j]!) / t.x[j]! : 0)) : null;
+  if (t.labourIncome.length + t.otherValueAdded.length + t.imports.length + (t.taxes?.length ?? 0) === 0) { ova.push(vaAll[0]!); roles.rows[vaAll[0]!.label] = 'otherValueAdded'; }
+  const perOutput = (v: Float64Array) => v.map((e, j) => (t.x[j]! > 0 ? (e * x[j]!) / t.x[j]! : 0));
+  const employment = t.employment ? perOutput(t.employment) : null;
   if (t.employment && targets.output) {
     t.sectors.forEach((s, j) => {
       if (!(t.x[j]! > 0) && x[j]! > 0) warnings.push({ code: 'balance-jobs-unknown', message: 'the sector had no output, so its jobs per unit of output are unknown; jobs set to 0', location: { rowLabel: s } });
@@ -76,7 +77,9 @@ export function balanceTable(t: IOTable, targets: TableTargets, opts: Omit<RasOp
     labourIncome: li,
     otherValueAdded: ova,
     imports: im,
+    ...(t.taxes ? { taxes: tx } : {}),
     employment,
+    ...(t.fte ? { fte: perOutput(t.fte) } : {}),
     householdConsumption: hh,
     otherFinalDemand: ofd,
     roles,

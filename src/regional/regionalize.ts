@@ -4,7 +4,7 @@
  *
  * - regional coefficients r_ij = a_ij · min(q_ij, 1) with q the chosen quotient (quotients.ts);
  * - county output x_j^R = x_j^N · E_j^R / E_j^N (national output per job);
- * - labour-income, other value-added, national import and employment coefficients kept: those rows scale by E_j^R / E_j^N;
+ * - labour-income, other value-added, taxes, national import, employment and FTE coefficients kept: those rows scale by E_j^R / E_j^N;
  * - regional imports: what the local coefficients no longer supply, m_j = Σ_i (a_ij − r_ij), added as an import row;
  * - household consumption per unit of household income regionalized with min(SLQ_i, 1);
  * - exports and other final demand: what is left of county output after local intermediate and household use.
@@ -159,9 +159,11 @@ export function regionalizeTable(national: IOTable, emp: EmploymentInput, opts: 
   }
   const leakageValue = Float64Array.from(leakage, (m, j) => m * x[j]!);
 
-  const rowLabels = new Set<string>([...sectors, ...[...national.labourIncome, ...national.otherValueAdded, ...national.imports].map((v) => v.label)]);
+  const rowLabels = new Set<string>([...sectors, ...[...national.labourIncome, ...national.otherValueAdded, ...(national.taxes ?? []), ...national.imports].map((v) => v.label)]);
   const labourIncome = national.labourIncome.map((v) => scaleColumns(v, er, en));
   const otherValueAdded = national.otherValueAdded.map((v) => scaleColumns(v, er, en));
+  const taxes = national.taxes?.map((v) => scaleColumns(v, er, en));
+  const fte = national.fte ? scaleColumns({ label: '', values: national.fte }, er, en).values : null;
   const importLabel = uniqueLabel(REGIONAL_IMPORT_LABEL, rowLabels);
   const imports = [...national.imports.map((v) => scaleColumns(v, er, en)), { label: importLabel, values: leakageValue }];
   const employment = national.employment ? scaleColumns({ label: '', values: national.employment }, er, en).values : Float64Array.from(er);
@@ -197,6 +199,7 @@ export function regionalizeTable(national: IOTable, emp: EmploymentInput, opts: 
   const roles: RoleMap = { rows: {}, columns: {} };
   for (const v of labourIncome) roles.rows[v.label] = 'labourIncome';
   for (const v of otherValueAdded) roles.rows[v.label] = 'otherValueAdded';
+  for (const v of taxes ?? []) roles.rows[v.label] = 'taxes';
   for (const v of imports) roles.rows[v.label] = 'imports';
   for (const v of householdConsumption) roles.columns[v.label] = 'householdConsumption';
   roles.columns[fdLabel] = 'otherFinalDemand';
@@ -205,7 +208,7 @@ export function regionalizeTable(national: IOTable, emp: EmploymentInput, opts: 
   const notes = [
     `Estimated from the national table '${national.name}' with ${methodName} location quotients and county employment from ${emp.fileName}.`,
     opts.method === 'flq' ? `FLQ with δ = ${delta} and λ* = ${lambda}; Flegg & Tohmo (2013) report δ around 0.25–0.35 fitting survey-based tables.` : `Regional coefficients r_ij = a_ij · min(${methodName}, 1).`,
-    'County output = national output per job × county jobs; labour-income, other value-added and employment coefficients are the national ones.',
+    'County output = national output per job × county jobs; labour-income, other value-added, taxes, employment and full-time-equivalent coefficients are the national ones.',
     'Household consumption per unit of income is regionalized with min(SLQ, 1); exports and other final demand are what remains of county output.',
     ...(absent.length ? [`Absent sectors (no county employment, supply nothing locally): ${absent.join('; ')}.`] : []),
   ];
@@ -218,8 +221,10 @@ export function regionalizeTable(national: IOTable, emp: EmploymentInput, opts: 
     x,
     labourIncome,
     otherValueAdded,
+    ...(taxes ? { taxes } : {}),
     imports,
     employment,
+    ...(fte ? { fte } : {}),
     householdConsumption,
     otherFinalDemand: [{ label: fdLabel, values: rest }],
     moneyUnit: national.moneyUnit,

@@ -65,6 +65,9 @@ export function analysisJson(an: Analysis): { [k: string]: Json } {
       income: { simple: arr(m.income.simple), typeI: arr(m.income.typeI), total: arr(m.income.total), typeII: arr(m.income.typeII) },
       employment: { simple: arr(m.employment.simple), typeI: arr(m.employment.typeI), total: arr(m.employment.total), typeII: arr(m.employment.typeII) },
       valueAdded: { simple: arr(m.valueAdded.simple), total: arr(m.valueAdded.total) },
+      // Only when the table has a taxes or FTE row (existing keys are a contract; these are added).
+      ...(m.taxes ? { taxes: { simple: arr(m.taxes.simple), total: arr(m.taxes.total) } } : {}),
+      ...(m.fte ? { fte: { simple: arr(m.fte.simple), typeI: arr(m.fte.typeI), total: arr(m.fte.total), typeII: arr(m.fte.typeII) } } : {}),
     },
     linkages: { backward: arr(l.backward), forward: arr(l.forward), keySectors: l.keySectors.map(label) },
     checks: {

@@ -7,19 +7,22 @@ import { reportFiles, type ReportFile, type ReportMeta } from './document.ts';
 import { CONDITION_LIMIT, type Analysis } from '../model/index.ts';
 import type { NullNote } from '../model/index.ts';
 import { verdictOf } from './verdict.ts';
-import { LINKAGE_CLASS_NAMES, MEASURES, linkageClass, measureHeader, measureValues } from './measures.ts';
+import { LINKAGE_CLASS_NAMES, linkageClass, measureHeader, measuresOf, measureValues } from './measures.ts';
 
 export interface AnalysisReportContext {
   sourceFile?: string;
   sourceHash?: string;
   /** ISO 8601 date-time of the run. */
   date: string;
+  /** What the study adds to the model line (commuting), one clause each. */
+  model?: string[];
 }
 
-function modelType(an: Analysis): string {
-  return an.viability.closedProductive
+function modelType(an: Analysis, extra: readonly string[] = []): string {
+  const base = an.viability.closedProductive
     ? 'open (Type I) and household-closed (Type II) input-output model'
     : 'open (Type I) input-output model; Type II not available';
+  return [base, ...extra].join('; ');
 }
 
 function noteText(an: Analysis, nn: NullNote): string {
@@ -42,7 +45,7 @@ function meta(an: Analysis, ctx: AnalysisReportContext, title: string, extra: st
     tableName: an.tableName,
     ...(ctx.sourceFile !== undefined ? { sourceFile: ctx.sourceFile } : {}),
     ...(ctx.sourceHash !== undefined ? { sourceHash: ctx.sourceHash } : {}),
-    modelType: modelType(an),
+    modelType: modelType(an, an.viability.closedProductive ? ctx.model ?? [] : []),
     date: ctx.date,
     moneyUnit: an.moneyUnit,
     notes: [...extra, ...analysisNotes(an)],
@@ -50,8 +53,9 @@ function meta(an: Analysis, ctx: AnalysisReportContext, title: string, extra: st
 }
 
 export function multiplierRows(an: Analysis): Cell[][] {
-  const rows: Cell[][] = [['sector', ...MEASURES.map((m) => measureHeader(m, an.moneyUnit)), 'linkage class (Rasmussen)', 'key sector (both linkages above 1)']];
-  const columns = MEASURES.map((m) => measureValues(an, m.key));
+  const measures = measuresOf(an);
+  const rows: Cell[][] = [['sector', ...measures.map((m) => measureHeader(m, an.moneyUnit)), 'linkage class (Rasmussen)', 'key sector (both linkages above 1)']];
+  const columns = measures.map((m) => measureValues(an, m.key));
   for (let j = 0; j < an.n; j++) {
     const cls = linkageClass(an, j);
     rows.push([an.sectors[j]!, ...columns.map((c) => c[j] ?? null), cls === null ? null : LINKAGE_CLASS_NAMES[cls], cls === 'key' ? 'yes' : 'no']);
@@ -80,8 +84,10 @@ export function coefficientRows(an: Analysis): Cell[][] {
   };
   extra('labour income (per unit of output)', c.labourIncome, null);
   extra('other value added (per unit of output)', c.otherValueAdded, null);
+  extra('taxes less subsidies (per unit of output)', c.taxes, null);
   extra('imports (per unit of output)', c.imports, null);
   extra('employment (jobs per unit of output)', c.employment, null);
+  extra('full-time equivalents (per unit of output)', c.fte, null);
   extra(`total output (${an.moneyUnit})`, c.x, hasClosure ? c.householdIncomeTotal : null);
   return rows;
 }

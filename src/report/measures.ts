@@ -12,6 +12,8 @@ export type MeasureKey =
   | 'income.simple' | 'income.typeI' | 'income.total' | 'income.typeII'
   | 'employment.simple' | 'employment.typeI' | 'employment.total' | 'employment.typeII'
   | 'valueAdded.simple' | 'valueAdded.total'
+  | 'taxes.simple' | 'taxes.total'
+  | 'fte.simple' | 'fte.typeI' | 'fte.total' | 'fte.typeII'
   | 'linkage.backward' | 'linkage.forward';
 
 export interface Measure {
@@ -24,11 +26,14 @@ export interface Measure {
   model: 'open' | 'closed';
   /** Jobs per money: the table's money unit is usually small for it (the app offers a larger one). */
   jobsPerMoney?: true;
+  /** A row the table must have for the measure to exist (taxes, full-time equivalents); listed only then. */
+  needs?: 'taxes' | 'fte';
 }
 
 const perDemand = () => 'per unit of final demand';
 const money = (u: string) => `${u} per ${u} of final demand`;
 const jobs = (u: string) => `jobs per ${u} of final demand`;
+const ftes = (u: string) => `full-time equivalents per ${u} of final demand`;
 const ratio = () => 'ratio';
 const index = () => 'Rasmussen index, 1 = average';
 
@@ -45,16 +50,27 @@ export const MEASURES: readonly Measure[] = [
   { key: 'employment.typeII', label: 'employment Type II', unit: ratio, model: 'closed' },
   { key: 'valueAdded.simple', label: 'value added simple', unit: money, model: 'open' },
   { key: 'valueAdded.total', label: 'value added total', unit: money, model: 'closed' },
+  { key: 'taxes.simple', label: 'taxes simple', unit: money, model: 'open', needs: 'taxes' },
+  { key: 'taxes.total', label: 'taxes total', unit: money, model: 'closed', needs: 'taxes' },
+  { key: 'fte.simple', label: 'FTE simple', unit: ftes, model: 'open', jobsPerMoney: true, needs: 'fte' },
+  { key: 'fte.typeI', label: 'FTE Type I', unit: ratio, model: 'open', needs: 'fte' },
+  { key: 'fte.total', label: 'FTE total', unit: ftes, model: 'closed', jobsPerMoney: true, needs: 'fte' },
+  { key: 'fte.typeII', label: 'FTE Type II', unit: ratio, model: 'closed', needs: 'fte' },
   { key: 'linkage.backward', label: 'backward linkage', unit: index, model: 'open' },
   { key: 'linkage.forward', label: 'forward linkage', unit: index, model: 'open' },
 ];
 
-/** The values of one measure, in sector order. */
+/** The measures this analysis has: every one, except taxes and FTE measures when the table lacks that row. */
+export function measuresOf(an: Analysis): Measure[] {
+  return MEASURES.filter((m) => m.needs === undefined || an.multipliers[m.needs] !== null);
+}
+
+/** The values of one measure, in sector order (all null when the table lacks the row the measure needs). */
 export function measureValues(an: Analysis, key: MeasureKey): Values {
   const [group, form] = key.split('.') as [string, string];
   if (group === 'linkage') return form === 'backward' ? an.linkages.backward : an.linkages.forward;
-  const m = an.multipliers as unknown as Record<string, Record<string, Values>>;
-  return m[group]![form]!;
+  const m = an.multipliers as unknown as Record<string, Record<string, Values> | null>;
+  return m[group]?.[form] ?? new Array<number | null>(an.n).fill(null);
 }
 
 /** Header text of a measure: "labour income simple (thousand dollars per thousand dollars of final demand)". */

@@ -1,15 +1,25 @@
 /**
  * Scenario effects: direct (the shock itself), indirect (open-model total − direct), induced (household-closed total −
- * open total) and total (closed model), for output, value added, labour income and employment — the usual split of
- * Type I and Type II impact analysis (Miller & Blair 2009, ch. 6).
+ * open total) and total (closed model), for output, value added, labour income, employment, taxes and full-time
+ * equivalents — the usual split of Type I and Type II impact analysis (Miller & Blair 2009, ch. 6).
+ *
+ * Two kinds of line put effects outside the sectors, on rows of their own (`outside`): an activity not in the table
+ * (its own output, jobs, income… are direct; its local purchases are demand on the sectors whose whole effect is
+ * indirect) and a labour-income line (the income is direct; household spending of it is induced: the closed model is
+ * solved with that income as the households' exogenous entry, Miller & Blair 2009, §6.2 — recalled from memory — so
+ * its open-model effect is zero).
  */
 import { InputError } from '../diagnostics/index.ts';
-import { solveClosed, solveOpen, type PreparedModel } from '../model/index.ts';
+import { solveClosed, solveOpen, valueAddedPerUnit, type PreparedModel } from '../model/index.ts';
 import type { Availability } from '../model/index.ts';
-import { resolveShock } from './lines.ts';
+import { resolveShock, type ExpandedLine } from './lines.ts';
 import { checkShock, shockNotes } from './shock-checks.ts';
 import { solveMixed } from './mixed.ts';
-import type { EffectSplit, EffectTotals, Ratio, Scenario, ScenarioMultiplier, ScenarioResult } from './types.ts';
+import {
+  NO_SHOCK_INPUTS, VARIABLES,
+  type EffectRecord, type EffectSplit, type EffectTotals, type LineSet, type OutsideRow, type Ratio, type ScenarioMultiplier, type ScenarioResult,
+  type ShockInputs, type Variable,
+} from './types.ts';
 
 function scale(c: Float64Array, x: Float64Array): Float64Array {
   const out = new Float64Array(x.length);
@@ -41,8 +51,10 @@ function split(coef: Float64Array, direct: Float64Array, open: Float64Array, clo
   return { direct: d, indirect: minus(o, d), induced: c ? minus(c, o) : null, total: c ?? o };
 }
 
-function totalsOf(s: EffectSplit): EffectTotals {
-  return { direct: sum(s.direct), indirect: sum(s.indirect), induced: s.induced ? sum(s.induced) : null, total: sum(s.total) };
+/** Sector sums, plus the direct effects of the rows outside the sectors (activities, household income paid directly). */
+function totalsOf(s: EffectSplit, outsideDirect: number): EffectTotals {
+  const direct = sum(s.direct) + outsideDirect;
+  return { direct, indirect: sum(s.indirect), induced: s.induced ? sum(s.induced) : null, total: sum(s.total) + outsideDirect };
 }
 
 function ratio(num: number, den: number): Ratio {
@@ -64,54 +76,82 @@ function multiplierOf(t: EffectTotals, noClosure: string): ScenarioMultiplier {
  */
 export type ScenarioModels = Availability;
 
-export function runScenario(pm: PreparedModel, scenario: Scenario, models: ScenarioModels): ScenarioResult {
+export interface PhaseRunOptions {
+  /** Net of displacement and deadweight (each line's components × (1 − displacement)(1 − deadweight)). */
+  net?: boolean;
+}
+
+function outsideSum(rows: readonly OutsideRow[], v: Variable): number {
+  let s = 0;
+  for (const r of rows) s += r.direct[v] ?? 0;
+  return s;
+}
+
+/** The effects of one phase's lines. `inputs` holds what the lines may refer to (mixes, activities, margins, prices). */
+export function runPhase(pm: PreparedModel, set: LineSet, models: ScenarioModels, inputs: ShockInputs = NO_SHOCK_INPUTS, opts: PhaseRunOptions = {}): ScenarioResult {
+  return runPhaseExpanded(pm, set, models, inputs, opts).result;
+}
+
+/** runPhase, also giving each line as expanded (price conversion, margins, components) for the inputs report. */
+export function runPhaseExpanded(pm: PreparedModel, set: LineSet, models: ScenarioModels, inputs: ShockInputs = NO_SHOCK_INPUTS, opts: PhaseRunOptions = {}): { result: ScenarioResult; expanded: ExpandedLine[] } {
   if (models.open !== true) {
     throw new InputError('not-productive', `scenario effects are not defined: ${models.open}; check the table (its viability report says why)`);
   }
-  const shock = resolveShock(pm, scenario);
   const useClosure = pm.closed !== null && models.closed === true;
-  const { n, sectors, h, otherVA, e } = pm.coef;
+  const noClosure = models.closed === true ? 'the table has no household income or household consumption' : models.closed;
+  const { shock, expanded } = resolveShock(pm, set.name, set.lines, { inputs, closure: useClosure ? true : noClosure, ...(opts.net ? { net: true } : {}) });
+  const { n, sectors, h, e, taxes, fte } = pm.coef;
   const direct = Float64Array.from(shock.df);
   shock.fixed.forEach((j, r) => { direct[j] = shock.fixedOutput[r]!; });
+  const demand = Float64Array.from(shock.df);
+  for (let i = 0; i < n; i++) demand[i] = demand[i]! + shock.dfIndirect[i]!;
 
-  const open = solveMixed((b) => solveOpen(pm, b), n, shock.df, shock.fixed, shock.fixedOutput);
+  const open = solveMixed((b) => solveOpen(pm, b), n, demand, shock.fixed, shock.fixedOutput);
   let closedOutput: Float64Array | null = null;
   let closedHouseholdIncome: number | null = null;
   let closedDemand: Float64Array | null = null;
   if (pm.closed && useClosure) {
     const m = pm.closed.m;
     const fbar = new Float64Array(m);
-    fbar.set(shock.df);
+    fbar.set(demand);
+    fbar[n] = shock.householdIncome;
     const closed = solveMixed((b) => solveClosed(pm, b), m, fbar, shock.fixed, shock.fixedOutput);
     closedOutput = closed.x.slice(0, n);
     closedHouseholdIncome = closed.x[n]!;
     closedDemand = closed.fEffective;
   }
 
-  const va = new Float64Array(n);
-  for (let j = 0; j < n; j++) va[j] = h[j]! + otherVA[j]!;
   const ones = new Float64Array(n).fill(1);
-  const output = split(ones, direct, open.x, closedOutput);
-  const valueAdded = split(va, direct, open.x, closedOutput);
-  const income = split(h, direct, open.x, closedOutput);
-  const employment = e ? split(e, direct, open.x, closedOutput) : null;
-
-  const totals = {
-    output: totalsOf(output),
-    valueAdded: totalsOf(valueAdded),
-    income: totalsOf(income),
-    employment: employment ? totalsOf(employment) : null,
+  const effects: EffectRecord<EffectSplit> = {
+    output: split(ones, direct, open.x, closedOutput),
+    valueAdded: split(valueAddedPerUnit(pm.coef), direct, open.x, closedOutput),
+    income: split(h, direct, open.x, closedOutput),
+    employment: e ? split(e, direct, open.x, closedOutput) : null,
+    taxes: taxes ? split(taxes, direct, open.x, closedOutput) : null,
+    fte: fte ? split(fte, direct, open.x, closedOutput) : null,
   };
+  const totals = {} as EffectRecord<EffectTotals>;
+  const multipliers = {} as EffectRecord<ScenarioMultiplier>;
+  for (const v of VARIABLES) {
+    const s = effects[v];
+    const t = s ? totalsOf(s, outsideSum(shock.outside, v)) : null;
+    (totals as Record<Variable, EffectTotals | null>)[v] = t;
+    (multipliers as Record<Variable, ScenarioMultiplier | null>)[v] = t ? multiplierOf(t, noClosure) : null;
+  }
   const notes: string[] = [];
-  const noClosure = models.closed === true ? 'the table has no household income or household consumption' : models.closed;
   if (!useClosure) notes.push(`No induced effects: ${noClosure}. Totals are open-model (Type I) totals.`);
   if (!e) notes.push('The table has no employment row: employment effects are not available.');
   for (let r = 0; r < shock.fixed.length; r++) {
     const j = shock.fixed[r]!;
     notes.push(`Output of '${sectors[j]}' is fixed from outside at ${shortNumber(shock.fixedOutput[r]!)} ${pm.table.moneyUnit} (mixed exogenous/endogenous model); the other sectors respond to its purchases.`);
   }
+  for (const o of shock.outside) {
+    notes.push(o.kind === 'activity'
+      ? `'${o.label}' is an activity not in the table: its own output, jobs and income are direct effects on a row of their own; its local purchases are indirect effects on the sectors it buys from${useClosure ? ', its payroll re-spent by resident households induced ones' : ''}.`
+      : `Household income of ${shortNumber(o.direct.income ?? 0)} ${pm.table.moneyUnit} is paid directly (labour-income lines): a direct effect on a row of its own, with no direct output, jobs, value added or taxes and no indirect effects; its re-spending by households is induced.`);
+  }
   const result: ScenarioResult = {
-    scenario: scenario.name,
+    scenario: set.name,
     sectors: pm.coef.sectors,
     moneyUnit: pm.table.moneyUnit,
     closure: useClosure ? 'household' : 'none',
@@ -121,16 +161,12 @@ export function runScenario(pm: PreparedModel, scenario: Scenario, models: Scena
     closedHouseholdIncome,
     effectiveDemand: open.fEffective,
     closedEffectiveDemand: closedDemand,
-    effects: { output, valueAdded, income, employment },
+    effects,
     totals,
-    multipliers: {
-      output: multiplierOf(totals.output, noClosure),
-      valueAdded: multiplierOf(totals.valueAdded, noClosure),
-      income: multiplierOf(totals.income, noClosure),
-      employment: totals.employment ? multiplierOf(totals.employment, noClosure) : null,
-    },
+    multipliers,
+    outside: shock.outside,
     notes,
   };
-  result.notes.push(...shockNotes(checkShock(pm, scenario, result)));
-  return result;
+  result.notes.push(...shockNotes(checkShock(pm, set, result)));
+  return { result, expanded };
 }

@@ -12,7 +12,7 @@
  */
 import { formatLocated, InputError, type Location, type Warning } from '../diagnostics/index.ts';
 import type { PreparedModel } from '../model/index.ts';
-import type { EffectSplit, Scenario, ScenarioLine, ScenarioResult } from './types.ts';
+import type { EffectSplit, LineSet, ScenarioLine, ScenarioResult } from './types.ts';
 
 /** For messages: six significant digits, exponent form where a plain one would be unreadable. */
 export function amountText(v: number): string {
@@ -46,7 +46,7 @@ export function refuseNonFiniteSum(sum: number, line: ScenarioLine): void {
   }
 }
 
-function firstLineOf(scenario: Scenario, sector: string): ScenarioLine | undefined {
+function firstLineOf(scenario: LineSet, sector: string): ScenarioLine | undefined {
   return scenario.lines.find((l) => l.sector === sector);
 }
 
@@ -64,7 +64,7 @@ function splitFinite(s: EffectSplit | null): boolean {
  * Refuse a result with any non-finite number, located at the line of the largest shock (the one that drove it out of
  * range); otherwise the plausibility warnings, each located and with its numbers.
  */
-export function checkShock(pm: PreparedModel, scenario: Scenario, r: ScenarioResult): Warning[] {
+export function checkShock(pm: PreparedModel, scenario: LineSet, r: ScenarioResult): Warning[] {
   const { n, sectors, x, e } = pm.coef;
   const unit = pm.table.moneyUnit;
   const { shock } = r;

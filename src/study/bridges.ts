@@ -7,7 +7,7 @@
 import { InputError } from '../diagnostics/index.ts';
 import { parseBridgeCsv, translateCode, type Bridge } from '../classification/index.ts';
 import type { EmploymentEntry, EmploymentInput } from '../regional/index.ts';
-import type { Scenario, ScenarioLine, SpendingPattern } from '../scenario/index.ts';
+import { SECTOR_KINDS, type Scenario, type ScenarioLine, type SpendingMix } from '../scenario/index.ts';
 import type { EstimateFile } from './estimate.ts';
 
 export type { Bridge };
@@ -50,15 +50,17 @@ export function employmentByBridge(emp: EmploymentInput, bridge: Bridge, sectors
 
 /** Shock lines by code → lines by sector: each line split by the bridge's shares (kind, local share and origin kept). */
 export function scenarioByBridge(scenario: Scenario, bridge: Bridge): Scenario {
-  const lines: ScenarioLine[] = scenario.lines.flatMap((l) => {
+  // Only lines on a sector are translated: mix, activity and labour-income lines name no code of the classification.
+  const translate = (l: ScenarioLine): ScenarioLine[] => {
+    if (!SECTOR_KINDS.includes(l.kind)) return [l];
     const where = l.origin ? { file: l.origin.file, ...(l.origin.line !== undefined ? { line: l.origin.line } : {}) } : {};
     return translateCode(bridge, l.sector, where).map((t) => ({ ...l, sector: t.sector, amount: l.amount * t.share }));
-  });
-  return { ...scenario, lines };
+  };
+  return { ...scenario, phases: scenario.phases.map((p) => ({ ...p, lines: p.lines.flatMap(translate) })) };
 }
 
 /** A spending mix whose shares are by code → shares by sector (a code's share split by the bridge, sums kept). */
-export function spendingMixByBridge(mix: SpendingPattern, bridge: Bridge, fileName: string): SpendingPattern {
+export function spendingMixByBridge(mix: SpendingMix, bridge: Bridge, fileName: string): SpendingMix {
   const bySector = new Map<string, number>();
   for (const s of mix.shares) {
     for (const t of translateCode(bridge, s.sector, { file: fileName })) bySector.set(t.sector, (bySector.get(t.sector) ?? 0) + s.share * t.share);

@@ -7,11 +7,12 @@ import {
   briefDocument, briefPdf, headlineRows, workbookXlsx, type BaseEconomy, type BriefDocument, type BriefFonts, type BriefInput, type BriefPhase,
   type Paper, type WorkbookSheet,
 } from '../deliverables/index.ts';
-import { CAUTIONS, modelTypeOf, SCENARIO_CAUTIONS, type ReportFile } from '../report/index.ts';
+import { CAUTIONS, modelTypeOf, SCENARIO_CAUTIONS, timingText, type ReportFile } from '../report/index.ts';
+import { valueAddedPerUnit } from '../model/index.ts';
 import type { AnalysisReportKind } from '../report/index.ts';
 import type { PreparedStudy } from './prepare.ts';
 import { reportUnavailable, scenarioReport, tableReport, type ReportKind, type ScenarioReportKind } from './reports.ts';
-import type { ScenarioOutcome } from './scenarios.ts';
+import { lineReady, tableYearOf, type ScenarioOutcome } from './scenarios.ts';
 
 export interface BriefOptions {
   /** ISO 8601 date-time of the run. */
@@ -22,36 +23,49 @@ export interface BriefOptions {
 
 /** The county's base-year totals in the definitions the effects use: each variable's coefficient × output, summed. */
 export function baseEconomy(ps: PreparedStudy): BaseEconomy {
-  const { x, h, otherVA, e } = ps.pm.coef;
+  const { x, h, e } = ps.pm.coef;
+  const va = valueAddedPerUnit(ps.pm.coef);
   let output = 0, income = 0, valueAdded = 0, employment = 0;
   for (let j = 0; j < x.length; j++) {
     output += x[j]!;
     income += h[j]! * x[j]!;
-    valueAdded += (h[j]! + otherVA[j]!) * x[j]!;
+    valueAdded += va[j]! * x[j]!;
     if (e) employment += e[j]! * x[j]!;
   }
   return { output, income, valueAdded, employment: e ? employment : null };
 }
 
-/** The phases of an outcome. A study has one today: the scenario itself, its timing not stated. */
+/** The phases of an outcome, each with its timing in words (one-time, or annual with its years). */
 export function phasesOf(o: ScenarioOutcome): BriefPhase[] {
-  return [{ name: o.scenario.name, timing: 'timing not stated', result: { ...o.result, notes: o.notes }, lines: o.scenario.lines.filter((l) => l.sector !== '') }];
+  return o.phases.map((p) => ({ name: p.phase.name, timing: timingText(p.phase), result: { ...p.result, notes: p.notes }, lines: p.phase.lines.filter(lineReady) }));
+}
+
+/** Every phase's notes, each once, in phase order. */
+function notesOf(o: ScenarioOutcome): string[] {
+  return [...new Set(o.phases.flatMap((p) => p.notes))];
 }
 
 function modelChoices(o: ScenarioOutcome): string[] {
-  const r = o.result;
+  const r = o.phases[0]!.result;
+  const lines = o.phases.flatMap((p) => p.phase.lines);
+  const fixed = [...new Set(o.phases.flatMap((p) => p.result.shock.fixed.map((j) => p.result.sectors[j]!)))];
   const choices = [
     r.closure === 'household'
       ? 'Induced effects from the household-closed model (Type II): local households re-spend their extra labour income in the base-year pattern.'
       : `No induced effects: ${r.multipliers.output.typeII.reason ?? 'the household closure is not used'}.`,
     'Final-demand lines enter the model as amount × local share (the part bought inside the county).',
   ];
-  if (r.shock.fixed.length) {
-    choices.push(`Mixed exogenous/endogenous model: the output of ${r.shock.fixed.map((j) => `'${r.sectors[j]}'`).join(', ')} is fixed from outside by output or jobs lines; the other sectors respond to its purchases.`);
+  if (fixed.length) {
+    choices.push(`Mixed exogenous/endogenous model: the output of ${fixed.map((s) => `'${s}'`).join(', ')} is fixed from outside by output or jobs lines; the other sectors respond to its purchases.`);
   }
   choices.push(
-    'Amounts are producer prices; no trade or transport margins are applied.',
-    'No price-year conversion: amounts are taken in the table\'s money unit.',
+    lines.some((l) => l.prices === 'purchaser')
+      ? 'Purchaser-price lines are split into the producer value and trade and transport margins (the inputs list each split); other amounts are producer prices.'
+      : 'Amounts are producer prices; no trade or transport margins are applied.',
+    lines.some((l) => l.priceYear !== undefined)
+      ? 'Amounts given in another year\'s money are converted to the table\'s money year with the price index entered (the inputs list each factor).'
+      : 'No price-year conversion: amounts are taken in the table\'s money unit.',
+    ...o.model.map((m) => `${m[0]!.toUpperCase()}${m.slice(1)}.`),
   );
   return choices;
 }
@@ -65,13 +79,13 @@ export function briefInputOf(ps: PreparedStudy, o: ScenarioOutcome, date: string
     source: study.source ? { fileName: study.source.fileName, sha256: study.source.sha256 } : null,
     date,
     moneyUnit: study.table.moneyUnit,
-    priceYear: null,
+    priceYear: tableYearOf(study) ? String(tableYearOf(study)!.year) : null,
     verdict: ps.verdict.say,
-    model: modelTypeOf(o.result),
+    model: modelTypeOf(o.phases[0]!.result),
     base: baseEconomy(ps),
     phases: phasesOf(o),
     modelChoices: modelChoices(o),
-    notes: o.notes,
+    notes: notesOf(o),
     cautions: [...CAUTIONS, ...SCENARIO_CAUTIONS],
   };
 }
@@ -89,7 +103,9 @@ export function studyBrief(ps: PreparedStudy, o: ScenarioOutcome, opts: BriefOpt
 /** Sheet names of the reports (spreadsheet programs allow 31 characters). */
 const SHEET_NAMES: Partial<Record<ReportKind, string>> = {
   'scenario-inputs': 'Inputs',
+  'scenario-phases': 'Phases',
   'scenario-impact': 'Effects by sector',
+  'scenario-net-impact': 'Net effects by sector',
   'scenario-multipliers': 'Scenario multipliers',
   'scenario-rounds': 'Spending rounds',
   'scenario-paths': 'Structural paths',
@@ -102,6 +118,11 @@ const SHEET_NAMES: Partial<Record<ReportKind, string>> = {
 };
 
 const TABLE_KINDS: readonly AnalysisReportKind[] = ['multipliers', 'coefficients', 'leontief-inverse', 'viability', 'perron-vectors', 'spectrum'];
+
+/** The n × n sheets (coefficients, Leontief inverse) only up to this many sectors: beyond, a workbook of millions of
+ * cells is slow to write and to open, and the CSV reports hold the matrices. Common practice, no source. */
+export const WORKBOOK_MATRIX_LIMIT = 500;
+const MATRIX_KINDS: readonly AnalysisReportKind[] = ['coefficients', 'leontief-inverse'];
 
 function sheetsOf(kind: ReportKind, files: ReportFile[]): WorkbookSheet[] {
   return files.flatMap((f, k) => {
@@ -125,7 +146,7 @@ function provenance(ps: PreparedStudy, date: string, o: ScenarioOutcome | null):
     ['Table file', study.source?.fileName ?? 'not from a file (made in the app or estimated)'],
     ...(study.source ? [['SHA-256 of the file', study.source.sha256] as [string, string]] : []),
     ['Money unit', study.table.moneyUnit],
-    ['Model', o ? modelTypeOf(o.result) : (ps.models.closed === true ? 'open (Type I) and household-closed (Type II) input-output model' : 'open (Type I) input-output model')],
+    ['Model', o ? modelTypeOf(o.phases[0]!.result) : (ps.models.closed === true ? 'open (Type I) and household-closed (Type II) input-output model' : 'open (Type I) input-output model')],
     ['Table check', ps.verdict.say],
     ['Produced', `${date} by Roundwise`],
     ['Numbers', 'Cells hold full-precision values; the number formats only round what is shown.'],
@@ -143,13 +164,22 @@ export function studyWorkbook(ps: PreparedStudy, o: ScenarioOutcome | null, opts
       name: 'Summary',
       rows: headlineRows(phasesOf(o), baseEconomy(ps)),
       title: 'The scenario\'s totals per phase and variable, with the county\'s base-year totals and each total as a share of them.',
-      notes: o.notes,
+      notes: notesOf(o),
     });
-    const kinds: ScenarioReportKind[] = ['scenario-impact', 'scenario-multipliers', 'scenario-inputs', 'scenario-rounds', ...(o.paths ? ['scenario-paths' as const] : [])];
+    const kinds: ScenarioReportKind[] = [
+      'scenario-phases', 'scenario-impact', ...(o.phases.some((p) => p.net) ? ['scenario-net-impact' as const] : []), 'scenario-multipliers', 'scenario-inputs',
+      'scenario-rounds', ...(o.phases.some((p) => p.paths) ? ['scenario-paths' as const] : []),
+    ];
     for (const k of kinds) sheets.push(...sheetsOf(k, scenarioReport(ps, k, o, opts.date)));
   }
+  const n = ps.study.table.n;
+  const left: string[] = [];
   for (const k of TABLE_KINDS) {
-    if (reportUnavailable(ps, k) === null) sheets.push(...sheetsOf(k, tableReport(ps, k, opts.date)));
+    if (reportUnavailable(ps, k) !== null) continue;
+    if (n > WORKBOOK_MATRIX_LIMIT && MATRIX_KINDS.includes(k)) { left.push(`${k}.csv`); continue; }
+    sheets.push(...sheetsOf(k, tableReport(ps, k, opts.date)));
   }
-  return workbookXlsx({ provenance: provenance(ps, opts.date, o), sheets, cautions: [...CAUTIONS, ...(o ? SCENARIO_CAUTIONS : [])] });
+  const prov = provenance(ps, opts.date, o);
+  if (left.length) prov.push(['Left out', `The ${n} × ${n} matrices of this table are not in the workbook (over ${WORKBOOK_MATRIX_LIMIT} sectors); the CSV reports ${left.join(' and ')} hold them.`]);
+  return workbookXlsx({ provenance: prov, sheets, cautions: [...CAUTIONS, ...(o ? SCENARIO_CAUTIONS : [])] });
 }

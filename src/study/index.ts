@@ -3,14 +3,17 @@
  * The CLI commands and the app's worker reach the engine only through here.
  */
 export {
-  studyFromTableFile, studyFromProjectFile, studyOfTable, projectFileOf, withTable, scenarioNamed,
-  type Study, type StudySettings, type StudySource, type ImportSettings,
+  studyFromTableFile, studyFromProjectFile, studyOfTable, projectFileOf, withTable, scenarioNamed, checkStudyInputs,
+  type Study, type StudySettings, type StudySource, type ImportSettings, type StudyPrices,
 } from './study.ts';
 export { prepareStudy, restudy, CLOSURE_OFF, type PreparedStudy, type PrepareOptions } from './prepare.ts';
-export { runStudyScenario, readyLines, defaultDestination, tracePaths, compareStudyScenarios, tablePatterns, type ScenarioOutcome, type OutcomeOptions } from './scenarios.ts';
+export {
+  runStudyScenario, readyLines, lineReady, defaultDestination, tracePaths, compareStudyScenarios, shockInputsOf, tableYearOf, studyModelNotes,
+  type ScenarioOutcome, type PhaseOutcome, type TimingTotal, type OutcomeOptions,
+} from './scenarios.ts';
 export { unitDemandRounds } from './rounds.ts';
 export {
-  REPORTS, buildReport, tableReport, scenarioReport, comparisonOf, tableReportSet, scenarioReportSet, reportUnavailable, scenarioSlug,
+  REPORTS, buildReport, tableReport, scenarioReport, comparisonOf, tableReportSet, scenarioReportSet, reportUnavailable, scenarioSlug, phaseSlugs,
   type ReportKind, type ReportEntry, type ScenarioReportKind,
 } from './reports.ts';
 export { studyAnalysisJson, scenarioJson } from './json.ts';
@@ -24,13 +27,18 @@ export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../table/index.ts';
 export { luInverse } from '../linalg/index.ts';
 export type { ModeKind } from '../model/index.ts';
 export {
-  CAUTIONS, SCENARIO_CAUTIONS, MEASURES, measureValues, linkageClass, LINKAGE_CLASS_NAMES, aboutText, modelTypeOf, reachText,
+  CAUTIONS, SCENARIO_CAUTIONS, MEASURES, measuresOf, measureValues, linkageClass, LINKAGE_CLASS_NAMES, aboutText, modelTypeOf, reachText,
+  timingText, unitOf, VARIABLE_NAMES,
   type ReportFile, type Measure, type MeasureKey, type LinkageClass, type Verdict,
 } from '../report/index.ts';
 export {
-  spreadPattern, parseShockCsv, VARIABLES, LINE_KINDS,
-  type Scenario, type ScenarioLine, type SpendingPattern, type LineKind, type Variable, type EffectSplit, type EffectTotals,
-  type ScenarioMultiplier, type ScenarioResult, type PathAnalysis, type RoundsResult,
+  spreadMix, mixShares, mixesOfTable, tableMixName, parseShockCsv, parseMixCsv, writeMixCsv, parseActivityCsv, writeActivityCsv, checkActivity,
+  parseMarginsCsv, writeMarginsCsv, parsePriceIndexCsv, writePriceIndexCsv, parseCommutingCsv, yearOfMoneyUnit, checkDiscountRate,
+  VARIABLES, MONEY_VARIABLES, LINE_KINDS, SECTOR_KINDS, TIMINGS, MARGIN_KINDS, DEFAULT_PHASE_NAME, SHOCK_HEADER, MIX_HEADER, ACTIVITY_HEADER,
+  MARGINS_HEADER, PRICE_INDEX_HEADER,
+  type Scenario, type Phase, type Timing, type ScenarioLine, type SpendingMix, type Activity, type Margins, type MarginKind, type PriceIndex,
+  type Commuting, type LineKind, type PriceBasis, type Variable, type EffectSplit, type EffectTotals, type OutsideRow, type OverTime,
+  type ScenarioMultiplier, type ScenarioResult, type PathAnalysis, type RoundsResult, type ExpandedLine, type TotalsRecord,
 } from '../scenario/index.ts';
 export { utf8Bytes, sha256Hex } from '../project/index.ts';
 
@@ -43,7 +51,7 @@ export {
 export { importTable, writeTableCsv } from '../table/index.ts';
 export { reportFiles, type ReportMeta, type Cell } from '../report/index.ts';
 export { visibleText } from '../diagnostics/index.ts';
-export { PROJECT_FORMAT } from '../project/index.ts';
+export { PROJECT_FORMAT, MIGRATED_PHASE } from '../project/index.ts';
 
 // Supply and use tables → a symmetric table (the `sut` command and the "Start from supply and use tables" screen).
 export {
@@ -77,3 +85,4 @@ export {
   type Paper, type BriefFonts, type BriefDocument, type BriefBlock, type BriefTable, type BriefBars,
 } from '../deliverables/index.ts';
 export { csvFileText, UTF8_BOM } from '../csv/index.ts';
+export { filesOnly } from '../report/index.ts';

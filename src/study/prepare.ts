@@ -3,7 +3,8 @@
  * scenarios may use. Every result of the study (multipliers, scenarios, rounds, paths, reports) is computed from
  * this, so the CLI and the app cannot assemble the pipeline differently.
  */
-import { analyzePrepared, modelsForClosure, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
+import { analyzePrepared, coefficients, modelsForClosure, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
+import { residentShares } from '../scenario/index.ts';
 import { verdictOf, type Verdict } from '../report/index.ts';
 import type { Study } from './study.ts';
 
@@ -25,8 +26,13 @@ export interface PrepareOptions {
   inverse?: boolean;
 }
 
+/**
+ * The study's commuting shares shape its household-closed model (induced effects use residents' income only), so they
+ * are part of the prepared model: every multiplier and scenario of the study uses the same closure.
+ */
 export function prepareStudy(study: Study, opts: PrepareOptions = {}): PreparedStudy {
-  const pm = prepareModel(study.table);
+  const residentShare = residentShares(study.commuting, study.table.sectors);
+  const pm = prepareModel(study.table, coefficients(study.table), residentShare ? { residentShare } : {});
   const analysis = analyzePrepared(pm, {
     tolerance: study.settings.rounds.tolerance,
     ...(opts.spectrum !== undefined ? { spectrum: opts.spectrum } : {}),
@@ -39,7 +45,12 @@ export function prepareStudy(study: Study, opts: PrepareOptions = {}): PreparedS
 export function restudy(ps: PreparedStudy, study: Study): PreparedStudy {
   if (study.table !== ps.study.table) return prepareStudy(study);
   if (study.settings.rounds.tolerance !== ps.study.settings.rounds.tolerance) return prepareStudy(study);
+  if (!sameCommuting(study.commuting, ps.study.commuting)) return prepareStudy(study);
   return finish(study, ps.pm, ps.analysis);
+}
+
+function sameCommuting(a: Study['commuting'], b: Study['commuting']): boolean {
+  return a.overall === b.overall && a.sectors.length === b.sectors.length && a.sectors.every((c, k) => c.sector === b.sectors[k]!.sector && c.share === b.sectors[k]!.share);
 }
 
 function finish(study: Study, pm: PreparedModel, analysis: Analysis): PreparedStudy {

@@ -6,14 +6,16 @@
 import { InputError } from '../diagnostics/index.ts';
 import {
   createProject, importSource, parseProject, serializeProject, sourceInfo,
-  type ImportSettings, type Project, type ProjectSettings, type SourceInfo,
+  type ImportSettings, type Project, type ProjectSettings, type SourceInfo, type StudyPrices,
 } from '../project/index.ts';
-import type { Scenario } from '../scenario/index.ts';
+import {
+  checkActivitySectors, checkMarginSectors, checkMixSectors, mixesOfTable, residentShares, SECTOR_KINDS, type Scenario,
+} from '../scenario/index.ts';
 
 export type Study = Project;
 export type StudySettings = ProjectSettings;
 export type StudySource = SourceInfo;
-export type { ImportSettings };
+export type { ImportSettings, StudyPrices };
 
 /** A study of the table in `bytes` (the file as read), with no scenarios yet. */
 export function studyFromTableFile(bytes: Uint8Array, fileName: string, settings: ImportSettings = {}, opts: { name?: string; scenarios?: Scenario[] } = {}): Study {
@@ -32,28 +34,61 @@ export function studyFromProjectFile(text: string, fileName: string): Study {
   return parseProject(text, fileName);
 }
 
-/** The project file text of a study. Refuses a scenario line whose sector the table does not have. */
+/**
+ * The project file text of a study. Refuses a scenario line whose sector, mix or activity the study does not have, and
+ * study content (mixes, activities, margins, commuting) that names a sector the table lacks.
+ */
 export function projectFileOf(study: Study): string {
   const known = new Set(study.table.sectors);
+  const mixes = new Set([...study.mixes, ...mixesOfTable(study.table)].map((m) => m.name));
+  const activities = new Set(study.activities.map((a) => a.name));
   for (const sc of study.scenarios) {
-    sc.lines.forEach((l, k) => {
-      if (!known.has(l.sector)) {
-        throw new InputError('unknown-sector', `scenario '${sc.name}', line ${k + 1}: sector '${l.sector}' is not in this table; change or remove the line before saving`, { rowLabel: l.sector });
-      }
-    });
+    const phaseNames = new Set<string>();
+    for (const ph of sc.phases) {
+      if (phaseNames.has(ph.name)) throw new InputError('duplicate-name', `scenario '${sc.name}' has two phases named '${ph.name}'; rename one before saving`);
+      phaseNames.add(ph.name);
+      ph.lines.forEach((l, k) => {
+        const where = `scenario '${sc.name}', phase '${ph.name}', line ${k + 1}`;
+        if (SECTOR_KINDS.includes(l.kind) && !known.has(l.sector)) {
+          throw new InputError('unknown-sector', `${where}: sector '${l.sector}' is not in this table; change or remove the line before saving`, { rowLabel: l.sector });
+        }
+        if (l.kind === 'mix' && !mixes.has(l.sector)) throw new InputError('unknown-mix', `${where}: the spending mix '${l.sector}' is not in this study`, { rowLabel: l.sector });
+        if (l.kind === 'activity' && !activities.has(l.sector)) throw new InputError('unknown-activity', `${where}: the activity '${l.sector}' is not in this study`, { rowLabel: l.sector });
+        if (l.kind === 'labour-income' && l.sector !== '') throw new InputError('labour-income-sector', `${where}: a labour-income line has no sector`, { rowLabel: l.sector });
+      });
+    }
   }
+  checkStudyInputs(study);
   return serializeProject(study);
 }
 
-/** The same study with a new table (scenarios and settings kept; a path destination the table lacks is dropped). */
+/** Refuse study content (mixes, activities, margins, commuting) that names a sector the table lacks. */
+export function checkStudyInputs(study: Study): void {
+  const sectors = study.table.sectors;
+  checkMixSectors(study.mixes, sectors);
+  checkActivitySectors(study.activities, sectors);
+  if (study.margins) checkMarginSectors(study.margins, sectors);
+  residentShares(study.commuting, sectors);
+}
+
+/**
+ * The same study with a new table: scenarios, mixes, activities, margins, prices and settings kept (lines and content
+ * naming sectors the new table lacks are said where they are used); a path destination and commuting shares of
+ * sectors the table lacks are dropped.
+ */
 export function withTable(study: Study, table: Study): Study {
   const dest = study.settings.paths.destination;
-  const keep = dest !== null && table.table.sectors.includes(dest);
+  const sectors = new Set(table.table.sectors);
+  const keep = dest !== null && sectors.has(dest);
   return {
     ...table,
     name: study.name,
     scenarios: study.scenarios,
-    patterns: study.patterns,
+    mixes: study.mixes,
+    activities: study.activities,
+    margins: study.margins,
+    prices: study.prices,
+    commuting: { overall: study.commuting.overall, sectors: study.commuting.sectors.filter((c) => sectors.has(c.sector)) },
     settings: { ...study.settings, paths: { ...study.settings.paths, destination: keep ? dest : null } },
   };
 }

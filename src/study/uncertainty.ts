@@ -8,9 +8,9 @@ import {
   type BandReportContext, type DrawSetup, type RunOptions, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
 } from '../uncertainty/index.ts';
 import type { ReportFile } from '../report/index.ts';
-import type { Scenario } from '../scenario/index.ts';
+import { residentShares, type LineSet, type Scenario } from '../scenario/index.ts';
 import type { PreparedStudy } from './prepare.ts';
-import { readyLines } from './scenarios.ts';
+import { readyLines, shockInputsOf } from './scenarios.ts';
 import { scenarioSlug } from './reports.ts';
 
 export interface BandsRequest {
@@ -21,12 +21,20 @@ export interface BandsRequest {
   scenarios: readonly Scenario[];
 }
 
+/** Each phase of a scenario as the named list of lines that is drawn ("Scenario" for one phase, else "Scenario — Phase"). */
+export function phaseSets(scenario: Scenario): LineSet[] {
+  const s = readyLines(scenario);
+  return s.phases.map((p) => ({ name: s.phases.length > 1 ? `${s.name} — ${p.name}` : s.name, lines: p.lines }));
+}
+
 export function drawSetupOf(ps: PreparedStudy, req: BandsRequest): DrawSetup {
   return {
     table: ps.study.table,
     closure: ps.study.settings.closure,
     multipliers: req.multipliers,
-    scenarios: req.scenarios.map(readyLines),
+    scenarios: req.scenarios.flatMap(phaseSets),
+    inputs: shockInputsOf(ps.study),
+    residentShare: residentShares(ps.study.commuting, ps.study.table.sectors),
     settings: req.settings,
     spectrum: ps.analysis.viability.spectrum !== null,
   };
@@ -37,11 +45,13 @@ export function studyBands(ps: PreparedStudy, req: BandsRequest, opts: RunOption
   return runUncertainty(drawSetupOf(ps, req), {}, opts);
 }
 
-/** One-at-a-time sensitivity of a scenario's totals, in the models the study uses. */
-export function studySensitivity(ps: PreparedStudy, scenario: Scenario, step?: number): SensitivityResult {
-  return sensitivity(ps.pm, readyLines(scenario), {
-    available: ps.analysis.availability, closure: ps.study.settings.closure, ...(step !== undefined ? { step } : {}),
-  });
+/** One-at-a-time sensitivity of a scenario's totals, phase by phase, in the models the study uses. */
+export function studySensitivity(ps: PreparedStudy, scenario: Scenario, step?: number): SensitivityResult[] {
+  const inputs = shockInputsOf(ps.study);
+  const residentShare = residentShares(ps.study.commuting, ps.study.table.sectors);
+  return phaseSets(scenario).map((set) => sensitivity(ps.pm, set, {
+    available: ps.analysis.availability, closure: ps.study.settings.closure, inputs, residentShare, ...(step !== undefined ? { step } : {}),
+  }));
 }
 
 function bandContext(ps: PreparedStudy, date: string, modelType: string): BandReportContext {

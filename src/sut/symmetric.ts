@@ -55,8 +55,8 @@ function sum(v: ArrayLike<number>): number {
  * Where each row role of the use table goes in the IOTable. A Record over every role, so a role added to the table
  * importer fails to type-check here until it is carried.
  */
-const CARRY: Readonly<Record<IndustryRow['role'], 'labourIncome' | 'otherValueAdded' | 'imports' | 'employment'>> = {
-  labourIncome: 'labourIncome', otherValueAdded: 'otherValueAdded', imports: 'imports', employment: 'employment',
+const CARRY: Readonly<Record<IndustryRow['role'], IndustryRow['role']>> = {
+  labourIncome: 'labourIncome', otherValueAdded: 'otherValueAdded', taxes: 'taxes', imports: 'imports', employment: 'employment', fte: 'fte',
 };
 
 /** The flows as an ordinary IOTable, rows and columns under the roles the use table gave them. */
@@ -66,6 +66,9 @@ function tableOf(s: SupplyUse, f: SymmetricFlows, name: string): { table: IOTabl
   const rowsOf = (to: string) => f.rows.filter((r) => CARRY[r.role] === to).map((r) => vec(r.label, r.values));
   const jobs = f.rows.filter((r) => CARRY[r.role] === 'employment');
   if (jobs.length > 1) warnings.push({ code: 'extra-employment', message: `more than one employment row: '${jobs[0]!.label}' is used`, location: { file: s.useFile, rowLabel: jobs[1]!.label } });
+  const fte = f.rows.filter((r) => CARRY[r.role] === 'fte');
+  if (fte.length > 1) warnings.push({ code: 'extra-employment', message: `more than one full-time-equivalents row: '${fte[0]!.label}' is used`, location: { file: s.useFile, rowLabel: fte[1]!.label } });
+  const taxes = rowsOf('taxes');
   const roles: RoleMap = { rows: {}, columns: {} };
   for (const r of f.rows) roles.rows[r.label] = r.role;
   for (const c of f.finalDemand) roles.columns[c.label] = c.role;
@@ -79,6 +82,8 @@ function tableOf(s: SupplyUse, f: SymmetricFlows, name: string): { table: IOTabl
     otherValueAdded: rowsOf('otherValueAdded'),
     imports: rowsOf('imports'),
     employment: jobs[0] ? jobs[0].values : null,
+    ...(taxes.length ? { taxes } : {}),
+    ...(fte[0] ? { fte: fte[0].values } : {}),
     householdConsumption: f.finalDemand.filter((c) => c.role === 'householdConsumption').map((c) => vec(c.label, c.values)),
     otherFinalDemand: f.finalDemand.filter((c) => c.role === 'otherFinalDemand').map((c) => vec(c.label, c.values)),
     moneyUnit: s.moneyUnit,

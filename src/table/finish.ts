@@ -101,13 +101,15 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
   const Z0 = raw.Z;
   const warnings: Warning[] = [...raw.classified.warnings];
   const fdCols = raw.columns.filter((c) => c.role === 'householdConsumption' || c.role === 'otherFinalDemand');
-  const vaRows = raw.rows.filter((r) => r.role === 'labourIncome' || r.role === 'otherValueAdded' || r.role === 'imports');
+  const vaRows = raw.rows.filter((r) => r.role === 'labourIncome' || r.role === 'otherValueAdded' || r.role === 'taxes' || r.role === 'imports');
   const totalColK = raw.columns.findIndex((c) => c.role === 'totalOutput');
   const totalRowK = raw.rows.findIndex((r) => r.role === 'totalInput');
   const empRows = raw.rows.filter((r) => r.role === 'employment');
+  const fteRows = raw.rows.filter((r) => r.role === 'fte');
   const extraTotals = Math.max(0, raw.columns.filter((c) => c.role === 'totalOutput').length - 1) + Math.max(0, raw.rows.filter((r) => r.role === 'totalInput').length - 1);
   if (extraTotals > 0) warnings.push({ code: 'extra-total', message: 'more than one total row or column: the first of each is used, the others are not read', location: { file } });
   if (empRows.length > 1) warnings.push({ code: 'extra-employment', message: `more than one employment row: '${empRows[0]!.label}' is used`, location: { file, rowLabel: empRows[1]!.label } });
+  if (fteRows.length > 1) warnings.push({ code: 'extra-employment', message: `more than one full-time-equivalents row: '${fteRows[0]!.label}' is used`, location: { file, rowLabel: fteRows[1]!.label } });
 
   // Row and column sums in the table as read.
   const zRow = new Float64Array(n0);
@@ -160,6 +162,11 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
   if (emp0) {
     const k = raw.rows.indexOf(emp0);
     checkEmployment(emp0.values, (j) => raw.rowCellAt(k, j));
+  }
+  const fte0 = fteRows[0];
+  if (fte0) {
+    const k = raw.rows.indexOf(fte0);
+    checkEmployment(fte0.values, (j) => raw.rowCellAt(k, j), 'full-time equivalents');
   }
 
   // Drop sectors with zero output that neither buy nor sell nor carry any other number.
@@ -238,6 +245,7 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
     }
   }
 
+  const taxes = vectors(raw, keep, (r) => r.role === 'taxes', 'rows');
   const table: IOTable = {
     name: opts.name,
     sectors,
@@ -246,8 +254,11 @@ export function finishTable(raw: RawTable, opts: FinishOptions, onBalance?: (b: 
     x,
     labourIncome: vectors(raw, keep, (r) => r.role === 'labourIncome', 'rows'),
     otherValueAdded: vectors(raw, keep, (r) => r.role === 'otherValueAdded', 'rows'),
+    // Taxes and FTE only when the table has them, so tables without them look as they always did.
+    ...(taxes.length ? { taxes } : {}),
     imports: vectors(raw, keep, (r) => r.role === 'imports', 'rows'),
     employment: emp0 ? sub(emp0.values) : null,
+    ...(fte0 ? { fte: sub(fte0.values) } : {}),
     householdConsumption: vectors(raw, keep, (c) => c.role === 'householdConsumption', 'columns'),
     otherFinalDemand: vectors(raw, keep, (c) => c.role === 'otherFinalDemand', 'columns'),
     moneyUnit: opts.moneyUnit ?? (raw.corner !== '' ? raw.corner : 'money units'),

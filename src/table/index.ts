@@ -26,7 +26,7 @@ export { MAX_TABLE_BYTES, checkTableSize, checkNotBinary } from './text.ts';
 export { parseNumberText, showNumber } from './numbers.ts';
 export { cleanLabel, matchKey } from './labels.ts';
 export { suggestRoles, suggestRowRole, suggestColumnRole, isKnownLabel, parseRoleMap, normaliseLabel, ROW_ROLES, COLUMN_ROLES, ROW_LABELS, COLUMN_LABELS } from './roles.ts';
-export { validateTable, type ValidateOptions } from './validate.ts';
+export { validateTable, moneyRows, type ValidateOptions } from './validate.ts';
 export { readSmallCsv, checkFieldCount, readNumberCell, numberCell, type SmallCsv, type SmallCsvRow, type SmallCsvOptions } from './small-csv.ts';
 export { writeTableCsv, writtenRoleMap } from './write.ts';
 export { readLabelledGrid, type LabelledGrid, type GridLabel, type LabelledGridOptions } from './labelled-grid.ts';

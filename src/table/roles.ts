@@ -8,16 +8,19 @@ import { InputError, type Location } from '../diagnostics/index.ts';
 import type { ColumnRole, RoleMap, RowRole } from './types.ts';
 import { cleanLabel } from './labels.ts';
 
-export const ROW_ROLES: readonly RowRole[] = ['labourIncome', 'otherValueAdded', 'imports', 'employment', 'totalInput', 'ignore'];
+export const ROW_ROLES: readonly RowRole[] = ['labourIncome', 'otherValueAdded', 'taxes', 'imports', 'employment', 'fte', 'totalInput', 'ignore'];
 export const COLUMN_ROLES: readonly ColumnRole[] = ['householdConsumption', 'otherFinalDemand', 'totalOutput', 'ignore'];
 
 /**
- * Recognised row labels (after normalising). Any label containing "import" is an import row, except one that names a
- * tax ("Taxes on production and imports" is value added).
+ * Recognised row labels (after normalising). Any label naming a tax (the word "tax", "taxes" or "taxation") is a
+ * taxes row, even when it also names imports ("Taxes on production and imports", "Taxes less subsidies", "Net taxes
+ * on products": national-accounts terms, SNA 2008 ch. 7 — recalled from memory); any other label containing "import"
+ * is an import row.
  */
-export const ROW_LABELS: Readonly<Record<'labourIncome' | 'employment' | 'totalInput', readonly string[]>> = {
+export const ROW_LABELS: Readonly<Record<'labourIncome' | 'employment' | 'fte' | 'totalInput', readonly string[]>> = {
   labourIncome: ['labor income', 'labour income', 'compensation of employees', 'wages and salaries', 'household income', 'households', 'employee compensation', 'wages', 'labor compensation', 'labour compensation'],
   employment: ['employment', 'jobs'],
+  fte: ['full-time equivalents', 'full-time equivalent', 'full time equivalents', 'full time equivalent', 'fte', 'ftes', 'fte jobs', 'full-time equivalent jobs', 'full-time equivalent employment', 'employment in full-time equivalents'],
   totalInput: ['total input', 'total inputs', 'total outlays', 'total outlay', 'total'],
 };
 
@@ -84,11 +87,18 @@ export function isKnownLabel(label: string, axis: 'row' | 'column'): boolean {
   return KNOWN_LABELS[axis === 'row' ? 'rows' : 'columns'].includes(normaliseLabel(label));
 }
 
+/** A label naming a tax: "tax", "taxes" or "taxation" as a word ("Taxi services" is not one). */
+export function namesTax(key: string): boolean {
+  return /\btax(es|ation)?\b/.test(key);
+}
+
 export function suggestRowRole(label: string): Suggestion<RowRole> {
   const key = normaliseLabel(label);
-  if (key.includes('import') && !/\btax/.test(key)) return { role: 'imports', recognised: true };
+  if (namesTax(key)) return { role: 'taxes', recognised: true };
+  if (key.includes('import')) return { role: 'imports', recognised: true };
   if (ROW_LABELS.labourIncome.includes(key)) return { role: 'labourIncome', recognised: true };
   if (ROW_LABELS.employment.includes(key)) return { role: 'employment', recognised: true };
+  if (ROW_LABELS.fte.includes(key)) return { role: 'fte', recognised: true };
   if (ROW_LABELS.totalInput.includes(key)) return { role: 'totalInput', recognised: true };
   if (isSubtotal(key)) return { role: 'ignore', recognised: true };
   return { role: 'otherValueAdded', recognised: false };
@@ -145,7 +155,7 @@ function jsonErrorLocation(text: string, err: unknown, fileName: string): Locati
 /**
  * Read a role map: `{"rows": {"Wages": "labourIncome", …}, "columns": {"Visitors": "otherFinalDemand", …},
  * "sectors": ["Import services"]}`.
- * Row roles: labourIncome, otherValueAdded, imports, employment, totalInput, ignore.
+ * Row roles: labourIncome, otherValueAdded, taxes, imports, employment, fte, totalInput, ignore.
  * Column roles: householdConsumption, otherFinalDemand, totalOutput, ignore.
  * Sectors: labels that are sectors whatever their words (found as a row and as a column).
  */

@@ -35,8 +35,8 @@ export interface Classified {
 }
 
 const ROW_ROLE_WORDS: Readonly<Record<RowRole, string>> = {
-  labourIncome: 'household (labour) income', otherValueAdded: 'other value added', imports: 'imports',
-  employment: 'employment', totalInput: 'total input', ignore: 'a subtotal (ignored)',
+  labourIncome: 'household (labour) income', otherValueAdded: 'other value added', taxes: 'taxes less subsidies', imports: 'imports',
+  employment: 'employment', fte: 'full-time equivalents', totalInput: 'total input', ignore: 'a subtotal (ignored)',
 };
 const COLUMN_ROLE_WORDS: Readonly<Record<ColumnRole, string>> = {
   householdConsumption: 'household consumption', otherFinalDemand: 'other final demand', totalOutput: 'total output', ignore: 'a subtotal (ignored)',

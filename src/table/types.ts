@@ -8,7 +8,7 @@
 import type { Warning } from '../diagnostics/index.ts';
 
 /** What a non-sector row of the source table means. */
-export type RowRole = 'labourIncome' | 'otherValueAdded' | 'imports' | 'employment' | 'totalInput' | 'ignore';
+export type RowRole = 'labourIncome' | 'otherValueAdded' | 'taxes' | 'imports' | 'employment' | 'fte' | 'totalInput' | 'ignore';
 /** What a non-sector column of the source table means. */
 export type ColumnRole = 'householdConsumption' | 'otherFinalDemand' | 'totalOutput' | 'ignore';
 
@@ -52,9 +52,16 @@ export interface IOTable {
   /** Rows of the value-added block, by role. Several rows may share a role; they are summed where needed. */
   labourIncome: LabelledVector[];
   otherValueAdded: LabelledVector[];
+  /**
+   * Taxes on production and imports less subsidies (national-accounts term), part of value added; several rows add
+   * up. Absent or empty when the table has no taxes row (older stored tables, tables built in code).
+   */
+  taxes?: LabelledVector[];
   imports: LabelledVector[];
   /** Jobs per sector (headcount or FTE, not money); null when the table has no employment row. */
   employment: Float64Array | null;
+  /** Full-time equivalents per sector, beside the jobs row; absent or null when the table has no FTE row. */
+  fte?: Float64Array | null;
   /** Final-demand columns, by role. */
   householdConsumption: LabelledVector[];
   otherFinalDemand: LabelledVector[];

@@ -28,8 +28,13 @@ export function checkOutputs(x: Float64Array, Z: Float64Array, sectors: readonly
   }
 }
 
-export function checkEmployment(e: Float64Array, at: (j: number) => Location): void {
-  for (let j = 0; j < e.length; j++) if (e[j]! < 0) throw new InputError('negative-employment', `negative employment ${showNumber(e[j]!)} (jobs cannot be negative)`, at(j));
+export function checkEmployment(e: Float64Array, at: (j: number) => Location, what: 'jobs' | 'full-time equivalents' = 'jobs'): void {
+  for (let j = 0; j < e.length; j++) if (e[j]! < 0) throw new InputError('negative-employment', `negative employment ${showNumber(e[j]!)} (${what} cannot be negative)`, at(j));
+}
+
+/** The value-added and import rows that are money, taxes included (they count in a sector's purchases). */
+export function moneyRows(t: IOTable): LabelledVector[] {
+  return [...t.labourIncome, ...t.otherValueAdded, ...(t.taxes ?? []), ...t.imports];
 }
 
 function sum(v: ArrayLike<number>): number {
@@ -45,9 +50,10 @@ function sum(v: ArrayLike<number>): number {
 export function checkTotals(t: IOTable, file: string): void {
   const overflow = (what: string, loc: Location): InputError => new InputError('overflow', `${what} overflows (numbers too large to add up)`, { file, ...loc });
   if (!Number.isFinite(sum(t.x))) throw overflow('the total of all sectors’ output', { columnLabel: 'Total output' });
-  for (const v of [...t.labourIncome, ...t.otherValueAdded, ...t.imports]) if (!Number.isFinite(sum(v.values))) throw overflow('the row total', { rowLabel: v.label });
+  for (const v of moneyRows(t)) if (!Number.isFinite(sum(v.values))) throw overflow('the row total', { rowLabel: v.label });
   for (const v of [...t.householdConsumption, ...t.otherFinalDemand]) if (!Number.isFinite(sum(v.values))) throw overflow('the column total', { columnLabel: v.label });
   if (t.employment && !Number.isFinite(sum(t.employment))) throw overflow('the total of jobs', { rowLabel: 'Employment' });
+  if (t.fte && !Number.isFinite(sum(t.fte))) throw overflow('the total of full-time equivalents', { rowLabel: 'Full-time equivalents' });
   const income = sum(t.labourIncome.map((v) => sum(v.values))) + sum((t.householdIncomeFromFinalDemand ?? []).map((c) => c.value));
   if (!Number.isFinite(income)) throw overflow('total household income', { rowLabel: t.labourIncome[0]?.label ?? 'Labour income' });
 }
@@ -63,7 +69,7 @@ export function checkSums(t: IOTable, file: string): void {
       purchases += Z[j * n + i]!;
     }
     for (const v of [...t.householdConsumption, ...t.otherFinalDemand]) sales += v.values[i]!;
-    for (const v of [...t.labourIncome, ...t.otherValueAdded, ...t.imports]) purchases += v.values[i]!;
+    for (const v of moneyRows(t)) purchases += v.values[i]!;
     if (!Number.isFinite(sales)) throw new InputError('overflow', 'the row sum overflows (numbers too large to add up)', { file, rowLabel: sectors[i]! });
     if (!Number.isFinite(purchases)) throw new InputError('overflow', 'the column sum overflows (numbers too large to add up)', { file, columnLabel: sectors[i]! });
   }
@@ -95,11 +101,12 @@ export function validateTable(t: IOTable, fileName: string, opts: ValidateOption
   shape('intermediate flows', n * n, t.Z.length, file);
   shape('total output', n, t.x.length, file);
   const vectors: [LabelledVector, 'row' | 'column'][] = [
-    ...[...t.labourIncome, ...t.otherValueAdded, ...t.imports].map((v): [LabelledVector, 'row'] => [v, 'row']),
+    ...moneyRows(t).map((v): [LabelledVector, 'row'] => [v, 'row']),
     ...[...t.householdConsumption, ...t.otherFinalDemand].map((v): [LabelledVector, 'column'] => [v, 'column']),
   ];
   for (const [v, axis] of vectors) shape(`${axis} '${v.label}'`, n, v.values.length, file, axis === 'row' ? { rowLabel: v.label } : { columnLabel: v.label });
   if (t.employment) shape('employment', n, t.employment.length, file, { rowLabel: 'Employment' });
+  if (t.fte) shape('full-time equivalents', n, t.fte.length, file, { rowLabel: 'Full-time equivalents' });
 
   // Labels: a row or column label is read back by its cleaned, case-blind key, so two that share a key are one.
   const axis = (labels: string[], kind: 'row' | 'column'): void => {
@@ -114,7 +121,7 @@ export function validateTable(t: IOTable, fileName: string, opts: ValidateOption
       seen.set(matchKey(l), l);
     }
   };
-  axis([...t.sectors, ...t.labourIncome.map((v) => v.label), ...t.otherValueAdded.map((v) => v.label), ...t.imports.map((v) => v.label)], 'row');
+  axis([...t.sectors, ...moneyRows(t).map((v) => v.label)], 'row');
   axis([...t.sectors, ...t.householdConsumption.map((v) => v.label), ...t.otherFinalDemand.map((v) => v.label)], 'column');
 
   const { Z, x, sectors } = t;
@@ -133,6 +140,7 @@ export function validateTable(t: IOTable, fileName: string, opts: ValidateOption
     });
   }
   if (t.employment) t.employment.forEach((e, j) => { if (!Number.isFinite(e)) throw notFinite(e, { file, rowLabel: 'Employment', columnLabel: sectors[j]! }); });
+  if (t.fte) t.fte.forEach((e, j) => { if (!Number.isFinite(e)) throw notFinite(e, { file, rowLabel: 'Full-time equivalents', columnLabel: sectors[j]! }); });
   const labourRows = new Set(t.labourIncome.map((v) => matchKey(v.label)));
   const demandColumns = new Set([...t.householdConsumption, ...t.otherFinalDemand].map((v) => matchKey(v.label)));
   for (const c of t.householdIncomeFromFinalDemand ?? []) {
@@ -145,6 +153,7 @@ export function validateTable(t: IOTable, fileName: string, opts: ValidateOption
 
   checkOutputs(x, Z, sectors, (j) => ({ file, rowLabel: sectors[j]!, columnLabel: 'Total output' }));
   if (t.employment) checkEmployment(t.employment, (j) => ({ file, rowLabel: 'Employment', columnLabel: sectors[j]! }));
+  if (t.fte) checkEmployment(t.fte, (j) => ({ file, rowLabel: 'Full-time equivalents', columnLabel: sectors[j]! }), 'full-time equivalents');
   checkSums(t, file);
   checkTotals(t, file);
 }

@@ -4,8 +4,9 @@
  *
  *   <money unit>, sector 1 … sector n, household columns, other final-demand columns, Total output
  *   sector rows:  flows, final demand, total output
- *   labour-income rows (with any labour income paid by final-demand columns), other value-added rows, import rows
- *   Employment (jobs)                                         (when the table has jobs)
+ *   labour-income rows (with any labour income paid by final-demand columns), other value-added rows, taxes rows,
+ *   import rows
+ *   Employment (jobs), Full-time equivalents                  (when the table has them)
  *   Total input:  column sums of the money rows, final-demand column sums, grand total
  *
  * Labels are written so that the importer's label rules give them back their roles:
@@ -37,9 +38,14 @@ function derived(v: number): number {
   return Number(v.toPrecision(15));
 }
 
-const ROW_NAMES: Readonly<Record<'labourIncome' | 'otherValueAdded' | 'imports', string>> = {
-  labourIncome: 'Labour income', otherValueAdded: 'Other value added', imports: 'Imports',
+const ROW_NAMES: Readonly<Record<'labourIncome' | 'otherValueAdded' | 'taxes' | 'imports', string>> = {
+  labourIncome: 'Labour income', otherValueAdded: 'Other value added', taxes: 'Taxes less subsidies', imports: 'Imports',
 };
+const MONEY_ROLES = ['labourIncome', 'otherValueAdded', 'taxes', 'imports'] as const;
+
+function rowsOf(t: IOTable, role: (typeof MONEY_ROLES)[number]): LabelledVector[] {
+  return t[role] ?? [];
+}
 const COLUMN_NAMES: Readonly<Record<'householdConsumption' | 'otherFinalDemand', string>> = {
   householdConsumption: 'Households', otherFinalDemand: 'Other final demand',
 };
@@ -68,6 +74,7 @@ interface Plan {
   totalOutput: string;
   totalInput: string;
   employment: string;
+  fte: string;
 }
 
 function plan(t: IOTable): Plan {
@@ -109,7 +116,7 @@ function plan(t: IOTable): Plan {
   };
   // Total and employment labels are placed after the labelled vectors; they must not meet a sector or each other.
   const rows = new Map<LabelledVector, string>();
-  for (const role of ['labourIncome', 'otherValueAdded', 'imports'] as const) for (const v of t[role]) rows.set(v, place(v.label, role, 'row', ROW_NAMES[role]));
+  for (const role of MONEY_ROLES) for (const v of rowsOf(t, role)) rows.set(v, place(v.label, role, 'row', ROW_NAMES[role]));
   const columns = new Map<LabelledVector, string>();
   for (const role of ['householdConsumption', 'otherFinalDemand'] as const) for (const v of t[role]) columns.set(v, place(v.label, role, 'column', COLUMN_NAMES[role]));
   const fixed = (axis: Axis, first: string, rest: (k: number) => string, ok: (l: string) => boolean): string => {
@@ -121,9 +128,12 @@ function plan(t: IOTable): Plan {
   const employment = t.employment
     ? fixed(rowAxis, 'Employment (jobs)', (k) => `Employment (jobs ${k})`, (l) => suggestRowRole(l).role === 'employment' && !colAxis.has(l))
     : '';
+  const fte = t.fte
+    ? fixed(rowAxis, 'Full-time equivalents', (k) => `Full-time equivalents (${k})`, (l) => suggestRowRole(l).role === 'fte' && !colAxis.has(l))
+    : '';
   const totalInput = fixed(rowAxis, 'Total input', (k) => `Total input (${k})`, (l) => suggestRowRole(l).role === 'totalInput' && !colAxis.has(l));
   const totalOutput = fixed(colAxis, 'Total output', (k) => `Total output (${k})`, (l) => suggestColumnRole(l).role === 'totalOutput' && !rowAxis.has(l));
-  return { sectors, rows, columns, totalOutput, totalInput, employment };
+  return { sectors, rows, columns, totalOutput, totalInput, employment, fte };
 }
 
 /**
@@ -134,8 +144,9 @@ export function writtenRoleMap(t: IOTable): RoleMap {
   const p = plan(t);
   const rows: Record<string, RowRole> = {};
   const columns: Record<string, ColumnRole> = {};
-  for (const role of ['labourIncome', 'otherValueAdded', 'imports'] as const) for (const v of t[role]) rows[p.rows.get(v)!] = role;
+  for (const role of MONEY_ROLES) for (const v of rowsOf(t, role)) rows[p.rows.get(v)!] = role;
   if (t.employment) rows[p.employment] = 'employment';
+  if (t.fte) rows[p.fte] = 'fte';
   rows[p.totalInput] = 'totalInput';
   for (const role of ['householdConsumption', 'otherFinalDemand'] as const) for (const v of t[role]) columns[p.columns.get(v)!] = role;
   columns[p.totalOutput] = 'totalOutput';
@@ -146,7 +157,7 @@ export function writeTableCsv(t: IOTable): string {
   const { n, Z, x } = t;
   const p = plan(t);
   const fd = [...t.householdConsumption, ...t.otherFinalDemand];
-  const money = [...t.labourIncome, ...t.otherValueAdded, ...t.imports];
+  const money = MONEY_ROLES.flatMap((role) => rowsOf(t, role));
   // Labour income paid by final-demand columns sits in its labour row under that column.
   const paid = new Map<string, number>();
   for (const c of t.householdIncomeFromFinalDemand ?? []) {
@@ -182,6 +193,7 @@ export function writeTableCsv(t: IOTable): string {
   }
   const blanks = (): Cell[] => fd.map(() => null);
   if (t.employment) out.push([p.employment, ...Array.from(t.employment), ...blanks(), null]);
+  if (t.fte) out.push([p.fte, ...Array.from(t.fte), ...blanks(), null]);
   const totals: Cell[] = [p.totalInput];
   for (let j = 0; j < n; j++) {
     let s = 0;

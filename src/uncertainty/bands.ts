@@ -2,7 +2,7 @@
  * From draws to bands: the 5th, 50th and 95th percentiles and the mean of every quantity over the accepted draws,
  * beside the point estimate (which stays the headline: a band never replaces it).
  */
-import { VARIABLES, type Variable } from '../scenario/index.ts';
+import type { Variable } from '../scenario/index.ts';
 import { bandOf, type Band } from './quantiles.ts';
 import { DRAW_STATUS, type DrawChunk, type DrawPlan, type MultiplierKey, type Part } from './draws.ts';
 import type { UncertaintySettings } from './settings.ts';
@@ -14,10 +14,13 @@ export interface PointBand extends Band {
 
 export interface ScenarioBands {
   scenario: string;
-  /** Total effect of each variable (null: not defined, e.g. jobs without an employment row). */
-  totals: Record<Variable, PointBand | null>;
-  /** Direct, indirect and induced effects of each variable (induced null without the household closure). */
-  parts: Record<Variable, Record<Exclude<Part, 'total'>, PointBand | null>>;
+  /**
+   * Total effect of each variable drawn (null: not defined, e.g. jobs without an employment row); taxes and
+   * full-time equivalents only when the table has those rows (`bandVariables`).
+   */
+  totals: Partial<Record<Variable, PointBand | null>>;
+  /** Direct, indirect and induced effects of each variable drawn (induced null without the household closure). */
+  parts: Partial<Record<Variable, Record<Exclude<Part, 'total'>, PointBand | null>>>;
   /** Total effect per sector on output and jobs (jobs null without an employment row). */
   bySector: { output: (PointBand | null)[]; employment: (PointBand | null)[] | null };
 }
@@ -103,7 +106,7 @@ export function summarise(plan: DrawPlan, point: Float64Array, chunks: readonly 
     const lay = layout.scenarios[s]!;
     const totals = {} as ScenarioBands['totals'];
     const parts = {} as ScenarioBands['parts'];
-    for (const v of VARIABLES) {
+    for (const v of Object.keys(lay.totals) as Variable[]) {
       totals[v] = band(lay.totals[v].total);
       parts[v] = { direct: band(lay.totals[v].direct), indirect: band(lay.totals[v].indirect), induced: band(lay.totals[v].induced) };
     }

@@ -13,8 +13,8 @@
  * A draw uses the household-closed model exactly when the point estimate does, so totals never mix Type I and II.
  */
 import { isInputError } from '../diagnostics/index.ts';
-import { computeMultipliers, decideModels, modelsForClosure, prepareModel, spectrum, type Availability, type Multipliers } from '../model/index.ts';
-import { runScenario, VARIABLES, type Scenario, type ScenarioResult, type Variable } from '../scenario/index.ts';
+import { coefficients, computeMultipliers, decideModels, modelsForClosure, prepareModel, spectrum, type Availability, type Multipliers, type PreparedModel } from '../model/index.ts';
+import { runPhase, VARIABLES, type LineSet, type ScenarioResult, type ShockInputs, type Variable } from '../scenario/index.ts';
 import type { IOTable } from '../table/index.ts';
 import { sigmaPlan, type SigmaPlan } from './cv.ts';
 import { perturbTable } from './perturb.ts';
@@ -44,8 +44,12 @@ export interface DrawSetup {
   closure: 'households' | 'none';
   /** Draw every multiplier. */
   multipliers: boolean;
-  /** Scenarios to draw (lines ready: every line has a sector). */
-  scenarios: Scenario[];
+  /** Scenario phases to draw, each a named list of lines (lines ready: every line has a sector). */
+  scenarios: LineSet[];
+  /** What the lines may refer to (spending mixes, activities, margins, price index): the study's. */
+  inputs: ShockInputs;
+  /** Resident share of each sector's labour income (commuting), or null for all residents: the study's closure. */
+  residentShare: Float64Array | null;
   settings: UncertaintySettings;
   /** The point estimate's analysis computed the full spectrum (it decides productivity for tables with negative flows). */
   spectrum: boolean;
@@ -74,14 +78,20 @@ export interface Layout {
   size: number;
 }
 
+/** The variables drawn for a table: taxes and full-time equivalents only when the table has those rows. */
+export function bandVariables(t: IOTable): Variable[] {
+  return VARIABLES.filter((v) => (v !== 'taxes' || (t.taxes?.length ?? 0) > 0) && (v !== 'fte' || (t.fte ?? null) !== null));
+}
+
 export function layoutOf(setup: DrawSetup): Layout {
   const n = setup.table.n;
   let size = 0;
   const multipliers = setup.multipliers ? MULTIPLIER_KEYS.map((key) => { const offset = size; size += n; return { key, offset }; }) : [];
   const hasJobs = setup.table.employment !== null;
+  const variables = bandVariables(setup.table);
   const scenarios = setup.scenarios.map((): ScenarioLayout => {
     const totals = {} as Record<Variable, Record<Part, number>>;
-    for (const v of VARIABLES) {
+    for (const v of variables) {
       const parts = {} as Record<Part, number>;
       for (const p of PARTS) parts[p] = size++;
       totals[v] = parts;
@@ -110,13 +120,13 @@ type ShareGroups = number[][];
 
 /**
  * Final-demand lines spread from one spending mix share their local-share assumption (one draw moves them together);
- * every other final-demand line is an assumption of its own. Output and jobs lines have no local share.
+ * every other final-demand or mix line is an assumption of its own. Other kinds have no local share of their own.
  */
-export function localShareGroups(s: Scenario): ShareGroups {
+export function localShareGroups(s: LineSet): ShareGroups {
   const groups = new Map<string, number[]>();
   s.lines.forEach((l, i) => {
-    if (l.kind !== 'final-demand') return;
-    const key = l.pattern !== undefined ? `mix:${l.pattern}` : `line:${i}`;
+    if (l.kind !== 'final-demand' && l.kind !== 'mix') return;
+    const key = l.kind === 'final-demand' && l.mix !== undefined ? `mix:${l.mix}` : `line:${i}`;
     const g = groups.get(key);
     if (g) g.push(i); else groups.set(key, [i]);
   });
@@ -139,8 +149,13 @@ export interface DrawPlan {
 }
 
 /** Resolve the CVs against the table and make the point estimate's model decision once per thread. */
+/** The model of a table under the study's commuting shares (the household row the study's own results use). */
+export function modelOf(table: IOTable, residentShare: Float64Array | null): PreparedModel {
+  return residentShare ? prepareModel(table, coefficients(table), { residentShare }) : prepareModel(table);
+}
+
 export function planDraws(setup: DrawSetup, ctx: DrawContext = {}): DrawPlan {
-  const pm = prepareModel(setup.table);
+  const pm = modelOf(setup.table, setup.residentShare);
   const base = decideModels(pm, { spectralRadius: spectralRadiusFor(setup, pm.coef.A, pm.coef.n) });
   return {
     setup,
@@ -175,7 +190,7 @@ function multiplierValues(m: Multipliers, key: MultiplierKey): (number | null)[]
 
 function writeScenario(out: Float64Array, base: number, lay: ScenarioLayout, r: ScenarioResult, n: number): boolean {
   let finite = true;
-  for (const v of VARIABLES) {
+  for (const v of Object.keys(lay.totals) as Variable[]) {
     const t = r.totals[v];
     for (const p of PARTS) {
       const x = t ? t[p] : null;
@@ -189,7 +204,7 @@ function writeScenario(out: Float64Array, base: number, lay: ScenarioLayout, r: 
 }
 
 /** The scenario with its local shares drawn (each group moves together within its lines' ranges). */
-function drawShares(s: Scenario, groups: ShareGroups, range: number, rng: Stream): Scenario {
+function drawShares(s: LineSet, groups: ShareGroups, range: number, rng: Stream): LineSet {
   const lines = s.lines.slice();
   for (const g of groups) {
     const u = rng.uniform();
@@ -209,7 +224,7 @@ function drawShares(s: Scenario, groups: ShareGroups, range: number, rng: Stream
 function evaluate(plan: DrawPlan, table: IOTable, shares: Stream | null, out: Float64Array, base: number): DrawStatus {
   const { setup, layout } = plan;
   const n = layout.n;
-  const pm = prepareModel(table);
+  const pm = modelOf(table, setup.residentShare);
   const decision = decideModels(pm, { spectralRadius: spectralRadiusFor(setup, pm.coef.A, n) });
   if (decision.availability.open !== true) return DRAW_STATUS.notProductive;
   if (plan.closed === true && decision.availability.closed !== true) return DRAW_STATUS.closedNotUsable;
@@ -224,7 +239,7 @@ function evaluate(plan: DrawPlan, table: IOTable, shares: Stream | null, out: Fl
     const sc = shares && setup.settings.localShareRange > 0 ? drawShares(setup.scenarios[s]!, plan.shareGroups[s]!, setup.settings.localShareRange, shares) : setup.scenarios[s]!;
     let r: ScenarioResult;
     try {
-      r = runScenario(pm, sc, scenarioModels);
+      r = runPhase(pm, sc, scenarioModels, setup.inputs);
     } catch (e) {
       if (isInputError(e)) return DRAW_STATUS.refused;
       throw e;

@@ -8,7 +8,7 @@ export { Stream, PURPOSE } from './random.ts';
 export { quantileSorted, meanOf, bandOf, type Band } from './quantiles.ts';
 export { perturbTable } from './perturb.ts';
 export {
-  MULTIPLIER_KEYS, PARTS, SECTOR_VARIABLES, DRAW_STATUS, layoutOf, localShareGroups, shareRange, planDraws, pointEstimate, runDraws,
+  MULTIPLIER_KEYS, PARTS, SECTOR_VARIABLES, DRAW_STATUS, bandVariables, layoutOf, localShareGroups, shareRange, planDraws, pointEstimate, runDraws,
   type MultiplierKey, type Part, type SectorVariable, type DrawSetup, type DrawContext, type DrawChunk, type DrawPlan, type DrawStatus, type Layout,
 } from './draws.ts';
 export { summarise, MIN_ACCEPTED, REJECTED_WARNING_SHARE, type PointBand, type ScenarioBands, type Rejections, type UncertaintyResult } from './bands.ts';

@@ -49,9 +49,9 @@ export function multiplierBandReport(r: UncertaintyResult, ctx: BandReportContex
 /** A scenario's bands: its totals by variable and part, then each sector's total output and jobs. */
 export function scenarioBandReport(r: UncertaintyResult, s: ScenarioBands, ctx: BandReportContext, base: string): ReportFile[] {
   const rows: Cell[][] = [['what', 'sector', 'variable', 'effect', 'unit', ...BAND_HEADER]];
-  for (const v of VARIABLES) {
+  for (const v of VARIABLES.filter((x) => x in s.totals)) {
     for (const p of PARTS) {
-      const b = p === 'total' ? s.totals[v] : s.parts[v][p];
+      const b = p === 'total' ? s.totals[v] : s.parts[v]![p];
       if (!b) continue;
       rows.push(['scenario total', null, VARIABLE_NAMES[v], p, unitOf(v, ctx.moneyUnit), ...bandCells(b)]);
     }
@@ -100,9 +100,10 @@ export function multiplierBandsJson(r: UncertaintyResult): Record<string, unknow
 export function scenarioBandsJson(r: UncertaintyResult, s: ScenarioBands): Record<string, unknown> {
   const totals: Record<string, unknown> = {};
   const parts: Record<string, unknown> = {};
-  for (const v of VARIABLES) {
-    totals[v] = bandJson(s.totals[v]);
-    parts[v] = { direct: bandJson(s.parts[v].direct), indirect: bandJson(s.parts[v].indirect), induced: bandJson(s.parts[v].induced) };
+  for (const v of VARIABLES.filter((x) => x in s.totals)) {
+    totals[v] = bandJson(s.totals[v] ?? null);
+    const pv = s.parts[v]!;
+    parts[v] = { direct: bandJson(pv.direct), indirect: bandJson(pv.indirect), induced: bandJson(pv.induced) };
   }
   return {
     ...headJson(r), totals, parts,

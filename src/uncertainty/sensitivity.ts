@@ -8,11 +8,11 @@
  *  - the FLQ δ over a range, for a table estimated with FLQ (the study re-runs the estimate).
  * Items are sorted by the swing (high − low) of total output, largest first: the order of a tornado chart.
  */
-import { decideModels, modelsForClosure, prepareModel, type Availability, type PreparedModel } from '../model/index.ts';
+import { decideModels, modelsForClosure, type Availability, type PreparedModel } from '../model/index.ts';
 import { isInputError } from '../diagnostics/index.ts';
-import { runScenario, VARIABLES, type Scenario, type ScenarioResult, type Variable } from '../scenario/index.ts';
+import { NO_SHOCK_INPUTS, runPhase, VARIABLES, type LineSet, type ScenarioResult, type ShockInputs, type Variable } from '../scenario/index.ts';
 import type { IOTable } from '../table/index.ts';
-import { localShareGroups, shareRange } from './draws.ts';
+import { localShareGroups, modelOf, shareRange } from './draws.ts';
 
 export type Totals = Record<Variable, number | null>;
 
@@ -51,6 +51,10 @@ export interface SensitivityOptions {
   /** The models the point estimate may use (the analysis' availability) and the study's closure setting. */
   available: Availability;
   closure: 'households' | 'none';
+  /** What the lines may refer to (the study's spending mixes, activities, margins, price index). */
+  inputs?: ShockInputs;
+  /** The study's commuting (resident share of each sector's labour income), for tables built at another δ. */
+  residentShare?: Float64Array | null;
   /** The county table at another FLQ δ, with the range to try and the δ of the estimate. */
   delta?: { tableAt: (delta: number) => IOTable; range: [number, number]; estimate: number } | null;
 }
@@ -66,7 +70,7 @@ function totalsOf(r: ScenarioResult): Totals {
   return t;
 }
 
-const NONE: Totals = { output: null, valueAdded: null, income: null, employment: null };
+const NONE: Totals = { output: null, valueAdded: null, income: null, employment: null, taxes: null, fte: null };
 
 function swing(lo: Totals, hi: Totals): Totals {
   const s = {} as Totals;
@@ -86,7 +90,7 @@ function side(setting: string, run: () => ScenarioResult): SensitivitySide {
 const num = (x: number) => String(Math.round(x * 1e6) / 1e6);
 
 /** The scenario with one share group's local shares set to `share` (lines keep their own share relative to the step). */
-function withShares(s: Scenario, group: number[], delta: number): Scenario {
+function withShares(s: LineSet, group: number[], delta: number): LineSet {
   const lines = s.lines.slice();
   for (const i of group) {
     const l = lines[i]!;
@@ -96,8 +100,10 @@ function withShares(s: Scenario, group: number[], delta: number): Scenario {
   return { ...s, lines };
 }
 
-export function sensitivity(pm: PreparedModel, scenario: Scenario, opts: SensitivityOptions): SensitivityResult {
+export function sensitivity(pm: PreparedModel, scenario: LineSet, opts: SensitivityOptions): SensitivityResult {
   const step = opts.step ?? DEFAULT_SHARE_STEP;
+  const inputs = opts.inputs ?? NO_SHOCK_INPUTS;
+  const runScenario = (m: PreparedModel, s: LineSet, models: Availability): ScenarioResult => runPhase(m, s, models, inputs);
   const models = modelsForClosure(opts.available, opts.closure);
   const point = totalsOf(runScenario(pm, scenario, models));
   const items: SensitivityItem[] = [];
@@ -105,8 +111,8 @@ export function sensitivity(pm: PreparedModel, scenario: Scenario, opts: Sensiti
 
   for (const group of localShareGroups(scenario)) {
     const first = scenario.lines[group[0]!]!;
-    const what = first.pattern !== undefined
-      ? `local share of spending mix '${first.pattern}' (${group.length} line${group.length === 1 ? '' : 's'})`
+    const what = first.mix !== undefined
+      ? `local share of spending mix '${first.mix}' (${group.length} line${group.length === 1 ? '' : 's'})`
       : `local share of '${first.sector}' (line ${group[0]! + 1})`;
     const [lo, hi] = shareRange(first.localShare, step);
     const low = side(num(lo), () => runScenario(pm, withShares(scenario, group, -step), models));
@@ -127,7 +133,7 @@ export function sensitivity(pm: PreparedModel, scenario: Scenario, opts: Sensiti
     const { tableAt, range, estimate } = opts.delta;
     const at = (d: number): SensitivitySide => {
       const setting = `δ = ${num(d)}`;
-      const dpm = prepareModel(tableAt(d));
+      const dpm = modelOf(tableAt(d), opts.residentShare ?? null);
       const decision = decideModels(dpm);
       if (decision.availability.open !== true) return { setting, totals: NONE, why: decision.availability.open };
       return side(setting, () => runScenario(dpm, scenario, modelsForClosure(decision.availability, opts.closure)));

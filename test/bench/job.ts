@@ -25,7 +25,7 @@ export interface JobRow {
 
 /** A new plant's first-year sales to final demand in one sector (invented amount). */
 function plantScenario(t: IOTable): Scenario {
-  return { name: 'new plant (invented)', lines: [{ sector: t.sectors[0]!, amount: 25_000, kind: 'final-demand', localShare: 1 }] };
+  return { name: 'new plant (invented)', phases: [{ name: 'Operating', timing: 'annual', lines: [{ sector: t.sectors[0]!, amount: 25_000, kind: 'final-demand', localShare: 1 }] }] };
 }
 
 export function jobCsv(n: number): string {

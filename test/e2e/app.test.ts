@@ -13,7 +13,7 @@ import Papa from 'papaparse';
 import { DOWNLOADS, REPO, shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
 import { importTable } from '../../src/table/index.ts';
 import { prepareModel, analyzeTable } from '../../src/model/index.ts';
-import { runScenario } from '../support/scenario.ts';
+import { runScenario, linesOf, onePhase } from '../support/scenario.ts';
 import type { Scenario } from '../../src/scenario/index.ts';
 import type { Download } from 'playwright-core';
 import { sparseTableCsv } from '../support/random-tables.ts';
@@ -26,13 +26,10 @@ let projectFile = '';
 let totalBeforeSave = '';
 
 /** The scenario the test types in, as the engine sees it. */
-const TWO_LINES: Scenario = {
-  name: 'Cannery expansion',
-  lines: [
-    { sector: 'Cannery', amount: 500, kind: 'final-demand', localShare: 1 },
-    { sector: 'Retail', amount: 200, kind: 'final-demand', localShare: 0.5 },
-  ],
-};
+const TWO_LINES: Scenario = onePhase('Cannery expansion', [
+  { sector: 'Cannery', amount: 500, kind: 'final-demand', localShare: 1 },
+  { sector: 'Retail', amount: 200, kind: 'final-demand', localShare: 0.5 },
+]);
 
 function engineTable() {
   return importTable(readFileSync(TEST_CSV, 'utf8'), { fileName: 'ridgeline-test.csv' });
@@ -196,7 +193,7 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await page.getByTestId('new-scenario').click();
     await page.getByTestId('scenario-name').fill(TWO_LINES.name);
     await page.getByTestId('scenario-name').press('Tab');
-    const l1 = TWO_LINES.lines[0]!, l2 = TWO_LINES.lines[1]!;
+    const l1 = linesOf(TWO_LINES)[0]!, l2 = linesOf(TWO_LINES)[1]!;
     await page.getByLabel('Sector of line 1').fill(l1.sector);
     await page.getByLabel('Sector of line 1').press('Enter');
     await page.locator('[data-line-amount="0"]').fill(String(l1.amount));

@@ -15,7 +15,7 @@ import { importTable } from '../../src/table/index.ts';
 import { SAMPLE_CSV, SAMPLE_FILE_NAME } from '../../src/table/index.ts';
 import { analyzeTable } from '../../src/model/index.ts';
 import { prepareModel } from '../../src/model/index.ts';
-import { runScenario } from '../support/scenario.ts';
+import { linesOf, onePhase, runScenario } from '../support/scenario.ts';
 import type { Scenario } from '../../src/scenario/index.ts';
 import { REPORTS } from '../../src/study/index.ts';
 import type { StudyChoices } from '../../renderer/worker/protocol.ts';
@@ -35,13 +35,10 @@ function numbers(v: unknown, path = '$', out: [string, number][] = []): [string,
   return out;
 }
 
-const SCENARIO: Scenario = {
-  name: 'Two lines',
-  lines: [
-    { sector: 'Cannery', amount: 500, kind: 'final-demand', localShare: 1 },
-    { sector: 'Retail', amount: 200, kind: 'final-demand', localShare: 0.5 },
-  ],
-};
+const SCENARIO: Scenario = onePhase('Two lines', [
+  { sector: 'Cannery', amount: 500, kind: 'final-demand', localShare: 1 },
+  { sector: 'Retail', amount: 200, kind: 'final-demand', localShare: 0.5 },
+]);
 
 describe('worker adapter over the engine', () => {
   it('opens the sample with the engine analysis, and no non-finite number reaches the screen', () => {
@@ -74,11 +71,11 @@ describe('worker adapter over the engine', () => {
 
   it('gives scenario effects equal to the engine\'s runScenario', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
-    const view = api.runScenario({ scenario: SCENARIO, choices: ON });
+    const view = api.runScenario({ scenario: SCENARIO, choices: ON }).phases[0]!;
     const ref = runScenario(prepareModel(importTable(text('ridgeline-test.csv'), { fileName: 'ridgeline-test.csv' })), SCENARIO);
     expect(view.effects.output!.totals.total).toBe(ref.totals.output.total);
     expect(view.effects.income!.induced).toEqual(Array.from(ref.effects.income.induced!));
-    const open = api.runScenario({ scenario: SCENARIO, choices: OFF });
+    const open = api.runScenario({ scenario: SCENARIO, choices: OFF }).phases[0]!;
     expect(open.effects.output!.induced).toBeNull();
     expect(open.effects.output!.totals.total).toBeCloseTo(ref.totals.output.direct + ref.totals.output.indirect, 9);
     expect(numbers(view).filter(([, x]) => !Number.isFinite(x))).toEqual([]);
@@ -97,12 +94,15 @@ describe('worker adapter over the engine', () => {
 
   it('writes every report of the Export screen as a CSV with its .about.txt', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
-    const scenarios = [SCENARIO, { ...SCENARIO, name: 'Other' }];
+    // The second scenario gives a displacement share, so its net effects differ from the gross ones (a net report).
+    const other: Scenario = onePhase('Other', [{ ...linesOf(SCENARIO)[0]!, displacement: 0.25 }, linesOf(SCENARIO)[1]!], 'annual');
+    const scenarios = [SCENARIO, other];
+    expect(api.reports({ scenarios: [SCENARIO], choices: ON }).find((r) => r.kind === 'scenario-net-impact')!.unavailable).toMatch(/no line gives a displacement or deadweight share/);
     const listed = api.reports({ scenarios, choices: ON });
     expect(listed.map((r) => r.kind)).toEqual(REPORTS.map((r) => r.kind));
     expect(listed.filter((r) => r.unavailable !== null)).toEqual([]);
     for (const { kind } of listed) {
-      const files = api.report({ kind, scenario: SCENARIO, scenarios, choices: ON });
+      const files = api.report({ kind, scenario: other, scenarios, choices: ON });
       expect(files.length, kind).toBeGreaterThanOrEqual(2);
       // Every CSV comes with its sidecar of the same base name, which carries the cautions.
       for (const f of files.filter((x) => x.name.endsWith('.csv'))) {
@@ -136,14 +136,14 @@ describe('worker adapter over the engine', () => {
 
   it('will not save a scenario line whose sector is not in the table', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
-    const wrong: Scenario = { name: 'Old', lines: [{ sector: 'Food processing', amount: 1, kind: 'final-demand', localShare: 1 }] };
+    const wrong: Scenario = onePhase('Old', [{ sector: 'Food processing', amount: 1, kind: 'final-demand', localShare: 1 }]);
     expect(() => api.saveProject({ name: 'x', scenarios: [wrong], choices: ON, active: 0 })).toThrow(/Food processing.*not in this table/);
   });
 
   it('writes the recovery copy of a study a save would refuse, and it reads back to the same work', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
     const before = api.runScenario({ scenario: SCENARIO, choices: ON });
-    const wrong: Scenario = { name: 'Old', lines: [{ sector: 'Food processing', amount: 1, kind: 'final-demand', localShare: 1 }] };
+    const wrong: Scenario = onePhase('Old', [{ sector: 'Food processing', amount: 1, kind: 'final-demand', localShare: 1 }]);
     const scenarios = [SCENARIO, wrong];
     const base = api.recoveryBase({ name: 'Study', choices: { closure: 'none', destination: 'Retail' } });
     const copy = writeRecoveryCopy({ savedAt: '2026-05-01T12:00:00.000Z', tableName: 'Ridgeline', projectName: null, project: base, scenarios, selected: 1 });
@@ -158,15 +158,15 @@ describe('worker adapter over the engine', () => {
     expect(api.runScenario({ scenario: SCENARIO, choices: ON })).toEqual(before);
   });
 
-  it('spreads an amount by a pattern read from a final-demand column', () => {
+  it('spreads an amount by a spending mix read from a final-demand column', () => {
     const r = api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
-    const pattern = r.table.patterns.find((p) => p.name === 'Like Households')!;
+    const pattern = r.table.mixes.find((p) => p.name === 'Table column: Households')!;
     expect(pattern.shares.reduce((a, x) => a + x.share, 0)).toBeCloseTo(1, 12);
     // Households column of the fixture: 150, 980, 120, 1990, 2760 (sum 6000).
     expect(pattern.shares.find((x) => x.sector === 'Retail')!.share).toBeCloseTo(1990 / 6000, 12);
-    const lines = api.spread({ pattern, amount: 600, localShare: 0.8 });
+    const lines = api.spread({ mix: pattern, amount: 600, localShare: 0.8 });
     expect(lines.reduce((a, l) => a + l.amount, 0)).toBeCloseTo(600, 9);
-    expect(lines.every((l) => l.localShare === 0.8 && l.pattern === 'Like Households')).toBe(true);
+    expect(lines.every((l) => l.localShare === 0.8 && l.mix === 'Table column: Households')).toBe(true);
   });
 
   it('unwraps Vue proxies so they can be posted to the worker', () => {
@@ -176,19 +176,16 @@ describe('worker adapter over the engine', () => {
   });
 
   describe('the screens and the exports say the same as the engine (they once disagreed)', () => {
-    const FIXED: Scenario = {
-      name: 'Fixed cannery',
-      lines: [
-        { sector: 'Cannery', amount: 400, kind: 'output', localShare: 1 },
-        { sector: 'Retail', amount: 150, kind: 'final-demand', localShare: 0.8 },
-      ],
-    };
+    const FIXED: Scenario = onePhase('Fixed cannery', [
+      { sector: 'Cannery', amount: 400, kind: 'output', localShare: 1 },
+      { sector: 'Retail', amount: 150, kind: 'final-demand', localShare: 0.8 },
+    ]);
     const csvRows = (content: string) => Papa.parse<(string | number | null)[]>(content.trim(), { dynamicTyping: true, skipEmptyLines: true }).data;
 
     it('paths to a sector add up to its total in the effects table, with a fixed-output line and households closed', () => {
       api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
       const choices: StudyChoices = { closure: 'households', destination: 'Orchards' };
-      const view = api.runScenario({ scenario: FIXED, choices });
+      const view = api.runScenario({ scenario: FIXED, choices }).phases[0]!;
       const p = api.paths({ scenario: FIXED, choices });
       expect(p.destination).toBe('Orchards');
       expect(p.model).toBe('closed');
@@ -200,7 +197,7 @@ describe('worker adapter over the engine', () => {
 
     it('exports what the screen shows: closure off means no induced effect in the file, and the sidecar says why', () => {
       api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
-      const view = api.runScenario({ scenario: FIXED, choices: OFF });
+      const view = api.runScenario({ scenario: FIXED, choices: OFF }).phases[0]!;
       const files = api.report({ kind: 'scenario-impact', scenario: FIXED, scenarios: [FIXED], choices: OFF });
       const rows = csvRows(files[0]!.content);
       const total = rows.at(-1)!;
@@ -240,11 +237,11 @@ describe('worker adapter over the engine', () => {
 
     it('a project keeps the household closure: what the command line saved opens as it ran', () => {
       api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
-      const closedRun = api.runScenario({ scenario: SCENARIO, choices: ON });
+      const closedRun = api.runScenario({ scenario: SCENARIO, choices: ON }).phases[0]!;
       const saved = api.saveProject({ name: 'CLI-like', scenarios: [SCENARIO], choices: ON, active: 0 });
       expect(JSON.parse(saved).settings.closure).toBe('households');
       const opened = api.openProject({ text: saved, fileName: 'cli.roundwise' });
-      expect(api.runScenario({ scenario: SCENARIO, choices: opened.choices }).effects.output!.totals.total).toBe(closedRun.effects.output!.totals.total);
+      expect(api.runScenario({ scenario: SCENARIO, choices: opened.choices }).phases[0]!.effects.output!.totals.total).toBe(closedRun.effects.output!.totals.total);
     });
   });
 });

@@ -85,9 +85,9 @@ describe('worker adapter on hard tables', () => {
 
   it('households the only final demand (ρ(Ā) = 1 exactly): the screens show no Type II model and no induced effect, as the analysis says', () => {
     const loaded = api.loadTable({ text: EDGE_TABLES.householdsOnly, fileName: 'householdsOnly.csv' });
-    const scenario = { name: 's', lines: [{ sector: 'A', amount: 100, kind: 'final-demand' as const, localShare: 1 }] };
+    const scenario = { name: 's', phases: [{ name: 'Phase 1', timing: 'once' as const, lines: [{ sector: 'A', amount: 100, kind: 'final-demand' as const, localShare: 1 }] }] };
     const choices = { closure: 'households' as const, destination: loaded.table.sectors[1]! };
-    const v = api.runScenario({ scenario, choices });
+    const v = api.runScenario({ scenario, choices }).phases[0]!;
     expect(v.closure).toBe('none');
     expect(v.effects.output!.totals.induced).toBeNull();
     expect(Math.abs(v.effects.output!.totals.total)).toBeLessThan(1e4);

@@ -13,7 +13,8 @@ import { readBriefFonts } from '../../src/node-io/index.ts';
 
 export const SAMPLE_DIR = join(import.meta.dirname, '..', '..', 'sample-data');
 export const SAMPLE_TABLE = join(SAMPLE_DIR, 'fernhollow-county.csv');
-export const SAMPLE_SHOCK = join(SAMPLE_DIR, 'fernhollow-food-plant.csv');
+// One phase of the invented food plant (the sample's own shock has two: building once, operating yearly).
+export const SAMPLE_SHOCK = join(import.meta.dirname, '..', 'fixtures', 'scenario', 'one-phase', 'fernhollow-food-plant.csv');
 
 export const fonts = readBriefFonts();
 

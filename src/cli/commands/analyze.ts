@@ -2,6 +2,7 @@
  * `roundwise analyze TABLE.csv`: a study of one table — coefficients, viability (the verdict in words), multipliers and
  * linkages; print a summary or one JSON object, and write the table's reports with their sidecars into --out DIR.
  */
+import { deliverableFiles, XLSX_OPTION } from './deliverables.ts';
 import {
   MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy, type PrepareOptions, type Study, formatLocated, visibleText,
   bandReports, multiplierBandsJson, studyBands,
@@ -83,6 +84,7 @@ export const analyze = defineCommand({
     map: { type: 'string', value: 'MAP.json', help: 'role overrides for the table\'s rows and columns ({"rows": {label: role}, "columns": {label: role}})' },
     'allow-negative': { type: 'boolean', help: 'accept negative flows (e.g. subsidies or stock changes) instead of refusing them' },
     tolerance: { type: 'number', value: 'T', help: 'rounds to tolerance: count spending rounds until less than T of any demand is left (0 < T < 1; default 1e-6)', check: (t) => (t > 0 && t < 1 ? null : 'must be a number between 0 and 1') },
+    ...XLSX_OPTION,
     ...TABLE_DIALECT_OPTIONS,
     ...UNCERTAINTY_OPTIONS,
   },
@@ -94,13 +96,14 @@ export const analyze = defineCommand({
     const study = studyFromTableFile(file.bytes, file.name, { ...tableDialect(values), allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
     if (values.tolerance !== undefined) study.settings.rounds.tolerance = values.tolerance;
     const settings = uncertaintySettingsOf(values, ctx);
-    const ps = await prepare(study, { inverse: values.out !== undefined });
+    const ps = await prepare(study, { inverse: values.out !== undefined || values.xlsx !== undefined });
     for (const w of ps.analysis.warnings) ctx.warn(formatLocated(w));
     const bands = settings ? await withHelperThreads(study.table.n, () => studyBands(ps, { settings, multipliers: true, scenarios: [] })!) : null;
     return {
       summary: () => summary(ps) + (bands ? `${multiplierBandsSummary(bands).join('\n')}\n` : ''),
       json: () => ({ ...studyAnalysisJson(ps), ...(bands ? { uncertainty: multiplierBandsJson(bands) } : {}) }),
       ...(values.out !== undefined ? { reports: [...tableReportSet(ps, ctx.date, { inverse: true }), ...(bands ? bandReports(ps, bands, ctx.date) : [])] } : {}),
+      files: await deliverableFiles(ps, null, values, ctx),
     };
   },
 });

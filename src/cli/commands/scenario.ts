@@ -1,40 +1,101 @@
 /**
- * `roundwise scenario TABLE.csv --shock SHOCK.csv`: a study of one table with one scenario — direct / indirect /
- * induced / total effects by sector, spending rounds, implied multipliers; optionally structural paths to one sector,
- * and the study saved as a project file. Everything is computed by src/study, as in the app.
+ * `roundwise scenario TABLE.csv --shock SHOCK.csv`: a study of one table with one scenario of one or more phases —
+ * direct / indirect / induced / total effects by sector per phase, spending rounds, implied multipliers; an annual
+ * phase's cumulative effect and present value; net of displacement and deadweight when lines give them; optionally
+ * structural paths to one sector, and the study saved as a project file. Everything is computed by src/study, as in
+ * the app.
  */
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
+import { BRIEF_OPTIONS, deliverableFiles, XLSX_OPTION } from './deliverables.ts';
 import { readFileLimited } from '../../node-io/index.ts';
 import {
-  CAUTIONS, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile, tableReport, studyFromTableFile, VARIABLES, type Closure, type PreparedStudy, type ScenarioOutcome, InputError, visibleText, parseShockCsv, matchKey, readBridge, scenarioByBridge,
+  CAUTIONS, checkStudyInputs, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile,
+  tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, parseMixCsv, parseActivityCsv,
+  parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
+  type Closure, type EffectTotals, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult, type Variable,
   bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studyBands, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
 import { withHelperThreads } from './analyze.ts';
 import { scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
-const fmt = (v: number | null) => (v === null ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
+const fmt = (v: number | null | undefined) => (v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
 
-function summary(ps: PreparedStudy, o: ScenarioOutcome): string {
-  const r = o.result;
-  const names = { output: 'output', valueAdded: 'value added', income: 'labour income', employment: 'employment' } as const;
-  const lines = [`Scenario '${visibleText(r.scenario)}' — ${modelTypeOf(r)}; money in ${visibleText(r.moneyUnit)}, employment in jobs.`, ''];
-  lines.push(['', 'direct', 'indirect', 'induced', 'total', 'Type I', 'Type II'].map((c, k) => (k === 0 ? c.padEnd(14) : c.padStart(12))).join(''));
+function totalsTable(r: ScenarioResult, title: string): string[] {
+  const lines = [title];
+  lines.push(['', 'direct', 'indirect', 'induced', 'total', 'Type I', 'Type II'].map((c, k) => (k === 0 ? c.padEnd(22) : c.padStart(12))).join(''));
   for (const v of VARIABLES) {
     const t = r.totals[v];
     const m = r.multipliers[v];
     if (!t || !m) continue;
-    lines.push([names[v].padEnd(14), ...[t.direct, t.indirect, t.induced, t.total, m.typeI.value, m.typeII.value].map((x) => fmt(x).padStart(12))].join(''));
+    lines.push([`${VARIABLE_NAMES[v]}`.padEnd(22), ...[t.direct, t.indirect, t.induced, t.total, m.typeI.value, m.typeII.value].map((x) => fmt(x).padStart(12))].join(''));
   }
-  lines.push('', `Spending rounds (round 0 is the initial demand), share of the open-model output total reached: ${o.rounds.reach.map((x) => reachText(o.rounds, x.target)).join(', ')}.`);
-  const p = o.paths;
-  if (p) {
-    lines.push('', `Structural paths to '${visibleText(p.destinationLabel)}' (${p.model} model): output change there ${fmt(p.destinationTotal)} ${visibleText(r.moneyUnit)}; the ${p.paths.length} paths listed explain ${p.explainedShare === null ? 'n/a' : `${(p.explainedShare * 100).toFixed(1)} %`}${p.truncated ? ' (search cut short)' : ''}.`);
+  return lines;
+}
+
+function overTimeLines(p: PhaseOutcome, moneyUnit: string): string[] {
+  const o = p.overTime;
+  if (!o) return [];
+  const lines = [`Over ${o.years} years (years × one year, undiscounted): ${(['output', 'valueAdded', 'income', 'employment'] as Variable[]).flatMap((v) => {
+    const t = o.cumulative[v];
+    return t ? [`${VARIABLE_NAMES[v]} ${fmt(t.total)} ${v === 'employment' ? 'job-years' : visibleText(moneyUnit)}`] : [];
+  }).join(', ')}.`];
+  if (o.presentValue) {
+    lines.push(`Present value at ${o.rate} a year (ordinary annuity, factor ${fmt(o.annuityFactor)}): ${(['output', 'valueAdded', 'income'] as Variable[]).flatMap((v) => {
+      const t = o.presentValue![v];
+      return t ? [`${VARIABLE_NAMES[v]} ${fmt(t.total)}`] : [];
+    }).join(', ')} ${visibleText(moneyUnit)}.`);
+  }
+  return lines;
+}
+
+function phaseLines(ps: PreparedStudy, o: ScenarioOutcome, p: PhaseOutcome): string[] {
+  const r = p.result;
+  const unit = visibleText(r.moneyUnit);
+  const lines: string[] = [];
+  if (o.phases.length > 1) lines.push('', `Phase '${visibleText(p.phase.name)}' (${timingText(p.phase)})${p.phase.timing === 'annual' ? ': one year\'s effects' : ''}`);
+  lines.push(...totalsTable(r, p.net ? 'Gross:' : ''));
+  if (p.net) lines.push(...totalsTable(p.net, 'Net of displacement and deadweight:'));
+  for (const row of r.outside) lines.push(`  of which outside the table's sectors: ${visibleText(row.label)} (direct ${fmt(row.direct.output)} ${unit} output, ${fmt(row.direct.income)} ${unit} labour income${row.direct.employment != null ? `, ${fmt(row.direct.employment)} jobs` : ''})`);
+  lines.push(...overTimeLines(p, r.moneyUnit));
+  lines.push(`Spending rounds (round 0 is the initial demand), share of the open-model output total reached: ${p.rounds.reach.map((x) => reachText(p.rounds, x.target)).join(', ')}.`);
+  const pa = p.paths;
+  if (pa) {
+    lines.push(`Structural paths to '${visibleText(pa.destinationLabel)}' (${pa.model} model): output change there ${fmt(pa.destinationTotal)} ${unit}; the ${pa.paths.length} paths listed explain ${pa.explainedShare === null ? 'n/a' : `${(pa.explainedShare * 100).toFixed(1)} %`}${pa.truncated ? ' (search cut short)' : ''}.`);
     lines.push(`${'carries'.padStart(12)}${'share'.padStart(9)}  path`);
-    for (const x of p.paths) lines.push(`${fmt(x.contribution).padStart(12)}${(x.share === null ? 'n/a' : `${(x.share * 100).toFixed(1)} %`).padStart(9)}  ${x.labels.map((l) => visibleText(l)).join(' > ')}`);
+    for (const x of pa.paths) lines.push(`${fmt(x.contribution).padStart(12)}${(x.share === null ? 'n/a' : `${(x.share * 100).toFixed(1)} %`).padStart(9)}  ${x.labels.map((l) => visibleText(l)).join(' > ')}`);
   }
+  if (o.phases.length > 1) for (const note of r.notes) lines.push(visibleText(note));
+  void ps;
+  return lines;
+}
+
+function timingSumLines(o: ScenarioOutcome, moneyUnit: string): string[] {
+  const lines: string[] = [];
+  for (const t of o.byTiming) {
+    const what = t.timing === 'once' ? 'All one-time phases, added' : 'All annual phases, one year of each, added';
+    const parts = (['output', 'valueAdded', 'income', 'employment', 'taxes', 'fte'] as Variable[]).flatMap((v) => {
+      const x = t.gross[v] as EffectTotals | null | undefined;
+      return x ? [`${VARIABLE_NAMES[v]} ${fmt(x.total)} ${unitOf(v, visibleText(moneyUnit))}`] : [];
+    });
+    lines.push('', `${what} (${t.phases.map((n) => `'${visibleText(n)}'`).join(', ')}; gross totals): ${parts.join(', ')}.`);
+  }
+  if (o.phases.some((p) => p.phase.timing === 'once') && o.phases.some((p) => p.phase.timing === 'annual')) {
+    lines.push('One-time and annual effects are not added together.');
+  }
+  return lines;
+}
+
+function summary(ps: PreparedStudy, o: ScenarioOutcome): string {
+  const r = o.phases[0]!.result;
+  const lines = [`Scenario '${visibleText(o.scenario.name)}' — ${modelTypeOf(r, o.model)}; money in ${visibleText(r.moneyUnit)}, employment in jobs.`];
+  if (o.phases.length === 1) lines.push(`${o.phases[0]!.phase.timing === 'annual' ? 'Annual: one year\'s effects' : 'One-time effects'}.`, '');
+  for (const p of o.phases) lines.push(...phaseLines(ps, o, p));
+  lines.push(...timingSumLines(o, r.moneyUnit));
   if (ps.verdict.productive !== true) lines.push('', ps.verdict.say);
-  for (const note of o.notes) lines.push(visibleText(note));
+  lines.push('');
+  const phaseNotes = new Set(o.phases.length > 1 ? o.phases.flatMap((p) => p.result.notes) : []);
+  for (const note of [...new Set(o.phases.flatMap((p) => p.notes))]) if (!phaseNotes.has(note)) lines.push(visibleText(note));
   lines.push('', `Cautions: ${CAUTIONS[0]} See the .about.txt files for the full list; for decisions, consult a qualified regional economist.`);
   return `${lines.join('\n')}\n`;
 }
@@ -59,21 +120,33 @@ function refuseToOverwriteForeign(path: string): void {
   }
 }
 
+const share = (v: number) => (v >= 0 && v <= 1 ? null : 'must be a share from 0 to 1');
+
 export const scenario = defineCommand({
   name: 'scenario',
-  summary: 'direct, indirect, induced and total effects of a demand shock on output, value added, labour income and jobs; spending rounds; structural paths',
+  summary: 'direct, indirect, induced and total effects of a demand shock, phase by phase, on output, value added, labour income, jobs (and taxes and FTE when the table has them); spending rounds; structural paths',
   positional: { name: 'TABLE.csv', help: 'the flow table, in any layout roundwise analyze reads' },
   options: {
-    shock: { type: 'string', value: 'SHOCK.csv', required: true, help: 'the shock: header sector,amount[,kind][,local_share][,note]; kind final-demand (default), output or jobs; local_share 0–1 (default 1)' },
+    shock: { type: 'string', value: 'SHOCK.csv', required: true, help: `the shock: header ${SHOCK_HEADER}; kind final-demand (default), output, jobs, labour-income, mix or activity; timing once (default) or annual; prices producer (default) or purchaser` },
     map: { type: 'string', value: 'MAP.json', help: 'role overrides for the table\'s rows and columns' },
     closure: { type: 'string', value: 'households|none', choices: ['households', 'none'], help: 'households (default, when the table allows it): induced effects from the household closure; none: open model only' },
-    paths: { type: 'string', value: 'SECTOR', help: 'add the structural paths that carry the effect to SECTOR (printed in the summary too)' },
+    paths: { type: 'string', value: 'SECTOR', help: 'add the structural paths that carry the effect to SECTOR, in each phase (printed in the summary too)' },
+    mix: { type: 'strings', value: 'MIX.csv', help: `spending mixes for mix lines: header ${MIX_HEADER} (the table's final-demand columns are mixes too: 'Table column: NAME')` },
+    activity: { type: 'strings', value: 'ACT.csv', help: `activities not in the table, for activity lines: header ${ACTIVITY_HEADER}` },
+    margins: { type: 'string', value: 'MARGINS.csv', help: `margins for purchaser-price lines: header ${MARGINS_HEADER}, a 'margin sector' row naming the sectors that earn them, an optional 'local share' row` },
+    'price-index': { type: 'string', value: 'INDEX.csv', help: `a price index for lines with a price_year: header ${PRICE_INDEX_HEADER}` },
+    'table-year': { type: 'number', value: 'YYYY', help: 'the year of the table\'s money (default: a four-digit year in the table\'s corner cell)', check: (v) => (Number.isInteger(v) && v >= 1000 && v <= 9999 ? null : 'must be a four-digit year') },
+    'discount-rate': { type: 'number', value: 'R', help: 'discount rate per year for the present value of annual phases with a number of years (e.g. 0.035; default: none)', check: (v) => (v >= 0 && v < 1 ? null : 'must be a share from 0 up to (not including) 1') },
+    commuting: { type: 'string', value: 'COMMUTING.csv', help: 'share of each sector\'s labour income paid to non-residents: header sector,share (leaks out before household spending)' },
+    'commuting-share': { type: 'number', value: 'S', help: 'the same share for every sector not in --commuting, and for activities\' payrolls (default 0)', check: share },
     bridge: { type: 'string', value: 'BRIDGE.csv', help: 'code,sector[,share]: the shock file names codes of another classification, mapped to the table\'s sectors (shares split a code)' },
-    project: { type: 'string', value: 'FILE.json', help: 'save the study (table, shock, settings) as a project file the app opens; an existing file is replaced only if it is a Roundwise project' },
+    project: { type: 'string', value: 'FILE.json', help: 'save the study (table, shock, settings and the files above) as a project file the app opens; an existing file is replaced only if it is a Roundwise project' },
+    ...BRIEF_OPTIONS,
+    ...XLSX_OPTION,
     ...TABLE_DIALECT_OPTIONS,
     ...SCENARIO_UNCERTAINTY_OPTIONS,
   },
-  outHelp: 'write the scenario\'s reports (NAME-inputs, NAME-impact, NAME-implied-multipliers, NAME-rounds, NAME-rounds-by-sector, and NAME-paths with --paths; NAME from the shock file; NAME-bands with --draws, NAME-sensitivity with --sensitivity) and the table\'s multipliers as CSV, each with an .about.txt',
+  outHelp: 'write the scenario\'s reports (NAME-inputs, NAME-phases, and per phase NAME[-PHASE]-impact, -net-impact with displacement or deadweight, -implied-multipliers, -rounds, -rounds-by-sector, and -paths with --paths; NAME from the shock file; NAME-bands with --draws, NAME-sensitivity with --sensitivity) and the table\'s multipliers as CSV, each with an .about.txt',
   async run({ input, values }, ctx) {
     const tableFile = ctx.input(input);
     const roles = ctx.roleMap(values.map);
@@ -82,6 +155,24 @@ export const scenario = defineCommand({
     // With a bridge the shock file's sector column holds codes: each line is split among the code's sectors.
     const scenario = values.bridge === undefined ? shock : scenarioByBridge(shock, readBridge({ bytes: ctx.input(values.bridge).bytes, fileName: values.bridge }, study.table.sectors));
     study.scenarios = [scenario];
+    study.mixes = values.mix.flatMap((f) => parseMixCsv(ctx.input(f).text, f));
+    study.activities = values.activity.flatMap((f) => parseActivityCsv(ctx.input(f).text, f));
+    for (const list of [study.mixes, study.activities]) {
+      const seen = new Set<string>();
+      for (const x of list) {
+        if (seen.has(x.name)) throw new InputError('duplicate-name', `'${x.name}' is described twice (in ${x.origin?.file ?? 'the files given'})`, { ...(x.origin?.file ? { file: x.origin.file } : {}), ...(x.origin?.line ? { line: x.origin.line } : {}), rowLabel: x.name });
+        seen.add(x.name);
+      }
+    }
+    if (values.margins !== undefined) study.margins = parseMarginsCsv(ctx.input(values.margins).text, values.margins);
+    if (values['price-index'] !== undefined) study.prices.index = parsePriceIndexCsv(ctx.input(values['price-index']).text, values['price-index']);
+    if (values['table-year'] !== undefined) study.prices.tableYear = values['table-year'];
+    if (values['discount-rate'] !== undefined) study.settings.discountRate = values['discount-rate'];
+    study.commuting = {
+      overall: values['commuting-share'] ?? 0,
+      sectors: values.commuting !== undefined ? parseCommutingCsv(ctx.input(values.commuting).text, values.commuting) : [],
+    };
+    checkStudyInputs(study);
     if (values.closure !== undefined) study.settings.closure = values.closure as Closure;
     study.settings.activeScenario = scenario.name;
     let destination: string | null = null;
@@ -99,24 +190,25 @@ export const scenario = defineCommand({
     const bands = settings ? await withHelperThreads(study.table.n, () => studyBands(ps, { settings, multipliers: false, scenarios: [scenario] })!) : null;
     const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step']) : null;
     const names = { output: 'output', valueAdded: 'value added', income: 'labour income', employment: 'employment' };
-    const files = [];
+    const files = await deliverableFiles(ps, outcome, values, ctx);
     if (values.project !== undefined) {
       refuseToOverwriteForeign(values.project);
       files.push({ path: values.project, content: projectFileOf(study) });
     }
     return {
       summary: () => summary(ps, outcome)
-        + (bands ? `${scenarioBandsSummary(bands, bands.scenarios[0]!, names).join('\n')}\n` : '')
-        + (sens ? `${sensitivitySummary(sens, study.table.moneyUnit).join('\n')}\n` : ''),
+        + (bands ? bands.scenarios.map((b) => `${scenarioBandsSummary(bands, b, names).join('\n')}\n`).join('') : '')
+        + (sens ? sens.map((x) => `${sensitivitySummary(x, study.table.moneyUnit).join('\n')}\n`).join('') : ''),
       json: () => ({
         ...scenarioJson(ps, outcome),
-        ...(bands ? { uncertainty: scenarioBandsJson(bands, bands.scenarios[0]!) } : {}),
-        ...(sens ? { sensitivity: sensitivityJson(sens) } : {}),
+        // One phase: an object, as before phases; several: one per phase, in file order (each names its phase).
+        ...(bands ? { uncertainty: bands.scenarios.length === 1 ? scenarioBandsJson(bands, bands.scenarios[0]!) : bands.scenarios.map((b) => scenarioBandsJson(bands, b)) } : {}),
+        ...(sens ? { sensitivity: sens.length === 1 ? sensitivityJson(sens[0]!) : sens.map(sensitivityJson) } : {}),
       }),
       ...(values.out !== undefined ? {
         reports: [
           ...scenarioReportSet(ps, outcome, ctx.date), ...tableReport(ps, 'multipliers', ctx.date),
-          ...(bands ? bandReports(ps, bands, ctx.date) : []), ...(sens ? sensitivityReports(ps, sens, ctx.date) : []),
+          ...(bands ? bandReports(ps, bands, ctx.date) : []), ...(sens ? sens.flatMap((x) => sensitivityReports(ps, x, ctx.date)) : []),
         ],
       } : {}),
       files,

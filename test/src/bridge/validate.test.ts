@@ -18,6 +18,12 @@ describe('validateArgs', () => {
     expect(validateArgs('exportFile', ['multipliers', 'csv', 'a,b\n1,2\n']).ok).toBe(true);
     expect(validateArgs('exportFile', ['chart', 'png', png]).ok).toBe(true);
     expect(validateArgs('exportFile', ['chart', 'png', `data:image/png;base64,${png}`]).ok).toBe(true);
+    // The brief and the workbook cross as base64 of a PDF ("%PDF-1", ISO 32000-1 7.5.2) and of a zip package.
+    expect(validateArgs('exportFile', ['brief', 'pdf', Buffer.from('%PDF-1.7\n%\xff\n').toString('base64')]).ok).toBe(true);
+    expect(validateArgs('exportFile', ['book', 'xlsx', Buffer.from('PK\x03\x04\x14\x00\x00\x00').toString('base64')]).ok).toBe(true);
+    expect(validateArgs('exportFile', ['brief', 'pdf', Buffer.from('<html>').toString('base64')]).ok).toBe(false);
+    expect(validateArgs('exportFile', ['book', 'xlsx', Buffer.from('%PDF-1.7 x').toString('base64')]).ok).toBe(false);
+    expect(validateArgs('exportFile', ['book', 'xlsx', 'PK not base64!']).ok).toBe(false);
     expect(validateArgs('recentProjects', []).ok).toBe(true);
     expect(validateArgs('openRecent', ['/home/a/county.roundwise']).ok).toBe(true);
     expect(validateArgs('setDirty', [true]).ok).toBe(true);

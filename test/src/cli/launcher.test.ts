@@ -3,7 +3,7 @@
 // (common practice, no source: the reference is the project's own source run through tsx).
 import { describe, it, expect, beforeAll } from 'vitest';
 import { execFileSync, spawnSync } from 'node:child_process';
-import { copyFileSync, existsSync, mkdirSync, mkdtempSync, rmSync, statSync, utimesSync, writeFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, rmSync, statSync, utimesSync, writeFileSync, cpSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -44,7 +44,8 @@ describe('roundwise launcher', () => {
       const pkg = join(dir, 'node_modules', 'roundwise');
       mkdirSync(join(pkg, 'src', 'cli'), { recursive: true });
       mkdirSync(join(pkg, 'dist', 'cli'), { recursive: true });
-      for (const f of ['main.mjs', 'parallel-worker.mjs']) copyFileSync(join(root, 'dist', 'cli', f), join(pkg, 'dist', 'cli', f));
+      // The whole bundle folder: main.mjs, the worker and the chunks loaded on first use (the brief's and the workbook's libraries).
+      cpSync(join(root, 'dist', 'cli'), join(pkg, 'dist', 'cli'), { recursive: true });
       copyFileSync(join(root, bin), join(pkg, bin));
       writeFileSync(join(pkg, 'src', 'cli', 'main.ts'), '// unpacked after the bundle\n');
       const later = new Date(Date.now() + 60_000);

@@ -27,7 +27,8 @@ function snapshot(d: string): Record<string, string> {
 }
 
 const SAMPLE = 'sample-data/fernhollow-county.csv';
-const SHOCK = 'sample-data/fernhollow-food-plant.csv';
+// A shock of one phase (the file handling is the point here, not phases): reports are named NAME-impact.csv etc.
+const SHOCK = 'test/fixtures/scenario/one-phase/fernhollow-food-plant.csv';
 
 describe('an output never replaces an input file', () => {
   it('analyze dir/multipliers.csv --out dir: refused (exit 2) naming both files, nothing written', async () => {

@@ -37,18 +37,25 @@ describe('README command-line examples', () => {
       expect(r.err.split('\n').filter((l) => !l.includes('warning')).join(''), line).toBe('');
       expect(r.code, line).toBe(0);
     }
-    expect(readdirSync(join(dir, 'reports'))).toEqual(expect.arrayContaining(['fernhollow-food-plant-impact.csv', 'fernhollow-food-plant-inputs.csv', 'multipliers.csv']));
+    expect(readdirSync(join(dir, 'reports'))).toEqual(expect.arrayContaining([
+      'fernhollow-food-plant-inputs.csv', 'fernhollow-food-plant-phases.csv', 'fernhollow-food-plant-building-the-plant-impact.csv',
+      'fernhollow-food-plant-operating-the-plant-impact.csv', 'multipliers.csv',
+    ]));
   });
 
-  it('the food-plant shock fixes Food processing at exactly 300 direct jobs, and effects add up', async () => {
-    const r = await run(['scenario', 'sample-data/fernhollow-county.csv', '--shock', 'sample-data/fernhollow-food-plant.csv', '--json']);
+  it('the food-plant study: building once, operating yearly; operating fixes Food processing at exactly 300 direct jobs, and effects add up', async () => {
+    const r = await run(['scenario', 'sample-data/fernhollow-county.csv', '--shock', 'sample-data/fernhollow-food-plant.csv', '--discount-rate', '0.035', '--json']);
     expect(r.code).toBe(0);
     const j = JSON.parse(r.out);
+    expect(j.phases.map((p: { name: string; timing: string; years: number | null }) => [p.name, p.timing, p.years])).toEqual([['Building the plant', 'once', null], ['Operating the plant', 'annual', 20]]);
+    // Two phases of different timings: no top-level effects, never a one-time plus annual total.
+    expect(j.effects).toBeUndefined();
     const food = j.sectors.indexOf('Food processing');
     expect(food).toBeGreaterThanOrEqual(0);
-    expect(j.effects.employment.direct[food]).toBeCloseTo(300, 9);
+    const operating = j.phases[1];
+    expect(operating.effects.employment.direct[food]).toBeCloseTo(300, 9);
     for (const v of ['output', 'valueAdded', 'income', 'employment']) {
-      const e = j.effects[v];
+      const e = operating.effects[v];
       for (let i = 0; i < j.sectors.length; i++) {
         const sum = e.direct[i] + e.indirect[i] + e.induced[i];
         expect(Math.abs(sum - e.total[i])).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(e.total[i])));

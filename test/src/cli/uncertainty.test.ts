@@ -9,8 +9,9 @@ import Papa from 'papaparse';
 import { runCli } from '../../support/cli.ts';
 
 const TABLE = 'sample-data/fernhollow-county.csv';
-const SHOCK = 'sample-data/fernhollow-food-plant.csv';
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-unc-'));
+// A shock of one phase, so the bands are the top-level `uncertainty` object (a study of several phases gives an array).
+const SHOCK = 'test/fixtures/scenario/one-phase/fernhollow-food-plant.csv';
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any -- parsed --json output, checked field by field

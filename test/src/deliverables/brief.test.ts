@@ -21,7 +21,7 @@ describe('the brief as a PDF', () => {
   const text = pdfWords(a4);
   it('holds each headline number as the JSON gives it, rounded as the brief says', () => {
     const json = scenarioJson(ps, o) as { totals: Record<string, { direct: number; indirect: number; induced: number; total: number }> };
-    for (const v of VARIABLES) {
+    for (const v of VARIABLES.filter((x) => x in json.totals) as ('output' | 'valueAdded' | 'income' | 'employment')[]) {
       const t = json.totals[v]!;
       const round = v === 'employment' ? (x: number) => en(Math.round(x)) : sig3;
       const row = [t.direct, t.indirect, t.induced, t.total].map(round).join(' ');
@@ -38,7 +38,7 @@ describe('the brief as a PDF', () => {
   it('prints the cautions in full, the inputs and the provenance', () => {
     for (const c of [...CAUTIONS, ...SCENARIO_CAUTIONS]) expect(text).toContain(words(c));
     const cells = pdfWords(a4, 'raw');
-    for (const l of o.scenario.lines) expect(cells).toContain(words(l.note!));
+    for (const l of o.scenario.phases.flatMap((p) => p.lines)) expect(cells).toContain(words(l.note!));
     expect(text).toContain(ps.study.source!.sha256);
     expect(text).toContain('fernhollow-county.csv');
   });

@@ -11,7 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { formatLocated, InputError } from '../../../src/diagnostics/index.ts';
 import { importTable, previewTable } from '../../../src/table/index.ts';
 import { parseShockCsv } from '../../../src/scenario/index.ts';
-import { runScenario } from '../../support/scenario.ts';
+import { linesOf, runScenario } from '../../support/scenario.ts';
 import { prepareModel } from '../../../src/model/index.ts';
 import { parseProject, serializeProject } from '../../../src/project/index.ts';
 import { ACCEPTED, BASE, NO_JOBS_TABLE, projects, SHOCKS, TABLES } from '../../fixtures/hardening/make-corpus.ts';
@@ -47,23 +47,23 @@ const TABLE_EXPECT: Record<string, string> = {
 };
 
 const SHOCK_EXPECT: Record<string, string> = {
-  'shock-0-byte.csv': 'shock-0-byte.csv: the shock file is empty',
+  'shock-0-byte.csv': "shock-0-byte.csv: the shock file is empty (expected a header sector,amount[,kind][,local_share][,phase][,timing][,year][,years][,price_year][,prices][,displacement][,deadweight][,note])",
   'shock-header-only.csv': 'shock-header-only.csv:1: the shock file has a header but no lines',
-  'shock-unknown-sector.csv': "shock-unknown-sector.csv:3 (row 'Cannery'): unknown sector 'Cannery' (the table has: Orchards, Canning, Services)",
-  'shock-share-above-one.csv': "shock-share-above-one.csv:2:4 (row 'Canning'): local share 1.2 is outside [0, 1]",
-  'shock-share-percent.csv': "shock-share-percent.csv:2:4 (row 'Canning'): local share 80 is outside [0, 1]",
-  'shock-share-negative.csv': "shock-share-negative.csv:2:4 (row 'Canning'): local share -0.5 is outside [0, 1]",
-  'shock-jobs-no-employment.csv': "shock-jobs-no-employment.csv:2 (row 'Canning'): a jobs line needs employment for 'Canning', and the table has no employment row",
-  'shock-fixed-and-shocked.csv': "shock-fixed-and-shocked.csv:4 (row 'Canning'): 'Canning' is both fixed (output line) and shocked in final demand; its output is set from outside, so a final-demand change there has no meaning — use one or the other",
+  'shock-unknown-sector.csv': "shock-unknown-sector.csv:3:1 (row 'Cannery', column 'sector'): unknown sector 'Cannery' (the table has: Orchards, Canning, Services)",
+  'shock-share-above-one.csv': "shock-share-above-one.csv:2:4 (row 'Canning', column 'local_share'): local share 1.2 is outside [0, 1]",
+  'shock-share-percent.csv': "shock-share-percent.csv:2:4 (row 'Canning', column 'local_share'): local share 80 is outside [0, 1]",
+  'shock-share-negative.csv': "shock-share-negative.csv:2:4 (row 'Canning', column 'local_share'): local share -0.5 is outside [0, 1]",
+  'shock-jobs-no-employment.csv': "shock-jobs-no-employment.csv:2:1 (row 'Canning', column 'sector'): a jobs line needs employment for 'Canning', and the table has no employment row",
+  'shock-fixed-and-shocked.csv': "shock-fixed-and-shocked.csv:4 (row 'Canning'): 'Canning' is both fixed (output line) and shocked with demand (final demand); its output is set from outside, so a demand change there has no meaning — use one or the other",
   'shock-extra-field.csv': "shock-extra-field.csv:2:3 (row 'Canning'): row has a value in field 3 ('000'), beyond the header's 2 fields",
   'shock-share-extra-field.csv': "shock-share-extra-field.csv:2:5 (row 'Canning'): row has a value in field 5 ('5'), beyond the header's 4 fields",
   'shock-ambiguous-decimal.csv': "shock-ambiguous-decimal.csv:2:2: '1.500' could be 1500 or 1.5: no number in the file shows whether '.' is a decimal mark or groups thousands; write 1500 or 1.5, whichever is meant",
-  'shock-amount-overflow.csv': "shock-amount-overflow.csv:2:2 (row 'Canning'): amount '1e999' is too large for a number (above 1.7977e+308)",
-  'shock-bad-kind.csv': "shock-bad-kind.csv:2:3 (row 'Canning'): kind 'plant' is not one of final-demand, output, jobs",
-  'shock-unknown-column.csv': "shock-unknown-column.csv:1:3: unknown column 'share'; expected sector, amount and optionally kind, local_share, note",
-  'shock-no-amount.csv': "shock-no-amount.csv:1: the header needs a 'amount' column (sector,amount[,kind][,local_share][,note])",
-  'shock-output-local-share.csv': "shock-output-local-share.csv:2 (row 'Canning'): local share applies to final-demand lines only; an output line fixes the sector's own (local) output",
-  'shock-multiline-note.csv': "shock-multiline-note.csv:5 (row 'Cannery'): unknown sector 'Cannery' (the table has: Orchards, Canning, Services)",
+  'shock-amount-overflow.csv': "shock-amount-overflow.csv:2:2 (row 'Canning', column 'amount'): amount '1e999' is too large for a number (above 1.7977e+308)",
+  'shock-bad-kind.csv': "shock-bad-kind.csv:2:3 (row 'Canning', column 'kind'): kind 'plant' is not one of final-demand, output, jobs, labour-income, mix, activity",
+  'shock-unknown-column.csv': "shock-unknown-column.csv:1:3: unknown column 'share'; the header is sector,amount[,kind][,local_share][,phase][,timing][,year][,years][,price_year][,prices][,displacement][,deadweight][,note]",
+  'shock-no-amount.csv': "shock-no-amount.csv:1: the header needs a 'amount' column (sector,amount[,kind][,local_share][,phase][,timing][,year][,years][,price_year][,prices][,displacement][,deadweight][,note])",
+  'shock-output-local-share.csv': "shock-output-local-share.csv:2:4 (row 'Canning', column 'local_share'): local share applies to final-demand and mix lines only; an output line fixes the sector's own (local) output",
+  'shock-multiline-note.csv': "shock-multiline-note.csv:5:1 (row 'Cannery', column 'sector'): unknown sector 'Cannery' (the table has: Orchards, Canning, Services)",
   'shock-utf16le-bom.csv': `shock-utf16le-bom.csv: ${UTF16}`,
   'shock-binary.csv': 'shock-binary.csv: the file looks like binary data, not CSV text',
 };
@@ -72,7 +72,7 @@ const PROJECT_EXPECT: Record<string, string> = {
   'project-0-byte.json': 'project-0-byte.json: the project file is empty',
   'project-truncated.json': 'project-truncated.json: the project file ends early — it looks truncated (an interrupted copy or save); it was not changed',
   'project-corrupt.json': `project-corrupt.json:14:16: ${NOT_JSON}`,
-  'project-newer.json': 'project-newer.json: the project was saved by a newer Roundwise (project version 99; this one reads up to 3) — open it there, or update',
+  'project-newer.json': 'project-newer.json: the project was saved by a newer Roundwise (project version 99; this one reads up to 4) — open it there, or update',
   'project-foreign.json': 'project-foreign.json: this is not a Roundwise project file (it has no "format": "roundwise-project")',
   'project-is-a-table.json': `project-is-a-table.json:1:2: ${NOT_JSON}`,
   'project-utf16le-bom.json': `project-utf16le-bom.json:1:1: ${NOT_JSON}`,
@@ -147,11 +147,11 @@ describe('hardening corpus', () => {
 
   describe('shock files in the tables\' dialect', () => {
     it('a quoted thousands separator in a comma file is read as one (1,500 = 1500)', () => {
-      expect(parseShockCsv(read('shock-thousands.csv'), 'shock-thousands.csv').lines.map((l) => l.amount)).toEqual([1500]);
+      expect(linesOf(parseShockCsv(read('shock-thousands.csv'), 'shock-thousands.csv')).map((l) => l.amount)).toEqual([1500]);
     });
     it('a semicolon file with decimal commas and point-grouped thousands is accepted', () => {
       const s = parseShockCsv(read('shock-semicolon-decimal-comma.csv'), 'shock-semicolon-decimal-comma.csv');
-      expect(s.lines.map((l) => [l.sector, l.amount, l.localShare, l.origin?.line])).toEqual([['Canning', 1500.5, 0.9, 2], ['Services', 20, 1, 3]]);
+      expect(linesOf(s).map((l) => [l.sector, l.amount, l.localShare, l.origin?.line])).toEqual([['Canning', 1500.5, 0.9, 2], ['Services', 20, 1, 3]]);
       expect(() => runScenario(prepareModel(base), s)).not.toThrow();
     });
   });

@@ -9,7 +9,7 @@ import { importTable } from '../../../src/table/index.ts';
 import { writeTableCsv } from '../../../src/table/index.ts';
 import { prepareModel } from '../../../src/model/index.ts';
 import { compareScenarios, spendingRounds, structuralPaths } from '../../../src/scenario/index.ts';
-import { runScenario } from '../../support/scenario.ts';
+import { entriesOf, runScenario } from '../../support/scenario.ts';
 import { comparisonReport, impactReport, pathReport, roundsReport, scenarioMultiplierReport } from '../../../src/report/index.ts';
 import type { ReportFile } from '../../../src/report/index.ts';
 import { FORMULA_LABELS, formulaTableCsv, unsafeCells } from './csv-safety.ts';
@@ -34,7 +34,7 @@ describe('CSV injection, end to end through the engine', () => {
     const paths = structuralPaths(pm, s1.effectiveDemand, 1);
     const files: ReportFile[] = [
       ...impactReport(s1, ctx, 'impact'), ...roundsReport(s1, rounds, ctx, 'rounds'), ...scenarioMultiplierReport(s1, ctx, 'implied-multipliers'), ...pathReport(s1, paths, ctx, 'paths'),
-      ...comparisonReport(compareScenarios([s1, s2]), table.moneyUnit, ctx, 'comparison'),
+      ...comparisonReport(compareScenarios(entriesOf(s1, s2)), table.moneyUnit, ctx, 'comparison'),
       { name: 'table.csv', content: writeTableCsv(table) },
     ];
     const csvs = files.filter((f) => f.name.endsWith('.csv'));

@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { InputError } from '../../../src/diagnostics/index.ts';
 import { prepareModel } from '../../../src/model/index.ts';
-import { runScenario } from '../../support/scenario.ts';
+import { onePhase, runScenario } from '../../support/scenario.ts';
 import { analyzeTable } from '../../../src/model/index.ts';
 import { analysisJson } from '../../../src/report/index.ts';
 import { prepareStudy, runStudyScenario, studyOfTable } from '../../../src/study/index.ts';
@@ -54,8 +54,9 @@ async function expectFiniteAnalysis(name: keyof typeof EDGE_TABLES) {
 /** The scenario through the engine and through the CLI (--json and --out): all finite, every CSV free of NaN/Infinity text. */
 async function expectFiniteEverywhere(name: keyof typeof EDGE_TABLES) {
   const t = importTable(EDGE_TABLES[name], { fileName: `${name}.csv` });
-  const analysis = runStudyScenario(prepareStudy(studyOfTable(t)), { name: 's', lines: [{ sector: 'A', amount: 100, kind: 'final-demand', localShare: 1 }] }, { paths: t.sectors[t.n - 1]! });
-  expect(nonFinite(analysis)).toEqual([]);
+  const outcome = runStudyScenario(prepareStudy(studyOfTable(t)), onePhase('s', [{ sector: 'A', amount: 100, kind: 'final-demand', localShare: 1 }]), { paths: t.sectors[t.n - 1]! });
+  expect(nonFinite(outcome)).toEqual([]);
+  const analysis = outcome.phases[0]!;
   const json = await scenarioCli(name, ['--json', '--paths', t.sectors[t.n - 1]!]);
   expect(json.code, json.err).toBe(0);
   expect(nonFiniteText(json.out)).toEqual([]);

@@ -2,6 +2,7 @@
  * Defects found by the hardening property tests, each pinned by the smallest input that showed it.
  */
 import { describe, expect, it } from 'vitest';
+import { linesOf } from '../../support/scenario.ts';
 import { formatLocated, InputError } from '../../../src/diagnostics/index.ts';
 import { importTable } from '../../../src/table/index.ts';
 import { parseShockCsv } from '../../../src/scenario/index.ts';
@@ -50,7 +51,7 @@ describe('found by the property tests', () => {
 describe('found by the hardening corpus', () => {
   it('a shock-file refusal below a quoted note that spans lines names its own file line', () => {
     const s = parseShockCsv('sector,amount,kind,local_share,note\r\nCanning,300,final-demand,1,"new line\r\nof jars"\r\nServices,20,,,\r\nCannery,5,,,\r\n', 'shock.csv');
-    expect(s.lines.map((l) => l.origin?.line)).toEqual([2, 4, 5]);
+    expect(linesOf(s).map((l) => l.origin?.line)).toEqual([2, 4, 5]);
   });
   it('a binary or UTF-16 shock file is refused as such, not as a header with an unknown column of garbage', () => {
     const utf16 = '\ufffd\ufffd' + 'sector,amount\r\n'.split('').join('\u0000') + '\u0000';

@@ -6,7 +6,7 @@ import { inv } from 'mathjs';
 import { analyzePrepared, analyzeTable } from '../../../src/model/analysis.ts';
 import { closedModelDecision, decideClosedModel, schurRoundingBound } from '../../../src/model/closed-model.ts';
 import { closedBorder, prepareModel } from '../../../src/model/prepared.ts';
-import { runScenario } from '../../support/scenario.ts';
+import { onePhase, runScenario } from '../../support/scenario.ts';
 import { prepareStudy, runStudyScenario, studyOfTable } from '../../../src/study/index.ts';
 import { makeTable } from './tables.ts';
 import { seeded } from '../../support/random.ts';
@@ -39,7 +39,7 @@ function householdsEconomy(n: number, seed: number, exportShare: number) {
   });
 }
 
-const shock = { name: 's', lines: [{ sector: 'S1', amount: 100, kind: 'final-demand' as const, localShare: 1 }] };
+const shock = onePhase('s', [{ sector: 'S1', amount: 100, kind: 'final-demand' as const, localShare: 1 }]);
 
 describe('closed-model decision', () => {
   it('households the only final demand (ρ(Ā) = 1 exactly): never usable, s within its rounding bound, analysis and scenario agree', () => {
@@ -92,7 +92,7 @@ describe('closed-model decision', () => {
     expect(cm.accuracyNote).toMatch(/nearly singular .* induced effects may have lost most of their digits/);
     expect(an.warnings.map((w) => w.code)).toContain('closed-ill-conditioned');
     // the scenario says it beside its numbers (the study adds the analysis' warnings to every scenario's notes)
-    expect(runStudyScenario(prepareStudy(studyOfTable(t)), shock).notes.join('\n')).toMatch(/nearly singular/);
+    expect(runStudyScenario(prepareStudy(studyOfTable(t)), shock).phases[0]!.notes.join('\n')).toMatch(/nearly singular/);
   });
 
   it('a nearly periodic Ā whose power iteration stalls (bounds 0.01–1.0): s = 0.99 settles it, usable in both analysis and scenario', () => {

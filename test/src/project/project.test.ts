@@ -5,12 +5,13 @@ import { InputError } from '../../../src/diagnostics/index.ts';
 import {
   createProject, importSource, parseProject, serializeProject, sourceInfo, PROJECT_VERSION, utf8Bytes, type Project,
 } from '../../../src/project/index.ts';
-import type { ScenarioResult } from '../../../src/scenario/index.ts';
+import type { ScenarioLine, ScenarioResult } from '../../../src/scenario/index.ts';
+import { runScenario } from '../../support/scenario.ts';
 import { writeTableCsv } from '../../../src/table/index.ts';
 import { county4 } from '../scenario/tables.ts';
 import { projectResults } from '../../support/project.ts';
 import { importTable } from '../../../src/table/index.ts';
-import { analyzeTable } from '../../../src/model/index.ts';
+import { analyzeTable, prepareModel } from '../../../src/model/index.ts';
 
 const fixture = (name: string) => readFileSync(fileURLToPath(new URL(`../../fixtures/scenario/${name}`, import.meta.url)), 'utf8');
 
@@ -24,10 +25,10 @@ function study(): Project {
   t.roles = { rows: { 'Compensation of employees': 'labourIncome' }, columns: { Households: 'householdConsumption' } };
   const p = createProject(t, { name: 'Food plant study', source: sourceInfo('county.csv', utf8Bytes('sector,Farms\n')) });
   p.scenarios.push(
-    { name: 'plant', description: 'a plant opens', lines: [{ sector: 'Food processing', amount: 300, kind: 'jobs', localShare: 1, note: 'new plant', origin: { file: 'shock.csv', line: 2 } }] },
-    { name: 'visitors', lines: [{ sector: 'Retail', amount: 0.1 + 0.2, kind: 'final-demand', localShare: 0.7, pattern: 'festival' }, { sector: 'Services', amount: -12.5, kind: 'final-demand', localShare: 1, pattern: 'festival' }] },
+    { name: 'plant', description: 'a plant opens', phases: [{ name: 'Phase 1', timing: 'once', lines: [{ sector: 'Food processing', amount: 300, kind: 'jobs', localShare: 1, note: 'new plant', origin: { file: 'shock.csv', line: 2 } }] }] },
+    { name: 'visitors', phases: [{ name: 'Festival', timing: 'annual', year: 2026, years: 10, lines: [{ sector: 'Retail', amount: 0.1 + 0.2, kind: 'final-demand', localShare: 0.7, mix: 'festival' }, { sector: 'Services', amount: -12.5, kind: 'final-demand', localShare: 1, mix: 'festival' }] }] },
   );
-  p.patterns.push({ name: 'festival', shares: [{ sector: 'Retail', share: 0.6 }, { sector: 'Services', share: 0.4 }] });
+  p.mixes.push({ name: 'festival', shares: [{ sector: 'Retail', share: 0.6 }, { sector: 'Services', share: 0.4 }] });
   p.settings.paths.destination = 'Farms';
   return p;
 }
@@ -64,14 +65,16 @@ describe('project files', () => {
     expect(after).toHaveLength(2);
     before.forEach((r, k) => resultsEqual(r, after[k]!));
   });
-  it('stores the source name and SHA-256, roles, patterns and settings; not results, not line origins', () => {
+  it('stores the source name and SHA-256, roles, spending mixes, phases and settings; not results, not line origins', () => {
     const text = serializeProject(study());
     const doc = JSON.parse(text);
     expect(doc.format).toBe('roundwise-project');
     expect(doc.version).toBe(PROJECT_VERSION);
     expect(doc.source).toEqual({ fileName: 'county.csv', sha256: sourceInfo('x', utf8Bytes('sector,Farms\n')).sha256, bytes: 13, import: {} });
     expect(doc.roles.rows['Compensation of employees']).toBe('labourIncome');
-    expect(doc.patterns[0].name).toBe('festival');
+    expect(doc.mixes[0].name).toBe('festival');
+    expect(doc.scenarios[1].phases[0]).toMatchObject({ name: 'Festival', timing: 'annual', year: 2026, years: 10 });
+    expect(doc.settings.discountRate).toBeNull();
     expect(doc.settings.paths.destination).toBe('Farms');
     expect(text).not.toMatch(/origin|openOutput|effects/);
   });
@@ -81,7 +84,7 @@ describe('project files', () => {
     expect(Array.from(p.table.Z.slice(0, 3))).toEqual([50, 120, 10]);
     expect(p.source).toMatchObject({ fileName: 'county.csv', sha256: '5f'.repeat(32) });
     expect(p.table.roles.rows.Jobs).toBe('employment');
-    expect(p.scenarios[0]!.lines[1]).toEqual({ sector: 'Shops', amount: 40, kind: 'final-demand', localShare: 0.6 });
+    expect(p.scenarios[0]!.phases[0]!.lines[1]).toEqual({ sector: 'Shops', amount: 40, kind: 'final-demand', localShare: 0.6 });
     expect(p.settings.rounds.maxRounds).toBe(200);
     const saved = serializeProject(p);
     expect(JSON.parse(saved).version).toBe(PROJECT_VERSION);
@@ -114,8 +117,8 @@ describe('project files', () => {
     const doc = JSON.parse(serializeProject(study()));
     const bad = (edit: (d: typeof doc) => void) => { const d = structuredClone(doc); edit(d); return refusal(JSON.stringify(d)); };
     expect(bad((d) => { d.table.Z.pop(); }).message).toMatch(/table\.Z: expected 16 flows/);
-    expect(bad((d) => { d.scenarios[1].lines[0].localShare = 2; }).message).toMatch(/scenarios\[1\]\.lines\[0\]\.localShare/);
-    expect(bad((d) => { d.scenarios[0].lines[0].sector = 'Mining'; }).message).toMatch(/unknown sector 'Mining'/);
+    expect(bad((d) => { d.scenarios[1].phases[0].lines[0].localShare = 2; }).message).toMatch(/scenarios\[1\]\.phases\[0\]\.lines\[0\]\.localShare/);
+    expect(bad((d) => { d.scenarios[0].phases[0].lines[0].sector = 'Mining'; }).message).toMatch(/unknown sector 'Mining'/);
     expect(bad((d) => { d.source.sha256 = 'xyz'; }).message).toMatch(/source\.sha256/);
     expect(bad((d) => { d.version = 'two'; }).code).toBe('project-invalid');
     expect(bad((d) => { delete d.settings; }).message).toMatch(/settings/);
@@ -129,6 +132,27 @@ describe('project files', () => {
     const open = JSON.parse(fixture('project-v2.json'));
     open.settings.paths.model = 'open';
     expect(parseProject(JSON.stringify(open), 'open.json').settings.closure).toBe('none');
+  });
+});
+
+describe('project files of version 3 (before phases)', () => {
+  it('migrates each scenario to one one-time phase, patterns to spending mixes, and says so; the results are unchanged', () => {
+    const text = fixture('project-v3.json');
+    const p = parseProject(text, 'project-v3.json');
+    expect(p.scenarios.map((s) => s.phases.map((ph) => [ph.name, ph.timing]))).toEqual([[['Phase 1', 'once']], [['Phase 1', 'once']]]);
+    expect(p.scenarios[1]!.phases[0]!.lines[0]).toEqual({ sector: 'Shops', amount: 300, kind: 'final-demand', localShare: 0.9, mix: 'Visitor day' });
+    expect(p.mixes).toEqual([{ name: 'Visitor day', shares: [{ sector: 'Shops', share: 0.6 }, { sector: 'Farms', share: 0.4 }] }]);
+    expect(p.settings.discountRate).toBeNull();
+    expect(p.commuting).toEqual({ overall: 0, sectors: [] });
+    expect(p.table.warnings.find((w) => w.code === 'project-migrated')?.message).toMatch(/one one-time phase, 'Phase 1'/);
+    // The same lines run as a flat list (as version 3 ran them) give bit-for-bit the same effects.
+    const doc = JSON.parse(text) as { scenarios: { name: string; lines: ScenarioLine[] }[] };
+    const pm = prepareModel(p.table);
+    const before = doc.scenarios.map((s) => runScenario(pm, { name: s.name, lines: s.lines.map(({ pattern: _p, ...l }: ScenarioLine & { pattern?: string }) => l) }));
+    projectResults(p).forEach((r, k) => resultsEqual(r, before[k]!));
+    const saved = JSON.parse(serializeProject(p));
+    expect(saved.version).toBe(4);
+    expect(saved.patterns).toBeUndefined();
   });
 });
 

@@ -4,7 +4,7 @@ import { describe, it, expect } from 'vitest';
 import Papa from 'papaparse';
 import { prepareModel } from '../../../src/model/index.ts';
 import { compareScenarios, spendingRounds, structuralPaths } from '../../../src/scenario/index.ts';
-import { runScenario } from '../../support/scenario.ts';
+import { entriesOf, runScenario } from '../../support/scenario.ts';
 import {
   comparisonReport, impactReport, impactRows, pathReport, roundsReport, scenarioMultiplierReport, SCENARIO_CAUTIONS,
 } from '../../../src/report/scenario.ts';
@@ -108,7 +108,7 @@ describe('scenario reports', () => {
     for (const row of prow) expect(row).toHaveLength(prow[0]!.length);
     expect(prow.at(-1)![9]).toBe(pa.explained);
     const r2 = runScenario(pm, { name: 'visitors only', lines: [{ sector: '@Retail', amount: 500, kind: 'final-demand', localShare: 1 }] });
-    const cmp = parse(comparisonReport(compareScenarios([r, r2]), r.moneyUnit, ctx, 'scenario-comparison')[0]!);
+    const cmp = parse(comparisonReport(compareScenarios(entriesOf(r, r2)), r.moneyUnit, ctx, 'scenario-comparison')[0]!);
     expect(cmp).toHaveLength(r.sectors.length + 2);
     expect(cmp[1]![2]).toBe(r2.effects.output.total[0]);
     expect(cmp[1]![3]).toBe(r2.effects.output.total[0]! - r.effects.output.total[0]!);

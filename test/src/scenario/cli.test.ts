@@ -83,7 +83,8 @@ describe('roundwise scenario', () => {
     // The scenario is named after the shock file (shock.csv): its reports start with 'shock-'.
     expect(names).toEqual([
       'multipliers.about.txt', 'multipliers.csv', 'shock-impact.about.txt', 'shock-impact.csv', 'shock-implied-multipliers.about.txt', 'shock-implied-multipliers.csv',
-      'shock-inputs.about.txt', 'shock-inputs.csv', 'shock-paths.about.txt', 'shock-paths.csv', 'shock-rounds-by-sector.about.txt', 'shock-rounds-by-sector.csv',
+      'shock-inputs.about.txt', 'shock-inputs.csv', 'shock-paths.about.txt', 'shock-paths.csv', 'shock-phases.about.txt', 'shock-phases.csv',
+      'shock-rounds-by-sector.about.txt', 'shock-rounds-by-sector.csv',
       'shock-rounds.about.txt', 'shock-rounds.csv',
     ]);
     const impact = Papa.parse<unknown[]>(readFileSync(join(out, 'shock-impact.csv'), 'utf8'), { dynamicTyping: true, skipEmptyLines: true }).data;
@@ -100,7 +101,7 @@ describe('roundwise scenario', () => {
     const a = await cli(fx('table.csv'), '--shock', fx('shock.csv'), '--map', fx('map.json'), '--project', path, '--json');
     expect(a.code).toBe(0);
     const p = studyFromProjectFile(readFileSync(path, 'utf8'), path);
-    const r = runStudyScenario(prepareStudy(p), p.scenarios[0]!).result;
+    const r = runStudyScenario(prepareStudy(p), p.scenarios[0]!).phases[0]!.result;
     expect(Array.from(r.effects.output.total)).toEqual(JSON.parse(a.out).effects.output.total);
     expect(p.source!.fileName).toBe('table.csv');
     // The closure the command line ran with is in the study: the app opens it with households closed too.
@@ -124,7 +125,7 @@ describe('roundwise scenario', () => {
   it('refuses with a located message and exit code 2, no stack trace', async () => {
     const unknown = await cli(fx('table.csv'), '--shock', fx('shock-unknown.csv'), '--map', fx('map.json'));
     expect(unknown.code).toBe(2);
-    expect(unknown.err).toMatch(/shock-unknown\.csv:3 \(row 'Quarries'\): unknown sector 'Quarries'/);
+    expect(unknown.err).toMatch(/shock-unknown\.csv:3:1 \(row 'Quarries', column 'sector'\): unknown sector 'Quarries'/);
     expect(unknown.err).not.toMatch(/at .*\.ts:\d+/);
     // A missing option is a usage mistake: exit 1, the usage line below the message.
     const noShock = await cli(fx('table.csv'));

@@ -6,6 +6,7 @@ import {
   employmentByBridge, estimateCountyTable, parseShockCsv, readBridge, scenarioByBridge, spendingMixByBridge, utf8Bytes,
 } from '../../../src/study/index.ts';
 import { refusal } from '../../support/refusal.ts';
+import { linesOf } from '../../support/scenario.ts';
 
 const file = (path: string) => ({ bytes: readFileSync(path), fileName: path.replace(/^.*\//, '') });
 const NATIONAL = file('sample-data/national-table.csv');
@@ -49,10 +50,18 @@ describe('shock lines and spending mixes by code', () => {
   it('splits each shock line among the code\'s sectors, keeping kind, local share and the file line', () => {
     const b = readBridge(bytes('code,sector,share\nL68,Real estate,0.25\nL68,Professional services,0.75\nA01,Farming,\n', 'b.csv'), ['Farming', 'Real estate', 'Professional services']);
     const sc = scenarioByBridge(parseShockCsv('sector,amount,kind,local_share\nL68,100,final-demand,0.8\nA01,20,jobs,\n', 'shock.csv'), b);
-    expect(sc.lines.map((l) => [l.sector, l.amount, l.kind, l.localShare, l.origin?.line])).toEqual([
+    expect(linesOf(sc).map((l) => [l.sector, l.amount, l.kind, l.localShare, l.origin?.line])).toEqual([
       ['Real estate', 25, 'final-demand', 0.8, 2], ['Professional services', 75, 'final-demand', 0.8, 2], ['Farming', 20, 'jobs', 1, 3],
     ]);
     expect(refusal(() => scenarioByBridge(parseShockCsv('sector,amount\nZ99,1\n', 'shock.csv'), b))).toMatchObject({ code: 'bridge-unknown-code', location: { file: 'shock.csv', line: 2 } });
+  });
+  it('keeps each line in its phase; a household-income line (no sector) is not translated', () => {
+    const b = readBridge(bytes('code,sector,share\nL68,Real estate,0.25\nL68,Professional services,0.75\n', 'b.csv'), ['Farming', 'Real estate', 'Professional services']);
+    const sc = scenarioByBridge(parseShockCsv('sector,amount,kind,phase,timing\nL68,100,,Build,once\n,40,labour-income,Run,annual\nL68,8,,Run,annual\n', 'shock.csv'), b);
+    expect(sc.phases.map((p) => [p.name, p.timing, p.lines.map((l) => [l.sector, l.amount, l.kind])])).toEqual([
+      ['Build', 'once', [['Real estate', 25, 'final-demand'], ['Professional services', 75, 'final-demand']]],
+      ['Run', 'annual', [['', 40, 'labour-income'], ['Real estate', 2, 'final-demand'], ['Professional services', 6, 'final-demand']]],
+    ]);
   });
 
   it('turns a mix by code into a mix by sector whose shares still sum to 1', () => {

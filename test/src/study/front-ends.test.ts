@@ -13,11 +13,12 @@ import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import Papa from 'papaparse';
 import {
-  prepareStudy, runStudyScenario, studyFromTableFile, utf8Bytes, writeTableCsv, type Scenario, type ScenarioLine,
+  csvFileText, prepareStudy, runStudyScenario, studyFromTableFile, utf8Bytes, writeTableCsv, type Scenario, type ScenarioLine,
 } from '../../../src/study/index.ts';
 import { api } from '../../../renderer/worker/compute.ts';
 import { tableFromParts } from '../../support/io-table.ts';
 import { runCli } from '../../support/cli.ts';
+import { linesOf, onePhase } from '../../support/scenario.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-front-ends-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -75,7 +76,7 @@ function consistent(lines: ScenarioLine[]): ScenarioLine[] {
   }).map((l) => (l.kind === 'final-demand' ? l : { ...l, localShare: 1 }));
 }
 
-const shockCsv = (s: Scenario) => ['sector,amount,kind,local_share', ...s.lines.map((l) => `${l.sector},${l.amount},${l.kind},${l.localShare}`)].join('\n') + '\n';
+const shockCsv = (s: Scenario) => ['sector,amount,kind,local_share', ...linesOf(s).map((l) => `${l.sector},${l.amount},${l.kind},${l.localShare}`)].join('\n') + '\n';
 const csvRows = (text: string) => Papa.parse<(string | number | null)[]>(text.trim(), { dynamicTyping: true, skipEmptyLines: true }).data;
 const column = (rows: (string | number | null)[][], header: string) => {
   const k = rows[0]!.indexOf(header);
@@ -94,7 +95,7 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
         dest: fc.integer({ min: 1, max: t.n }).map((k) => `Sector ${k}`),
       })),
       async ({ t, lines, closure, dest }) => {
-        const scenario: Scenario = { name: 'plant', lines: consistent(lines as ScenarioLine[]) };
+        const scenario: Scenario = onePhase('plant', consistent(lines as ScenarioLine[]));
         const csv = tableCsv(t);
         const run = `r${runs++}`;
         const tableFile = join(dir, `${run}-county.csv`);
@@ -107,7 +108,7 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
         study.settings.closure = closure;
         study.settings.paths.destination = dest;
         const ps = prepareStudy(study, { spectrum: false });
-        const o = runStudyScenario(ps, scenario, { paths: dest });
+        const o = runStudyScenario(ps, scenario, { paths: dest }).phases[0]!;
         const r = o.result;
         const j = r.sectors.indexOf(dest);
         // The path identity: every elementary path to the destination adds up to its total in the effects shown.
@@ -138,7 +139,7 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
         // The app's worker: screen views and exports.
         api.loadTable({ text: csv, fileName: `${run}-county.csv` });
         const choices = { closure, destination: dest };
-        const view = api.runScenario({ scenario, choices });
+        const view = api.runScenario({ scenario, choices }).phases[0]!;
         expect(view.closure).toBe(r.closure);
         same(view.effects.output!.total, Array.from(r.effects.output.total), 'worker view output total');
         same(view.effects.income!.indirect, Array.from(r.effects.income.indirect), 'worker view income indirect');
@@ -148,9 +149,10 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
         expect(rel(pv.total, view.effects.output!.total[j]!)).toBeLessThanOrEqual(1e-12);
         const exported = api.report({ kind: 'scenario-impact', scenario, scenarios: [scenario], choices });
         same(column(csvRows(exported[0]!.content), 'output total (thousand dollars)'), Array.from(r.effects.output.total), 'worker export impact');
-        expect(exported[0]!.content).toBe(readFileSync(join(out, 'plant-impact.csv'), 'utf8'));
+        // The CLI writes the byte-order mark the app's export adds when it saves (csvFileText).
+        expect(csvFileText(exported[0]!.content)).toBe(readFileSync(join(out, 'plant-impact.csv'), 'utf8'));
         const exportedPaths = api.report({ kind: 'scenario-paths', scenario, scenarios: [scenario], choices });
-        expect(exportedPaths[0]!.content).toBe(readFileSync(join(out, 'plant-paths.csv'), 'utf8'));
+        expect(csvFileText(exportedPaths[0]!.content)).toBe(readFileSync(join(out, 'plant-paths.csv'), 'utf8'));
       },
     ), { numRuns: 25, seed: 1702 });
   });

@@ -103,9 +103,10 @@ describe('rows and columns left unmatched are named', () => {
     expect(codes(t)).toEqual([]);
   });
 
-  it("'Taxes on production and imports' is value added, not an import row", () => {
+  it("'Taxes on production and imports' is a taxes row (value added), not an import row", () => {
     const t = importTable(BASE.replace('Other value added', 'Taxes on production and imports'), { fileName: 'tax.csv' });
-    expect(t.otherValueAdded.map((v) => v.label)).toEqual(['Taxes on production and imports']);
+    expect(t.taxes!.map((v) => v.label)).toEqual(['Taxes on production and imports']);
+    expect(t.otherValueAdded).toEqual([]);
     expect(t.imports.map((v) => v.label)).toEqual(['Imports']);
   });
 });

@@ -27,7 +27,16 @@ describe('suggested row roles', () => {
     ['Total outlays', 'totalInput'],
     ['Total', 'totalInput'],
     ['Gross operating surplus', 'otherValueAdded'],
-    ['Taxes on production', 'otherValueAdded'],
+    // Taxes less subsidies are part of value added in national accounts, with a role of their own (SNA 2008 ch. 7 —
+    // recalled from memory); a label naming a tax is a taxes row even when it also names imports.
+    ['Taxes on production', 'taxes'],
+    ['Taxes on production and imports', 'taxes'],
+    ['Taxes less subsidies', 'taxes'],
+    ['Net taxes on products', 'taxes'],
+    ['Taxes less subsidies on products and imports', 'taxes'],
+    ['Taxi services', 'otherValueAdded'],
+    ['Full-time equivalents', 'fte'],
+    ['FTE', 'fte'],
     ['Total value added', 'ignore'],
   ];
   for (const [label, role] of cases) {
@@ -59,7 +68,7 @@ describe('suggested column roles', () => {
 describe('role map in use', () => {
   it('suggestRoles maps every label', () => {
     expect(suggestRoles(['Wages and salaries', 'Taxes'], ['Visitors', 'TOTAL'])).toEqual({
-      rows: { 'Wages and salaries': 'labourIncome', Taxes: 'otherValueAdded' },
+      rows: { 'Wages and salaries': 'labourIncome', Taxes: 'taxes' },
       columns: { Visitors: 'otherFinalDemand', TOTAL: 'totalOutput' },
     });
   });
@@ -115,7 +124,7 @@ describe('parseRoleMap', () => {
   it('refuses an unknown row role, naming the label and its line', () => {
     const e = refusal('{\n  "rows": {\n    "Wages": "wages"\n  }\n}');
     expect(e.code).toBe('role-map-schema');
-    expect(e.message).toBe("unknown row role for 'Wages': use one of labourIncome, otherValueAdded, imports, employment, totalInput, ignore");
+    expect(e.message).toBe("unknown row role for 'Wages': use one of labourIncome, otherValueAdded, taxes, imports, employment, fte, totalInput, ignore");
     expect(e.location).toEqual({ file: 'map.json', line: 3, column: 5 });
   });
   it('refuses an unknown column role', () => {

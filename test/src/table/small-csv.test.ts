@@ -7,6 +7,7 @@ import { parseShockCsv } from '../../../src/scenario/index.ts';
 import { parseEmploymentCsv, parseGroupMapping, parseLabelledMatrix, parseTotals } from '../../../src/regional/index.ts';
 import { formatLocated } from '../../../src/diagnostics/index.ts';
 import { refusal } from '../../support/refusal.ts';
+import { linesOf } from '../../support/scenario.ts';
 
 const located = (f: () => unknown): string => formatLocated(refusal(f));
 
@@ -18,20 +19,20 @@ describe('shock files', () => {
     );
     expect(located(() => parseShockCsv('sector,,amount\nA,x,3\n', 's.csv'))).toBe("s.csv:2:2 (row 'A'): row has a value in field 2 ('x'), whose column has no header");
     // Empty trailing fields (a spreadsheet's trailing delimiter) are fine.
-    expect(parseShockCsv('sector,amount,\nA,3,\n', 's.csv').lines[0]!.amount).toBe(3);
+    expect(linesOf(parseShockCsv('sector,amount,\nA,3,\n', 's.csv'))[0]!.amount).toBe(3);
   });
 
   it('semicolons with decimal commas and point-grouped thousands, as a European spreadsheet saves them', () => {
     const s = parseShockCsv('\ufeffsector;amount;kind;local_share;note\r\nRetail;1.250,5;final-demand;0,8;"new shop; staff"\r\nMining;-2,25;;;\r\n', 'dir/eu.csv');
-    expect(s.lines.map((l) => [l.sector, l.amount, l.localShare, l.note ?? null, l.origin])).toEqual([
-      ['Retail', 1250.5, 0.8, 'new shop; staff', { file: 'dir/eu.csv', line: 2 }],
-      ['Mining', -2.25, 1, null, { file: 'dir/eu.csv', line: 3 }],
+    expect(linesOf(s).map((l) => [l.sector, l.amount, l.localShare, l.note ?? null, l.origin])).toEqual([
+      ['Retail', 1250.5, 0.8, 'new shop; staff', { file: 'dir/eu.csv', line: 2, columns: { sector: 1, amount: 2, kind: 3, local_share: 4, note: 5 } }],
+      ['Mining', -2.25, 1, null, { file: 'dir/eu.csv', line: 3, columns: { sector: 1, amount: 2, kind: 3, local_share: 4, note: 5 } }],
     ]);
   });
 
   it('an Excel "sep=" line, quoted thousands and a Unicode minus', () => {
     const s = parseShockCsv('sep=,\nsector,amount\nRetail,"1,500"\nMining,\u221240\n', 's.csv');
-    expect(s.lines.map((l) => [l.amount, l.origin?.line])).toEqual([[1500, 3], [-40, 4]]);
+    expect(linesOf(s).map((l) => [l.amount, l.origin?.line])).toEqual([[1500, 3], [-40, 4]]);
   });
 
   it('a number that reads two ways is refused at the number', () => {
@@ -40,16 +41,16 @@ describe('shock files', () => {
     );
     expect(located(() => parseShockCsv('sector;amount\nRetail;1,500\n', 's.csv'))).toContain("'1,500' could be 1500 or 1.5");
     // Another number settles it: here the local share's decimal comma.
-    expect(parseShockCsv('sector;amount;local_share\nRetail;2.500;0,5\n', 's.csv').lines[0]!.amount).toBe(2500);
+    expect(linesOf(parseShockCsv('sector;amount;local_share\nRetail;2.500;0,5\n', 's.csv'))[0]!.amount).toBe(2500);
   });
 
   it('labels are cleaned like table labels (NFD, zero-width space)', () => {
-    expect(parseShockCsv('sector,amount\nCafe\u0301 mi\u200bll,1\n', 's.csv').lines[0]!.sector).toBe('Caf\u00e9 mill');
+    expect(linesOf(parseShockCsv('sector,amount\nCafe\u0301 mi\u200bll,1\n', 's.csv'))[0]!.sector).toBe('Caf\u00e9 mill');
   });
 
   it('bad numbers name the decimal mark expected', () => {
-    expect(located(() => parseShockCsv('sector;amount\nRetail;1.5\nMining;2,5\n', 's.csv'))).toBe("s.csv:3:2 (row 'Mining'): amount '2,5' is not a number");
-    expect(located(() => parseShockCsv('sector;amount\nRetail;1,5\nMining;2.5\n', 's.csv'))).toBe("s.csv:3:2 (row 'Mining'): amount '2.5' is not a number (decimal comma expected)");
+    expect(located(() => parseShockCsv('sector;amount\nRetail;1.5\nMining;2,5\n', 's.csv'))).toBe("s.csv:3:2 (row 'Mining', column 'amount'): amount '2,5' is not a number");
+    expect(located(() => parseShockCsv('sector;amount\nRetail;1,5\nMining;2.5\n', 's.csv'))).toBe("s.csv:3:2 (row 'Mining', column 'amount'): amount '2.5' is not a number (decimal comma expected)");
   });
 });
 

@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { inv, multiply, identity, subtract, matrix, type Matrix } from 'mathjs';
 import { SAMPLE_CSV, importTable, type IOTable } from '../../../src/table/index.ts';
-import type { Scenario } from '../../../src/scenario/index.ts';
+import { NO_SHOCK_INPUTS, type LineSet } from '../../../src/scenario/index.ts';
 import {
   defaultSettings, planDraws, runDraws, runUncertainty, sigmaOf, startRun, DRAW_STATUS, PURPOSE, Stream,
   type DrawSetup, type UncertaintySettings,
@@ -12,7 +12,7 @@ import {
 import { makeTable } from '../model/tables.ts';
 
 const sample = importTable(SAMPLE_CSV, { fileName: 'sample.csv' });
-const scenario: Scenario = {
+const scenario: LineSet = {
   name: 'New plant',
   lines: [
     { sector: 'Food processing', amount: 10000, kind: 'final-demand', localShare: 0.8 },
@@ -21,7 +21,7 @@ const scenario: Scenario = {
 };
 
 function setup(table: IOTable, over: Partial<UncertaintySettings>, extra: Partial<DrawSetup> = {}): DrawSetup {
-  return { table, closure: 'households', multipliers: true, scenarios: [scenario], settings: defaultSettings(over), spectrum: false, ...extra };
+  return { table, closure: 'households', multipliers: true, scenarios: [scenario], inputs: NO_SHOCK_INPUTS, residentShare: null, settings: defaultSettings(over), spectrum: false, ...extra };
 }
 
 // Φ⁻¹(0.05) = −1.6448536269514722 (standard normal table, e.g. Abramowitz & Stegun table 26.5).

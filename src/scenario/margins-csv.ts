@@ -1,0 +1,98 @@
+/**
+ * MARGINS.csv: trade and transport margins as shares of the purchaser price. Header `sector,retail,wholesale,transport`
+ * (any order, case-insensitive; at least one margin column). Two rows name what the columns mean, before or among
+ * the sector rows:
+ *   margin sector, <the table sector earning the retail margin>, <… wholesale>, <… transport>     (required)
+ *   local share,   <share of each margin earned inside the region, 0–1>                         (optional, default 1)
+ * Every other row is a table sector with the shares of its purchaser price that are margins (0–1, summing to at most
+ * 1; the rest is the producer value). A sector without a row has no margins (listed in the inputs report).
+ */
+import { InputError } from '../diagnostics/index.ts';
+import { toCsv } from '../csv/index.ts';
+import { cleanLabel } from '../table/index.ts';
+import { readHeaderCsv, shareCell } from './header-csv.ts';
+import { MARGIN_KINDS, type LineOrigin, type MarginKind, type Margins } from './types.ts';
+
+const COLUMNS = ['sector', ...MARGIN_KINDS] as const;
+export const MARGINS_HEADER = 'sector,retail,wholesale,transport';
+const SECTOR_ROW = 'margin sector';
+const SHARE_ROW = 'local share';
+
+function where(o: LineOrigin | undefined, field: string, rowLabel: string) {
+  return {
+    ...(o?.file !== undefined ? { file: o.file } : {}), ...(o?.line !== undefined ? { line: o.line } : {}),
+    ...(o?.columns?.[field] !== undefined ? { column: o.columns[field] } : {}), rowLabel, columnLabel: field,
+  };
+}
+
+export function parseMarginsCsv(text: string, fileName: string): Margins {
+  const f = readHeaderCsv(text, fileName, COLUMNS, ['sector'], MARGINS_HEADER, 'margins file');
+  const kinds = MARGIN_KINDS.filter((k) => f.columns[k] !== undefined);
+  if (kinds.length === 0) throw new InputError('bad-header', `the header needs at least one of retail, wholesale, transport (${MARGINS_HEADER})`, { file: fileName, line: f.headerLine });
+  const m: Margins = {
+    sectors: { retail: null, wholesale: null, transport: null },
+    localShare: { retail: 1, wholesale: 1, transport: 1 },
+    rows: [],
+    origin: { file: fileName, line: f.headerLine },
+  };
+  let sectorRow = false;
+  for (const r of f.rows) {
+    const label = cleanLabel(r.cell('sector'));
+    const key = label.toLowerCase();
+    if (key === SECTOR_ROW) {
+      for (const k of kinds) {
+        const s = cleanLabel(r.cell(k));
+        m.sectors[k] = s === '' ? null : s;
+      }
+      sectorRow = true;
+      m.sectorOrigin = r.origin();
+      continue;
+    }
+    if (key === SHARE_ROW) {
+      for (const k of kinds) m.localShare[k] = shareCell(r, k, `local share of the ${k} margin`, 'local-share-range', label) ?? 1;
+      continue;
+    }
+    if (label === '') throw new InputError('missing-sector', 'sector is empty', r.at('sector'));
+    if (m.rows.some((x) => x.sector === label)) throw new InputError('duplicate-entry', `sector '${label}' has two margin rows`, r.at('sector', label));
+    const shares: Record<MarginKind, number> = { retail: 0, wholesale: 0, transport: 0 };
+    let sum = 0;
+    for (const k of kinds) {
+      shares[k] = shareCell(r, k, `${k} margin share`, 'margins-exceed', label) ?? 0;
+      sum += shares[k];
+    }
+    if (sum > 1 + 1e-12) {
+      const last = [...kinds].reverse().find((k) => shares[k] > 0)!;
+      throw new InputError('margins-exceed', `the margin shares of '${label}' add up to ${Number(sum.toPrecision(12))}, more than the whole purchaser price (at most 1)`, r.at(last, label));
+    }
+    m.rows.push({ sector: label, shares, origin: r.origin() });
+  }
+  if (!sectorRow) {
+    throw new InputError('margins-bad', `the margins file needs a '${SECTOR_ROW}' row naming the table sectors that earn each margin (e.g. '${SECTOR_ROW},Retail trade,Wholesale trade,Transport')`, { file: fileName, line: f.headerLine, column: f.columns.sector! });
+  }
+  return m;
+}
+
+/** Refuse margins naming a sector the table lacks, or a margin with shares but no sector earning it. */
+export function checkMarginSectors(m: Margins, sectors: readonly string[]): void {
+  const known = new Set(sectors);
+  const so = m.sectorOrigin ?? m.origin;
+  for (const k of MARGIN_KINDS) {
+    const s = m.sectors[k];
+    if (s !== null && !known.has(s)) throw new InputError('margins-unknown-sector', `the ${k} margin is earned by '${s}', which is not a sector of the table`, where(so, k, SECTOR_ROW));
+    if (s === null && m.rows.some((r) => r.shares[k] > 0)) {
+      throw new InputError('margins-bad', `some sectors have a ${k} margin, but no sector earns it: name it in the '${SECTOR_ROW}' row`, where(so, k, SECTOR_ROW));
+    }
+  }
+  for (const r of m.rows) {
+    if (!known.has(r.sector)) throw new InputError('margins-unknown-sector', `'${r.sector}' is not a sector of the table`, where(r.origin ?? m.origin, 'sector', r.sector));
+  }
+}
+
+export function writeMarginsCsv(m: Margins): string {
+  return toCsv([
+    ['sector', ...MARGIN_KINDS],
+    [SECTOR_ROW, ...MARGIN_KINDS.map((k) => m.sectors[k])],
+    [SHARE_ROW, ...MARGIN_KINDS.map((k) => m.localShare[k])],
+    ...m.rows.map((r) => [r.sector, ...MARGIN_KINDS.map((k) => r.shares[k])]),
+  ]);
+}
