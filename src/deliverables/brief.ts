@@ -8,7 +8,7 @@
 import type { Cell } from '../csv/index.ts';
 import type { ScenarioLine, ScenarioResult } from '../scenario/index.ts';
 import { type BriefBlock, type BriefDocument, type BriefTable } from './document.ts';
-import { councilNumber, plainNumber, ROUNDING_NOTE, shareText, type Quantity } from './rounding.ts';
+import { councilNumber, dateText, plainNumber, ROUNDING_NOTE, shareText, type Quantity } from './rounding.ts';
 
 /** The county's base-year totals, in the same definitions as the effects (coefficient × base-year output, summed). */
 export interface BaseEconomy {
@@ -17,6 +17,10 @@ export interface BaseEconomy {
   income: number;
   /** Null when the table has no employment row. */
   employment: number | null;
+  /** Full-time equivalents; null when the table has no FTE row. */
+  fte: number | null;
+  /** Taxes less subsidies on production; null when the table has no taxes row. */
+  taxes: number | null;
 }
 
 /** One phase of the study: its name, timing in words ("one-time", "annual", …) and its result. */
@@ -52,22 +56,28 @@ export interface BriefInput {
   cautions: string[];
 }
 
-type HeadlineVariable = 'employment' | 'income' | 'valueAdded' | 'output';
+type HeadlineVariable = 'employment' | 'fte' | 'income' | 'valueAdded' | 'output' | 'taxes';
 
 interface HeadlineRow {
   v: HeadlineVariable;
   label: string;
   q: Quantity;
+  /** What a count is called in a sentence ("jobs", "full-time equivalents"); money is "… of <label>". */
+  noun?: string;
   /** How a share of the county's base year is named in the sentence. */
   county: string;
+  /** The variable's name on the workbook's summary sheet. */
+  sheet: string;
 }
 
-/** The headline rows in the order a council reads them (jobs first). */
+/** The headline rows in the order a council reads them (jobs first); FTE and taxes only when the table has them. */
 const HEADLINE: readonly HeadlineRow[] = [
-  { v: 'employment', label: 'Jobs', q: 'jobs', county: 'county jobs' },
-  { v: 'income', label: 'Labour income', q: 'money', county: 'county labour income' },
-  { v: 'valueAdded', label: 'Value added', q: 'money', county: 'county value added' },
-  { v: 'output', label: 'Output', q: 'money', county: 'county output' },
+  { v: 'employment', label: 'Jobs', q: 'jobs', noun: 'jobs', county: 'county jobs', sheet: 'jobs' },
+  { v: 'fte', label: 'Full-time equivalents', q: 'jobs', noun: 'full-time equivalents', county: 'county full-time equivalents', sheet: 'full-time equivalents' },
+  { v: 'income', label: 'Labour income', q: 'money', county: 'county labour income', sheet: 'labour income' },
+  { v: 'valueAdded', label: 'Value added', q: 'money', county: 'county value added', sheet: 'value added' },
+  { v: 'output', label: 'Output', q: 'money', county: 'county output', sheet: 'output' },
+  { v: 'taxes', label: 'Taxes less subsidies', q: 'money', county: 'county taxes less subsidies', sheet: 'taxes less subsidies' },
 ];
 
 /**
@@ -81,7 +91,7 @@ export function headlineRows(phases: readonly BriefPhase[], base: BaseEconomy): 
       const t = p.result.totals[h.v];
       if (!t) continue;
       const whole = base[h.v];
-      rows.push([p.name, p.timing, h.label.toLowerCase(), unitOf(h.q, p.result.moneyUnit), t.direct, t.indirect, t.induced, t.total, whole, whole !== null && whole > 0 ? t.total / whole : null]);
+      rows.push([p.name, p.timing, h.sheet, h.noun ?? unitOf(h.q, p.result.moneyUnit), t.direct, t.indirect, t.induced, t.total, whole, whole !== null && whole > 0 ? t.total / whole : null]);
     }
   }
   return rows;
@@ -110,7 +120,7 @@ function headlineTable(p: BriefPhase, base: BaseEconomy): BriefTable {
     const t = r.totals[h.v];
     if (!t) continue;
     rows.push([
-      h.q === 'jobs' ? h.label : `${h.label} (${unitOf(h.q, r.moneyUnit)})`,
+      h.noun ? h.label : `${h.label} (${unitOf(h.q, r.moneyUnit)})`,
       councilNumber(t.direct, h.q), councilNumber(t.indirect, h.q), councilNumber(t.induced, h.q), councilNumber(t.total, h.q),
       shareText(t.total, base[h.v]),
     ]);
@@ -136,7 +146,7 @@ function headlineSentence(p: BriefPhase, base: BaseEconomy): string {
   for (const h of HEADLINE) {
     const t = r.totals[h.v];
     if (!t) continue;
-    const what = h.q === 'jobs' ? `${councilNumber(t.total, 'jobs')} jobs` : `${councilNumber(t.total, 'money')} ${r.moneyUnit} of ${h.label.toLowerCase()}`;
+    const what = h.noun ? `${councilNumber(t.total, 'jobs')} ${h.noun}` : `${councilNumber(t.total, 'money')} ${r.moneyUnit} of ${h.label.toLowerCase()}`;
     parts.push(`${what} (${shareText(t.total, base[h.v])} of ${h.county})`);
   }
   const list = parts.length > 1 ? `${parts.slice(0, -1).join(', ')} and ${parts.at(-1)}` : (parts[0] ?? '');
@@ -197,7 +207,8 @@ function sectorBars(p: BriefPhase, top: number[]): BriefBlock {
 function multiplierTable(p: BriefPhase): BriefTable {
   const r = p.result;
   const rows: string[][] = [];
-  for (const h of [...HEADLINE].reverse()) {
+  const order: HeadlineVariable[] = ['output', 'valueAdded', 'income', 'employment', 'fte', 'taxes'];
+  for (const h of order.map((v) => HEADLINE.find((x) => x.v === v)!)) {
     const m = r.multipliers[h.v];
     if (!m) continue;
     rows.push([h.label, councilNumber(m.typeI.value, 'ratio'), councilNumber(m.typeII.value, 'ratio')]);
@@ -282,7 +293,7 @@ export function briefDocument(input: BriefInput): BriefDocument {
     ['Money', `${input.moneyUnit}; ${input.priceYear ? `prices of ${input.priceYear}` : 'price year not stated (amounts as in the table)'}`],
     ['Model', input.model],
     ['Table check', input.verdict],
-    ['Produced', `${input.date} by Roundwise`],
+    ['Produced', `${dateText(input.date)} by Roundwise`],
   ];
   const blocks: BriefBlock[] = [
     { kind: 'facts', rows: facts },
@@ -300,9 +311,9 @@ export function briefDocument(input: BriefInput): BriefDocument {
   );
   return {
     title: `Economic impact brief: ${input.scenario}`,
-    subtitle: `${input.tableName} · money in ${input.moneyUnit} · produced ${input.date}`,
+    subtitle: `${input.tableName} · money in ${input.moneyUnit} · produced ${dateText(input.date)}`,
     date: input.date,
-    footer: `${input.scenario} — Roundwise brief, ${input.date.slice(0, 10)}. Estimates, not forecasts: see the cautions.`,
+    footer: `${input.scenario} — Roundwise brief, ${dateText(input.date, false)}. Estimates, not forecasts: see the cautions.`,
     blocks,
   };
 }

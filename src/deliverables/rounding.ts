@@ -45,3 +45,17 @@ export function shareText(part: number | null, whole: number | null): string {
 export function plainNumber(v: number): string {
   return signed(PLAIN.format(v));
 }
+
+const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
+
+/**
+ * An ISO 8601 date-time as a reader writes it, in UTC so every machine gives the same text: "2 December 2026, 05:25
+ * UTC" (`withTime` false: "2 December 2026"). Text that is not a date is returned as it is.
+ */
+export function dateText(iso: string, withTime = true): string {
+  const d = new Date(iso);
+  if (Number.isNaN(d.getTime())) return iso;
+  const day = `${d.getUTCDate()} ${MONTHS[d.getUTCMonth()]} ${d.getUTCFullYear()}`;
+  const pad = (n: number) => String(n).padStart(2, '0');
+  return withTime ? `${day}, ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())} UTC` : day;
+}

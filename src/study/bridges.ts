@@ -63,7 +63,8 @@ export function scenarioByBridge(scenario: Scenario, bridge: Bridge): Scenario {
 export function spendingMixByBridge(mix: SpendingMix, bridge: Bridge, fileName: string): SpendingMix {
   const bySector = new Map<string, number>();
   for (const s of mix.shares) {
-    for (const t of translateCode(bridge, s.sector, { file: fileName })) bySector.set(t.sector, (bySector.get(t.sector) ?? 0) + s.share * t.share);
+    const where = { file: s.origin?.file ?? fileName, ...(s.origin?.line !== undefined ? { line: s.origin.line } : {}) };
+    for (const t of translateCode(bridge, s.sector, where)) bySector.set(t.sector, (bySector.get(t.sector) ?? 0) + s.share * t.share);
   }
   return { ...mix, shares: [...bySector].map(([sector, share]) => ({ sector, share })) };
 }

@@ -23,16 +23,18 @@ export interface BriefOptions {
 
 /** The county's base-year totals in the definitions the effects use: each variable's coefficient × output, summed. */
 export function baseEconomy(ps: PreparedStudy): BaseEconomy {
-  const { x, h, e } = ps.pm.coef;
+  const { x, h, e, fte, taxes } = ps.pm.coef;
   const va = valueAddedPerUnit(ps.pm.coef);
-  let output = 0, income = 0, valueAdded = 0, employment = 0;
+  let output = 0, income = 0, valueAdded = 0, employment = 0, fteSum = 0, taxSum = 0;
   for (let j = 0; j < x.length; j++) {
     output += x[j]!;
     income += h[j]! * x[j]!;
     valueAdded += va[j]! * x[j]!;
     if (e) employment += e[j]! * x[j]!;
+    if (fte) fteSum += fte[j]! * x[j]!;
+    if (taxes) taxSum += taxes[j]! * x[j]!;
   }
-  return { output, income, valueAdded, employment: e ? employment : null };
+  return { output, income, valueAdded, employment: e ? employment : null, fte: fte ? fteSum : null, taxes: taxes ? taxSum : null };
 }
 
 /** The phases of an outcome, each with its timing in words (one-time, or annual with its years). */

@@ -81,7 +81,7 @@ export {
   studyBrief, studyBriefDocument, studyWorkbook, briefInputOf, baseEconomy, phasesOf, type BriefOptions,
 } from './deliverables.ts';
 export {
-  BRIEF_FONT_FILES, PAPERS, ROUNDING_NOTE, councilNumber, shareText, documentText,
+  BRIEF_FONT_FILES, PAPERS, ROUNDING_NOTE, councilNumber, dateText, shareText, documentText,
   type Paper, type BriefFonts, type BriefDocument, type BriefBlock, type BriefTable, type BriefBars,
 } from '../deliverables/index.ts';
 export { csvFileText, UTF8_BOM } from '../csv/index.ts';

@@ -8,7 +8,7 @@ import { PAPERS, studyBrief, studyWorkbook, type Paper, type PreparedStudy, type
 import type { NamedFile, RunContext } from '../command.ts';
 
 export const BRIEF_OPTIONS = {
-  brief: { type: 'string', value: 'BRIEF.pdf', help: 'write the scenario\'s brief: headline per phase, the sectors most affected with a chart, multipliers, inputs, model choices and the cautions, as a PDF of one to three pages' },
+  brief: { type: 'string', value: 'BRIEF.pdf', help: 'write the scenario\'s brief: headline per phase, the sectors most affected with a chart, multipliers, inputs, model choices and the cautions, as a PDF (three pages for one phase, about one more per further phase)' },
   paper: { type: 'string', value: 'a4|letter', choices: PAPERS, help: 'the brief\'s paper size: a4 (default) or letter (US Letter)' },
 } as const;
 

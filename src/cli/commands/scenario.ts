@@ -11,7 +11,7 @@ import { readFileLimited } from '../../node-io/index.ts';
 import {
   CAUTIONS, checkStudyInputs, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile,
   tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, parseMixCsv, parseActivityCsv,
-  parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
+  parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, spendingMixByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
   type Closure, type EffectTotals, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult, type Variable,
   bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studyBands, studySensitivity,
 } from '../../study/index.ts';
@@ -139,7 +139,7 @@ export const scenario = defineCommand({
     'discount-rate': { type: 'number', value: 'R', help: 'discount rate per year for the present value of annual phases with a number of years (e.g. 0.035; default: none)', check: (v) => (v >= 0 && v < 1 ? null : 'must be a share from 0 up to (not including) 1') },
     commuting: { type: 'string', value: 'COMMUTING.csv', help: 'share of each sector\'s labour income paid to non-residents: header sector,share (leaks out before household spending)' },
     'commuting-share': { type: 'number', value: 'S', help: 'the same share for every sector not in --commuting, and for activities\' payrolls (default 0)', check: share },
-    bridge: { type: 'string', value: 'BRIDGE.csv', help: 'code,sector[,share]: the shock file names codes of another classification, mapped to the table\'s sectors (shares split a code)' },
+    bridge: { type: 'string', value: 'BRIDGE.csv', help: 'code,sector[,share]: the shock file and the mix files name codes of another classification, mapped to the table\'s sectors (shares split a code)' },
     project: { type: 'string', value: 'FILE.json', help: 'save the study (table, shock, settings and the files above) as a project file the app opens; an existing file is replaced only if it is a Roundwise project' },
     ...BRIEF_OPTIONS,
     ...XLSX_OPTION,
@@ -153,9 +153,11 @@ export const scenario = defineCommand({
     const shock = parseShockCsv(ctx.input(values.shock).text, values.shock);
     const study = studyFromTableFile(tableFile.bytes, tableFile.name, { ...tableDialect(values), ...(roles ? { roles } : {}) });
     // With a bridge the shock file's sector column holds codes: each line is split among the code's sectors.
-    const scenario = values.bridge === undefined ? shock : scenarioByBridge(shock, readBridge({ bytes: ctx.input(values.bridge).bytes, fileName: values.bridge }, study.table.sectors));
+    const bridge = values.bridge === undefined ? null : readBridge({ bytes: ctx.input(values.bridge).bytes, fileName: values.bridge }, study.table.sectors);
+    const scenario = bridge === null ? shock : scenarioByBridge(shock, bridge);
     study.scenarios = [scenario];
-    study.mixes = values.mix.flatMap((f) => parseMixCsv(ctx.input(f).text, f));
+    // With a bridge, mix files name codes too: each code's share is split among its sectors.
+    study.mixes = values.mix.flatMap((f) => parseMixCsv(ctx.input(f).text, f).map((m) => (bridge === null ? m : spendingMixByBridge(m, bridge, f))));
     study.activities = values.activity.flatMap((f) => parseActivityCsv(ctx.input(f).text, f));
     for (const list of [study.mixes, study.activities]) {
       const seen = new Set<string>();

@@ -15,6 +15,10 @@ beforeAll(() => {
   // By hand: F41's 400 split 0.5 / 0.5.
   writeFileSync(p('shock-sectors.csv'), 'sector,amount,kind\nFood processing,1000,final-demand\nConstruction,200,final-demand\nReal estate,200,final-demand\n');
   writeFileSync(p('shock-unknown.csv'), 'sector,amount\nC10,1\nX99,2\n');
+  // A spending mix by code; by hand, F41's 0.6 splits 0.3 / 0.3.
+  writeFileSync(p('mix-codes.csv'), 'mix,sector,share\nVisitors,C10,0.4\nVisitors,F41,0.6\n');
+  writeFileSync(p('mix-sectors.csv'), 'mix,sector,share\nVisitors,Food processing,0.4\nVisitors,Construction,0.3\nVisitors,Real estate,0.3\n');
+  writeFileSync(p('shock-mix.csv'), 'sector,amount,kind\nVisitors,1000,mix\n');
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
@@ -38,6 +42,17 @@ describe('--bridge', () => {
     expect(ja.effects).toBeDefined();
     expect(ja.effects).toEqual(jb.effects);
     expect(ja.totals).toEqual(jb.totals);
+  });
+
+  it('scenario: a spending mix by code gives the effects of the same mix by sector', async () => {
+    const a = await runCli(['scenario', 'sample-data/fernhollow-county.csv', '--shock', p('shock-mix.csv'), '--mix', p('mix-codes.csv'), '--bridge', p('bridge.csv'), '--json']);
+    const b = await runCli(['scenario', 'sample-data/fernhollow-county.csv', '--shock', p('shock-mix.csv'), '--mix', p('mix-sectors.csv'), '--json']);
+    expect(a.code, a.err).toBe(0);
+    expect(b.code, b.err).toBe(0);
+    const ja = JSON.parse(a.out);
+    const jb = JSON.parse(b.out);
+    expect(ja.effects).toBeDefined();
+    expect(ja.effects).toEqual(jb.effects);
   });
 
   it('a code the bridge lacks exits 2 at the shock file\'s line', async () => {

@@ -1,7 +1,7 @@
 // The brief's rounding rule: jobs to whole jobs, money to three significant figures, shares in per cent to one
 // decimal, ratios to two decimals, English number style. Expected strings worked by hand.
 import { describe, expect, it } from 'vitest';
-import { councilNumber, shareText } from '../../../src/study/index.ts';
+import { councilNumber, dateText, shareText } from '../../../src/study/index.ts';
 
 describe('councilNumber', () => {
   it('rounds jobs to whole jobs with thousands separators', () => {
@@ -34,5 +34,14 @@ describe('shareText', () => {
     expect(shareText(0, 1e6)).toBe('0.0 %');
     expect(shareText(5, 0)).toBe('—');
     expect(shareText(5, null)).toBe('—');
+  });
+});
+
+describe('dateText', () => {
+  it('writes the run\'s time in words, in UTC, the same on every machine', () => {
+    expect(dateText('2026-12-02T05:25:39.289Z')).toBe('2 December 2026, 05:25 UTC');
+    expect(dateText('2027-01-09T23:05:00+02:00')).toBe('9 January 2027, 21:05 UTC');
+    expect(dateText('2026-12-02T05:25:39.289Z', false)).toBe('2 December 2026');
+    expect(dateText('not a date')).toBe('not a date');
   });
 });
