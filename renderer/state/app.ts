@@ -10,7 +10,7 @@ import type { ScenarioDraft } from '../worker/protocol.ts';
 import { History } from './history.ts';
 import { lineReady } from '../../src/study/index.ts';
 
-export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional' | 'supply-use';
+export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional' | 'supply-use' | 'guide';
 
 export interface ImportDraft {
   source: TableSource;
@@ -61,6 +61,11 @@ export const app = reactive({
   starterOnly: false,
   dirty: false,
   project: null as { name: string; path?: string } | null,
+  /**
+   * Sectors of the table used before this one: scenario lines naming one of them (and not a sector of this table)
+   * were written for that table, and the Scenarios screen offers to map or drop them.
+   */
+  previousSectors: [] as readonly string[],
   toast: '' as string,
   fatal: '' as string,
 });
@@ -96,6 +101,8 @@ function markDirty(d: boolean): void {
 export async function loadSample(): Promise<void> {
   try {
     const r = await engine().call('loadSample', {}, 'Opening the sample county…');
+    if (app.source?.text !== r.source.text) app.project = null; // another study, as in useTable
+    app.previousSectors = markRaw([...(app.table?.sectors ?? []), ...app.previousSectors.filter((x) => !app.table?.sectors.includes(x))]);
     app.table = markRaw(r.table);
     app.source = r.source;
     app.analysis = markRaw(r.analysis);
@@ -186,6 +193,10 @@ export async function acceptImport(): Promise<boolean> {
 export async function useTable(source: TableSource): Promise<boolean> {
   try {
     const r = await engine().call('loadTable', source, 'Importing the table…');
+    // Another file is another study: the opened project's name no longer applies (Save asks for one). New roles for
+    // the same file keep it.
+    if (app.source?.text !== source.text) app.project = null;
+    app.previousSectors = markRaw([...(app.table?.sectors ?? []), ...app.previousSectors.filter((x) => !app.table?.sectors.includes(x))]);
     app.table = markRaw(r.table);
     app.source = source;
     app.analysis = markRaw(r.analysis);

@@ -59,6 +59,7 @@ export async function applyProject(text: string, fileName: string, path?: string
     app.draft = null;
     app.project = { name: fileName, ...(path ? { path } : {}) };
     app.starterOnly = false;
+    app.previousSectors = []; // the project's scenarios were written for its own table
     resetHistory();
     await recomputeAll();
     markDirty(false);

@@ -270,3 +270,28 @@ describe('worker adapter over the engine', () => {
     });
   });
 });
+
+describe('what the Multipliers screen says about missing values', () => {
+  const ENGINE_KEY = /\b(output|income|employment|valueAdded)\.(typeI|typeII|simple|total)\b/;
+  it('names measures as the headings do, one note per reason, when a table has no household closure', () => {
+    const noHouseholds = text('ridgeline-test.csv').split('\n').map((l) => { const c = l.split(','); c.splice(6, 1); return c.join(','); }).join('\n');
+    const a = api.loadTable({ text: noHouseholds, fileName: 'no-households.csv' }).analysis;
+    expect(a.hasTypeII).toBe(false);
+    expect(a.typeIIReason).toMatch(/no labour income row or no household consumption column/);
+    const closureNotes = a.notes.filter((n) => /household closure/.test(n));
+    expect(closureNotes).toHaveLength(1);
+    expect(closureNotes[0]).toMatch(/^Output Type II, Labour income total, .*\(all sectors\): /);
+    for (const n of a.notes) expect(n).not.toMatch(ENGINE_KEY);
+  });
+  it('says households re-spend more than they earn when the closed model is not productive, not that the closure is missing', () => {
+    // Household consumption six times as large: the household-closed model's Perron root exceeds 1 (the engine's
+    // closed-model decision, checked in test/src/model); the open model stays productive.
+    const respend = text('ridgeline-test.csv').split('\n').map((l, i) => { const c = l.split(','); if (i >= 1 && i <= 5) c[6] = String(Number(c[6]) * 6); return c.join(','); }).join('\n');
+    const a = api.loadTable({ text: respend, fileName: 'respend.csv' }).analysis;
+    expect(a.verdict.productive).toBe(true);
+    expect(a.hasTypeII).toBe(false);
+    expect(a.typeIIReason).toMatch(/not productive: households would re-spend more than all they earn/);
+    expect(a.typeIIReason).not.toMatch(/no (household|labour) income row/);
+    for (const n of a.notes) expect(n).not.toMatch(ENGINE_KEY);
+  });
+});
