@@ -53,7 +53,7 @@ export function menuTemplate(send: (cmd: MenuCommand) => void, opts: MenuOptions
       ],
     },
     ...(opts.isMac ? [{ role: 'windowMenu' } as MenuItemConstructorOptions] : []),
-    { label: '&Help', submenu: opts.isMac ? [] : [item(`About ${opts.appName}`, 'about')] },
+    { label: '&Help', submenu: [item('Guide', 'guide'), ...(opts.isMac ? [] : [item(`About ${opts.appName}`, 'about')])] },
   );
   return template;
 }

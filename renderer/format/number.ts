@@ -55,10 +55,13 @@ export function fmtInt(v: number | null | undefined, reason?: string): Shown {
   return fmtFixed(v, 0, reason);
 }
 
-/** Short form for chart axes: 12.3k, 4.5M in the user's locale. */
+/**
+ * Short form for chart axes: 12.3K, 4.5M, 0.004 in the user's locale. Significant digits rather than decimals, so
+ * ticks of small ratios (jobs per thousand dollars) stay distinct instead of all rounding to 0.
+ */
 export function fmtCompact(v: number): string {
   if (!Number.isFinite(v)) return DASH;
-  return nf({ notation: 'compact', maximumFractionDigits: 1 }).format(v);
+  return nf({ notation: 'compact', maximumSignificantDigits: 3 }).format(Object.is(v, -0) ? 0 : v);
 }
 
 /** Four significant digits, for small per-unit values such as jobs per thousand dollars. */

@@ -5,12 +5,12 @@
 import { markRaw, reactive, watch } from 'vue';
 import { getBridge } from '../bridge/index.ts';
 import { engine, CancelledError, EngineError } from '../worker/client.ts';
-import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, TableInfo, TableSource } from '../worker/protocol.ts';
+import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, StudyInputsView, TableInfo, TableSource } from '../worker/protocol.ts';
 import type { ScenarioDraft } from '../worker/protocol.ts';
 import { History } from './history.ts';
 import { lineReady } from '../../src/study/index.ts';
 
-export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional' | 'supply-use';
+export type ScreenId = 'overview' | 'import' | 'table' | 'structure' | 'multipliers' | 'scenarios' | 'export' | 'regional' | 'supply-use' | 'guide';
 
 export interface ImportDraft {
   source: TableSource;
@@ -35,6 +35,12 @@ export const app = reactive({
   selected: 0,
   /** The phase of the selected scenario being edited and shown. */
   phase: 0,
+  /** Study inputs kept in the study's settings: discount rate (share a year, null none), commuting share, table money year. */
+  discountRate: null as number | null,
+  commutingShare: 0,
+  tableYear: null as number | null,
+  /** The study's input files in words (mixes, activities, margins, price index, commuting by sector). */
+  studyInputs: { mix: null, activity: null, margins: null, 'price-index': null, commuting: null } as StudyInputsView,
   /**
    * Results of each scenario: its view, its refusal (located), or `waiting` when no line has a sector yet. They are
    * `markRaw`: plain data from the worker, read-only on screen, so 2,000-sector vectors get no reactive proxies.
@@ -55,6 +61,11 @@ export const app = reactive({
   starterOnly: false,
   dirty: false,
   project: null as { name: string; path?: string } | null,
+  /**
+   * Sectors of the table used before this one: scenario lines naming one of them (and not a sector of this table)
+   * were written for that table, and the Scenarios screen offers to map or drop them.
+   */
+  previousSectors: [] as readonly string[],
   toast: '' as string,
   fatal: '' as string,
 });
@@ -90,6 +101,8 @@ function markDirty(d: boolean): void {
 export async function loadSample(): Promise<void> {
   try {
     const r = await engine().call('loadSample', {}, 'Opening the sample county…');
+    if (app.source?.text !== r.source.text) app.project = null; // another study, as in useTable
+    app.previousSectors = markRaw([...(app.table?.sectors ?? []), ...app.previousSectors.filter((x) => !app.table?.sectors.includes(x))]);
     app.table = markRaw(r.table);
     app.source = r.source;
     app.analysis = markRaw(r.analysis);
@@ -180,6 +193,10 @@ export async function acceptImport(): Promise<boolean> {
 export async function useTable(source: TableSource): Promise<boolean> {
   try {
     const r = await engine().call('loadTable', source, 'Importing the table…');
+    // Another file is another study: the opened project's name no longer applies (Save asks for one). New roles for
+    // the same file keep it.
+    if (app.source?.text !== source.text) app.project = null;
+    app.previousSectors = markRaw([...(app.table?.sectors ?? []), ...app.previousSectors.filter((x) => !app.table?.sectors.includes(x))]);
     app.table = markRaw(r.table);
     app.source = source;
     app.analysis = markRaw(r.analysis);
@@ -256,7 +273,10 @@ export function redo(): void {
 
 /** The screen's choices as the study's settings. */
 export function choices(): StudyChoices {
-  return { closure: app.closure ? 'households' : 'none', destination: app.pathDestination };
+  return {
+    closure: app.closure ? 'households' : 'none', destination: app.pathDestination,
+    discountRate: app.discountRate, commutingShare: app.commutingShare, tableYear: app.tableYear,
+  };
 }
 
 let recomputeSeq = 0;
@@ -284,7 +304,7 @@ export async function recomputeAll(): Promise<void> {
 }
 
 let pending: ReturnType<typeof setTimeout> | null = null;
-watch(() => [app.scenarios, app.closure], () => {
+watch(() => [app.scenarios, app.closure, app.discountRate, app.commutingShare, app.tableYear, app.studyInputs], () => {
   app.resultsStale = true;
   if (pending) clearTimeout(pending);
   pending = setTimeout(() => { void recomputeAll(); }, 120);

@@ -35,6 +35,7 @@ export const COMMANDS: readonly CommandInfo[] = [
   entry('print-brief', 'Print the brief…', 'File'),
   entry('undo', 'Undo scenario edit', 'Edit'),
   entry('redo', 'Redo scenario edit', 'Edit'),
+  entry('guide', 'Guide', 'Help'),
   entry('about', 'About Roundwise', 'Help'),
 ];
 

@@ -50,10 +50,16 @@ export async function applyProject(text: string, fileName: string, path?: string
     app.selected = r.active;
     app.closure = r.choices.closure === 'households';
     app.pathDestination = r.choices.destination;
+    app.phase = 0;
+    app.discountRate = r.choices.discountRate ?? null;
+    app.commutingShare = r.choices.commutingShare ?? 0;
+    app.tableYear = r.choices.tableYear ?? null;
+    app.studyInputs = r.inputs;
     app.importError = null;
     app.draft = null;
     app.project = { name: fileName, ...(path ? { path } : {}) };
     app.starterOnly = false;
+    app.previousSectors = []; // the project's scenarios were written for its own table
     resetHistory();
     await recomputeAll();
     markDirty(false);

@@ -6,10 +6,10 @@
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable, filesOnly, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, parseMixCsv, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
   type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
-import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, TableInfo, TableSource } from './protocol.ts';
+import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
 import { analysisView, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
 import { regionalApi } from './regional.ts';
 import { howSureMemory, uncertaintyApi } from './uncertainty.ts';
@@ -31,15 +31,59 @@ function importSettings(src: TableSource): ImportSettings {
   };
 }
 
-/** The study as the screens have it now: the loaded table with the screen's scenarios and choices. */
+/**
+ * The study as the screens have it now: the loaded table with the screen's scenarios and choices. A new commuting share
+ * means a new household row, so a new factorisation: kept as the worker's state, so it is made once per change.
+ */
 function studyAt(choices: StudyChoices, scenarios: Scenario[] = []): PreparedStudy {
   const ps = current();
   const s = ps.study.settings;
-  return restudy(ps, {
+  const next = restudy(ps, {
     ...ps.study,
     scenarios: scenarios.map(readyLines),
-    settings: { ...s, closure: choices.closure, paths: { ...s.paths, destination: choices.destination } },
+    settings: {
+      ...s, closure: choices.closure, paths: { ...s.paths, destination: choices.destination },
+      ...(choices.discountRate !== undefined ? { discountRate: choices.discountRate } : {}),
+    },
+    ...(choices.commutingShare !== undefined ? { commuting: { ...ps.study.commuting, overall: choices.commutingShare } } : {}),
+    ...(choices.tableYear !== undefined ? { prices: { ...ps.study.prices, tableYear: choices.tableYear } } : {}),
   });
+  if (next.pm !== ps.pm) state = next;
+  return next;
+}
+
+/** The study's input files in words, for the Scenarios screen. */
+function studyInputsView(study: Study): StudyInputsView {
+  const names = (list: { name: string }[], one: string, many: string) => (list.length ? `${list.length} ${list.length === 1 ? one : many}: ${list.map((x) => x.name).join(', ')}` : null);
+  const m = study.margins;
+  const idx = study.prices.index;
+  const years = idx ? idx.points.map((p) => p.year).sort((a, b) => a - b) : [];
+  return {
+    mix: names(study.mixes, 'mix', 'mixes'),
+    activity: names(study.activities, 'activity', 'activities'),
+    margins: m ? `${m.rows.length} sector${m.rows.length === 1 ? '' : 's'} with margins; retail earned by ${m.sectors.retail ?? '—'}, wholesale by ${m.sectors.wholesale ?? '—'}, transport by ${m.sectors.transport ?? '—'}` : null,
+    'price-index': years.length ? `${years.length} year${years.length === 1 ? '' : 's'}, ${years[0]}–${years.at(-1)}` : null,
+    commuting: study.commuting.sectors.length ? `${study.commuting.sectors.length} sector${study.commuting.sectors.length === 1 ? '' : 's'} listed` : null,
+  };
+}
+
+/**
+ * Read one of the study's input files (replacing the one before; spending mixes and activities of the same name are
+ * replaced, others kept), or remove it (`text` null). Checked against the table like a save would (located refusals).
+ */
+function setStudyInput(args: { kind: StudyInputKind; text: string | null; fileName: string }): { table: TableInfo; inputs: StudyInputsView } {
+  const ps = current();
+  const study: Study = { ...ps.study };
+  const { kind, text, fileName } = args;
+  const keep = <T extends { name: string }>(old: T[], add: T[]) => [...old.filter((x) => !add.some((y) => y.name === x.name)), ...add];
+  if (kind === 'mix') study.mixes = text === null ? [] : keep(study.mixes, parseMixCsv(text, fileName));
+  else if (kind === 'activity') study.activities = text === null ? [] : keep(study.activities, parseActivityCsv(text, fileName));
+  else if (kind === 'margins') study.margins = text === null ? null : parseMarginsCsv(text, fileName);
+  else if (kind === 'price-index') study.prices = { ...study.prices, index: text === null ? null : parsePriceIndexCsv(text, fileName) };
+  else study.commuting = { ...study.commuting, sectors: text === null ? [] : parseCommutingCsv(text, fileName) };
+  checkStudyInputs(study);
+  state = restudy(ps, study);
+  return { table: tableInfo(study, study.source?.fileName ?? study.table.name), inputs: studyInputsView(study) };
 }
 
 function load(study: Study): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft } {
@@ -154,12 +198,17 @@ function recoveryBase(args: { name: string; choices: StudyChoices }): string {
   return projectFileOf({ ...study, name: args.name, scenarios: [] });
 }
 
-function openProject(args: { text: string; fileName: string }): { table: TableInfo; analysis: AnalysisView; scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null } {
+function openProject(args: { text: string; fileName: string }): { table: TableInfo; analysis: AnalysisView; scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
   const study = studyFromProjectFile(args.text, args.fileName);
   const loaded = load(study);
   const active = Math.max(0, study.scenarios.findIndex((s) => s.name === study.settings.activeScenario));
   return {
-    ...loaded, scenarios: study.scenarios, choices: { closure: study.settings.closure, destination: study.settings.paths.destination }, active, name: study.name,
+    ...loaded, scenarios: study.scenarios, active, name: study.name,
+    choices: {
+      closure: study.settings.closure, destination: study.settings.paths.destination, discountRate: study.settings.discountRate,
+      commutingShare: study.commuting.overall, tableYear: study.prices.tableYear,
+    },
+    inputs: studyInputsView(study),
     source: sourceOf(study),
   };
 }
@@ -196,6 +245,7 @@ export const api = {
   loadTable,
   runScenario,
   spread,
+  setStudyInput,
   paths,
   grid,
   reports,

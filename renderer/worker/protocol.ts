@@ -25,10 +25,21 @@ export interface TableSource {
 }
 
 /** The screen's choices that the study keeps in its settings. */
+/** The study's input files besides the table (README "Shock files"). */
+export type StudyInputKind = 'mix' | 'activity' | 'margins' | 'price-index' | 'commuting';
+/** Each input file in words ("2 mixes: Visitor day, Festival"), or null when the study has none. */
+export type StudyInputsView = Record<StudyInputKind, string | null>;
+
 export interface StudyChoices {
   closure: Closure;
   /** Sector the structural paths go to; null: the most affected sector not shocked itself. */
   destination: string | null;
+  /** Discount rate of annual phases (a share per year), or null for none; absent: the study's as loaded. */
+  discountRate?: number | null;
+  /** Share of every sector's labour income paid to non-residents (0–1); absent: the study's as loaded. */
+  commutingShare?: number;
+  /** The table's money year, or null to read it from the table's corner cell; absent: the study's as loaded. */
+  tableYear?: number | null;
 }
 
 export interface Ratio {

@@ -51,14 +51,37 @@ const BEHAVIOUR: Record<ModeKind, string> = {
   'rotating-growth': 'swings with growing size',
 };
 
+/**
+ * Why Type II is unavailable, in the planner's words, by the engine's one closed-model decision; the engine's own
+ * reason, with its bounds, stays in the notes.
+ */
+const TYPE_II_WHY: Partial<Record<string, string>> = {
+  'no-closure': 'the table has no labour income row or no household consumption column, so households cannot be closed',
+  'open-not-productive': 'the table itself is not productive, so neither is the model with households closed',
+  'not-productive': 'with households closed the model is not productive: households would re-spend more than all they earn locally (see the notes below the table)',
+  'within-rounding': 'with households closed the model is on the edge of productivity: households re-spend all they earn locally (see the notes below the table)',
+};
+
+/** A measure's name as its column heading shows it. */
+function measureName(key: string): string {
+  const label = MEASURES.find((m) => m.key === key)?.label ?? (key === 'linkages' ? 'backward and forward linkages' : key);
+  return label.charAt(0).toUpperCase() + label.slice(1);
+}
+
 export function analysisView(ps: PreparedStudy): AnalysisView {
   const full = ps.analysis;
   const { n, sectors } = full;
   const v = full.viability;
-  const notes = [...full.multipliers.notes, ...full.linkages.notes].map((note) => {
-    const where = note.sectors === 'all' ? 'all sectors' : note.sectors.map((j) => sectors[j]).slice(0, 5).join(', ');
-    return `${note.measure} (${where}): ${note.reason}`;
-  });
+  // Notes name measures as the column headings do ("Output Type II", not the engine's key), one line per reason.
+  const grouped = new Map<string, { where: string; reason: string; names: string[] }>();
+  for (const note of [...full.multipliers.notes, ...full.linkages.notes]) {
+    const where = note.sectors === 'all' ? 'all sectors' : `${note.sectors.map((j) => sectors[j]).slice(0, 5).join(', ')}${note.sectors.length > 5 ? ` and ${note.sectors.length - 5} more` : ''}`;
+    const key = `${where}\u0000${note.reason}`;
+    const g = grouped.get(key) ?? { where, reason: note.reason, names: [] };
+    g.names.push(measureName(note.measure));
+    grouped.set(key, g);
+  }
+  const notes = [...grouped.values()].map((g) => `${g.names.join(', ')} (${g.where}): ${g.reason}`);
   const columns = MEASURES.map((m) => measureValues(full, m.key));
   const multipliers: MultiplierRow[] = sectors.map((sector, j) => ({
     sector, index: j,
@@ -93,7 +116,7 @@ export function analysisView(ps: PreparedStudy): AnalysisView {
     measures: MEASURES.map((m) => ({ key: m.key, label: m.label, unit: m.unit(full.moneyUnit), model: m.model, ...(m.jobsPerMoney ? { jobsPerMoney: true as const } : {}) })),
     multipliers,
     hasTypeII: full.availability.closed === true,
-    typeIIReason: full.availability.closed === true ? null : full.availability.closed,
+    typeIIReason: full.availability.closed === true ? null : (TYPE_II_WHY[v.closedModel.status] ?? full.availability.closed),
     meanOutput: mean('output.typeI'),
     meanOutputII: mean('output.typeII'),
     notes: [...notes, ...full.warnings.map((w) => formatLocated(w))],

@@ -38,7 +38,7 @@ export const BINARY_EXPORTS: readonly ExportKind[] = ['png', 'pdf', 'xlsx'];
 /** Commands the native menu (desktop) or the in-window menu (browser) sends to the UI. */
 export type MenuCommand =
   | 'open-table' | 'open-project' | 'save-project' | 'save-project-as'
-  | 'export-report' | 'print-brief' | 'undo' | 'redo' | 'about';
+  | 'export-report' | 'print-brief' | 'undo' | 'redo' | 'guide' | 'about';
 
 export interface RoundwiseBridge {
   readonly mode: 'desktop' | 'browser';

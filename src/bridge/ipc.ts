@@ -15,7 +15,7 @@ export interface IpcFailure {
 export type IpcResult<T> = { ok: true; value: T } | { ok: false; error: IpcFailure };
 
 export const MENU_COMMANDS: readonly MenuCommand[] = [
-  'open-table', 'open-project', 'save-project', 'save-project-as', 'export-report', 'print-brief', 'undo', 'redo', 'about',
+  'open-table', 'open-project', 'save-project', 'save-project-as', 'export-report', 'print-brief', 'undo', 'redo', 'guide', 'about',
 ];
 
 export function isMenuCommand(x: unknown): x is MenuCommand {

@@ -282,6 +282,8 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
   it('stays usable at 2,000 sectors: progress with cancel while it works, then virtual scrolling', async () => {
     const file = join(REPO, 'test-output', 'e2e-2000-sectors.csv');
     writeFileSync(file, sparseTableCsv(2000));
+    // The reopened project's name is shown until another table is imported: that starts a new, unnamed study.
+    expect(await page.getByTestId('project-name').textContent()).toMatch(/\.roundwise/);
     await go('import');
     await page.getByTestId('file-input').setInputFiles(file);
     await page.getByTestId('accept-import').click({ timeout: 60_000 });
@@ -289,6 +291,7 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await page.getByTestId('progress').waitFor({ timeout: 10_000 });
     expect(await page.getByTestId('progress').getByRole('button', { name: 'Cancel' }).count()).toBe(1);
     await poll(() => page.getByTestId('table-name').textContent(), { timeout: 90_000 }).toMatch(/2,000 sectors/);
+    expect(await page.getByTestId('project-name').count()).toBe(0);
     await go('multipliers');
     const table = page.getByTestId('multiplier-table');
     await table.waitFor();

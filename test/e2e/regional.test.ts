@@ -106,7 +106,7 @@ describe.skipIf(skipBrowser)('Start from a larger table, in the browser', () => 
   });
 
   it('optionally balances to county totals by RAS and merges sectors by the bundled grouping', async () => {
-    await page.getByText('Optional: balance to known county totals').click();
+    await page.locator('summary', { hasText: 'balance to known county totals (RAS)' }).click();
     await page.getByTestId('use-groups').check();
     const groups = page.getByTestId('regional-groups');
     await groups.waitFor();
@@ -132,7 +132,7 @@ describe.skipIf(skipBrowser)('Start from a larger table, in the browser', () => 
     expect((await page.getByTestId('regional-perron').locator('.value').textContent())?.trim()).toBe(ratio(analyzeTable(b.table).viability.perronRoot));
     await page.getByTestId('use-balance').uncheck();
     await expect.poll(() => bal.count()).toBe(0);
-    await page.getByText('Optional: balance to known county totals').click();
+    await page.locator('summary', { hasText: 'balance to known county totals (RAS)' }).click();
   });
 
   it('refuses δ outside [0, 1] and bad employment files with the location, keeping the table in use', async () => {

@@ -130,7 +130,7 @@ describe('worker adapter over the engine', () => {
     api.loadSample({});
     const opened = api.openProject({ text: saved, fileName: 'test.roundwise' });
     expect(opened.scenarios).toEqual([SCENARIO]);
-    expect(opened.choices).toEqual({ closure: 'households', destination: 'Retail' });
+    expect(opened.choices).toMatchObject({ closure: 'households', destination: 'Retail' });
     expect(api.runScenario({ scenario: opened.scenarios[0]!, choices: opened.choices })).toEqual(before);
   });
 
@@ -154,7 +154,7 @@ describe('worker adapter over the engine', () => {
     api.loadSample({});
     const opened = api.openProject({ text: back.project, fileName: 'recovered' });
     expect(opened.table.sectors).toContain('Retail');
-    expect(opened.choices).toEqual({ closure: 'none', destination: 'Retail' });
+    expect(opened.choices).toMatchObject({ closure: 'none', destination: 'Retail' });
     expect(api.runScenario({ scenario: SCENARIO, choices: ON })).toEqual(before);
   });
 
@@ -167,6 +167,31 @@ describe('worker adapter over the engine', () => {
     const lines = api.spread({ mix: pattern, amount: 600, localShare: 0.8 });
     expect(lines.reduce((a, l) => a + l.amount, 0)).toBeCloseTo(600, 9);
     expect(lines.every((l) => l.localShare === 0.8 && l.mix === 'Table column: Households')).toBe(true);
+  });
+
+  it('reads the study\'s input files and settings as the CLI does: a spending mix line, the discount rate, commuting', () => {
+    api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
+    const r = api.setStudyInput({ kind: 'mix', text: 'mix,sector,share\nVisitor day,Retail,0.6\nVisitor day,Cannery,0.4\n', fileName: 'mixes.csv' });
+    expect(r.inputs.mix).toBe('1 mix: Visitor day');
+    expect(r.table.mixes.map((m) => m.name)).toContain('Visitor day');
+    const visitors: Scenario = onePhase('Visitors', [{ sector: 'Visitor day', amount: 1000, kind: 'mix', localShare: 0.9 }], 'annual');
+    visitors.phases[0]!.years = 10;
+    const view = api.runScenario({ scenario: visitors, choices: { ...ON, discountRate: 0.05 } }).phases[0]!;
+    // The same as the mix spread into final-demand lines by hand: 600 and 400 at 90 % local.
+    const ref = runScenario(prepareModel(importTable(text('ridgeline-test.csv'), { fileName: 'ridgeline-test.csv' })), onePhase('x', [
+      { sector: 'Retail', amount: 600, kind: 'final-demand', localShare: 0.9 }, { sector: 'Cannery', amount: 400, kind: 'final-demand', localShare: 0.9 },
+    ]));
+    expect(view.effects.output!.totals.total).toBeCloseTo(ref.totals.output.total, 9);
+    // Present value of 10 years at 5 %: the annuity factor (1 − 1.05^−10)/0.05 times one year's total.
+    expect(view.overTime!.presentValue!.output!.total).toBeCloseTo(ref.totals.output.total * (1 - 1.05 ** -10) / 0.05, 6);
+    const commuters = api.runScenario({ scenario: visitors, choices: { ...ON, commutingShare: 0.5 } }).phases[0]!;
+    expect(commuters.effects.output!.totals.induced!).toBeLessThan(view.effects.output!.totals.induced!);
+    // A file naming a sector the table lacks is refused with its line, and the study keeps what it had.
+    expect(() => api.setStudyInput({ kind: 'mix', text: 'mix,sector,share\nBad,Mining,1\n', fileName: 'bad.csv' })).toThrow(/spending mix 'Bad' names sector 'Mining'/);
+    const saved = JSON.parse(api.saveProject({ name: 'x', scenarios: [visitors], choices: { ...ON, discountRate: 0.05 }, active: 0 }));
+    expect(saved.mixes.map((m: { name: string }) => m.name)).toEqual(['Visitor day']);
+    expect(saved.settings.discountRate).toBe(0.05);
+    expect(api.setStudyInput({ kind: 'mix', text: null, fileName: '' }).inputs.mix).toBeNull();
   });
 
   it('unwraps Vue proxies so they can be posted to the worker', () => {
@@ -243,5 +268,30 @@ describe('worker adapter over the engine', () => {
       const opened = api.openProject({ text: saved, fileName: 'cli.roundwise' });
       expect(api.runScenario({ scenario: SCENARIO, choices: opened.choices }).phases[0]!.effects.output!.totals.total).toBe(closedRun.effects.output!.totals.total);
     });
+  });
+});
+
+describe('what the Multipliers screen says about missing values', () => {
+  const ENGINE_KEY = /\b(output|income|employment|valueAdded)\.(typeI|typeII|simple|total)\b/;
+  it('names measures as the headings do, one note per reason, when a table has no household closure', () => {
+    const noHouseholds = text('ridgeline-test.csv').split('\n').map((l) => { const c = l.split(','); c.splice(6, 1); return c.join(','); }).join('\n');
+    const a = api.loadTable({ text: noHouseholds, fileName: 'no-households.csv' }).analysis;
+    expect(a.hasTypeII).toBe(false);
+    expect(a.typeIIReason).toMatch(/no labour income row or no household consumption column/);
+    const closureNotes = a.notes.filter((n) => /household closure/.test(n));
+    expect(closureNotes).toHaveLength(1);
+    expect(closureNotes[0]).toMatch(/^Output Type II, Labour income total, .*\(all sectors\): /);
+    for (const n of a.notes) expect(n).not.toMatch(ENGINE_KEY);
+  });
+  it('says households re-spend more than they earn when the closed model is not productive, not that the closure is missing', () => {
+    // Household consumption six times as large: the household-closed model's Perron root exceeds 1 (the engine's
+    // closed-model decision, checked in test/src/model); the open model stays productive.
+    const respend = text('ridgeline-test.csv').split('\n').map((l, i) => { const c = l.split(','); if (i >= 1 && i <= 5) c[6] = String(Number(c[6]) * 6); return c.join(','); }).join('\n');
+    const a = api.loadTable({ text: respend, fileName: 'respend.csv' }).analysis;
+    expect(a.verdict.productive).toBe(true);
+    expect(a.hasTypeII).toBe(false);
+    expect(a.typeIIReason).toMatch(/not productive: households would re-spend more than all they earn/);
+    expect(a.typeIIReason).not.toMatch(/no (household|labour) income row/);
+    for (const n of a.notes) expect(n).not.toMatch(ENGINE_KEY);
   });
 });
