@@ -86,7 +86,7 @@ describe.skipIf(skipBrowser)('accessibility', () => {
 
   it('moves between result tabs with the arrow keys, each tab pointing at its panel', async () => {
     await go('scenarios');
-    const tabs = page.getByRole('tablist').first().getByRole('tab');
+    const tabs = page.getByRole('tablist', { name: 'Variable' }).getByRole('tab');
     await tabs.first().waitFor();
     const n = await tabs.count();
     expect(n).toBeGreaterThan(1);
@@ -101,6 +101,26 @@ describe.skipIf(skipBrowser)('accessibility', () => {
     await poll(() => tabs.nth(n - 1).getAttribute('aria-selected')).toBe('true');
     await page.keyboard.press('Home');
     await poll(() => tabs.first().getAttribute('aria-selected')).toBe('true');
+  });
+
+  it('moves between phase tabs with the arrow keys; "Add phase" stands outside the tab list', async () => {
+    await go('scenarios');
+    const list = page.getByRole('tablist', { name: 'Phases' });
+    const before = await list.getByRole('tab').count();
+    await page.getByTestId('add-phase').click();
+    await poll(() => list.getByRole('tab').count()).toBe(before + 1);
+    expect(await list.getByTestId('add-phase').count()).toBe(0);
+    await list.getByRole('tab').first().click();
+    await list.getByRole('tab').first().focus();
+    await page.keyboard.press('End');
+    await poll(() => list.getByRole('tab').last().getAttribute('aria-selected')).toBe('true');
+    expect(await page.evaluate(() => document.activeElement?.id)).toBe(`phase-tab-${before}`);
+    expect(await page.locator('#phase-panel').getAttribute('role')).toBe('tabpanel');
+    expect(await axeProblems()).toEqual([]);
+    await page.keyboard.press('Home');
+    await poll(() => list.getByRole('tab').first().getAttribute('aria-selected')).toBe('true');
+    await page.keyboard.press('Control+z'); // the added phase undone, so later tests see the scenario as it was
+    await poll(() => list.getByRole('tab').count()).toBe(before);
   });
 
   it('puts the focus into the About dialog and gives it back on close', async () => {
