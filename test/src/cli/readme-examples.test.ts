@@ -32,7 +32,8 @@ describe('README command-line examples', () => {
   it('each runs with exit 0 (outputs redirected into a temporary folder)', async () => {
     for (const line of lines) {
       const args = argv(line.replace(/\s*>.*$/, '')).slice(2) // drop "npx roundwise" and any shell redirection
-        .map((a) => (/^(reports|county|grouped|derived)\/.*/.test(a) ? join(dir, a) : a));
+        // Every file the example writes goes into the temporary folder, never into the checkout.
+        .map((a) => (/^(reports|county|grouped|derived)\/.*/.test(a) || /^[\w.-]+\.(pdf|xlsx|json)$/.test(a) ? join(dir, a) : a));
       const r = await run(args);
       expect(r.err.split('\n').filter((l) => !l.includes('warning')).join(''), line).toBe('');
       expect(r.code, line).toBe(0);
@@ -41,6 +42,8 @@ describe('README command-line examples', () => {
       'fernhollow-food-plant-inputs.csv', 'fernhollow-food-plant-phases.csv', 'fernhollow-food-plant-building-the-plant-impact.csv',
       'fernhollow-food-plant-operating-the-plant-impact.csv', 'multipliers.csv',
     ]));
+    // The deliverables of the examples, written where the redirection put them.
+    expect(readdirSync(dir)).toEqual(expect.arrayContaining(['brief.pdf', 'study.xlsx', 'table.xlsx']));
   });
 
   it('the food-plant study: building once, operating yearly; operating fixes Food processing at exactly 300 direct jobs, and effects add up', async () => {
