@@ -9,7 +9,7 @@ import { createRequire } from 'node:module';
 import { readFileSync } from 'node:fs';
 import type { Page } from 'playwright-core';
 import { join } from 'node:path';
-import { REPO, shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
+import { REPO, shot as photograph, skipBrowser, type Session, openApp, goTo } from './harness.ts';
 
 const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
 let s: Session;
@@ -35,18 +35,14 @@ async function axeProblems(): Promise<string[]> {
     .map((v) => `${v.impact} ${v.id}: ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(', ')}`);
 }
 
-async function go(screen: string): Promise<void> {
-  await page.click(`[data-screen="${screen}"]`);
-  await page.waitForSelector('main[aria-label]');
+function go(screen: string): Promise<void> {
+  return goTo(page, screen);
 }
 
 describe.skipIf(skipBrowser)('accessibility', () => {
   beforeAll(async () => {
-    s = await startSession();
+    s = await openApp();
     page = s.page;
-    page.setDefaultTimeout(60_000);
-    await page.goto(s.url);
-    await page.getByTestId('verdict').waitFor({ timeout: 150_000 });
   });
   afterAll(async () => { await s?.close(); });
 

@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Download, Page } from 'playwright-core';
-import { DOWNLOADS, shot, skipBrowser, startSession, type Session } from './harness.ts';
+import { DOWNLOADS, shot, skipBrowser, startSession, type Session, goTo } from './harness.ts';
 import {
   dateText, prepareStudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, studyBrief, studyFromTableFile, studyWorkbook, utf8Bytes, type Scenario,
 } from '../../src/study/index.ts';
@@ -34,9 +34,8 @@ async function download(click: () => Promise<void>): Promise<{ name: string; byt
   return { name: d.suggestedFilename(), bytes: readFileSync(path) };
 }
 
-async function go(screen: string): Promise<void> {
-  await page.click(`[data-screen="${screen}"]`);
-  await page.waitForSelector('main[aria-label]');
+function go(screen: string): Promise<void> {
+  return goTo(page, screen);
 }
 
 describe.skipIf(skipBrowser)('the brief and the workbook from the app', () => {

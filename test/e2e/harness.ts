@@ -66,6 +66,21 @@ export async function startSession(): Promise<Session> {
   };
 }
 
+/** A session with the app loaded on the sample county (its verdict shown), and a generous default timeout. */
+export async function openApp(): Promise<Session> {
+  const s = await startSession();
+  s.page.setDefaultTimeout(60_000);
+  await s.page.goto(s.url);
+  await s.page.getByTestId('verdict').waitFor({ timeout: 150_000 });
+  return s;
+}
+
+/** Open a screen from the sidebar and wait for it to be shown. */
+export async function goTo(page: Page, screen: string): Promise<void> {
+  await page.click(`[data-screen="${screen}"]`);
+  await page.waitForSelector('main[aria-label]');
+}
+
 export async function shot(page: Page, name: string): Promise<void> {
   await page.screenshot({ path: join(SCREENSHOTS, `${name}.png`), fullPage: false });
 }

@@ -5,7 +5,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
+import { shot as photograph, skipBrowser, type Session, openApp } from './harness.ts';
 
 let s: Session;
 let page: Page;
@@ -44,11 +44,8 @@ async function grid(): Promise<string[][]> {
 
 describe.skipIf(skipBrowser)('import preview', () => {
   beforeAll(async () => {
-    s = await startSession();
+    s = await openApp();
     page = s.page;
-    page.setDefaultTimeout(60_000);
-    await page.goto(s.url);
-    await page.getByTestId('verdict').waitFor({ timeout: 150_000 });
   });
   afterAll(async () => { await s?.close(); });
 

@@ -7,7 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { join } from 'node:path';
-import { REPO, shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
+import { REPO, shot as photograph, skipBrowser, type Session, openApp } from './harness.ts';
 
 let s: Session;
 let page: Page;
@@ -23,11 +23,8 @@ const total = () => page.getByTestId('total-effect');
 
 describe.skipIf(skipBrowser)('scenario input', () => {
   beforeAll(async () => {
-    s = await startSession();
+    s = await openApp();
     page = s.page;
-    page.setDefaultTimeout(60_000);
-    await page.goto(s.url);
-    await page.getByTestId('verdict').waitFor({ timeout: 150_000 });
     await page.click('[data-screen="scenarios"]');
   });
   afterAll(async () => { await s?.close(); });

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { REPO, shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
+import { REPO, shot as photograph, skipBrowser, type Session, openApp, goTo } from './harness.ts';
 import { sparseTableCsv } from '../support/random-tables.ts';
 import { SAMPLE_CSV, SAMPLE_FILE_NAME, importTable } from '../../src/table/index.ts';
 import { analyzeTable } from '../../src/model/index.ts';
@@ -23,18 +23,14 @@ async function shot(name: string): Promise<void> {
   expect(await page.locator('body').innerText(), name).not.toMatch(/\bNaN\b|Infinity|∞/);
   await photograph(page, name);
 }
-async function go(screen: string): Promise<void> {
-  await page.click(`[data-screen="${screen}"]`);
-  await page.waitForSelector('main[aria-label]');
+function go(screen: string): Promise<void> {
+  return goTo(page, screen);
 }
 
 describe.skipIf(skipBrowser)('screens', () => {
   beforeAll(async () => {
-    s = await startSession();
+    s = await openApp();
     page = s.page;
-    page.setDefaultTimeout(60_000);
-    await page.goto(s.url);
-    await page.getByTestId('verdict').waitFor({ timeout: 150_000 });
   });
   afterAll(async () => { await s?.close(); });
 
