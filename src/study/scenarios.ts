@@ -9,8 +9,9 @@ import { formatLocated, InputError } from '../diagnostics/index.ts';
 import {
   compareScenarios, commutingText, mixesOfTable, overTime, runPhaseExpanded, spendingRounds, structuralPaths, sumTotals,
   yearOfMoneyUnit, type ComparisonEntry, type ExpandedLine, type OverTime, type PathAnalysis, type Phase, type RoundsResult, type Scenario,
-  type ScenarioComparison, type ScenarioLine, type ScenarioResult, type ShockInputs, type Timing, type TotalsRecord,
+  type ScenarioComparison, type ScenarioLine, type ScenarioResult, type ShockInputs, type Timing,
 } from '../scenario/index.ts';
+import type { TimingSum } from '../report/index.ts';
 import type { PreparedStudy } from './prepare.ts';
 import type { Study } from './study.ts';
 
@@ -34,16 +35,11 @@ export interface PhaseOutcome {
   notes: string[];
 }
 
-/** Phases of one timing added up (labelled as such wherever shown); only when the scenario has two or more of them. */
-export interface TimingTotal {
-  timing: Timing;
-  phases: string[];
-  gross: TotalsRecord;
-  net: TotalsRecord | null;
-  /** Sum of cumulative effects, when every phase of this timing is annual with a number of years. */
-  grossCumulative: TotalsRecord | null;
-  netCumulative: TotalsRecord | null;
-}
+/**
+ * Phases of one timing added up (labelled as such wherever shown); only when the scenario has two or more of them.
+ * The same record the phase summary report takes.
+ */
+export type TimingTotal = TimingSum;
 
 export interface ScenarioOutcome {
   scenario: Scenario;
