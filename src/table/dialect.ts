@@ -15,7 +15,7 @@
  */
 import { InputError, type Warning } from '../diagnostics/index.ts';
 import type { DecimalMark } from './numbers.ts';
-import type { Delimiter } from './text.ts';
+import { checkNotBinary, checkTableSize, stripBom, type Delimiter } from './text.ts';
 
 export type { Delimiter } from './text.ts';
 
@@ -347,4 +347,17 @@ export function resolveDialect(body: string, opts: DialectOptions, fileName: str
   }
   const g = guessDecimalMark(text, delimiter);
   return { text, dialect: { delimiter, delimiterFrom, delimiterNote, decimalMark: g.mark, decimalMarkFrom: g.from, decimalMarkNote: g.note }, guess: g };
+}
+
+/**
+ * The common opening of a table-like file (a table, a labelled grid): refused, located, when over the size limit,
+ * empty or binary; then its dialect resolved, with the warning for a guessed decimal mark when it was guessed.
+ */
+export function openTableText(text: string, opts: DialectOptions, file: string): { text: string; dialect: Dialect; guessed: Warning | null } {
+  checkTableSize(text.length, file);
+  const body = stripBom(text);
+  if (!/\S/.test(body)) throw new InputError('empty', 'the file is empty', { file });
+  checkNotBinary(body, file);
+  const d = resolveDialect(body, opts, file);
+  return { text: d.text, dialect: d.dialect, guessed: d.guess ? guessedMarkWarning(d.guess, file) : null };
 }

@@ -10,8 +10,8 @@ import { buildGrid } from './grid.ts';
 import { contentRows, readMatrix, type ReadOptions } from './matrix.ts';
 import { longHeader, readLong } from './long.ts';
 import { finishTable, looksLikeCoefficients, scaleCoefficients, type BalanceReport } from './finish.ts';
-import { checkNotBinary, checkTableSize, stripBom, type Delimiter } from './text.ts';
-import { delimiterHint, guessedMarkWarning, resolveDialect, type Dialect } from './dialect.ts';
+import type { Delimiter } from './text.ts';
+import { delimiterHint, openTableText, type Dialect } from './dialect.ts';
 import type { DecimalMark } from './numbers.ts';
 import type { LabelRole, RawTable } from './structure.ts';
 import type { Grid } from './grid.ts';
@@ -78,16 +78,11 @@ function baseName(fileName: string): string {
 
 function run(text: string, opts: ImportOptions, p: Progress): IOTable {
   const file = opts.fileName;
-  checkTableSize(text.length, file);
-  const body = stripBom(text);
-  if (!/\S/.test(body)) throw new InputError('empty', 'the file is empty', { file });
-  checkNotBinary(body, file);
-  const d = resolveDialect(body, opts, file);
+  const d = openTableText(text, opts, file);
   p.dialect = d.dialect;
   const delimiter = (p.delimiter = d.dialect.delimiter);
   const decimalMark = (p.decimalMark = d.dialect.decimalMark);
-  const guessed = d.guess ? guessedMarkWarning(d.guess, file) : null;
-  if (guessed) p.warnings.push(guessed);
+  if (d.guessed) p.warnings.push(d.guessed);
   const grid = buildGrid(d.text, delimiter, file);
   const rows = contentRows(grid);
   p.cells = firstCells(grid, rows);

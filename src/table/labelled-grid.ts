@@ -6,11 +6,10 @@
  * they need, each refusal located at its cell.
  */
 import { InputError, type Location, type Warning } from '../diagnostics/index.ts';
-import { delimiterHint, guessedMarkWarning, resolveDialect, type Dialect, type DialectOptions } from './dialect.ts';
+import { delimiterHint, openTableText, type Dialect, type DialectOptions } from './dialect.ts';
 import { buildGrid } from './grid.ts';
 import { cleanLabel, matchKey } from './labels.ts';
 import { checkWidth, contentRows, headerWidth, readCell } from './matrix.ts';
-import { checkNotBinary, checkTableSize, stripBom } from './text.ts';
 
 export interface GridLabel {
   /** As kept (labels.ts: NFC, no invisible characters, single spaces). */
@@ -47,14 +46,8 @@ export type LabelledGridOptions = DialectOptions & { fileName: string };
  */
 export function readLabelledGrid(text: string, opts: LabelledGridOptions): LabelledGrid {
   const file = opts.fileName;
-  checkTableSize(text.length, file);
-  const body = stripBom(text);
-  if (!/\S/.test(body)) throw new InputError('empty', 'the file is empty', { file });
-  checkNotBinary(body, file);
-  const d = resolveDialect(body, opts, file);
-  const warnings: Warning[] = [];
-  const guessed = d.guess ? guessedMarkWarning(d.guess, file) : null;
-  if (guessed) warnings.push(guessed);
+  const d = openTableText(text, opts, file);
+  const warnings: Warning[] = d.guessed ? [d.guessed] : [];
   const grid = buildGrid(d.text, d.dialect.delimiter, file);
   const records = contentRows(grid);
   if (records.length === 0) throw new InputError('empty', 'the file has no cells', { file });
