@@ -4,7 +4,7 @@
  * reason, never NaN.
  */
 import type { api } from './compute.ts';
-import type { Closure, DecimalMark, Delimiter, LinkageClass, MeasureKey, RoleMap, Scenario, Timing, Variable } from '../../src/study/index.ts';
+import type { Closure, DecimalMark, Delimiter, LinkageClass, MeasureKey, ProjectSourceOrigin, RoleMap, Scenario, Timing, Variable } from '../../src/study/index.ts';
 
 export type EngineApi = typeof api;
 
@@ -22,6 +22,8 @@ export interface TableSource {
   /** Field delimiter and decimal mark chosen on the Import screen; detected when absent. */
   delimiter?: Delimiter;
   decimalMark?: DecimalMark;
+  /** The supply and use pair the table was derived from, each file with its SHA-256 (kept in the study's source). */
+  derivedFrom?: ProjectSourceOrigin[];
 }
 
 /** The screen's choices that the study keeps in its settings. */
