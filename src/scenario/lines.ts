@@ -63,7 +63,7 @@ export function mixShares(mix: SpendingMix): { sector: string; share: number }[]
     sum += s.share;
   }
   if (Math.abs(sum - 1) > MIX_SUM_TOLERANCE) {
-    throw new InputError('mix-share-sum', `spending mix '${mix.name}': shares sum to ${sum}, not 1`, at());
+    throw new InputError('mix-share-sum', `spending mix '${mix.name}': shares sum to ${Number(sum.toPrecision(12))}, not 1`, at());
   }
   return mix.shares.map((s) => ({ sector: s.sector, share: s.share / sum }));
 }
