@@ -7,12 +7,26 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Download, Page } from 'playwright-core';
 import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import { DOWNLOADS, goTo, openApp, shot as photograph, skipBrowser, type Session } from './harness.ts';
 import { parseMixCsv } from '../../src/study/index.ts';
 
 let s: Session;
 let page: Page;
+const AXE_SOURCE = readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
+
+/** Serious and critical axe-core findings inside the study inputs panel, with every editor open. */
+async function axeProblems(): Promise<string[]> {
+  // Evaluated through the debugging protocol: the page's CSP rightly refuses inline scripts.
+  if (!(await page.evaluate(() => 'axe' in window))) await page.evaluate(AXE_SOURCE);
+  return page.evaluate(async () => {
+    type Found = { id: string; impact: string | null; nodes: { target: string[] }[] };
+    const axe = (window as unknown as { axe: { run: (ctx: Element, opts: object) => Promise<{ violations: Found[] }> } }).axe;
+    const r = await axe.run(document.querySelector('[data-testid="study-inputs"]')!, { resultTypes: ['violations'] });
+    return r.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.impact} ${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+  });
+}
 
 function poll<T>(fn: () => T | Promise<T>) {
   return expect.poll(fn, { interval: 100, timeout: 30_000 });
@@ -151,6 +165,7 @@ describe.skipIf(skipBrowser)('study input editors', () => {
     await page.getByTestId('margins-save').click();
     await poll(() => page.getByTestId('study-input-margins').textContent()).toMatch(/^1 sector with margins; retail earned by Wholesale and retail trade/);
     await shot('study-editors-filled');
+    expect(await axeProblems()).toEqual([]);
   });
 
   it('names the phase of a line the engine refuses', async () => {
