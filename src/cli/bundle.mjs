@@ -25,7 +25,7 @@ try {
   rmSync(join(out, 'chunks'), { recursive: true, force: true });
   mkdirSync(out, { recursive: true });
   await build({
-    entryPoints: [join(here, 'main.ts')],
+    entryPoints: [join(here, 'main.ts'), join(here, 'draw-engine.ts')],
     outdir: out,
     outExtension: { '.js': '.mjs' },
     entryNames: '[name]',
@@ -39,6 +39,7 @@ try {
     plugins: [noWoff2],
   });
   copyFileSync(join(here, 'parallel-worker.mjs'), join(out, 'parallel-worker.mjs'));
+  copyFileSync(join(here, 'draw-worker.mjs'), join(out, 'draw-worker.mjs'));
 } catch (e) {
   console.warn(`roundwise: CLI bundle not built (${e instanceof Error ? e.message.split('\n')[0] : e}); the CLI runs from source through tsx`);
 }

@@ -115,10 +115,18 @@ export function solveClosed(pm: PreparedModel, fbar: Float64Array): Float64Array
 
 /** ȳ = c̄ (I − Ā)⁻¹ for a row vector c̄ of length n+1. Throws when not closed or singular. */
 export function solveClosedTransposed(pm: PreparedModel, cbar: Float64Array): Float64Array {
+  return closedTransposedFromOpen(pm, cbar, luSolveTransposed(pm.openLU, cbar.subarray(0, pm.coef.n)));
+}
+
+/**
+ * ȳ = c̄ (I − Ā)⁻¹ from x0 = c (I − A)⁻¹ (c the first n entries of c̄) already solved: the bordering's O(n) step only,
+ * so a caller that needs both the open and the closed row (simple and total multipliers) solves once. Bit for bit
+ * solveClosedTransposed.
+ */
+export function closedTransposedFromOpen(pm: PreparedModel, cbar: Float64Array, x0: Float64Array): Float64Array {
   const { u, w, s } = solvableBorder(pm);
   const n = pm.coef.n;
   const c = cbar.subarray(0, n);
-  const x0 = luSolveTransposed(pm.openLU, c);
   const y = (cbar[n]! + dot(c, u, n)) / s;
   const out = new Float64Array(n + 1);
   for (let i = 0; i < n; i++) out[i] = x0[i]! + w[i]! * y;

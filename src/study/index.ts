@@ -17,7 +17,7 @@ export {
   type ReportKind, type ReportEntry, type ScenarioReportKind,
 } from './reports.ts';
 export { studyAnalysisJson, scenarioJson } from './json.ts';
-export { estimateCountyTable, type CountyEstimate, type EstimateRequest, type EstimateFile } from './estimate.ts';
+export { estimateCountyTable, flqOriginOf, type CountyEstimate, type EstimateRequest, type EstimateFile, type FlqOrigin } from './estimate.ts';
 
 // What the front ends need besides the study itself (they import engine code only through this file).
 export type Closure = import('./study.ts').StudySettings['closure'];
@@ -69,12 +69,12 @@ export { readBridge, employmentByBridge, scenarioByBridge, spendingMixByBridge, 
 export { BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, EMPLOYMENT_BY_CODE_SAMPLE_CSV, EMPLOYMENT_BY_CODE_SAMPLE_FILE_NAME } from '../classification/index.ts';
 
 // How sure the numbers are (Monte Carlo bands, one-at-a-time sensitivity).
-export { drawSetupOf, beginStudyBands, studyBands, studySensitivity, bandReports, sensitivityReports, type BandsRequest, type BandsRun } from './uncertainty.ts';
+export { drawSetupOf, beginStudyBands, drawChunk, studyBands, studySensitivity, bandReports, sensitivityReports, type SensitivityRequest, type BandsRequest, type BandsRun } from './uncertainty.ts';
 export {
   defaultSettings as defaultUncertaintySettings, checkSettings as checkUncertaintySettings, parseCvCsv, multiplierBandsJson, scenarioBandsJson, sensitivityJson,
-  drawsProblem, seedProblem, cvProblem, shareRangeProblem, DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_CV, DEFAULT_SHARE_STEP, MIN_DRAWS, MAX_DRAWS, MAX_CV, MIN_ACCEPTED,
+  drawsProblem, seedProblem, cvProblem, shareRangeProblem, DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_CV, DEFAULT_SHARE_STEP, DEFAULT_MARGIN_STEP, MIN_DRAWS, MAX_DRAWS, MAX_CV, MIN_ACCEPTED,
   MULTIPLIER_KEYS as BAND_MULTIPLIER_KEYS,
-  type UncertaintySettings, type UncertaintyResult, type ScenarioBands, type PointBand, type SensitivityResult, type SensitivityItem, type RunOptions, type CvRule,
+  type UncertaintySettings, type UncertaintyResult, type DrawSetup, type DrawChunk, type ScenarioBands, type PointBand, type SensitivityResult, type SensitivityItem, type RunOptions, type CvRule,
 } from '../uncertainty/index.ts';
 
 // The brief (PDF) and the workbook (XLSX).

@@ -13,11 +13,10 @@ import {
   tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, parseMixCsv, parseActivityCsv,
   parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, spendingMixByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
   type Closure, type EffectTotals, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult, type Variable,
-  bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studyBands, studySensitivity,
+  bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
-import { withHelperThreads } from './analyze.ts';
-import { scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
+import { bandsOf, scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
 const fmt = (v: number | null | undefined) => (v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
 
@@ -189,7 +188,7 @@ export const scenario = defineCommand({
     if (values['share-step'] !== undefined && !values.sensitivity) throw ctx.usageError('--share-step needs --sensitivity');
     const ps = prepareStudy(study, { spectrum: false });
     const outcome = runStudyScenario(ps, scenario, { paths: destination });
-    const bands = settings ? await withHelperThreads(study.table.n, () => studyBands(ps, { settings, multipliers: false, scenarios: [scenario] })!) : null;
+    const bands = settings ? await bandsOf(ps, { settings, multipliers: false, scenarios: [scenario] }) : null;
     const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step']) : null;
     const names = { output: 'output', valueAdded: 'value added', income: 'labour income', employment: 'employment' };
     const files = await deliverableFiles(ps, outcome, values, ctx, { bands, sensitivity: sens });

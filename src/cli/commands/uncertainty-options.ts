@@ -4,11 +4,18 @@
  * checks (src/uncertainty/settings.ts), so the app refuses the same values with the same words.
  */
 import {
-  cvProblem, defaultUncertaintySettings, drawsProblem, parseCvCsv, seedProblem, shareRangeProblem,
+  beginStudyBands, cvProblem, defaultUncertaintySettings, drawsProblem, parseCvCsv, seedProblem, shareRangeProblem,
   visibleText, DEFAULT_CV, DEFAULT_SEED, DEFAULT_SHARE_STEP,
-  type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
+  type BandsRequest, type PreparedStudy, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
 } from '../../study/index.ts';
 import type { RunContext } from '../command.ts';
+import { drawThreadsWorthIt, finishBandsThreaded } from '../draw-pool.ts';
+
+/** The bands of a request, the draws shared with helper threads when the run is large enough to gain from them. */
+export async function bandsOf(ps: PreparedStudy, req: BandsRequest): Promise<UncertaintyResult> {
+  const run = beginStudyBands(ps, req);
+  return (await finishBandsThreaded(run, drawThreadsWorthIt(ps.study.table.n, req.settings.draws) ? undefined : 0)).bands;
+}
 
 export const UNCERTAINTY_OPTIONS = {
   draws: { type: 'number', value: 'N', help: 'add Monte Carlo bands (5th, 50th, 95th percentiles and mean) from N draws of the table (20–100000; 1000 is usual)', check: drawsProblem },
