@@ -72,7 +72,7 @@ export { BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, EMPLOYMENT_BY_CODE_SAMPLE_C
 export { drawSetupOf, beginStudyBands, drawChunk, studyBands, studySensitivity, bandReports, sensitivityReports, type SensitivityRequest, type BandsRequest, type BandsRun } from './uncertainty.ts';
 export {
   defaultSettings as defaultUncertaintySettings, checkSettings as checkUncertaintySettings, parseCvCsv, multiplierBandsJson, scenarioBandsJson, sensitivityJson,
-  drawsProblem, seedProblem, cvProblem, shareRangeProblem, DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_CV, DEFAULT_SHARE_STEP, DEFAULT_MARGIN_STEP, MIN_DRAWS, MAX_DRAWS, MAX_CV, MIN_ACCEPTED,
+  drawsProblem, seedProblem, cvProblem, shareRangeProblem, deltaRangeProblem, DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_CV, DEFAULT_SHARE_STEP, DEFAULT_MARGIN_STEP, MIN_DRAWS, MAX_DRAWS, MAX_CV, MIN_ACCEPTED,
   MULTIPLIER_KEYS as BAND_MULTIPLIER_KEYS,
   type UncertaintySettings, type UncertaintyResult, type DrawSetup, type DrawChunk, type ScenarioBands, type PointBand, type SensitivityResult, type SensitivityItem, type RunOptions, type CvRule,
 } from '../uncertainty/index.ts';
