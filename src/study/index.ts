@@ -65,7 +65,7 @@ export {
 } from '../sut/index.ts';
 
 // Classification bridges: employment, shock and spending-mix files that name codes instead of sectors.
-export { readBridge, employmentByBridge, scenarioByBridge, spendingMixByBridge, type Bridge } from './bridges.ts';
+export { readBridge, bridgeSummary, employmentByBridge, scenarioByBridge, spendingMixByBridge, shockFromFile, mixesFromFile, type Bridge, type BridgeSummary } from './bridges.ts';
 export { BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, EMPLOYMENT_BY_CODE_SAMPLE_CSV, EMPLOYMENT_BY_CODE_SAMPLE_FILE_NAME } from '../classification/index.ts';
 
 // How sure the numbers are (Monte Carlo bands, one-at-a-time sensitivity).

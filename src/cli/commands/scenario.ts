@@ -10,8 +10,8 @@ import { BRIEF_OPTIONS, deliverableFiles, XLSX_OPTION } from './deliverables.ts'
 import { readFileLimited } from '../../node-io/index.ts';
 import {
   CAUTIONS, checkStudyInputs, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile,
-  tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, parseMixCsv, parseActivityCsv,
-  parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, spendingMixByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
+  tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, mixesFromFile, parseActivityCsv,
+  parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
   type Closure, type EffectTotals, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult, type Variable,
   bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studySensitivity,
 } from '../../study/index.ts';
@@ -156,7 +156,7 @@ export const scenario = defineCommand({
     const scenario = bridge === null ? shock : scenarioByBridge(shock, bridge);
     study.scenarios = [scenario];
     // With a bridge, mix files name codes too: each code's share is split among its sectors.
-    study.mixes = values.mix.flatMap((f) => parseMixCsv(ctx.input(f).text, f).map((m) => (bridge === null ? m : spendingMixByBridge(m, bridge, f))));
+    study.mixes = values.mix.flatMap((f) => mixesFromFile(ctx.input(f).text, f, bridge));
     study.activities = values.activity.flatMap((f) => parseActivityCsv(ctx.input(f).text, f));
     for (const list of [study.mixes, study.activities]) {
       const seen = new Set<string>();
