@@ -81,6 +81,27 @@ describe('random streams', () => {
     expect(d).toBeLessThan(1.95 / Math.sqrt(N));
   });
 
+  it('put the normal probability into each tail and each strip of the ziggurat (a million deviates)', () => {
+    const M = 1_000_000;
+    const s = new Stream(99, 0, PURPOSE.coefficients);
+    const cuts = [0.5, 1, 2, 3, 3.442619855899, 4];
+    const beyond = new Array<number>(cuts.length).fill(0);
+    let negative = 0;
+    for (let k = 0; k < M; k++) {
+      const z = s.normal();
+      if (z < 0) negative++;
+      const a = Math.abs(z);
+      for (let c = 0; c < cuts.length; c++) if (a > cuts[c]!) beyond[c]!++;
+    }
+    // P(|Z| > c) = 2(1 − Φ(c)) (phi above, |error| < 1.5e-7); each count within 5 binomial standard deviations (plus
+    // the approximation's error). The cut at r = 3.4426… is where the ziggurat's base strip hands over to its tail.
+    cuts.forEach((c, i) => {
+      const p = 2 * (1 - phi(c));
+      expect(Math.abs(beyond[i]! / M - p)).toBeLessThan(5 * Math.sqrt(p * (1 - p) / M) + 3e-7);
+    });
+    expect(Math.abs(negative / M - 0.5)).toBeLessThan(5 * Math.sqrt(0.25 / M));
+  });
+
   it('give uniforms on [0, 1) with the mean and variance of U(0, 1)', () => {
     const s = new Stream(3, 9, PURPOSE.localShares);
     const u = Float64Array.from({ length: N }, () => s.uniform());
