@@ -15,7 +15,7 @@
  * Every multiplier row vector is one transposed solve against the factorisation; no inverse is formed.
  * A value that cannot be defined is null, with the reason in `notes`, never NaN or Infinity.
  */
-import { closedTransposedFromOpen, solveOpen, solveOpenTransposed, type PreparedModel } from './prepared.ts';
+import { solveClosedTransposedFrom, solveOpen, solveOpenTransposedMany, type PreparedModel } from './prepared.ts';
 import { valueAddedPerUnit } from './coefficients.ts';
 
 export type Values = (number | null)[];
@@ -111,28 +111,26 @@ export function computeMultipliers(pm: PreparedModel, avail: Availability): Mult
   const openWhy = avail.open === true ? '' : avail.open;
   const closedWhy = avail.closed === true ? '' : avail.closed;
 
-  // One transposed solve per row: the closed (total) multipliers border the open (simple) solve (prepared.ts).
-  const solved = new Map<Float64Array, Float64Array>();
-  const openRow = (c: Float64Array): Float64Array => {
-    let x = solved.get(c);
-    if (!x) { x = solveOpenTransposed(pm, c); solved.set(c, x); }
-    return x;
-  };
-  const closedRow = (c: Float64Array): Float64Array => firstN(closedTransposedFromOpen(pm, extend(c, n, 0), openRow(c)), n);
+  // Every row vector's open solve c (I − A)⁻¹ in one pass over the factors; a closed (Type II) multiplier is that
+  // solve bordered (prepared.ts), so each vector is solved once for both.
+  const rows = [ones, h, va, ...(e ? [e] : []), ...(fte ? [fte] : []), ...(taxes ? [taxes] : [])];
+  const solved = open || closed ? solveOpenTransposedMany(pm, rows) : [];
+  const openOf = (c: Float64Array): Float64Array => solved[rows.indexOf(c)]!;
+  const closedOf = (c: Float64Array): Float64Array => firstN(solveClosedTransposedFrom(pm, extend(c, n, 0), openOf(c)), n);
 
-  const outputI = open ? toValues(openRow(ones), n) : all('output.typeI', openWhy);
-  const outputII = closed ? toValues(closedRow(ones), n) : all('output.typeII', closedWhy);
+  const outputI = open ? toValues(openOf(ones), n) : all('output.typeI', openWhy);
+  const outputII = closed ? toValues(closedOf(ones), n) : all('output.typeII', closedWhy);
 
-  const incomeSimple = open ? toValues(openRow(h), n) : all('income.simple', openWhy);
+  const incomeSimple = open ? toValues(openOf(h), n) : all('income.simple', openWhy);
   const incomeI = open ? ratio(incomeSimple, h, 'income.typeI', 'labour income per unit of output (h_j)', notes) : all('income.typeI', openWhy);
-  const incomeTotal = closed ? toValues(closedRow(h), n) : all('income.total', closedWhy);
+  const incomeTotal = closed ? toValues(closedOf(h), n) : all('income.total', closedWhy);
   const incomeII = closed ? ratio(incomeTotal, h, 'income.typeII', 'labour income per unit of output (h_j)', notes) : all('income.typeII', closedWhy);
 
   /** Simple, Type I, total and Type II of a per-unit-output row (jobs, FTE). */
   const headcount = (group: string, c: Float64Array, what: string) => {
-    const simple = open ? toValues(openRow(c), n) : all(`${group}.simple`, openWhy);
+    const simple = open ? toValues(openOf(c), n) : all(`${group}.simple`, openWhy);
     const typeI = open ? ratio(simple, c, `${group}.typeI`, what, notes) : all(`${group}.typeI`, openWhy);
-    const total = closed ? toValues(closedRow(c), n) : all(`${group}.total`, closedWhy);
+    const total = closed ? toValues(closedOf(c), n) : all(`${group}.total`, closedWhy);
     const typeII = closed ? ratio(total, c, `${group}.typeII`, what, notes) : all(`${group}.typeII`, closedWhy);
     return { simple, typeI, total, typeII };
   };
@@ -145,12 +143,12 @@ export function computeMultipliers(pm: PreparedModel, avail: Availability): Mult
   }
   const fteOut = fte ? headcount('fte', fte, 'full-time equivalents per unit of output') : null;
   const taxesOut = taxes ? {
-    simple: open ? toValues(openRow(taxes), n) : all('taxes.simple', openWhy),
-    total: closed ? toValues(closedRow(taxes), n) : all('taxes.total', closedWhy),
+    simple: open ? toValues(openOf(taxes), n) : all('taxes.simple', openWhy),
+    total: closed ? toValues(closedOf(taxes), n) : all('taxes.total', closedWhy),
   } : null;
 
-  const vaSimple = open ? toValues(openRow(va), n) : all('valueAdded.simple', openWhy);
-  const vaTotal = closed ? toValues(closedRow(va), n) : all('valueAdded.total', closedWhy);
+  const vaSimple = open ? toValues(openOf(va), n) : all('valueAdded.simple', openWhy);
+  const vaTotal = closed ? toValues(closedOf(va), n) : all('valueAdded.total', closedWhy);
 
   return {
     output: { typeI: outputI, typeII: outputII },
