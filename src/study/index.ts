@@ -35,7 +35,7 @@ export {
   spreadMix, mixShares, mixesOfTable, tableMixName, parseShockCsv, parseMixCsv, writeMixCsv, parseActivityCsv, writeActivityCsv, checkActivity,
   parseMarginsCsv, writeMarginsCsv, parsePriceIndexCsv, writePriceIndexCsv, parseCommutingCsv, yearOfMoneyUnit, checkDiscountRate,
   VARIABLES, MONEY_VARIABLES, LINE_KINDS, SECTOR_KINDS, TIMINGS, MARGIN_KINDS, DEFAULT_PHASE_NAME, SHOCK_HEADER, MIX_HEADER, ACTIVITY_HEADER,
-  MARGINS_HEADER, PRICE_INDEX_HEADER,
+  MARGINS_HEADER, PRICE_INDEX_HEADER, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME,
   type Scenario, type Phase, type Timing, type ScenarioLine, type SpendingMix, type Activity, type Margins, type MarginKind, type PriceIndex,
   type Commuting, type LineKind, type PriceBasis, type Variable, type EffectSplit, type EffectTotals, type OutsideRow, type OverTime,
   type ScenarioMultiplier, type ScenarioResult, type PathAnalysis, type RoundsResult, type ExpandedLine, type TotalsRecord,
