@@ -6,7 +6,7 @@
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
   type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
@@ -273,6 +273,17 @@ function sourceOf(study: Study): TableSource | null {
   };
 }
 
+/**
+ * The bundled two-phase example (building the plant once, operating it yearly) as a scenario of the screen, or null
+ * when the table in use lacks a sector it names (it is written for the sample county). Lines lose their file line.
+ */
+function exampleScenario(_: Record<string, never>): ScenarioDraft | null {
+  const s = parseShockCsv(SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME);
+  const sectors = new Set(current().study.table.sectors);
+  if (s.phases.some((p) => p.lines.some((l) => !sectors.has(l.sector)))) return null;
+  return { ...s, name: 'Food plant, built then operated', phases: s.phases.map((p) => ({ ...p, lines: p.lines.map(({ origin: _origin, ...l }) => l) })) };
+}
+
 function spread(args: { mix: SpendingMix; amount: number; localShare: number }): ScenarioLine[] {
   return spreadMix(args.mix, args.amount, { localShare: args.localShare });
 }
@@ -286,6 +297,7 @@ export const api = {
   loadTable,
   runScenario,
   spread,
+  exampleScenario,
   setStudyInput,
   setStudyContent,
   mixFile,

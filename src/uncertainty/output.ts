@@ -86,7 +86,7 @@ function headJson(r: UncertaintyResult): Record<string, unknown> {
   const s = r.settings;
   return {
     draws: r.draws, seed: s.seed, cv: s.cv, ...(s.cvFile ? { cvFile: s.cvFile } : {}), localShareRange: s.localShareRange,
-    ...(s.deltaRange ? { deltaRange: s.deltaRange } : {}),
+    ...(s.deltaRange ? { deltaRange: s.deltaRange } : {}), ...(r.deltaDrawn ? { deltaDrawn: r.deltaDrawn } : {}),
     accepted: r.accepted, rejected: r.rejected, rejectedWhy: { ...r.rejectedWhy },
   };
 }
@@ -116,7 +116,7 @@ export function scenarioBandsJson(r: UncertaintyResult, s: ScenarioBands): Recor
 
 export function sensitivityJson(s: SensitivityResult): Record<string, unknown> {
   return {
-    step: s.step, point: s.point,
+    step: s.step, ...(s.marginStep !== null ? { marginStep: s.marginStep } : {}), point: s.point,
     items: s.items.map((it) => ({ kind: it.kind, assumption: it.assumption, base: it.base, low: { ...it.low }, high: { ...it.high }, swing: it.swing })),
     notes: s.notes,
   };
