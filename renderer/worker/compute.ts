@@ -142,6 +142,7 @@ function starter(study: Study): ScenarioDraft {
 
 function loadTable(src: TableSource): ReturnType<typeof load> {
   const study = studyFromTableFile(utf8Bytes(src.text), src.fileName, importSettings(src));
+  if (src.derivedFrom?.length) study.source = { ...study.source!, derivedFrom: src.derivedFrom.map((o) => ({ ...o })) };
   return load(state ? withTable(state.study, study) : study);
 }
 
@@ -268,6 +269,7 @@ function sourceOf(study: Study): TableSource | null {
     ...(imp.name ? { name: imp.name } : {}),
     ...(imp.delimiter ? { delimiter: imp.delimiter } : {}),
     ...(imp.decimalMark ? { decimalMark: imp.decimalMark } : {}),
+    ...(src.derivedFrom?.length ? { derivedFrom: src.derivedFrom.map((o) => ({ ...o })) } : {}),
   };
 }
 

@@ -64,6 +64,10 @@ export {
   type Assumption, type TableBy, type NegativesRemedy, type SutRoleMap, type NegativesReport, type ProductBalance, type SutRoles, type SutLabelRole, type SupplyColumnRole,
 } from '../sut/index.ts';
 
+// Where a table came from: its file and SHA-256, and the supply and use pair it was derived from.
+export { sourceContext, sourceOriginsOf } from './source.ts';
+export { originLines, type SourceOrigin } from '../report/index.ts';
+export type { ProjectSourceOrigin } from '../project/index.ts';
 // Classification bridges: employment, shock and spending-mix files that name codes instead of sectors.
 export { readBridge, bridgeSummary, employmentByBridge, scenarioByBridge, spendingMixByBridge, shockFromFile, mixesFromFile, type Bridge, type BridgeSummary } from './bridges.ts';
 export { BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, EMPLOYMENT_BY_CODE_SAMPLE_CSV, EMPLOYMENT_BY_CODE_SAMPLE_FILE_NAME } from '../classification/index.ts';

@@ -12,6 +12,7 @@ import { residentShares, type LineSet, type Scenario } from '../scenario/index.t
 import type { PreparedStudy } from './prepare.ts';
 import { readyLines, shockInputsOf } from './scenarios.ts';
 import { scenarioSlug } from './reports.ts';
+import { sourceContext } from './source.ts';
 import type { FlqOrigin } from './estimate.ts';
 
 export interface BandsRequest {
@@ -115,11 +116,7 @@ export function studySensitivity(ps: PreparedStudy, scenario: Scenario, step?: n
 }
 
 function bandContext(ps: PreparedStudy, date: string, modelType: string): BandReportContext {
-  const src = ps.study.source;
-  return {
-    tableName: ps.study.table.name, date, moneyUnit: ps.study.table.moneyUnit, modelType,
-    ...(src ? { sourceFile: src.fileName, sourceHash: src.sha256 } : {}),
-  };
+  return { tableName: ps.study.table.name, date, moneyUnit: ps.study.table.moneyUnit, modelType, ...sourceContext(ps.study) };
 }
 
 const MODEL_OF = (ps: PreparedStudy) => (ps.models.closed === true
