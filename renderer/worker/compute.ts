@@ -6,7 +6,7 @@
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
   type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
@@ -142,6 +142,7 @@ function starter(study: Study): ScenarioDraft {
 
 function loadTable(src: TableSource): ReturnType<typeof load> {
   const study = studyFromTableFile(utf8Bytes(src.text), src.fileName, importSettings(src));
+  if (src.derivedFrom?.length) study.source = { ...study.source!, derivedFrom: src.derivedFrom.map((o) => ({ ...o })) };
   return load(state ? withTable(state.study, study) : study);
 }
 
@@ -268,7 +269,19 @@ function sourceOf(study: Study): TableSource | null {
     ...(imp.name ? { name: imp.name } : {}),
     ...(imp.delimiter ? { delimiter: imp.delimiter } : {}),
     ...(imp.decimalMark ? { decimalMark: imp.decimalMark } : {}),
+    ...(src.derivedFrom?.length ? { derivedFrom: src.derivedFrom.map((o) => ({ ...o })) } : {}),
   };
+}
+
+/**
+ * The bundled two-phase example (building the plant once, operating it yearly) as a scenario of the screen, or null
+ * when the table in use lacks a sector it names (it is written for the sample county). Lines lose their file line.
+ */
+function exampleScenario(_: Record<string, never>): ScenarioDraft | null {
+  const s = parseShockCsv(SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME);
+  const sectors = new Set(current().study.table.sectors);
+  if (s.phases.some((p) => p.lines.some((l) => !sectors.has(l.sector)))) return null;
+  return { ...s, name: 'Food plant, built then operated', phases: s.phases.map((p) => ({ ...p, lines: p.lines.map(({ origin: _origin, ...l }) => l) })) };
 }
 
 function spread(args: { mix: SpendingMix; amount: number; localShare: number }): ScenarioLine[] {
@@ -284,6 +297,7 @@ export const api = {
   loadTable,
   runScenario,
   spread,
+  exampleScenario,
   setStudyInput,
   setStudyContent,
   mixFile,

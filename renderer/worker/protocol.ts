@@ -5,7 +5,7 @@
  */
 import type { api } from './compute.ts';
 import type {
-  Activity, Closure, Commuting, DecimalMark, Delimiter, LinkageClass, Margins, MeasureKey, PriceIndex, RoleMap, Scenario, SpendingMix, Timing, Variable,
+  Activity, Closure, Commuting, DecimalMark, Delimiter, LinkageClass, Margins, MeasureKey, PriceIndex, ProjectSourceOrigin, RoleMap, Scenario, SpendingMix, Timing, Variable,
 } from '../../src/study/index.ts';
 
 export type EngineApi = typeof api;
@@ -24,6 +24,8 @@ export interface TableSource {
   /** Field delimiter and decimal mark chosen on the Import screen; detected when absent. */
   delimiter?: Delimiter;
   decimalMark?: DecimalMark;
+  /** The supply and use pair the table was derived from, each file with its SHA-256 (kept in the study's source). */
+  derivedFrom?: ProjectSourceOrigin[];
 }
 
 /** The screen's choices that the study keeps in its settings. */
