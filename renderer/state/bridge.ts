@@ -44,18 +44,28 @@ export async function checkBridge(): Promise<void> {
   }
 }
 
+/**
+ * A shock file (the CLI's --shock columns) as a new scenario, undoable as any edit; its sector column read through
+ * the bridge `via` when given (codes), as sector labels otherwise. Says in words what it became; refusals are thrown.
+ */
+export async function addShockFileScenario(file: RegionalFile, via: RegionalFile | null): Promise<string> {
+  const s = await engine().call('readShockFile', { text: file.text, fileName: file.fileName, bridge: via }, 'Reading the shock file…');
+  const lines = s.phases.reduce((a, p) => a + p.lines.length, 0);
+  const names = new Set(app.scenarios.map((x) => x.name));
+  for (let k = 2, base = s.name; names.has(s.name); k++) s.name = `${base} (${k})`;
+  editScenarios((list) => { list.push(s); }, app.scenarios.length);
+  app.phase = 0;
+  say(`Added scenario ${s.name}`);
+  return `${file.fileName} → scenario “${s.name}”: ${lines} line${lines === 1 ? '' : 's'} by sector in ${s.phases.length} phase${s.phases.length === 1 ? '' : 's'}`;
+}
+
 /** A shock file whose sector column holds codes: translated through the bridge, added as a new scenario. */
 export async function readShockByCodes(file: RegionalFile): Promise<boolean> {
   if (!bridge.file) return false;
   bridge.error = null;
   bridge.done = null;
   try {
-    const s = await engine().call('readShockFile', { text: file.text, fileName: file.fileName, bridge: bridge.file }, 'Reading the shock file…');
-    const lines = s.phases.reduce((a, p) => a + p.lines.length, 0);
-    editScenarios((list) => { list.push(s); }, app.scenarios.length);
-    app.phase = 0;
-    bridge.done = `${file.fileName} → scenario “${s.name}”: ${lines} line${lines === 1 ? '' : 's'} by sector in ${s.phases.length} phase${s.phases.length === 1 ? '' : 's'}`;
-    say(`Added scenario ${s.name}`);
+    bridge.done = await addShockFileScenario(file, bridge.file);
     return true;
   } catch (e) {
     if (!(e instanceof CancelledError)) bridge.error = messageOf(e);

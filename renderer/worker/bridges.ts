@@ -3,7 +3,7 @@
  * outside classification, read through a bridge file `code,sector[,share]` by the study layer (src/study bridges.ts,
  * the same functions as the CLI's --bridge). Stateless apart from the table in use, whose sectors the bridge must name.
  */
-import { bridgeSummary, readBridge, shockFromFile, utf8Bytes, type Bridge, type BridgeSummary, type PreparedStudy } from '../../src/study/index.ts';
+import { bridgeSummary, readBridge, runStudyScenario, shockFromFile, utf8Bytes, type Bridge, type BridgeSummary, type PreparedStudy } from '../../src/study/index.ts';
 import type { RegionalFile } from './regional.ts';
 import type { ScenarioDraft } from './protocol.ts';
 
@@ -20,12 +20,15 @@ export function bridgeApi(current: () => PreparedStudy) {
       return bridgeSummary(bridgeOf(args.bridge, sectors), sectors);
     },
     /**
-     * A shock file as a new scenario, its sector column read as codes through the bridge when one is given. The lines
-     * lose their file line: they are the screen's lines from now on, numbered as shown.
+     * A shock file as a new scenario, its sector column read as codes through the bridge when one is given. Run once
+     * on the study as the CLI runs it, so a line the study refuses (a sector, mix or activity it lacks…) is refused
+     * with the file's line, as `scenario --shock` does. The lines then lose their file line: they are the screen's
+     * lines from now on, numbered as shown.
      */
     readShockFile(args: { text: string; fileName: string; bridge: RegionalFile | null }): ScenarioDraft {
-      const sectors = current().study.table.sectors;
-      const s = shockFromFile(args.text, args.fileName, args.bridge ? bridgeOf(args.bridge, sectors) : null);
+      const ps = current();
+      const s = shockFromFile(args.text, args.fileName, args.bridge ? bridgeOf(args.bridge, ps.study.table.sectors) : null);
+      runStudyScenario(ps, s);
       return { ...s, phases: s.phases.map((p) => ({ ...p, lines: p.lines.map(({ origin: _origin, ...l }) => l) })) };
     },
   };

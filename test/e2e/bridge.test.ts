@@ -2,11 +2,12 @@
  * The Scenarios screen's classification bridge in real Chromium on the sample county: the bundled (invented) bridge is
  * read and what it covers is shown; a shock file by codes becomes a new scenario whose total is the study layer's,
  * called here on the same files (the CLI's --bridge path); a bridge whose shares do not sum to 1 and a shock file with
- * a code the bridge lacks are refused on screen with the located message. Screenshots: test-output/screenshots/bridge-*.png.
+ * a code the bridge lacks are refused on screen with the located message. A shock file by sector labels is read the
+ * same way without a bridge ("Read a shock file…"). Screenshots: test-output/screenshots/bridge-*.png.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { goTo, openApp, shot, skipBrowser, type Session } from './harness.ts';
+import { goTo, money, openApp, shot, skipBrowser, type Session } from './harness.ts';
 import {
   BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, prepareStudy, readBridge, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, shockFromFile, studyFromTableFile, utf8Bytes,
 } from '../../src/study/index.ts';
@@ -57,6 +58,19 @@ describe.skipIf(skipBrowser)('classification bridge on the Scenarios screen', ()
     expect(await page.locator('body').innerText()).not.toMatch(/\bNaN\b|Infinity/);
     await page.getByTestId('code-bridge-panel').scrollIntoViewIfNeeded();
     await shot(page, 'bridge-refused');
+  });
+
+  it('reads a shock file by sector labels, without a bridge, as a new scenario with the study layer\'s numbers; refuses a sector the table lacks', async () => {
+    const plain = 'sector,amount,kind,local_share\nConstruction,12000,final-demand,0.8\nReal estate,200,final-demand,1\n';
+    await page.getByTestId('shock-file').setInputFiles(csv('plant-by-sector.csv', plain));
+    await poll(() => page.getByTestId('shock-file-done').textContent()).toMatch(/plant-by-sector\.csv → scenario “plant-by-sector”: 2 lines by sector in 1 phase/);
+    const ps = prepareStudy(studyFromTableFile(utf8Bytes(SAMPLE_CSV), SAMPLE_FILE_NAME, {}), { spectrum: false });
+    const want = runStudyScenario(ps, shockFromFile(plain, 'plant-by-sector.csv', null)).phases[0]!.result.totals.output.total;
+    await poll(() => page.getByTestId('total-effect').textContent()).toBe(money(want));
+    await page.getByTestId('shock-file').setInputFiles(csv('typo.csv', plain.replace('Real estate', 'Real estat')));
+    await poll(() => page.getByTestId('shock-file-error').textContent()).toMatch(/^typo\.csv:3:1 \(row 'Real estat'.*unknown sector 'Real estat'/);
+    expect(await page.locator('body').innerText()).not.toMatch(/\bNaN\b|Infinity/);
+    await shot(page, 'scenario-shock-file-read');
     expect(s.errors).toEqual([]);
   });
 });
