@@ -61,7 +61,7 @@ export function baseEconomy(ps: PreparedStudy): BaseEconomy {
 
 /** The phases of an outcome, each with its timing in words (one-time, or annual with its years). */
 export function phasesOf(o: ScenarioOutcome): BriefPhase[] {
-  return o.phases.map((p) => ({ name: p.phase.name, timing: timingText(p.phase), result: { ...p.result, notes: p.notes }, lines: p.phase.lines.filter(lineReady) }));
+  return o.phases.map((p) => ({ name: p.phase.name, timing: timingText(p.phase), result: { ...p.result, notes: p.notes }, lines: p.phase.lines.filter(lineReady), overTime: p.overTime }));
 }
 
 /** Every phase's notes, each once, in phase order. */
@@ -108,6 +108,7 @@ export function briefInputOf(ps: PreparedStudy, o: ScenarioOutcome, date: string
     model: modelTypeOf(o.phases[0]!.result),
     base: baseEconomy(ps),
     phases: phasesOf(o),
+    sameTiming: o.byTiming.map((t) => ({ timing: t.timing, phases: t.phases, totals: t.gross, cumulative: t.grossCumulative })),
     modelChoices: modelChoices(o),
     notes: [...notesOf(o), ...(sure.bands ? bandSentences(sure.bands, o.scenario.name) : [])],
     cautions: [...CAUTIONS, ...SCENARIO_CAUTIONS],
