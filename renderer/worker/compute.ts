@@ -10,7 +10,7 @@ import {
   type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
-import { analysisView, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
+import { analysisView, gridMargins, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
 import { regionalApi } from './regional.ts';
 import { howSureMemory, uncertaintyApi } from './uncertainty.ts';
 import { supplyUseApi } from './supply-use.ts';
@@ -130,7 +130,8 @@ function paths(args: { scenario: ScenarioDraft; phase?: number; choices: StudyCh
 }
 
 function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
-  const { pm, study, models } = current();
+  const ps = current();
+  const { pm, study, models } = ps;
   let values: Float64Array;
   if (args.which === 'Z') values = Float64Array.from(study.table.Z);
   else if (args.which === 'A') values = Float64Array.from(pm.coef.A);
@@ -141,7 +142,7 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
   }
   let max = 0;
   for (let k = 0; k < values.length; k++) if (values[k]! > max) max = values[k]!;
-  return { which: args.which, n: pm.coef.n, sectors: pm.coef.sectors, values, max };
+  return { which: args.which, n: pm.coef.n, sectors: pm.coef.sectors, values, max, ...gridMargins(ps, args.which, values) };
 }
 
 function reports(args: { scenarios: ScenarioDraft[]; choices: StudyChoices }): { kind: ReportKind; label: string; what: string; scope: string; unavailable: string | null }[] {

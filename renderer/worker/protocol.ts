@@ -246,6 +246,19 @@ export interface GridView {
   /** Row-major n×n values. */
   values: Float64Array;
   max: number;
+  /** Rows under the n×n block (value added, imports, totals, jobs, column sums): n values each, one per column. */
+  below: GridMargin[];
+  /** Columns right of the block (final demand, totals): n values each, one per row. */
+  right: GridMargin[];
+}
+
+/** One row or column around a matrix: its label, its n values (NaN where there is none) and how to show them. */
+export interface GridMargin {
+  label: string;
+  values: Float64Array;
+  style: 'money' | 'ratio' | 'jobs';
+  /** What it is, for the header's tooltip. */
+  note: string;
 }
 
 /** Settings of the "How sure?" panel (the engine checks them: src/uncertainty/settings.ts). */

@@ -295,3 +295,51 @@ describe('what the Multipliers screen says about missing values', () => {
     for (const n of a.notes) expect(n).not.toMatch(ENGINE_KEY);
   });
 });
+
+describe('grid margins around the matrix (Table screen)', () => {
+  const table = importTable(SAMPLE_CSV, { fileName: SAMPLE_FILE_NAME });
+  const ref = analyzeTable(table);
+  const row = (g: { below: { label: string; values: Float64Array }[] }, label: string) => Array.from(g.below.find((m) => m.label === label)!.values);
+
+  it('Leontief inverse: the column sums are the engine\'s Type I output multipliers (column sums of L, Miller & Blair 2009, ch. 6)', () => {
+    api.loadSample({});
+    const g = api.grid({ which: 'L' });
+    const sums = row(g, 'Column sum (Type I output multiplier)');
+    expect(sums).toHaveLength(ref.n);
+    sums.forEach((v, j) => expect(v).toBeCloseTo(ref.multipliers.output.typeI[j]!, 12));
+  });
+
+  it('flows: final demand and total output to the right, value added, imports, total output and jobs below, as the table has them', () => {
+    api.loadSample({});
+    const g = api.grid({ which: 'Z' });
+    expect(Array.from(g.right.at(-1)!.values)).toEqual(Array.from(table.x));
+    expect(g.right.map((m) => m.label)).toEqual([...table.householdConsumption, ...table.otherFinalDemand].map((v) => v.label).concat(['Total final demand', 'Total output']));
+    expect(row(g, 'Total output')).toEqual(Array.from(table.x));
+    expect(row(g, 'Jobs')).toEqual(Array.from(table.employment!));
+    for (const v of [...table.labourIncome, ...table.otherValueAdded, ...(table.taxes ?? []), ...table.imports]) expect(row(g, v.label)).toEqual(Array.from(v.values));
+    // Accounting identity of a balanced table: a column's intermediate inputs, value added and imports add up to its output.
+    const inputs = row(g, 'Intermediate inputs');
+    const va = [...table.labourIncome, ...table.otherValueAdded, ...(table.taxes ?? []), ...table.imports];
+    inputs.forEach((z, j) => expect(z + va.reduce((s, v) => s + v.values[j]!, 0)).toBeCloseTo(table.x[j]!, 6));
+    // Rows: each sector's sales to sectors and to final demand add up to its output.
+    const fdTotal = Array.from(g.right.find((m) => m.label === 'Total final demand')!.values);
+    for (let i = 0; i < table.n; i++) {
+      let s = fdTotal[i]!;
+      for (let j = 0; j < table.n; j++) s += table.Z[i * table.n + j]!;
+      expect(s).toBeCloseTo(table.x[i]!, 6);
+    }
+  });
+
+  it('coefficients: column sums and the engine\'s value-added and jobs coefficients per unit of output', () => {
+    api.loadSample({});
+    const g = api.grid({ which: 'A' });
+    const a = ref.coefficients;
+    row(g, 'Column sum (intermediate inputs)').forEach((s, j) => {
+      let t = 0;
+      for (let i = 0; i < ref.n; i++) t += a.A[i * ref.n + j]!;
+      expect(s).toBeCloseTo(t, 14);
+    });
+    expect(row(g, `Jobs per ${table.moneyUnit} of output`)).toEqual(Array.from(a.employment!));
+    row(g, table.labourIncome[0]!.label).forEach((h, j) => expect(h).toBeCloseTo(table.labourIncome[0]!.values[j]! / table.x[j]!, 14));
+  });
+});
