@@ -64,6 +64,8 @@ export interface TableInfo {
   mixes: { name: string; shares: { sector: string; share: number }[] }[];
   /** Activities not in the table that the study describes (their names, for activity lines). */
   activities: string[];
+  /** The sectors each activity buys from, by activity name (a new table may lack some). */
+  activitySectors: Record<string, string[]>;
   hasTaxes: boolean;
   hasFte: boolean;
   /** Roles as imported (for the project file and the role editor). */

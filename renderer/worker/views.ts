@@ -34,6 +34,7 @@ export function tableInfo(study: Study, fileName: string): TableInfo {
     totalOutput: total,
     mixes: shockInputsOf(study).mixes.map((m) => ({ name: m.name, shares: m.shares.map((x) => ({ sector: x.sector, share: x.share })) })),
     activities: study.activities.map((a) => a.name),
+    activitySectors: Object.fromEntries(study.activities.map((a) => [a.name, a.purchases.map((p) => p.sector)])),
     hasTaxes: (t.taxes?.length ?? 0) > 0,
     hasFte: t.fte != null,
     roles: { rows: { ...t.roles.rows }, columns: { ...t.roles.columns } },
