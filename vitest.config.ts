@@ -9,7 +9,7 @@ const root = fileURLToPath(new URL('.', import.meta.url));
  *   engine once instead of once per file is most of the saving. Safe because these tests leave no module state behind
  *   (kernel mode and helper threads are restored in afterAll; nothing is mocked).
  * - shell: test/main and test/renderer, isolated per file: they mock `electron`, fake timers and browser globals.
- * - e2e: real Chromium against Vite's dev server, both started once in test/e2e/global-setup.ts and shared by the files.
+ * - e2e: real Chromium against the built renderer (Vite build + preview server), both started once in test/e2e/global-setup.ts and shared by the files.
  */
 export default defineConfig({
   test: {
@@ -44,7 +44,7 @@ export default defineConfig({
           environment: 'node',
           testTimeout: 180_000,
           hookTimeout: 180_000,
-          fileParallelism: false,
+          fileParallelism: true,
         },
       },
     ],

@@ -7,8 +7,9 @@
 import { reactive } from 'vue';
 import {
   DEFAULT_ASSUMPTION, SUT_DEFAULT_TOLERANCE, SUPPLY_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_CSV, USE_SAMPLE_FILE_NAME,
-  type Assumption, type NegativesRemedy, type TableBy,
+  type Assumption, type NegativesRemedy, type SupplyColumnRole, type SutRoleMap, type SutRoles, type TableBy,
 } from '../../src/study/index.ts';
+import type { ColumnRole, RowRole } from '../../src/table/index.ts';
 import { engine, CancelledError } from '../worker/client.ts';
 import type { RegionalFile } from '../worker/regional.ts';
 import type { SupplyUseView } from '../worker/supply-use.ts';
@@ -33,6 +34,15 @@ export const supplyUse = reactive({
   negatives: 'keep' as NegativesRemedy,
   /** Supply–use tolerance in percent, as typed (a string, so a half-typed value is refused without being lost). */
   tolerance: String(SUT_DEFAULT_TOLERANCE * 100),
+  /**
+   * Roles the planner set (the CLI's --map: supply columns and rows set aside, use-table rows and columns), from the
+   * screen's choices or a role map file; the rest are decided by the reader as without a map.
+   */
+  map: {} as SutRoleMap,
+  /** The role map file last read (its roles may since have been changed on screen). */
+  mapFileName: null as string | null,
+  /** Every label's role as the reader decides it with `map` (shown even while the pair is refused). */
+  roles: null as SutRoles | null,
   view: null as SupplyUseView | null,
   /** Located one-line refusal of the pair as it stands; the table in use is untouched. */
   error: null as string | null,
@@ -43,6 +53,43 @@ export function setPairFile(slot: PairSlot, file: RegionalFile | null): void {
   supplyUse[slot] = file ?? { ...BUNDLED_PAIR[slot] };
   if (slot === 'supply') supplyUse.supplyBundled = file === null;
   else supplyUse.useBundled = file === null;
+}
+
+export type RolePart = 'supply' | 'rows' | 'columns';
+type RoleOf<P extends RolePart> = P extends 'supply' ? SupplyColumnRole : P extends 'rows' ? RowRole : ColumnRole;
+
+/** Give a label a role (null: back to the reader's own decision); the preview follows. */
+export function setSutRole<P extends RolePart>(part: P, label: string, role: RoleOf<P> | null): void {
+  const entries = { ...(supplyUse.map[part] ?? {}) } as Record<string, RoleOf<P>>;
+  if (role === null) delete entries[label];
+  else entries[label] = role;
+  const next: SutRoleMap = { ...supplyUse.map };
+  if (Object.keys(entries).length) (next as Record<RolePart, unknown>)[part] = entries;
+  else delete next[part];
+  supplyUse.map = next;
+}
+
+/** Read a role map file (JSON, as the CLI's --map); a refusal is shown and the roles stay as they were. */
+export async function loadSutMap(file: RegionalFile): Promise<void> {
+  try {
+    supplyUse.map = await engine().call('readSutMap', file, 'Reading the role map…');
+    supplyUse.mapFileName = file.fileName;
+  } catch (e) {
+    if (e instanceof CancelledError) return;
+    supplyUse.view = null;
+    supplyUse.error = messageOf(e);
+  }
+}
+
+/** Back to the roles the reader decides by itself. */
+export function resetSutMap(): void {
+  supplyUse.map = {};
+  supplyUse.mapFileName = null;
+}
+
+/** The roles set on screen as a role map file (JSON) that `roundwise sut --map` and "Read a role map…" read back. */
+export async function exportSutMap(): Promise<void> {
+  await exportReportFiles([{ name: 'supply-use-roles.json', content: `${JSON.stringify(supplyUse.map, null, 2)}\n` }]);
 }
 
 /** Switch the kind of table; the assumption follows to that kind's default (the one without negatives). */
@@ -72,8 +119,16 @@ export async function derive(): Promise<void> {
   }
   supplyUse.busy = true;
   try {
+    // The roles first: when the pair is refused for a label without one, the planner sees it and can give it one.
+    try {
+      const roles = await engine().call('sutRoles', { supply: supplyUse.supply, use: supplyUse.use, map: supplyUse.map });
+      if (my === seq) supplyUse.roles = roles;
+    } catch (e) {
+      if (e instanceof CancelledError) return;
+      if (my === seq) supplyUse.roles = null; // a file that cannot be read at all: the derivation below says why
+    }
     const v = await engine().call('buildSymmetric', {
-      supply: supplyUse.supply, use: supplyUse.use, by: supplyUse.by, assumption: supplyUse.assumption, negatives: supplyUse.negatives, tolerance: tol.value,
+      supply: supplyUse.supply, use: supplyUse.use, by: supplyUse.by, assumption: supplyUse.assumption, negatives: supplyUse.negatives, tolerance: tol.value, map: supplyUse.map,
     }, 'Deriving the symmetric table…');
     if (my !== seq) return;
     supplyUse.view = v;

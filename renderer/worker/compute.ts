@@ -6,7 +6,7 @@
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, parseMixCsv, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
   type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
@@ -14,6 +14,8 @@ import { analysisView, gridMargins, pathsView, previewView, scenarioView, tableI
 import { regionalApi } from './regional.ts';
 import { howSureMemory, uncertaintyApi } from './uncertainty.ts';
 import { supplyUseApi } from './supply-use.ts';
+import { bridgeApi, bridgeOf } from './bridges.ts';
+import type { RegionalFile } from './regional.ts';
 
 export const SAMPLE_FILE = SAMPLE_FILE_NAME;
 
@@ -70,13 +72,14 @@ function studyInputsView(study: Study): StudyInputsView {
 /**
  * Read one of the study's input files (replacing the one before; spending mixes and activities of the same name are
  * replaced, others kept), or remove it (`text` null). Checked against the table like a save would (located refusals).
+ * A mix file may name codes of an outside classification, read through `bridge` (`code,sector[,share]`).
  */
-function setStudyInput(args: { kind: StudyInputKind; text: string | null; fileName: string }): { table: TableInfo; inputs: StudyInputsView } {
+function setStudyInput(args: { kind: StudyInputKind; text: string | null; fileName: string; bridge?: RegionalFile | null }): { table: TableInfo; inputs: StudyInputsView } {
   const ps = current();
   const study: Study = { ...ps.study };
   const { kind, text, fileName } = args;
   const keep = <T extends { name: string }>(old: T[], add: T[]) => [...old.filter((x) => !add.some((y) => y.name === x.name)), ...add];
-  if (kind === 'mix') study.mixes = text === null ? [] : keep(study.mixes, parseMixCsv(text, fileName));
+  if (kind === 'mix') study.mixes = text === null ? [] : keep(study.mixes, mixesFromFile(text, fileName, args.bridge ? bridgeOf(args.bridge, study.table.sectors) : null));
   else if (kind === 'activity') study.activities = text === null ? [] : keep(study.activities, parseActivityCsv(text, fileName));
   else if (kind === 'margins') study.margins = text === null ? null : parseMarginsCsv(text, fileName);
   else if (kind === 'price-index') study.prices = { ...study.prices, index: text === null ? null : parsePriceIndexCsv(text, fileName) };
@@ -259,4 +262,5 @@ export const api = {
   ...regionalApi,
   ...uncertaintyApi(studyAt, howSure),
   ...supplyUseApi,
+  ...bridgeApi(current),
 };

@@ -4,7 +4,9 @@
  * table), shaped into plain views, plus the table as CSV text. Stateless: "Use this table" loads that CSV like any
  * imported file, and "Use as the larger table" hands it to the county estimate as its national table.
  */
-import { formatLocated, symmetricFromSupplyUse, utf8Bytes, type Assumption, type NegativesRemedy, type TableBy } from '../../src/study/index.ts';
+import {
+  formatLocated, parseSutRoleMap, supplyUseRolesOf, symmetricFromSupplyUse, utf8Bytes, type Assumption, type NegativesRemedy, type SutRoleMap, type SutRoles, type TableBy,
+} from '../../src/study/index.ts';
 import type { RegionalFile } from './regional.ts';
 
 export interface SupplyUseRequest {
@@ -15,6 +17,8 @@ export interface SupplyUseRequest {
   negatives: NegativesRemedy;
   /** Relative tolerance of supply against use by product (default SUT_DEFAULT_TOLERANCE). */
   tolerance?: number;
+  /** Roles the planner set (the CLI's --map): supply columns, use-table rows and columns. */
+  map?: SutRoleMap;
 }
 
 export interface SupplyUseSectorRow {
@@ -61,6 +65,7 @@ export function buildSymmetric(req: SupplyUseRequest): SupplyUseView {
   const r = symmetricFromSupplyUse({
     supply: asFile(req.supply), use: asFile(req.use), by: req.by, assumption: req.assumption, negatives: req.negatives,
     ...(req.tolerance !== undefined ? { tolerance: req.tolerance } : {}),
+    ...(req.map ? { map: req.map } : {}),
   });
   const t = r.table;
   const n = t.n;
@@ -112,4 +117,14 @@ export function buildSymmetric(req: SupplyUseRequest): SupplyUseView {
   };
 }
 
-export const supplyUseApi = { buildSymmetric };
+/** The roles of the pair's labels with the planner's role map: shown and changeable even while the pair is refused. */
+export function sutRoles(req: { supply: RegionalFile; use: RegionalFile; map?: SutRoleMap }): SutRoles {
+  return supplyUseRolesOf({ supply: asFile(req.supply), use: asFile(req.use), ...(req.map ? { map: req.map } : {}) });
+}
+
+/** A role map file (JSON, the CLI's --map), read and checked (a refusal names the line and column of the key). */
+export function readSutMap(file: RegionalFile): SutRoleMap {
+  return parseSutRoleMap(file.text, file.fileName);
+}
+
+export const supplyUseApi = { buildSymmetric, sutRoles, readSutMap };

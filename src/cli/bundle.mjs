@@ -1,10 +1,11 @@
 // Bundles the batch CLI into dist/cli/ (run by `npm install` through the `prepare` script, or `npm run build:cli`).
 // Why: loading the TypeScript sources through tsx costs about 0.3 s at every start; the bundle starts in about 0.1 s,
 // which is most of a county-sized job. The launcher (roundwise.mjs) uses the bundle only while it is newer than
-// every source file, and falls back to tsx otherwise, so a stale or missing bundle is never run.
+// every source file it was built from (listed in dist/cli/sources.txt, so the launcher stats those files instead of
+// walking src/), and falls back to tsx otherwise, so a stale or missing bundle is never run.
 // Never fails an install: on any error it says so in one line and the launcher keeps using tsx.
-import { copyFileSync, mkdirSync, rmSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { copyFileSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
+import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const here = dirname(fileURLToPath(import.meta.url));
@@ -24,7 +25,7 @@ try {
   const { build } = await import('esbuild');
   rmSync(join(out, 'chunks'), { recursive: true, force: true });
   mkdirSync(out, { recursive: true });
-  await build({
+  const result = await build({
     entryPoints: [join(here, 'main.ts')],
     outdir: out,
     outExtension: { '.js': '.mjs' },
@@ -37,8 +38,17 @@ try {
     target: 'node20',
     logLevel: 'warning',
     plugins: [noWoff2],
+    metafile: true,
   });
   copyFileSync(join(here, 'parallel-worker.mjs'), join(out, 'parallel-worker.mjs'));
+  // The sources the bundle was built from, relative to src/ (esbuild's inputs are relative to the working folder).
+  // A new source file matters only once an existing one imports it, and that edit makes the importer newer.
+  const srcDir = join(here, '..');
+  const sources = Object.keys(result.metafile.inputs)
+    .map((input) => relative(srcDir, resolve(input)))
+    .filter((p) => !p.startsWith('..') && !p.includes(':'));
+  sources.push(relative(srcDir, join(here, 'parallel-worker.mjs')), relative(srcDir, join(here, 'roundwise.mjs')));
+  writeFileSync(join(out, 'sources.txt'), [...new Set(sources)].sort().join('\n') + '\n');
 } catch (e) {
   console.warn(`roundwise: CLI bundle not built (${e instanceof Error ? e.message.split('\n')[0] : e}); the CLI runs from source through tsx`);
 }

@@ -8,6 +8,7 @@ import { formatLocated, InputError, isInputError } from '../diagnostics/index.ts
 import type { CommandSpec } from './command.ts';
 import { usePlatformSha256 } from '../project/index.ts';
 import { CommandRun, nodeSha256 } from './context.ts';
+import { stopParallelKernels } from './parallel.ts';
 import { processIO, type CliIO } from './io.ts';
 import { writeOutputs } from './output.ts';
 import { commandHelp, mainHelp, parseCommandArgs, wantsHelp } from './parse.ts';
@@ -84,5 +85,7 @@ async function runCommand(spec: CommandSpec, argv: string[], io: CliIO): Promise
     return EXIT.internal;
   } finally {
     usePlatformSha256(null);
+    // Helper threads a command started early (startHelpersFor) and did not stop itself, e.g. after a refusal.
+    await stopParallelKernels();
   }
 }

@@ -252,6 +252,43 @@ export function luSolveTransposed(f: LU, c: Float64Array): Float64Array {
 }
 
 /**
+ * Solve Aᵀ·y = c for several right-hand sides at once: `luSolveTransposed` of each, bit for bit (every vector sees
+ * the same operations in the same order), but with one pass over the factors for all of them instead of one each.
+ * At 2,000 sectors the factors are 32 MB, read from memory at every pass; the k vectors stay in cache.
+ */
+export function luSolveTransposedMany(f: LU, cs: readonly Float64Array[]): Float64Array[] {
+  assertSolvable(f);
+  const { n, lu, piv } = f;
+  const zs = cs.map((c) => Float64Array.from(c.subarray(0, n)));
+  const k = zs.length;
+  for (let i = 0; i < n; i++) {
+    const row = i * n;
+    const d = lu[row + i]!;
+    for (let r = 0; r < k; r++) {
+      const z = zs[r]!;
+      const zi = z[i]! / d;
+      z[i] = zi;
+      if (zi === 0) continue;
+      for (let j = i + 1; j < n; j++) z[j] = z[j]! - lu[row + j]! * zi;
+    }
+  }
+  for (let i = n - 1; i > 0; i--) {
+    const row = i * n;
+    for (let r = 0; r < k; r++) {
+      const z = zs[r]!;
+      const zi = z[i]!;
+      if (zi === 0) continue;
+      for (let j = 0; j < i; j++) z[j] = z[j]! - lu[row + j]! * zi;
+    }
+  }
+  return zs.map((z) => {
+    const y = new Float64Array(n);
+    for (let i = 0; i < n; i++) y[piv[i]!] = z[i]!;
+    return y;
+  });
+}
+
+/**
  * X ← L⁻¹X for rows [r0, r1) (L the unit lower triangle of the n×n factors, X the rows r0..r1 of x with leading
  * dimension ldx, columns xc..xc+cols), recursively so the work is in large updates.
  */

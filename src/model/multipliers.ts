@@ -15,7 +15,7 @@
  * Every multiplier row vector is one transposed solve against the factorisation; no inverse is formed.
  * A value that cannot be defined is null, with the reason in `notes`, never NaN or Infinity.
  */
-import { solveClosedTransposed, solveOpen, solveOpenTransposed, type PreparedModel } from './prepared.ts';
+import { solveClosedTransposedFrom, solveOpen, solveOpenTransposedMany, type PreparedModel } from './prepared.ts';
 import { valueAddedPerUnit } from './coefficients.ts';
 
 export type Values = (number | null)[];
@@ -111,19 +111,26 @@ export function computeMultipliers(pm: PreparedModel, avail: Availability): Mult
   const openWhy = avail.open === true ? '' : avail.open;
   const closedWhy = avail.closed === true ? '' : avail.closed;
 
-  const outputI = open ? toValues(solveOpenTransposed(pm, ones), n) : all('output.typeI', openWhy);
-  const outputII = closed ? toValues(firstN(solveClosedTransposed(pm, extend(ones, n, 0)), n), n) : all('output.typeII', closedWhy);
+  // Every row vector's open solve c (I − A)⁻¹ in one pass over the factors; a closed (Type II) multiplier is that
+  // solve bordered (prepared.ts), so each vector is solved once for both.
+  const rows = [ones, h, va, ...(e ? [e] : []), ...(fte ? [fte] : []), ...(taxes ? [taxes] : [])];
+  const solved = open || closed ? solveOpenTransposedMany(pm, rows) : [];
+  const openOf = (c: Float64Array): Float64Array => solved[rows.indexOf(c)]!;
+  const closedOf = (c: Float64Array): Float64Array => firstN(solveClosedTransposedFrom(pm, extend(c, n, 0), openOf(c)), n);
 
-  const incomeSimple = open ? toValues(solveOpenTransposed(pm, h), n) : all('income.simple', openWhy);
+  const outputI = open ? toValues(openOf(ones), n) : all('output.typeI', openWhy);
+  const outputII = closed ? toValues(closedOf(ones), n) : all('output.typeII', closedWhy);
+
+  const incomeSimple = open ? toValues(openOf(h), n) : all('income.simple', openWhy);
   const incomeI = open ? ratio(incomeSimple, h, 'income.typeI', 'labour income per unit of output (h_j)', notes) : all('income.typeI', openWhy);
-  const incomeTotal = closed ? toValues(firstN(solveClosedTransposed(pm, extend(h, n, 0)), n), n) : all('income.total', closedWhy);
+  const incomeTotal = closed ? toValues(closedOf(h), n) : all('income.total', closedWhy);
   const incomeII = closed ? ratio(incomeTotal, h, 'income.typeII', 'labour income per unit of output (h_j)', notes) : all('income.typeII', closedWhy);
 
   /** Simple, Type I, total and Type II of a per-unit-output row (jobs, FTE). */
   const headcount = (group: string, c: Float64Array, what: string) => {
-    const simple = open ? toValues(solveOpenTransposed(pm, c), n) : all(`${group}.simple`, openWhy);
+    const simple = open ? toValues(openOf(c), n) : all(`${group}.simple`, openWhy);
     const typeI = open ? ratio(simple, c, `${group}.typeI`, what, notes) : all(`${group}.typeI`, openWhy);
-    const total = closed ? toValues(firstN(solveClosedTransposed(pm, extend(c, n, 0)), n), n) : all(`${group}.total`, closedWhy);
+    const total = closed ? toValues(closedOf(c), n) : all(`${group}.total`, closedWhy);
     const typeII = closed ? ratio(total, c, `${group}.typeII`, what, notes) : all(`${group}.typeII`, closedWhy);
     return { simple, typeI, total, typeII };
   };
@@ -136,12 +143,12 @@ export function computeMultipliers(pm: PreparedModel, avail: Availability): Mult
   }
   const fteOut = fte ? headcount('fte', fte, 'full-time equivalents per unit of output') : null;
   const taxesOut = taxes ? {
-    simple: open ? toValues(solveOpenTransposed(pm, taxes), n) : all('taxes.simple', openWhy),
-    total: closed ? toValues(firstN(solveClosedTransposed(pm, extend(taxes, n, 0)), n), n) : all('taxes.total', closedWhy),
+    simple: open ? toValues(openOf(taxes), n) : all('taxes.simple', openWhy),
+    total: closed ? toValues(closedOf(taxes), n) : all('taxes.total', closedWhy),
   } : null;
 
-  const vaSimple = open ? toValues(solveOpenTransposed(pm, va), n) : all('valueAdded.simple', openWhy);
-  const vaTotal = closed ? toValues(firstN(solveClosedTransposed(pm, extend(va, n, 0)), n), n) : all('valueAdded.total', closedWhy);
+  const vaSimple = open ? toValues(openOf(va), n) : all('valueAdded.simple', openWhy);
+  const vaTotal = closed ? toValues(closedOf(va), n) : all('valueAdded.total', closedWhy);
 
   return {
     output: { typeI: outputI, typeII: outputII },

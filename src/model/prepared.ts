@@ -17,7 +17,7 @@
 import type { IOTable } from '../table/index.ts';
 import { coefficients, type Coefficients } from './coefficients.ts';
 import { closeHouseholds, householdCorner, type ClosedCoefficients } from './closure.ts';
-import { identityMinusInto, luFactorFrom, luSolve, luSolveTransposed, type LU } from '../linalg/index.ts';
+import { identityMinusInto, luFactorFrom, luSolve, luSolveTransposed, luSolveTransposedMany, type LU } from '../linalg/index.ts';
 
 /** The bordering of I − Ā on the open factorisation (see the file comment). */
 export interface ClosedBorder {
@@ -113,12 +113,29 @@ export function solveClosed(pm: PreparedModel, fbar: Float64Array): Float64Array
   return out;
 }
 
+/** The same as solveOpenTransposed for each vector, bit for bit, in one pass over the factors (multipliers). */
+export function solveOpenTransposedMany(pm: PreparedModel, cs: readonly Float64Array[]): Float64Array[] {
+  return luSolveTransposedMany(pm.openLU, cs);
+}
+
 /** ȳ = c̄ (I − Ā)⁻¹ for a row vector c̄ of length n+1. Throws when not closed or singular. */
 export function solveClosedTransposed(pm: PreparedModel, cbar: Float64Array): Float64Array {
-  const { u, w, s } = solvableBorder(pm);
+  const b = solvableBorder(pm);
+  return closedTransposedFrom(pm, b, cbar, luSolveTransposed(pm.openLU, cbar.subarray(0, pm.coef.n)));
+}
+
+/**
+ * solveClosedTransposed(pm, c̄) when the open solve of its first n entries, c (I − A)⁻¹, is already at hand
+ * (`openSolution`, from solveOpenTransposed or solveOpenTransposedMany): the same numbers without a second solve.
+ */
+export function solveClosedTransposedFrom(pm: PreparedModel, cbar: Float64Array, openSolution: Float64Array): Float64Array {
+  return closedTransposedFrom(pm, solvableBorder(pm), cbar, openSolution);
+}
+
+function closedTransposedFrom(pm: PreparedModel, b: ClosedBorder, cbar: Float64Array, x0: Float64Array): Float64Array {
+  const { u, w, s } = b;
   const n = pm.coef.n;
   const c = cbar.subarray(0, n);
-  const x0 = luSolveTransposed(pm.openLU, c);
   const y = (cbar[n]! + dot(c, u, n)) / s;
   const out = new Float64Array(n + 1);
   for (let i = 0; i < n; i++) out[i] = x0[i]! + w[i]! * y;

@@ -7,7 +7,7 @@
 import { InputError } from '../diagnostics/index.ts';
 import { parseBridgeCsv, translateCode, type Bridge } from '../classification/index.ts';
 import type { EmploymentEntry, EmploymentInput } from '../regional/index.ts';
-import { SECTOR_KINDS, type Scenario, type ScenarioLine, type SpendingMix } from '../scenario/index.ts';
+import { parseMixCsv, parseShockCsv, SECTOR_KINDS, type Scenario, type ScenarioLine, type SpendingMix } from '../scenario/index.ts';
 import type { EstimateFile } from './estimate.ts';
 
 export type { Bridge };
@@ -17,6 +17,39 @@ const utf8 = new TextDecoder('utf-8');
 /** Read a bridge file for a table with these sectors. */
 export function readBridge(file: EstimateFile, sectors: readonly string[]): Bridge {
   return parseBridgeCsv(utf8.decode(file.bytes), file.fileName, sectors);
+}
+
+/** What a bridge covers, in words for a front end: codes, codes split by shares, sectors reached of the table's. */
+export interface BridgeSummary {
+  fileName: string;
+  codes: number;
+  splitCodes: number;
+  sectorsReached: number;
+  sectors: number;
+}
+
+export function bridgeSummary(bridge: Bridge, sectors: readonly string[]): BridgeSummary {
+  const reached = new Set<string>();
+  let split = 0;
+  for (const c of bridge.codes.values()) {
+    if (c.targets.length > 1) split++;
+    for (const t of c.targets) reached.add(t.sector);
+  }
+  return { fileName: bridge.fileName, codes: bridge.codes.size, splitCodes: split, sectorsReached: reached.size, sectors: sectors.length };
+}
+
+/**
+ * A shock file as a scenario, its sector column read as codes through the bridge when one is given (the one reading
+ * the CLI's --shock/--bridge and the app's "shock file by codes" share).
+ */
+export function shockFromFile(text: string, fileName: string, bridge: Bridge | null): Scenario {
+  const shock = parseShockCsv(text, fileName);
+  return bridge === null ? shock : scenarioByBridge(shock, bridge);
+}
+
+/** The spending mixes of a mix file, their sector column read as codes through the bridge when one is given. */
+export function mixesFromFile(text: string, fileName: string, bridge: Bridge | null): SpendingMix[] {
+  return parseMixCsv(text, fileName).map((m) => (bridge === null ? m : spendingMixByBridge(m, bridge, fileName)));
 }
 
 /**

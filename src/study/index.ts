@@ -55,17 +55,17 @@ export { PROJECT_FORMAT, MIGRATED_PHASE } from '../project/index.ts';
 
 // Supply and use tables → a symmetric table (the `sut` command and the "Start from supply and use tables" screen).
 export {
-  symmetricFromSupplyUse, studyFromSupplyUse, supplyUseTotals, assumptionOf, SYMMETRIC_TABLE_FILE,
+  symmetricFromSupplyUse, studyFromSupplyUse, supplyUseTotals, supplyUseRolesOf, assumptionOf, SYMMETRIC_TABLE_FILE,
   type SupplyUseRequest, type SymmetricFromSupplyUse,
 } from './supply-use.ts';
 export {
-  ASSUMPTIONS, ASSUMPTION_BY, ASSUMPTION_NAMES, DEFAULT_ASSUMPTION, TABLE_BY, NEGATIVES_REMEDIES, SUT_DEFAULT_TOLERANCE, parseSutRoleMap,
+  ASSUMPTIONS, ASSUMPTION_BY, ASSUMPTION_NAMES, DEFAULT_ASSUMPTION, TABLE_BY, NEGATIVES_REMEDIES, SUT_DEFAULT_TOLERANCE, SUPPLY_COLUMN_ROLES, parseSutRoleMap,
   SUPPLY_SAMPLE_CSV, USE_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_FILE_NAME, SUT_SAMPLE_NOTE,
-  type Assumption, type TableBy, type NegativesRemedy, type SutRoleMap, type NegativesReport, type ProductBalance,
+  type Assumption, type TableBy, type NegativesRemedy, type SutRoleMap, type NegativesReport, type ProductBalance, type SutRoles, type SutLabelRole, type SupplyColumnRole,
 } from '../sut/index.ts';
 
 // Classification bridges: employment, shock and spending-mix files that name codes instead of sectors.
-export { readBridge, employmentByBridge, scenarioByBridge, spendingMixByBridge, type Bridge } from './bridges.ts';
+export { readBridge, bridgeSummary, employmentByBridge, scenarioByBridge, spendingMixByBridge, shockFromFile, mixesFromFile, type Bridge, type BridgeSummary } from './bridges.ts';
 export { BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, EMPLOYMENT_BY_CODE_SAMPLE_CSV, EMPLOYMENT_BY_CODE_SAMPLE_FILE_NAME } from '../classification/index.ts';
 
 // How sure the numbers are (Monte Carlo bands, one-at-a-time sensitivity).

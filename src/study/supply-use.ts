@@ -9,8 +9,8 @@ import { InputError, type Warning } from '../diagnostics/index.ts';
 import { sha256Hex, utf8Bytes, type ImportSettings } from '../project/index.ts';
 import { aboutText, type Cell, type ReportFile, reportFiles } from '../report/index.ts';
 import {
-  ASSUMPTION_BY, DEFAULT_ASSUMPTION, deriveSymmetric, readSupplyUse,
-  type Assumption, type DerivedTable, type NegativesRemedy, type SupplyUse, type SutRoleMap, type TableBy,
+  ASSUMPTION_BY, DEFAULT_ASSUMPTION, deriveSymmetric, readSupplyUse, supplyUseRoles,
+  type Assumption, type SutRoles, type DerivedTable, type NegativesRemedy, type SupplyUse, type SutRoleMap, type TableBy,
 } from '../sut/index.ts';
 import { writeTableCsv, type DecimalMark, type Delimiter, type IOTable } from '../table/index.ts';
 import type { EstimateFile } from './estimate.ts';
@@ -129,6 +129,15 @@ export function symmetricFromSupplyUse(req: SupplyUseRequest, date = new Date().
     ...reportFiles('transformation', { ...meta, title: `Transformation of the supply and use tables: ${derived.method}`, notes: [...hashes, ...notes] }, transformationRows(derived)),
   ];
   return { pair, derived, table, csv, fileName: SYMMETRIC_TABLE_FILE, importSettings, notes, warnings, reports, judged };
+}
+
+/** The roles of the pair's labels with the request's role map (the app's role preview; shown even while the pair is refused). */
+export function supplyUseRolesOf(req: Pick<SupplyUseRequest, 'supply' | 'use' | 'map' | 'delimiter' | 'decimalMark'>): SutRoles {
+  return supplyUseRoles(
+    { text: utf8.decode(req.supply.bytes), fileName: req.supply.fileName },
+    { text: utf8.decode(req.use.bytes), fileName: req.use.fileName },
+    { ...(req.map ? { map: req.map } : {}), ...(req.delimiter ? { delimiter: req.delimiter } : {}), ...(req.decimalMark ? { decimalMark: req.decimalMark } : {}) },
+  );
 }
 
 /** A study that starts from a supply and use pair: its source is the derived table's CSV. */

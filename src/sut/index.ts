@@ -5,7 +5,7 @@
  * ordinary IOTable, so every analysis, scenario and county estimate takes it as it is.
  */
 export * from './types.ts';
-export { readSupplyUse, SUT_DEFAULT_TOLERANCE, type SutFile, type ReadSutOptions } from './read.ts';
+export { readSupplyUse, supplyUseRoles, SUT_DEFAULT_TOLERANCE, type SutFile, type ReadSutOptions, type SutLabelRole, type SutRoles } from './read.ts';
 export { parseSutRoleMap, suggestSupplyRole, namesTotal } from './roles.ts';
 export { transform, ASSUMPTION_NAMES, SUT_CONDITION_LIMIT, type SymmetricFlows } from './transform.ts';
 export { findNegatives, negativesNote, zeroAndBalance, type NegativesReport, type NegativeCell } from './negatives.ts';

@@ -73,36 +73,100 @@ function compare(use: Float64Array, supply: Float64Array): { gaps: number[]; wor
   return { gaps, worst: gaps.reduce((w, x) => Math.max(w, Math.abs(x)), 0) };
 }
 
+/** A label of the pair with the role it was given: by the role map (`mapped`), by its words or by matching; null: none. */
+export interface SutLabelRole<R extends string> {
+  label: string;
+  role: R | null;
+  mapped: boolean;
+  location: Location;
+}
+
+/**
+ * Which label of the pair is what — decided here once, for the reader and for the app's role preview:
+ * - `supplyColumns`: `industry` (a supply column that is also a use column, totals aside, not set otherwise by the
+ *   map), else the map's role or the role its words suggest; null when neither (refused by the reader);
+ * - `supplyRows`: `product`, or `ignore`/`total` (by the map, or a total by its words); null for a row the use table
+ *   lacks, or one the map gives a column role;
+ * - `useRows` and `useColumns`: the use table's rows that are not products and columns that are not industries, with
+ *   the map's role or the one a symmetric table's labels get (src/table roles.ts); `loose` says the words were not
+ *   recognised.
+ */
+export interface SutRoles {
+  supplyColumns: SutLabelRole<SupplyColumnRole | 'industry'>[];
+  supplyRows: SutLabelRole<'product' | 'ignore' | 'total'>[];
+  useRows: (SutLabelRole<RowRole> & { loose: boolean })[];
+  useColumns: (SutLabelRole<ColumnRole> & { loose: boolean })[];
+}
+
+function decideRoles(S: LabelledGrid, W: LabelledGrid, map: SutRoleMap | undefined): SutRoles & { useIndustryCol: (number | null)[]; useProductRow: (number | null)[] } {
+  const mapSupply = byKey(map?.supply);
+  const mapRows = byKey(map?.rows);
+  const mapCols = byKey(map?.columns);
+  const useCol = new Map(W.columns.map((c, k) => [matchKey(c.label), k]));
+  const useRow = new Map(W.rows.map((r, k) => [matchKey(r.label), k]));
+  const useIndustryCol: (number | null)[] = [];
+  const supplyColumns = S.columns.map((c): SutLabelRole<SupplyColumnRole | 'industry'> => {
+    const key = matchKey(c.label);
+    const mapped = mapSupply.get(key);
+    const inUse = useCol.get(key);
+    const industry = mapped === undefined && inUse !== undefined && !namesTotal(c.label);
+    useIndustryCol.push(industry ? inUse : null);
+    return { label: c.label, role: industry ? 'industry' : mapped ?? suggestSupplyRole(c.label), mapped: mapped !== undefined, location: c.location };
+  });
+  const useProductRow: (number | null)[] = [];
+  const supplyRows = S.rows.map((r): SutLabelRole<'product' | 'ignore' | 'total'> => {
+    const mapped = mapSupply.get(matchKey(r.label));
+    const inUse = useRow.get(matchKey(r.label));
+    const setAside = mapped === 'ignore' || mapped === 'total' ? mapped : mapped === undefined && namesTotal(r.label) ? 'total' : null;
+    const product = setAside === null && mapped === undefined && inUse !== undefined;
+    useProductRow.push(product ? inUse! : null);
+    return { label: r.label, role: setAside ?? (product ? 'product' : null), mapped: mapped !== undefined, location: r.location };
+  });
+  const isProductRow = new Set(useProductRow.filter((k) => k !== null));
+  const isIndustryCol = new Set(useIndustryCol.filter((k) => k !== null));
+  const useRows = W.rows.flatMap((r, k) => {
+    if (isProductRow.has(k)) return [];
+    const key = matchKey(r.label);
+    const mapped = mapRows.get(key);
+    const loose = mapped === undefined && !isKnownLabel(r.label, 'row') && !S.rows.some((x) => matchKey(x.label) === key);
+    return [{ label: r.label, role: mapped ?? suggestRowRole(r.label).role, mapped: mapped !== undefined, location: r.location, loose }];
+  });
+  const useColumns = W.columns.flatMap((c, k) => {
+    if (isIndustryCol.has(k)) return [];
+    const mapped = mapCols.get(matchKey(c.label));
+    return [{ label: c.label, role: mapped ?? suggestColumnRole(c.label).role, mapped: mapped !== undefined, location: c.location, loose: mapped === undefined && !isKnownLabel(c.label, 'column') }];
+  });
+  return { supplyColumns, supplyRows, useRows, useColumns, useIndustryCol, useProductRow };
+}
+
+/**
+ * The roles of a pair's labels as the reader would decide them with this role map, without the checks that follow:
+ * the app shows them (and lets the planner change them) even while the pair is refused for a label without a role.
+ */
+export function supplyUseRoles(supply: SutFile, use: SutFile, opts: Pick<ReadSutOptions, 'map' | 'delimiter' | 'decimalMark'> = {}): SutRoles {
+  const dialect = { ...(opts.delimiter ? { delimiter: opts.delimiter } : {}), ...(opts.decimalMark ? { decimalMark: opts.decimalMark } : {}) };
+  const { supplyColumns, supplyRows, useRows, useColumns } = decideRoles(
+    readLabelledGrid(supply.text, { fileName: supply.fileName, ...dialect }), readLabelledGrid(use.text, { fileName: use.fileName, ...dialect }), opts.map,
+  );
+  return { supplyColumns, supplyRows, useRows, useColumns };
+}
+
 export function readSupplyUse(supply: SutFile, use: SutFile, opts: ReadSutOptions = {}): SupplyUse {
   const dialect = { ...(opts.delimiter ? { delimiter: opts.delimiter } : {}), ...(opts.decimalMark ? { decimalMark: opts.decimalMark } : {}) };
   const S = readLabelledGrid(supply.text, { fileName: supply.fileName, ...dialect });
   const W = readLabelledGrid(use.text, { fileName: use.fileName, ...dialect });
   const tol = opts.tolerance ?? SUT_DEFAULT_TOLERANCE;
   const warnings: Warning[] = [...S.warnings, ...W.warnings];
-  const mapSupply = byKey(opts.map?.supply);
-  const mapRows = byKey(opts.map?.rows);
-  const mapCols = byKey(opts.map?.columns);
+  const decided = decideRoles(S, W, opts.map);
 
-  // Industries: supply columns that are use columns too (totals aside, unless the map gives them a role).
-  const useCol = new Map(W.columns.map((c, k) => [matchKey(c.label), k]));
+  // Industries, and the supply table's other columns by role.
   const industries: string[] = [];
   const supplyIndustryCol: number[] = [];
   const useIndustryCol: number[] = [];
   const supplyCols: Record<SupplyColumnRole, number[]> = { imports: [], margins: [], productTaxes: [], total: [], ignore: [] };
   const supplyRoles: SupplyUse['roles']['supply'] = {};
-  S.columns.forEach((c, k) => {
-    const key = matchKey(c.label);
-    const mapped = mapSupply.get(key);
-    const inUse = useCol.get(key);
-    if (mapped === undefined && inUse !== undefined && !namesTotal(c.label)) {
-      industries.push(c.label);
-      supplyIndustryCol.push(k);
-      useIndustryCol.push(inUse);
-      supplyRoles[c.label] = 'industry';
-      return;
-    }
-    const role = mapped ?? suggestSupplyRole(c.label);
-    if (role === null) {
+  decided.supplyColumns.forEach((c, k) => {
+    if (c.role === null) {
       throw new InputError(
         'sut-unknown-industry',
         `supply column '${c.label}' matches no column of the use table '${W.fileName}' and is not an imports, margins, taxes on products or total column: ` +
@@ -110,60 +174,59 @@ export function readSupplyUse(supply: SutFile, use: SutFile, opts: ReadSutOption
         c.location,
       );
     }
-    supplyCols[role].push(k);
-    supplyRoles[c.label] = role;
+    supplyRoles[c.label] = c.role;
+    if (c.role === 'industry') {
+      industries.push(c.label);
+      supplyIndustryCol.push(k);
+      useIndustryCol.push(decided.useIndustryCol[k]!);
+    } else supplyCols[c.role].push(k);
   });
   if (industries.length === 0) {
     throw new InputError('sut-no-industries', `no column of the supply table is a column of the use table '${W.fileName}', so there are no industries (industries need the same labels in both tables)`, { file: S.fileName, line: S.columns[0]?.location.line ?? 1 });
   }
 
   // Products: supply rows (totals and rows the map sets aside excepted), each a row of the use table.
-  const useRow = new Map(W.rows.map((r, k) => [matchKey(r.label), k]));
+  const mapSupply = byKey(opts.map?.supply);
   const products: string[] = [];
   const supplyProductRow: number[] = [];
   const useProductRow: number[] = [];
-  S.rows.forEach((r, k) => {
-    const mapped = mapSupply.get(matchKey(r.label));
-    if (mapped === 'ignore' || mapped === 'total' || (mapped === undefined && namesTotal(r.label))) return;
-    if (mapped !== undefined) {
-      throw new InputError('role-map-schema', `the role map gives supply row '${r.label}' the role '${mapped}', which only supply columns can have (a supply row is a product, or 'ignore' or 'total')`, r.location);
-    }
-    const inUse = useRow.get(matchKey(r.label));
-    if (inUse === undefined) {
+  decided.supplyRows.forEach((r, k) => {
+    if (r.role === 'ignore' || r.role === 'total') return;
+    if (r.role === null) {
+      const mapped = mapSupply.get(matchKey(r.label));
+      if (mapped !== undefined) {
+        throw new InputError('role-map-schema', `the role map gives supply row '${r.label}' the role '${mapped}', which only supply columns can have (a supply row is a product, or 'ignore' or 'total')`, r.location);
+      }
       throw new InputError('sut-unknown-product', `product '${r.label}' of the supply table has no row in the use table '${W.fileName}' (products need the same labels in both tables)`, r.location);
     }
     products.push(r.label);
     supplyProductRow.push(k);
-    useProductRow.push(inUse);
+    useProductRow.push(decided.useProductRow[k]!);
   });
   if (products.length === 0) throw new InputError('sut-no-products', 'the supply table has no product rows', { file: S.fileName });
 
   // The use table's other rows and columns, by role.
-  const isProductRow = new Set(useProductRow);
-  const isIndustryCol = new Set(useIndustryCol);
   const ni = industries.length;
   const np = products.length;
   const rowRoles: Record<string, RowRole> = {};
   const colRoles: Record<string, ColumnRole> = {};
   const loose: string[] = [];
+  const rowIndex = new Map(W.rows.map((r, k) => [r.label, k]));
+  const colIndex = new Map(W.columns.map((c, k) => [c.label, k]));
   const extraRows: { k: number; label: string; role: IndustryRow['role'] }[] = [];
-  W.rows.forEach((r, k) => {
-    if (isProductRow.has(k)) return;
-    const key = matchKey(r.label);
-    const role = mapRows.get(key) ?? suggestRowRole(r.label).role;
+  for (const r of decided.useRows) {
+    const role = r.role!;
     rowRoles[r.label] = role;
-    if (!mapRows.has(key) && !isKnownLabel(r.label, 'row') && !S.rows.some((s) => matchKey(s.label) === key)) loose.push(`row '${r.label}'`);
-    if (role !== 'ignore' && role !== 'totalInput') extraRows.push({ k, label: r.label, role });
-  });
+    if (r.loose) loose.push(`row '${r.label}'`);
+    if (role !== 'ignore' && role !== 'totalInput') extraRows.push({ k: rowIndex.get(r.label)!, label: r.label, role });
+  }
   const fdCols: { k: number; label: string; role: ProductColumn['role'] }[] = [];
-  W.columns.forEach((c, k) => {
-    if (isIndustryCol.has(k)) return;
-    const key = matchKey(c.label);
-    const role = mapCols.get(key) ?? suggestColumnRole(c.label).role;
+  for (const c of decided.useColumns) {
+    const role = c.role!;
     colRoles[c.label] = role;
-    if (!mapCols.has(key) && !isKnownLabel(c.label, 'column')) loose.push(`column '${c.label}'`);
-    if (role === 'householdConsumption' || role === 'otherFinalDemand') fdCols.push({ k, label: c.label, role });
-  });
+    if (c.loose) loose.push(`column '${c.label}'`);
+    if (role === 'householdConsumption' || role === 'otherFinalDemand') fdCols.push({ k: colIndex.get(c.label)!, label: c.label, role });
+  }
   if (loose.length) {
     warnings.push({
       code: 'sut-labels-unmatched',

@@ -1,5 +1,5 @@
 /**
- * The planner's whole flow in real Chromium against the Vite dev server: sample opens with its verdict, a table is
+ * The planner's whole flow in real Chromium against the built renderer: sample opens with its verdict, a table is
  * imported through the file input with a role changed, a malformed file is refused with its location while the
  * previous table stays, a two-line scenario runs, the multiplier report is exported and its numbers compared with
  * the engine's own output for the same table (computed here, in the test process), and a project is saved and

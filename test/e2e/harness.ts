@@ -1,5 +1,5 @@
 /**
- * End-to-end harness: every e2e file shares one Vite dev server (the real renderer config) and one Debian Chromium,
+ * End-to-end harness: every e2e file shares one server of the built renderer (the real renderer config) and one Debian Chromium,
  * both started once by global-setup.ts; startSession() connects to that browser (playwright-core) and opens a browser
  * context of the file's own. When CI is set and no Chromium is found the suite fails; elsewhere it skips with a
  * message saying why.
@@ -36,7 +36,7 @@ export function requireChromium(): void {
 }
 
 export interface Session {
-  /** The shared dev server's address. */
+  /** The shared server's address. */
   url: string;
   browser: Browser;
   /** This file's own browser context (storage, downloads, pages). */
@@ -50,7 +50,7 @@ export interface Session {
 export async function startSession(): Promise<Session> {
   requireChromium();
   const shared = inject('e2e');
-  if (!shared) throw new Error('e2e: the shared dev server and browser were not started (run the e2e project of vitest.config.ts).');
+  if (!shared) throw new Error('e2e: the shared server and browser were not started (run the e2e project of vitest.config.ts).');
   const browser = await chromium.connect(shared.wsEndpoint);
   const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, acceptDownloads: true, locale: 'en-US' });
   const page = await context.newPage();

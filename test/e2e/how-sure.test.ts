@@ -1,5 +1,5 @@
 /**
- * The "How sure?" panel in real Chromium against the Vite dev server: bands of the multipliers and of a scenario's
+ * The "How sure?" panel in real Chromium against the built renderer: bands of the multipliers and of a scenario's
  * totals, computed in the engine worker a range of draws at a time, are compared with the study layer called here in
  * the test process with the same seed (the CLI's --draws calls the same function); the sensitivity's order and Cancel
  * are checked; no console error may appear. Screenshots: test-output/screenshots/how-sure-*.png (1280×800).

@@ -1,5 +1,5 @@
 /**
- * "Start from a larger table" in real Chromium against the Vite dev server: the bundled (invented) national table and
+ * "Start from a larger table" in real Chromium against the built renderer: the bundled (invented) national table and
  * county employment are regionalized with FLQ δ = 0.3; the SLQ and λ* on screen are compared with src/regional called
  * here in the test process; bad inputs are refused with their location while the table in use stays; the estimate
  * is exported as CSV and accepted, and the Overview, Multipliers and Scenarios then show the engine's numbers for the

@@ -1,5 +1,5 @@
 /**
- * "Start from supply and use tables" in real Chromium against the Vite dev server: the bundled (invented) pair is
+ * "Start from supply and use tables" in real Chromium against the built renderer: the bundled (invented) pair is
  * derived with the default fixed product sales structure and the numbers on screen are compared with src/sut called
  * here in the test process; the product technology's negatives are listed and block use until the zero-and-RAS
  * remedy is chosen; a pair whose products disagree is refused with the worst product while the table in use stays;

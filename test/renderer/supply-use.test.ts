@@ -5,6 +5,10 @@
  * engine's located message.
  */
 import { describe, expect, it } from 'vitest';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { runCli } from '../support/cli.ts';
 import { api } from '../../renderer/worker/compute.ts';
 import type { SupplyUseRequest } from '../../renderer/worker/supply-use.ts';
 import { importTable } from '../../src/table/index.ts';
@@ -82,5 +86,33 @@ describe('the county estimate\'s adapter with a classification bridge', () => {
     expect(viaBridge.rows.map((r) => r.regionalJobs)).toEqual(direct.rows.map((r) => r.regionalJobs));
     expect(Array.from(viaBridge.regional)).toEqual(Array.from(direct.regional));
     expect(viaBridge.notes[0]).toMatch(/through the bridge fernhollow-bridge\.csv/);
+  });
+
+  it('shows every label\'s role, even while a label without one refuses the pair, and a role map makes the CLI\'s table', async () => {
+    // The sample supply table with a column of zeros the use table lacks and whose words name no role.
+    const lines = SUPPLY_SAMPLE_CSV.trimEnd().split('\n');
+    const odd = { text: `${lines.map((l, k) => `${l},${k === 0 ? 'Statistical discrepancy' : '0'}`).join('\n')}\n`, fileName: 'supply-odd.csv' };
+    expect(() => api.buildSymmetric(req({ supply: odd }))).toThrow(/supply column 'Statistical discrepancy' matches no column of the use table/);
+    const before = api.sutRoles({ supply: odd, use });
+    expect(before.supplyColumns.filter((c) => c.role !== 'industry').map((c) => [c.label, c.role])).toEqual([['Statistical discrepancy', null]]);
+    expect(before.useRows.map((c) => c.role)).toEqual(pair().industryRows.map((r) => r.role));
+    const map = api.readSutMap({ text: '{"supply": {"Statistical discrepancy": "ignore"}}', fileName: 'roles.json' });
+    expect(api.sutRoles({ supply: odd, use, map }).supplyColumns.at(-1)).toMatchObject({ label: 'Statistical discrepancy', role: 'ignore', mapped: true });
+    const v = api.buildSymmetric(req({ supply: odd, map }));
+    // The column of zeros set aside: the same table as the sample pair's, and as `roundwise sut --map`.
+    expect(v.rows).toEqual(api.buildSymmetric(req({})).rows);
+    const dir = mkdtempSync(join(tmpdir(), 'rw-sut-map-'));
+    try {
+      writeFileSync(join(dir, 'supply.csv'), odd.text);
+      writeFileSync(join(dir, 'use.csv'), use.text);
+      writeFileSync(join(dir, 'roles.json'), JSON.stringify(map));
+      const cli = await runCli(['sut', join(dir, 'supply.csv'), join(dir, 'use.csv'), '--map', join(dir, 'roles.json'), '--json']);
+      expect(cli.code, cli.err).toBe(0);
+      expect(JSON.parse(cli.out).output).toEqual(v.rows.map((r) => r.output));
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+    // A role map that does not read is refused at its key.
+    expect(() => api.readSutMap({ text: '{\n "supply": {"Statistical discrepancy": "exports"}\n}', fileName: 'roles.json' })).toThrow(/unknown supply-table role for 'Statistical discrepancy'/);
   });
 });

@@ -57,6 +57,18 @@ export function summary(ps: PreparedStudy): string {
   return lines.join('\n') + '\n';
 }
 
+/** A table file from this size usually holds PARALLEL_MIN_SECTORS sectors or more (a 500-sector matrix CSV is about 1.5 MB). */
+const EARLY_HELPER_BYTES = 1 << 20;
+
+/**
+ * Start the helper threads as soon as a large table file has been read, before it is parsed: their start-up (a thread,
+ * the kernel's instantiation) then overlaps the parsing on the other core, and `withHelperThreads` finds them ready.
+ * The command's end stops them (main.ts) if nothing did before.
+ */
+export function startHelpersFor(tableBytes: number): void {
+  if (tableBytes >= EARLY_HELPER_BYTES) startParallelKernels();
+}
+
 /**
  * `work` with helper threads for the factorisations' updates when the table is large (`sectors`); the numbers are
  * the same with or without them (each update's chunks are computed by the same kernel, whoever runs them).
@@ -93,6 +105,7 @@ export const analyze = defineCommand({
   async run({ input, values }, ctx) {
     const roles = ctx.roleMap(values.map);
     const file = ctx.input(input);
+    startHelpersFor(file.bytes.length);
     const study = studyFromTableFile(file.bytes, file.name, { ...tableDialect(values), allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
     if (values.tolerance !== undefined) study.settings.rounds.tolerance = values.tolerance;
     const settings = uncertaintySettingsOf(values, ctx);

@@ -9,14 +9,14 @@ import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { BRIEF_OPTIONS, deliverableFiles, XLSX_OPTION } from './deliverables.ts';
 import { readFileLimited } from '../../node-io/index.ts';
 import {
-  CAUTIONS, checkStudyInputs, modelTypeOf, prepareStudy, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile,
-  tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, parseMixCsv, parseActivityCsv,
-  parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, spendingMixByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
+  CAUTIONS, checkStudyInputs, modelTypeOf, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile,
+  tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, mixesFromFile, parseActivityCsv,
+  parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
   type Closure, type EffectTotals, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult, type Variable,
   bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studyBands, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
-import { withHelperThreads } from './analyze.ts';
+import { prepare, startHelpersFor, withHelperThreads } from './analyze.ts';
 import { scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
 const fmt = (v: number | null | undefined) => (v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
@@ -149,6 +149,7 @@ export const scenario = defineCommand({
   outHelp: 'write the scenario\'s reports (NAME-inputs, NAME-phases, and per phase NAME[-PHASE]-impact, -net-impact with displacement or deadweight, -implied-multipliers, -rounds, -rounds-by-sector, and -paths with --paths; NAME from the shock file; NAME-bands with --draws, NAME-sensitivity with --sensitivity) and the table\'s multipliers as CSV, each with an .about.txt',
   async run({ input, values }, ctx) {
     const tableFile = ctx.input(input);
+    startHelpersFor(tableFile.bytes.length);
     const roles = ctx.roleMap(values.map);
     const shock = parseShockCsv(ctx.input(values.shock).text, values.shock);
     const study = studyFromTableFile(tableFile.bytes, tableFile.name, { ...tableDialect(values), ...(roles ? { roles } : {}) });
@@ -157,7 +158,7 @@ export const scenario = defineCommand({
     const scenario = bridge === null ? shock : scenarioByBridge(shock, bridge);
     study.scenarios = [scenario];
     // With a bridge, mix files name codes too: each code's share is split among its sectors.
-    study.mixes = values.mix.flatMap((f) => parseMixCsv(ctx.input(f).text, f).map((m) => (bridge === null ? m : spendingMixByBridge(m, bridge, f))));
+    study.mixes = values.mix.flatMap((f) => mixesFromFile(ctx.input(f).text, f, bridge));
     study.activities = values.activity.flatMap((f) => parseActivityCsv(ctx.input(f).text, f));
     for (const list of [study.mixes, study.activities]) {
       const seen = new Set<string>();
@@ -187,7 +188,7 @@ export const scenario = defineCommand({
     }
     const settings = uncertaintySettingsOf(values, ctx);
     if (values['share-step'] !== undefined && !values.sensitivity) throw ctx.usageError('--share-step needs --sensitivity');
-    const ps = prepareStudy(study, { spectrum: false });
+    const ps = await prepare(study, { spectrum: false });
     const outcome = runStudyScenario(ps, scenario, { paths: destination });
     const bands = settings ? await withHelperThreads(study.table.n, () => studyBands(ps, { settings, multipliers: false, scenarios: [scenario] })!) : null;
     const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step']) : null;

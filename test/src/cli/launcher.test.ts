@@ -3,7 +3,7 @@
 // (common practice, no source: the reference is the project's own source run through tsx).
 import { describe, it, expect, beforeAll } from 'vitest';
 import { execFileSync, spawnSync } from 'node:child_process';
-import { copyFileSync, existsSync, mkdirSync, mkdtempSync, rmSync, statSync, utimesSync, writeFileSync, cpSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, utimesSync, writeFileSync, cpSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -35,6 +35,37 @@ describe('roundwise launcher', () => {
     expect(badB.status).toBe(2);
     expect(badB.status).toBe(badS.status);
     expect(badB.stderr).toBe(badS.stderr);
+  }, 60_000);
+
+  it('a checkout runs its bundle only while no source it was built from is newer (the list in dist/cli/sources.txt)', () => {
+    // A copy outside node_modules and without tsx: a stale bundle is then refused in one line instead of run.
+    const dir = mkdtempSync(join(tmpdir(), 'rw-checkout-'));
+    try {
+      cpSync(join(root, 'src'), join(dir, 'src'), { recursive: true });
+      cpSync(join(root, 'dist', 'cli'), join(dir, 'dist', 'cli'), { recursive: true });
+      const listed = readFileSync(join(dir, 'dist', 'cli', 'sources.txt'), 'utf8').split('\n').filter((l) => l !== '');
+      expect(listed).toContain('cli/main.ts');
+      expect(listed).toContain('linalg/lu.ts');
+      const now = Date.now() / 1000;
+      utimesSync(join(dir, 'dist', 'cli', 'main.mjs'), now, now);
+      const launch = () => spawnSync(process.execPath, [join(dir, bin), '--help'], { cwd: dir, encoding: 'utf8' });
+      const stale = 'roundwise: the CLI bundle is older than the sources, and tsx (a development dependency) is not installed to run the sources: run `npm install` in the source folder (it builds the bundle), or `npm run build:cli`\n';
+      for (const p of listed) utimesSync(join(dir, 'src', p), now - 60, now - 60);
+      expect(launch().status).toBe(0);
+      // A file the bundle was not built from (not imported by any of its sources) does not make it stale.
+      writeFileSync(join(dir, 'src', 'cli', 'unused-note.ts'), '// not imported\n');
+      utimesSync(join(dir, 'src', 'cli', 'unused-note.ts'), now + 60, now + 60);
+      expect(launch().status).toBe(0);
+      // An edited source does, and so does a deleted one.
+      utimesSync(join(dir, 'src', 'linalg', 'lu.ts'), now + 60, now + 60);
+      expect(launch()).toMatchObject({ status: 1, stderr: stale });
+      utimesSync(join(dir, 'src', 'linalg', 'lu.ts'), now - 60, now - 60);
+      expect(launch().status).toBe(0);
+      rmSync(join(dir, 'src', 'model', 'rounds.ts'));
+      expect(launch()).toMatchObject({ status: 1, stderr: stale });
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
   }, 60_000);
 
   it('an installed package (unpacked under node_modules, without tsx) runs its bundle whatever the file times', () => {

@@ -4,7 +4,7 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { inv, det, matrix, multiply } from 'mathjs';
 import { Matrix, LuDecomposition, inverse as mlInverse } from 'ml-matrix';
 import {
-  luFactor, luInverse, luDeterminant, luSolve, luSolveMany, luSolveTransposed, matVec, vecMat, matMul, LU_BLOCK, eliminationPivots,
+  luFactor, luInverse, luDeterminant, luSolve, luSolveMany, luSolveTransposed, luSolveTransposedMany, matVec, vecMat, matMul, LU_BLOCK, eliminationPivots,
   scaledResidual, RESIDUAL_THRESHOLD,
 } from '../../../src/linalg/index.ts';
 import {
@@ -50,6 +50,13 @@ describe(`kernel mode ${mode}`, () => {
         const b = Float64Array.from({ length: n }, (_, i) => Math.cos(i + 1));
         expect(relDiff(luSolve(f, b), luSolveReference(g, b))).toBeLessThan(1e-10);
         expect(relDiff(luSolveTransposed(f, b), luSolveTransposedReference(g, b))).toBeLessThan(1e-10);
+        // Several transposed solves in one pass: each vector bit for bit what its own solve gives (a zero vector and
+        // one with zeros in it take the solve's skip of zero entries).
+        const cs = [b, randomMatrix(1, n, 31 + n), new Float64Array(n), Float64Array.from(b, (v, i) => (i % 3 === 0 ? 0 : v))];
+        const many = luSolveTransposedMany(f, cs);
+        expect(many).toHaveLength(cs.length);
+        many.forEach((y, r) => expect(Array.from(y)).toEqual(Array.from(luSolveTransposed(f, cs[r]!))));
+        expect(luSolveTransposedMany(f, [])).toEqual([]);
         const m = 5;
         const bm = randomMatrix(n, m, 77 + n);
         expect(relDiff(luSolveMany(f, bm, m), luSolveManyReference(g, bm, m))).toBeLessThan(1e-10);
@@ -131,6 +138,7 @@ describe(`kernel mode ${mode}`, () => {
         expect(f.singular).toBe(true);
         expect(() => luSolve(f, new Float64Array(n))).toThrow(/singular/);
         expect(() => luSolveTransposed(f, new Float64Array(n))).toThrow(/singular/);
+        expect(() => luSolveTransposedMany(f, [new Float64Array(n)])).toThrow(/singular/);
         expect(() => luSolveMany(f, new Float64Array(n * 2), 2)).toThrow(/singular/);
         expect(() => luInverse(f)).toThrow(/singular/);
         // |det| is at most the product of |u_jj| with one factor below n·ε·max|a| (definition of the flag).

@@ -3,7 +3,9 @@ import { describe, it, expect } from 'vitest';
 import { inv } from 'mathjs';
 import { identityMinus, luFactor, luSolve, luSolveTransposed } from '../../../src/linalg/index.ts';
 import { analyzeTable } from '../../../src/model/analysis.ts';
-import { closedBorder, prepareModel, solveClosed, solveClosedTransposed, solveOpen } from '../../../src/model/prepared.ts';
+import {
+  closedBorder, prepareModel, solveClosed, solveClosedTransposed, solveClosedTransposedFrom, solveOpen, solveOpenTransposed, solveOpenTransposedMany,
+} from '../../../src/model/prepared.ts';
 import { randomEconomy, tableFromA, toRows } from './tables.ts';
 import { seeded } from '../../support/random.ts';
 import { rel } from '../../support/compare.ts';
@@ -23,6 +25,10 @@ describe('closed-model solves by bordering', () => {
           expect(rel(a[i]!, b[i]!, 1e-12)).toBeLessThan(1e-9);
           expect(rel(at[i]!, bt[i]!, 1e-12)).toBeLessThan(1e-9);
         }
+        // From an open solve already at hand (the multipliers' batch): the same bits as the closed solve itself.
+        const [open] = solveOpenTransposedMany(pm, [f.subarray(0, n)]);
+        expect(Array.from(open!)).toEqual(Array.from(solveOpenTransposed(pm, f.subarray(0, n))));
+        expect(Array.from(solveClosedTransposedFrom(pm, f, open!))).toEqual(Array.from(at));
       }
       // and the whole closed inverse against mathjs
       const Lbar = inv(toRows(identityMinus(Abar, m), m)) as number[][];

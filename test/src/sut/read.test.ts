@@ -1,7 +1,7 @@
 // Reading supply and use pairs: the importer's dialect, roles of the supply table's extra columns, the product balance
 // and valuation, and every refusal with its location.
 import { describe, expect, it } from 'vitest';
-import { deriveSymmetric, parseSutRoleMap, readSupplyUse, type SutRoleMap } from '../../../src/sut/index.ts';
+import { deriveSymmetric, parseSutRoleMap, readSupplyUse, supplyUseRoles, type SutRoleMap } from '../../../src/sut/index.ts';
 import { formatLocated } from '../../../src/diagnostics/index.ts';
 import { refusal } from '../../support/refusal.ts';
 import { SUPPLY, USE } from '../../support/sut-pairs.ts';
@@ -136,5 +136,29 @@ describe('dialect, roles and warnings', () => {
     expect(refusal(() => parseSutRoleMap('{\n "supply": {"X": "exports"}\n}', 'map.json'))).toMatchObject({ code: 'role-map-schema', location: { file: 'map.json', line: 2 } });
     expect(refusal(() => parseSutRoleMap('{"sectors": []}', 'map.json')).message).toMatch(/unknown key 'sectors'/);
     expect(refusal(() => parseSutRoleMap('{"supply": ', 'map.json')).code).toBe('role-map-json');
+  });
+});
+
+describe('the role preview (the app shows it before the pair is read)', () => {
+  const roles = (supply: string, use: string, map?: SutRoleMap) => supplyUseRoles({ text: supply, fileName: 'supply.csv' }, { text: use, fileName: 'use.csv' }, map ? { map } : {});
+  const supply = SUPPLY.replace('Industry B', 'Industry B,CIF/FOB adjustment').replace(/^(Product a,[^\n]*)$/m, '$1,0').replace(/^(Product b,[^\n]*)$/m, '$1,0');
+
+  it('gives every label its role as the reader decides it, and none to a supply column the reader refuses', () => {
+    const r = roles(supply, USE);
+    expect(r.supplyColumns.map((c) => [c.label, c.role, c.mapped])).toEqual([['Industry A', 'industry', false], ['Industry B', 'industry', false], ['CIF/FOB adjustment', null, false]]);
+    expect(r.supplyRows.map((c) => [c.label, c.role])).toEqual([['Product a', 'product'], ['Product b', 'product']]);
+    expect(r.useRows.map((c) => [c.label, c.role])).toEqual(expect.arrayContaining([['Other value added', 'otherValueAdded'], ['Employment', 'employment']]));
+    expect(r.useColumns.map((c) => [c.label, c.role])).toEqual([['Households', 'householdConsumption']]);
+    expect(refusal(() => read(supply, USE)).code).toBe('sut-unknown-industry');
+  });
+
+  it('a role from the map is shown as mapped, and the reader then accepts the pair with the same roles', () => {
+    const map: SutRoleMap = { supply: { 'CIF/FOB adjustment': 'ignore' }, columns: { Households: 'otherFinalDemand' } };
+    const r = roles(supply, USE, map);
+    expect(r.supplyColumns[2]).toMatchObject({ label: 'CIF/FOB adjustment', role: 'ignore', mapped: true });
+    expect(r.useColumns[0]).toMatchObject({ role: 'otherFinalDemand', mapped: true });
+    const s = read(supply, USE, map);
+    expect(s.roles.supply['CIF/FOB adjustment']).toBe('ignore');
+    expect(s.finalDemand.map((f) => f.role)).toEqual(['otherFinalDemand']);
   });
 });

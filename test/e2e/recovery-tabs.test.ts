@@ -1,0 +1,82 @@
+/**
+ * Crash recovery in real Chromium, the harder cases: work a save would refuse (a scenario line the new table lacks)
+ * is still copied; two open tabs never offer or delete each other's copies; a 6 MB project (over the localStorage
+ * quota) is copied. Each test starts from an empty store in this file's own browser context.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { REPO, skipBrowser, startSession, type Session } from './harness.ts';
+import { addScenario, clearCopies, copies, importTable, kill, openPage, scenarioNames, tableName, TEST_CSV } from './recovery-support.ts';
+import { sparseTableCsv } from '../support/random-tables.ts';
+
+let s: Session;
+
+describe.skipIf(skipBrowser)('crash recovery, in the browser: stale tables, two tabs, large copies', () => {
+  beforeAll(async () => {
+    s = await startSession();
+  }, 200_000);
+  afterAll(async () => { await s?.close(); });
+
+  it('keeps the work when a scenario line no longer matches a newly imported table', async () => {
+    const page = await openPage(s);
+    await clearCopies(page);
+    const sampleName = await tableName(page);
+    await addScenario(page); // the example scenario's line names a sector of the sample, not of the new table
+    await importTable(page, TEST_CSV);
+    await expect.poll(() => tableName(page), { timeout: 60_000 }).not.toBe(sampleName);
+    const imported = await tableName(page);
+    await page.locator('[data-screen="scenarios"]').click();
+    const edited = await scenarioNames(page);
+    expect(edited.length).toBeGreaterThanOrEqual(2);
+    await expect.poll(async () => (await copies(page))[0]?.tableName, { timeout: 20_000 }).toBe(imported);
+    await kill(page);
+    const next = await openPage(s);
+    await next.getByTestId('recovery').waitFor({ timeout: 30_000 });
+    expect(await next.getByTestId('recovery-summary').textContent()).toContain(`“${imported}”`);
+    await next.getByTestId('recovery').getByRole('button', { name: 'Recover it' }).click();
+    await expect.poll(() => tableName(next), { timeout: 30_000 }).toBe(imported);
+    await next.locator('[data-screen="scenarios"]').click();
+    await expect.poll(() => scenarioNames(next), { timeout: 30_000 }).toEqual(edited);
+    await kill(next);
+  });
+
+  it('two open tabs keep a copy each; a third offers only the closed one, and its Discard leaves the live one', async () => {
+    const a = await openPage(s);
+    await clearCopies(a);
+    await addScenario(a);
+    await expect.poll(async () => (await copies(a)).length, { timeout: 20_000 }).toBe(1);
+    const b = await openPage(s);
+    await b.waitForTimeout(2_000);
+    expect(await b.getByTestId('recovery').count()).toBe(0); // A is still open: its copy is not B's to offer
+    await addScenario(b);
+    await addScenario(b);
+    await expect.poll(async () => (await copies(b)).map((c) => c.scenarios).sort(), { timeout: 20_000 }).toEqual([2, 3]);
+    await kill(a);
+    const c = await openPage(s);
+    await c.getByTestId('recovery').waitFor({ timeout: 30_000 });
+    expect(await c.getByTestId('recovery-summary').textContent()).toContain('2 scenarios'); // A's, not B's
+    await c.getByTestId('recovery').getByRole('button', { name: 'Discard' }).click();
+    await expect.poll(async () => (await copies(c)).map((x) => x.scenarios), { timeout: 20_000 }).toEqual([3]);
+    await kill(b);
+    await kill(c);
+  });
+
+  it('keeps a copy of a project over the localStorage quota (about 6 MB)', async () => {
+    // A project keeps the table file itself: 1,700 sectors of CSV text are about 6 MB, over the 5 MB of localStorage.
+    const file = join(REPO, 'test-output', 'e2e-recovery-1700-sectors.csv');
+    writeFileSync(file, sparseTableCsv(1700));
+    const page = await openPage(s);
+    await clearCopies(page);
+    await importTable(page, file);
+    await expect.poll(() => page.getByTestId('table-name').textContent(), { timeout: 120_000 }).toMatch(/1,700 sectors/);
+    await expect.poll(async () => (await copies(page))[0]?.chars ?? 0, { timeout: 60_000 }).toBeGreaterThan(5_500_000);
+    expect(await page.getByTestId('recovery-problem').count()).toBe(0);
+    await clearCopies(page);
+    await kill(page);
+  });
+
+  it('logged no console errors', () => {
+    expect(s.errors).toEqual([]);
+  });
+});

@@ -1,0 +1,65 @@
+/**
+ * The roles of a supply and use pair in real Chromium: a supply table with a column that is neither an industry of
+ * the use table nor named by its words is refused, the roles panel shows that label without a role, and giving it
+ * one on screen derives the table src/sut derives with the same role map (the CLI's --map); a role map file does the
+ * same. Screenshots: test-output/screenshots/supply-use-roles-*.png.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { Page } from 'playwright-core';
+import { goTo, openApp, shot, skipBrowser, type Session } from './harness.ts';
+import { deriveSymmetric, readSupplyUse, SUPPLY_SAMPLE_CSV, USE_SAMPLE_CSV, USE_SAMPLE_FILE_NAME } from '../../src/sut/index.ts';
+
+let s: Session;
+let page: Page;
+
+// The invented sample supply table with a column of zeros the use table lacks, whose words name no role.
+const lines = SUPPLY_SAMPLE_CSV.trimEnd().split('\n');
+const ODD = `${lines.map((l, k) => `${l},${k === 0 ? 'Statistical discrepancy' : '0'}`).join('\n')}\n`;
+const csv = (name: string, text: string, mimeType = 'text/csv') => ({ name, mimeType, buffer: Buffer.from(text, 'utf8') });
+const poll = <T>(fn: () => T | Promise<T>) => expect.poll(fn, { interval: 100, timeout: 30_000 });
+const money = (v: number) => v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+
+describe.skipIf(skipBrowser)('roles of a supply and use pair, in the browser', () => {
+  beforeAll(async () => {
+    s = await openApp();
+    page = s.page;
+    await goTo(page, 'supply-use');
+    await page.getByTestId('sut-rows').waitFor({ timeout: 30_000 });
+  });
+  afterAll(async () => { await s?.close(); });
+
+  it('shows the label without a role while the pair is refused, and derives the table once it has one', async () => {
+    await page.getByTestId('supply-input').setInputFiles(csv('supply-odd.csv', ODD));
+    await poll(() => page.getByTestId('sut-error').textContent()).toMatch(/supply-odd\.csv:1:18 \(column 'Statistical discrepancy'\): supply column 'Statistical discrepancy' matches no column of the use table/);
+    await poll(() => page.getByTestId('sut-roles-missing').textContent()).toBe('1 label without a role');
+    expect(await page.getByTestId('sut-roles').getAttribute('open')).not.toBeNull();
+    await shot(page, 'supply-use-roles-missing');
+    await page.selectOption('[data-role-supply="Statistical discrepancy"]', 'ignore');
+    await page.getByTestId('sut-rows').waitFor();
+    const want = deriveSymmetric(readSupplyUse({ text: ODD, fileName: 'supply-odd.csv' }, { text: USE_SAMPLE_CSV, fileName: USE_SAMPLE_FILE_NAME }, { map: { supply: { 'Statistical discrepancy': 'ignore' } } }), { assumption: 'product-sales' }).table;
+    const first = page.getByTestId('sut-rows').locator('tbody tr').first();
+    await poll(async () => ((await first.locator('td').first().textContent()) ?? '').trim()).toBe(money(want.x[0]!));
+    expect(await page.getByTestId('sut-roles').locator('summary').textContent()).toMatch(/1 role set by you/);
+    expect(await page.getByTestId('sut-accept').isEnabled()).toBe(true);
+    await page.getByTestId('sut-roles').scrollIntoViewIfNeeded();
+    await shot(page, 'supply-use-roles-set');
+  });
+
+  it('changes a use-table row\'s role on screen, and reads a role map file', async () => {
+    await page.selectOption('[data-role-row="Other value added"]', 'taxes');
+    const want = deriveSymmetric(readSupplyUse({ text: ODD, fileName: 'supply-odd.csv' }, { text: USE_SAMPLE_CSV, fileName: USE_SAMPLE_FILE_NAME }, { map: { supply: { 'Statistical discrepancy': 'ignore' }, rows: { 'Other value added': 'taxes' } } }), { assumption: 'product-sales' }).table;
+    // Value added (column 3 of the by-industry table) is now labour income alone: the other row became taxes.
+    expect(want.otherValueAdded).toEqual([]);
+    const va = want.labourIncome.reduce((a, r) => a + r.values[0]!, 0);
+    const first = page.getByTestId('sut-rows').locator('tbody tr').first();
+    await poll(async () => ((await first.locator('td').nth(2).textContent()) ?? '').trim()).toBe(money(va));
+    // A role map file replaces the roles set on screen.
+    await page.getByTestId('sut-map-file').setInputFiles(csv('roles.json', '{"supply": {"Statistical discrepancy": "ignore"}}', 'application/json'));
+    await poll(() => page.getByTestId('sut-roles').locator('summary').textContent()).toMatch(/1 role set by you \(from roles\.json\)/);
+    // A bad one is refused at its key, and the roles stay.
+    await page.getByTestId('sut-map-file').setInputFiles(csv('bad.json', '{\n "supply": {"Statistical discrepancy": "exports"}\n}', 'application/json'));
+    await poll(() => page.getByTestId('sut-error').textContent()).toMatch(/bad\.json:2:\d+: unknown supply-table role for 'Statistical discrepancy'/);
+    expect(await page.locator('body').innerText()).not.toMatch(/\bNaN\b|Infinity/);
+    expect(s.errors).toEqual([]);
+  });
+});
