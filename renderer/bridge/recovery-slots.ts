@@ -32,7 +32,7 @@ export interface SlotEnv {
 type Slot = { when: string; text: string } | { when: string; blob: Blob };
 
 export interface RecoverySlots {
-  write(content: string | null): Promise<void>;
+  write(content: string | Blob | null): Promise<void>;
   claim(): Promise<OpenedFile | null>;
   discardClaimed(): Promise<void>;
 }
@@ -101,7 +101,7 @@ export function createRecoverySlots(env: SlotEnv): RecoverySlots {
       await ownLock;
       try {
         if (content === null) await del(ownId, store);
-        else await set(ownId, { when: env.now().toISOString(), blob: new Blob([content], { type: 'application/json' }) } satisfies Slot, store);
+        else await set(ownId, { when: env.now().toISOString(), blob: typeof content === 'string' ? new Blob([content], { type: 'application/json' }) : content } satisfies Slot, store);
       } catch (err) {
         throw new InputError('recovery-write-failed', reason(err));
       }

@@ -202,6 +202,14 @@ function recoveryBase(args: { name: string; choices: StudyChoices }): string {
   return projectFileOf({ ...study, name: args.name, scenarios: [] });
 }
 
+/**
+ * The same project text as a JSON string literal in a Blob: what the crash-recovery copy embeds. Escaped and encoded
+ * here, so the window's main thread never holds the 20 MB text of a 2,000-sector table (a Blob crosses by reference).
+ */
+function recoveryBaseJson(args: { name: string; choices: StudyChoices }): Blob {
+  return new Blob([JSON.stringify(recoveryBase(args))], { type: 'application/json' });
+}
+
 function openProject(args: { text: string; fileName: string }): { table: TableInfo; analysis: AnalysisView; scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
   const study = studyFromProjectFile(args.text, args.fileName);
   const loaded = load(study);
@@ -258,6 +266,7 @@ export const api = {
   workbook,
   saveProject,
   recoveryBase,
+  recoveryBaseJson,
   openProject,
   ...regionalApi,
   ...uncertaintyApi(studyAt, howSure),

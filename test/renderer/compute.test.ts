@@ -9,7 +9,7 @@ import { fileURLToPath } from 'node:url';
 import Papa from 'papaparse';
 import { reactive } from 'vue';
 import { api } from '../../renderer/worker/compute.ts';
-import { readRecoveryCopy, writeRecoveryCopy } from '../../renderer/state/recovery-copy.ts';
+import { readRecoveryCopy, recoveryCopyBlob, writeRecoveryCopy } from '../../renderer/state/recovery-copy.ts';
 import { plain } from '../../renderer/worker/client.ts';
 import { importTable } from '../../src/table/index.ts';
 import { SAMPLE_CSV, SAMPLE_FILE_NAME } from '../../src/table/index.ts';
@@ -138,6 +138,14 @@ describe('worker adapter over the engine', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
     const wrong: Scenario = onePhase('Old', [{ sector: 'Food processing', amount: 1, kind: 'final-demand', localShare: 1 }]);
     expect(() => api.saveProject({ name: 'x', scenarios: [wrong], choices: ON, active: 0 })).toThrow(/Food processing.*not in this table/);
+  });
+
+  it('the recovery copy assembled around the worker\'s Blob is the text writeRecoveryCopy writes', async () => {
+    api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
+    const args = { name: 'Study', choices: { closure: 'none', destination: 'Retail' } } as const;
+    const c = { savedAt: '2026-05-01T12:00:00.000Z', tableName: 'Ridgeline', projectName: null, scenarios: [SCENARIO], selected: 0 };
+    const blob = recoveryCopyBlob(c, api.recoveryBaseJson({ ...args, choices: { ...args.choices } }));
+    expect(await blob.text()).toBe(writeRecoveryCopy({ ...c, project: api.recoveryBase({ ...args, choices: { ...args.choices } }) }));
   });
 
   it('writes the recovery copy of a study a save would refuse, and it reads back to the same work', () => {
