@@ -5,7 +5,7 @@
 import { markRaw, reactive, watch } from 'vue';
 import { getBridge } from '../bridge/index.ts';
 import { engine, CancelledError, EngineError } from '../worker/client.ts';
-import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, StudyInputsView, TableInfo, TableSource } from '../worker/protocol.ts';
+import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputsView, TableInfo, TableSource } from '../worker/protocol.ts';
 import type { ScenarioDraft } from '../worker/protocol.ts';
 import { History } from './history.ts';
 import { lineReady } from '../../src/study/index.ts';
@@ -41,6 +41,8 @@ export const app = reactive({
   tableYear: null as number | null,
   /** The study's input files in words (mixes, activities, margins, price index, commuting by sector). */
   studyInputs: { mix: null, activity: null, margins: null, 'price-index': null, commuting: null } as StudyInputsView,
+  /** The study's own mixes, activities, margins, price index and commuting shares, as the worker last accepted them. */
+  content: { mixes: [], activities: [], margins: null, priceIndex: null, commuting: [] } as StudyContent,
   /**
    * Results of each scenario: its view, its refusal (located), or `waiting` when no line has a sector yet. They are
    * `markRaw`: plain data from the worker, read-only on screen, so 2,000-sector vectors get no reactive proxies.
@@ -70,8 +72,28 @@ export const app = reactive({
   fatal: '' as string,
 });
 
-const history = new History<{ scenarios: ScenarioDraft[]; selected: number }>();
+/**
+ * One undo step per user edit of the study's inputs: the scenarios (names, phases, lines), the study choices
+ * (discount rate, commuting share, table year) and the study's content (mixes, activities, margins, price index,
+ * commuting by sector, whether edited or read from a file). The table, its roles and the closure are not in it.
+ */
+interface StudyEdit {
+  scenarios: ScenarioDraft[];
+  selected: number;
+  discountRate: number | null;
+  commutingShare: number;
+  tableYear: number | null;
+  content: StudyContent;
+}
+const history = new History<StudyEdit>();
 export const undoState = reactive({ canUndo: false, canRedo: false });
+
+function studyEdit(): StudyEdit {
+  return {
+    scenarios: app.scenarios, selected: app.selected, discountRate: app.discountRate, commutingShare: app.commutingShare, tableYear: app.tableYear,
+    content: app.content,
+  };
+}
 
 function syncUndo(): void {
   undoState.canUndo = history.canUndo;
@@ -106,6 +128,7 @@ export async function loadSample(): Promise<void> {
     app.table = markRaw(r.table);
     app.source = r.source;
     app.analysis = markRaw(r.analysis);
+    app.content = r.content;
     app.ready = true;
     if (app.scenarios.length === 0 || app.starterOnly) {
       app.scenarios = [r.starter];
@@ -200,6 +223,7 @@ export async function useTable(source: TableSource): Promise<boolean> {
     app.table = markRaw(r.table);
     app.source = source;
     app.analysis = markRaw(r.analysis);
+    app.content = r.content;
     app.importError = null;
     app.draft = null;
     if (app.pathDestination !== null && !r.table.sectors.includes(app.pathDestination)) app.pathDestination = null;
@@ -231,7 +255,7 @@ export async function openTable(): Promise<void> {
 // ---- scenarios ----
 
 export function editScenarios(fn: (s: ScenarioDraft[]) => void, select?: number): void {
-  history.record({ scenarios: app.scenarios, selected: app.selected });
+  history.record(studyEdit());
   app.starterOnly = false;
   const copy = JSON.parse(JSON.stringify(app.scenarios)) as ScenarioDraft[];
   fn(copy);
@@ -249,26 +273,79 @@ export function clampPhase(): void {
   app.phase = Math.min(Math.max(0, app.phase), Math.max(0, n - 1));
 }
 
-export function undo(): void {
-  app.inputProblems = {};
-  const s = history.undo({ scenarios: app.scenarios, selected: app.selected });
-  if (!s) return;
-  app.scenarios = s.scenarios;
-  app.selected = s.selected;
-  clampPhase();
+/** One study choice (discount rate, commuting share, table year) set by the user: one undoable edit. */
+export function editChoice(fn: () => void): void {
+  history.record(studyEdit());
+  fn();
   syncUndo();
   markDirty(true);
 }
 
-export function redo(): void {
+function showContent(r: StudyContentView): void {
+  app.table = markRaw(r.table);
+  app.studyInputs = r.inputs;
+  app.content = r.content;
+}
+
+/**
+ * Content changes and undo/redo run one after another: each waits for the worker's answer before the next takes its
+ * snapshot, so two quick Ctrl+Z never restore from a half-applied state.
+ */
+let queue: Promise<unknown> = Promise.resolve();
+function inTurn<T>(step: () => Promise<T>): Promise<T> {
+  const next = queue.then(step, step);
+  queue = next.catch(() => undefined);
+  return next;
+}
+
+/**
+ * Change the study's content (an editor's save, a file read or removed): the worker checks it as a whole through the
+ * study layer; only accepted content becomes one undoable edit (with `after`'s changes to the scenarios, e.g. lines
+ * following a renamed mix). A refusal (located message) is thrown to the caller.
+ */
+export function editStudyContent(call: () => Promise<StudyContentView>, after?: () => void): Promise<void> {
+  return inTurn(async () => {
+    const before = studyEdit();
+    const r = await call();
+    history.record(before);
+    showContent(r);
+    after?.();
+    syncUndo();
+    markDirty(true);
+  });
+}
+
+async function restore(s: StudyEdit): Promise<void> {
   app.inputProblems = {};
-  const s = history.redo({ scenarios: app.scenarios, selected: app.selected });
-  if (!s) return;
   app.scenarios = s.scenarios;
   app.selected = s.selected;
+  app.discountRate = s.discountRate;
+  app.commutingShare = s.commutingShare;
+  app.tableYear = s.tableYear;
   clampPhase();
   syncUndo();
   markDirty(true);
+  if (JSON.stringify(s.content) === JSON.stringify(app.content)) return;
+  try {
+    showContent(await engine().call('setStudyContent', JSON.parse(JSON.stringify(s.content)) as StudyContent));
+  } catch (e) {
+    // Content of an earlier table may name sectors this table lacks: said, and the content stays as it is.
+    if (!(e instanceof CancelledError)) say(`Not restored: ${messageOf(e)}`);
+  }
+}
+
+export function undo(): Promise<void> {
+  return inTurn(async () => {
+    const s = history.undo(studyEdit());
+    if (s) await restore(s);
+  });
+}
+
+export function redo(): Promise<void> {
+  return inTurn(async () => {
+    const s = history.redo(studyEdit());
+    if (s) await restore(s);
+  });
 }
 
 /** The screen's choices as the study's settings. */
@@ -304,7 +381,7 @@ export async function recomputeAll(): Promise<void> {
 }
 
 let pending: ReturnType<typeof setTimeout> | null = null;
-watch(() => [app.scenarios, app.closure, app.discountRate, app.commutingShare, app.tableYear, app.studyInputs], () => {
+watch(() => [app.scenarios, app.closure, app.discountRate, app.commutingShare, app.tableYear, app.studyInputs, app.content], () => {
   app.resultsStale = true;
   if (pending) clearTimeout(pending);
   pending = setTimeout(() => { void recomputeAll(); }, 120);

@@ -4,11 +4,11 @@
  * become a new scenario (undoable, as any edit); spending-mix files read through it join the study's mixes. The
  * bridge itself is not part of the study: what it made (lines and mixes by sector) is, as with the CLI's --bridge.
  */
-import { markRaw, reactive } from 'vue';
+import { reactive } from 'vue';
 import { BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, type BridgeSummary } from '../../src/study/index.ts';
 import { engine, CancelledError } from '../worker/client.ts';
 import type { RegionalFile } from '../worker/regional.ts';
-import { app, editScenarios, markDirty, messageOf, say } from './app.ts';
+import { app, editScenarios, editStudyContent, messageOf, say } from './app.ts';
 
 export const SAMPLE_BRIDGE: RegionalFile = { text: BRIDGE_SAMPLE_CSV, fileName: BRIDGE_SAMPLE_FILE_NAME };
 
@@ -69,11 +69,9 @@ export async function readMixByCodes(file: RegionalFile): Promise<boolean> {
   bridge.error = null;
   bridge.done = null;
   try {
-    const r = await engine().call('setStudyInput', { kind: 'mix', text: file.text, fileName: file.fileName, bridge: bridge.file }, 'Reading the spending mixes…');
-    app.table = markRaw(r.table);
-    app.studyInputs = r.inputs;
-    markDirty(true);
-    bridge.done = `${file.fileName} → ${r.inputs.mix ?? 'no mixes'}`;
+    const via = bridge.file;
+    await editStudyContent(() => engine().call('setStudyInput', { kind: 'mix', text: file.text, fileName: file.fileName, bridge: via }, 'Reading the spending mixes…'));
+    bridge.done = `${file.fileName} → ${app.studyInputs.mix ?? 'no mixes'}`;
     return true;
   } catch (e) {
     if (!(e instanceof CancelledError)) bridge.error = messageOf(e);

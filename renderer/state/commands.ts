@@ -33,8 +33,8 @@ export const COMMANDS: readonly CommandInfo[] = [
   entry('save-project-as', 'Save project as…', 'File'),
   entry('export-report', 'Export reports…', 'File'),
   entry('print-brief', 'Print the brief…', 'File'),
-  entry('undo', 'Undo scenario edit', 'Edit'),
-  entry('redo', 'Redo scenario edit', 'Edit'),
+  entry('undo', 'Undo', 'Edit'),
+  entry('redo', 'Redo', 'Edit'),
   entry('guide', 'Guide', 'Help'),
   entry('about', 'About Roundwise', 'Help'),
 ];

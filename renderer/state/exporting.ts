@@ -5,7 +5,8 @@
 import { csvFileText, type ReportFile } from '../../src/study/index.ts';
 import type { Chart } from 'chart.js';
 import { getBridge } from '../bridge/index.ts';
-import { app, say } from './app.ts';
+import { app, messageOf, say } from './app.ts';
+import { engine, CancelledError } from '../worker/client.ts';
 
 /** Margins and type sizes of an exported chart, in CSS pixels (scaled by the canvas' pixel ratio). */
 const PNG = { pad: 16, title: 16, subtitle: 12, gap: 6 };
@@ -63,4 +64,19 @@ export async function exportReportFiles(files: ReportFile[]): Promise<number> {
   }
   if (n) say(`Exported ${files.slice(0, n).map((f) => f.name).join(', ')}`);
   return n;
+}
+
+/**
+ * Spending mixes as a mix file (`mix,sector,share`, written by the engine's writeMixCsv, read back by the mix reader):
+ * the named ones, or all of the study's own (`names` null). Through the bridge like every export: a save dialog that
+ * asks before replacing a file, an atomic write.
+ */
+export async function exportMixes(names: string[] | null): Promise<void> {
+  try {
+    const f = await engine().call('mixFile', { names });
+    const saved = await getBridge().exportFile(f.name, 'csv', csvFileText(f.text));
+    if (saved) say(`Exported ${saved.name}`);
+  } catch (e) {
+    if (!(e instanceof CancelledError)) say(`Not exported: ${messageOf(e)}`);
+  }
 }

@@ -55,6 +55,7 @@ export async function applyProject(text: string, fileName: string, path?: string
     app.commutingShare = r.choices.commutingShare ?? 0;
     app.tableYear = r.choices.tableYear ?? null;
     app.studyInputs = r.inputs;
+    app.content = r.content;
     app.importError = null;
     app.draft = null;
     app.project = { name: fileName, ...(path ? { path } : {}) };

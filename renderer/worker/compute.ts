@@ -6,10 +6,10 @@
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
   type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
-import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
+import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
 import { analysisView, gridMargins, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
 import { regionalApi } from './regional.ts';
 import { howSureMemory, uncertaintyApi } from './uncertainty.ts';
@@ -69,14 +69,30 @@ function studyInputsView(study: Study): StudyInputsView {
   };
 }
 
+/** File origins say where a file's rows were; content the app keeps (and edits, and undoes) has none. */
+const ORIGIN_KEYS = new Set(['origin', 'itemOrigins', 'sectorOrigin']);
+function withoutOrigins<T>(x: T): T {
+  return JSON.parse(JSON.stringify(x, (k, v: unknown) => (ORIGIN_KEYS.has(k) ? undefined : v))) as T;
+}
+
+function contentOf(study: Study): StudyContent {
+  return withoutOrigins({ mixes: study.mixes, activities: study.activities, margins: study.margins, priceIndex: study.prices.index, commuting: study.commuting.sectors });
+}
+
+/** Keep the study with new content, checked by the study layer as a save would be (located refusals; nothing kept then). */
+function useContent(study: Study): StudyContentView {
+  checkStudyInputs(study);
+  state = restudy(current(), study);
+  return { table: tableInfo(study, study.source?.fileName ?? study.table.name), inputs: studyInputsView(study), content: contentOf(study) };
+}
+
 /**
  * Read one of the study's input files (replacing the one before; spending mixes and activities of the same name are
  * replaced, others kept), or remove it (`text` null). Checked against the table like a save would (located refusals).
  * A mix file may name codes of an outside classification, read through `bridge` (`code,sector[,share]`).
  */
-function setStudyInput(args: { kind: StudyInputKind; text: string | null; fileName: string; bridge?: RegionalFile | null }): { table: TableInfo; inputs: StudyInputsView } {
-  const ps = current();
-  const study: Study = { ...ps.study };
+function setStudyInput(args: { kind: StudyInputKind; text: string | null; fileName: string; bridge?: RegionalFile | null }): StudyContentView {
+  const study: Study = { ...current().study };
   const { kind, text, fileName } = args;
   const keep = <T extends { name: string }>(old: T[], add: T[]) => [...old.filter((x) => !add.some((y) => y.name === x.name)), ...add];
   if (kind === 'mix') study.mixes = text === null ? [] : keep(study.mixes, mixesFromFile(text, fileName, args.bridge ? bridgeOf(args.bridge, study.table.sectors) : null));
@@ -84,15 +100,35 @@ function setStudyInput(args: { kind: StudyInputKind; text: string | null; fileNa
   else if (kind === 'margins') study.margins = text === null ? null : parseMarginsCsv(text, fileName);
   else if (kind === 'price-index') study.prices = { ...study.prices, index: text === null ? null : parsePriceIndexCsv(text, fileName) };
   else study.commuting = { ...study.commuting, sectors: text === null ? [] : parseCommutingCsv(text, fileName) };
-  checkStudyInputs(study);
-  state = restudy(ps, study);
-  return { table: tableInfo(study, study.source?.fileName ?? study.table.name), inputs: studyInputsView(study) };
+  return useContent(study);
 }
 
-function load(study: Study): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft } {
+/** The study's content as the app's editors (or undo) leave it: every part replaced, then checked as a whole. */
+function setStudyContent(c: StudyContent): StudyContentView {
+  const study = current().study;
+  return useContent({
+    ...study, mixes: c.mixes, activities: c.activities, margins: c.margins,
+    prices: { ...study.prices, index: c.priceIndex }, commuting: { ...study.commuting, sectors: c.commuting },
+  });
+}
+
+/** Spending mixes as a mix file (writeMixCsv: mix,sector,share; `names` null: the study's own), for the app's export. */
+function mixFile(args: { names: string[] | null }): { name: string; text: string } {
+  const { study } = current();
+  const all = [...study.mixes, ...mixesOfTable(study.table)];
+  const mixes = args.names === null ? study.mixes : args.names.map((n) => {
+    const m = all.find((x) => x.name === n);
+    if (!m) throw new InputError('unknown-mix', `the study has no spending mix '${n}'`, { rowLabel: n });
+    return m;
+  });
+  if (mixes.length === 0) throw new InputError('empty', 'the study has no spending mixes of its own to export');
+  return { name: `${scenarioSlug(mixes.length === 1 ? mixes[0]!.name : `${study.name || study.table.name} mixes`)}.csv`, text: writeMixCsv(mixes) };
+}
+
+function load(study: Study): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft; content: StudyContent } {
   const ps = prepareStudy(study);
   state = ps;
-  return { table: tableInfo(study, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study) };
+  return { table: tableInfo(study, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study), content: contentOf(study) };
 }
 
 function starter(study: Study): ScenarioDraft {
@@ -104,8 +140,9 @@ function starter(study: Study): ScenarioDraft {
   };
 }
 
-function loadTable(src: TableSource): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft } {
+function loadTable(src: TableSource): ReturnType<typeof load> {
   const study = studyFromTableFile(utf8Bytes(src.text), src.fileName, importSettings(src));
+  if (src.derivedFrom?.length) study.source = { ...study.source!, derivedFrom: src.derivedFrom.map((o) => ({ ...o })) };
   return load(state ? withTable(state.study, study) : study);
 }
 
@@ -210,7 +247,7 @@ function recoveryBaseJson(args: { name: string; choices: StudyChoices }): Blob {
   return new Blob([JSON.stringify(recoveryBase(args))], { type: 'application/json' });
 }
 
-function openProject(args: { text: string; fileName: string }): { table: TableInfo; analysis: AnalysisView; scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
+function openProject(args: { text: string; fileName: string }): ReturnType<typeof load> & { scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
   const study = studyFromProjectFile(args.text, args.fileName);
   const loaded = load(study);
   const active = Math.max(0, study.scenarios.findIndex((s) => s.name === study.settings.activeScenario));
@@ -241,7 +278,19 @@ function sourceOf(study: Study): TableSource | null {
     ...(imp.name ? { name: imp.name } : {}),
     ...(imp.delimiter ? { delimiter: imp.delimiter } : {}),
     ...(imp.decimalMark ? { decimalMark: imp.decimalMark } : {}),
+    ...(src.derivedFrom?.length ? { derivedFrom: src.derivedFrom.map((o) => ({ ...o })) } : {}),
   };
+}
+
+/**
+ * The bundled two-phase example (building the plant once, operating it yearly) as a scenario of the screen, or null
+ * when the table in use lacks a sector it names (it is written for the sample county). Lines lose their file line.
+ */
+function exampleScenario(_: Record<string, never>): ScenarioDraft | null {
+  const s = parseShockCsv(SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME);
+  const sectors = new Set(current().study.table.sectors);
+  if (s.phases.some((p) => p.lines.some((l) => !sectors.has(l.sector)))) return null;
+  return { ...s, name: 'Food plant, built then operated', phases: s.phases.map((p) => ({ ...p, lines: p.lines.map(({ origin: _origin, ...l }) => l) })) };
 }
 
 function spread(args: { mix: SpendingMix; amount: number; localShare: number }): ScenarioLine[] {
@@ -249,7 +298,7 @@ function spread(args: { mix: SpendingMix; amount: number; localShare: number }):
 }
 
 export const api = {
-  loadSample(_: Record<string, never>): { table: TableInfo; analysis: AnalysisView; source: TableSource; starter: ScenarioDraft; note: string } {
+  loadSample(_: Record<string, never>): ReturnType<typeof load> & { source: TableSource; note: string } {
     const source: TableSource = { text: SAMPLE_CSV, fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' };
     return { ...loadTable(source), source, note: SAMPLE_NOTE };
   },
@@ -257,7 +306,10 @@ export const api = {
   loadTable,
   runScenario,
   spread,
+  exampleScenario,
   setStudyInput,
+  setStudyContent,
+  mixFile,
   paths,
   grid,
   reports,

@@ -4,7 +4,9 @@
  * reason, never NaN.
  */
 import type { api } from './compute.ts';
-import type { Closure, DecimalMark, Delimiter, LinkageClass, MeasureKey, RoleMap, Scenario, Timing, Variable } from '../../src/study/index.ts';
+import type {
+  Activity, Closure, Commuting, DecimalMark, Delimiter, LinkageClass, Margins, MeasureKey, PriceIndex, ProjectSourceOrigin, RoleMap, Scenario, SpendingMix, Timing, Variable,
+} from '../../src/study/index.ts';
 
 export type EngineApi = typeof api;
 
@@ -22,6 +24,8 @@ export interface TableSource {
   /** Field delimiter and decimal mark chosen on the Import screen; detected when absent. */
   delimiter?: Delimiter;
   decimalMark?: DecimalMark;
+  /** The supply and use pair the table was derived from, each file with its SHA-256 (kept in the study's source). */
+  derivedFrom?: ProjectSourceOrigin[];
 }
 
 /** The screen's choices that the study keeps in its settings. */
@@ -29,6 +33,25 @@ export interface TableSource {
 export type StudyInputKind = 'mix' | 'activity' | 'margins' | 'price-index' | 'commuting';
 /** Each input file in words ("2 mixes: Visitor day, Festival"), or null when the study has none. */
 export type StudyInputsView = Record<StudyInputKind, string | null>;
+
+/**
+ * The study's own content besides the table and scenarios, as the app's editors change it and undo restores it: its
+ * spending mixes, activities not in the table, margins, price index and commuting shares by sector (no file origins).
+ */
+export interface StudyContent {
+  mixes: SpendingMix[];
+  activities: Activity[];
+  margins: Margins | null;
+  priceIndex: PriceIndex | null;
+  commuting: Commuting['sectors'];
+}
+
+/** What a change of the study's content gives back: the table's view (its mixes and activities), the words, the content. */
+export interface StudyContentView {
+  table: TableInfo;
+  inputs: StudyInputsView;
+  content: StudyContent;
+}
 
 export interface StudyChoices {
   closure: Closure;

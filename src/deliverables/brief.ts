@@ -6,7 +6,8 @@
  * (rounding.ts), so the PDF and the print view show the same text.
  */
 import type { Cell } from '../csv/index.ts';
-import type { ScenarioLine, ScenarioResult } from '../scenario/index.ts';
+import { originLines, type SourceOrigin } from '../report/index.ts';
+import type { OverTime, ScenarioLine, ScenarioResult, Timing, TotalsRecord } from '../scenario/index.ts';
 import { type BriefBlock, type BriefDocument, type BriefTable } from './document.ts';
 import { councilNumber, dateText, plainNumber, ROUNDING_NOTE, shareText, type Quantity } from './rounding.ts';
 
@@ -30,13 +31,25 @@ export interface BriefPhase {
   result: ScenarioResult;
   /** The lines of this phase, as typed. */
   lines: ScenarioLine[];
+  /** An annual phase with a number of years: its cumulative effect and, with a discount rate, its present value. */
+  overTime?: OverTime | null;
+}
+
+/** Phases of one timing added up (never one-time with annual), as the study layer's phase summary has them. */
+export interface SameTimingTotal {
+  timing: Timing;
+  phases: string[];
+  totals: TotalsRecord;
+  /** The sum of the phases' cumulative effects, when every one has a number of years. */
+  cumulative: TotalsRecord | null;
 }
 
 export interface BriefInput {
   scenario: string;
   description?: string;
   tableName: string;
-  source: { fileName: string; sha256: string } | null;
+  /** The table file and its SHA-256; `origins`: the supply and use pair it was derived from, with theirs. */
+  source: { fileName: string; sha256: string; origins?: SourceOrigin[] } | null;
   /** ISO 8601 date-time of the run. */
   date: string;
   moneyUnit: string;
@@ -48,6 +61,8 @@ export interface BriefInput {
   model: string;
   base: BaseEconomy;
   phases: BriefPhase[];
+  /** Totals across phases of the same timing (only when a timing has two phases or more). */
+  sameTiming?: SameTimingTotal[];
   /** Closure, mixed-model lines, margins, price conversion: one sentence each. */
   modelChoices: string[];
   /** The outcome's notes (checks of the shock, table warnings). */
@@ -152,6 +167,47 @@ function headlineSentence(p: BriefPhase, base: BaseEconomy): string {
   const list = parts.length > 1 ? `${parts.slice(0, -1).join(', ')} and ${parts.at(-1)}` : (parts[0] ?? '');
   const how = r.closure === 'household' ? 'direct, indirect and induced' : 'direct and indirect; no induced effects';
   return `Altogether (${how}): ${list}.`;
+}
+
+/** "25,400 job-years, 1,260,000 thousand dollars of labour income and …" for one set of totals. */
+function totalsList(totals: TotalsRecord, moneyUnit: string, years: boolean): string {
+  const parts: string[] = [];
+  for (const h of HEADLINE) {
+    const t = totals[h.v];
+    if (!t) continue;
+    if (h.noun) parts.push(`${councilNumber(t.total, 'jobs')} ${years ? (h.v === 'employment' ? 'job-years' : `${h.noun} × years`) : h.noun}`);
+    else parts.push(`${councilNumber(t.total, 'money')} ${moneyUnit} of ${h.label.toLowerCase()}`);
+  }
+  return parts.length > 1 ? `${parts.slice(0, -1).join(', ')} and ${parts.at(-1)}` : (parts[0] ?? '');
+}
+
+/** An annual phase over its years: the cumulative total (undiscounted) and the present value (money only). */
+function overTimeSentences(p: BriefPhase): string[] {
+  const o = p.overTime;
+  if (!o) return [];
+  const unit = p.result.moneyUnit;
+  const out = [`Over ${o.years} years (${o.years} × one year's effects, undiscounted), in total: ${totalsList(o.cumulative, unit, true)}.`];
+  if (o.presentValue && o.rate !== null) {
+    out.push(`Present value at a discount rate of ${plainNumber(o.rate * 100)} % a year (each year's effect discounted to the start of the first year; money only): ${totalsList(o.presentValue, unit, false)}.`);
+  } else {
+    out.push('No discount rate was given, so no present value.');
+  }
+  return out;
+}
+
+/** The same-timing totals, each labelled as such; one-time and annual results stay apart. */
+function sameTimingBlocks(sums: readonly SameTimingTotal[], moneyUnit: string): BriefBlock[] {
+  if (sums.length === 0) return [];
+  const items = sums.map((s) => {
+    const label = s.timing === 'once' ? `All one-time phases (${s.phases.join(', ')}), added` : `All annual phases (${s.phases.join(', ')}), one year of each, added`;
+    const cum = s.cumulative ? `; over their years, in total: ${totalsList(s.cumulative, moneyUnit, true)}` : '';
+    return `${label}: ${totalsList(s.totals, moneyUnit, false)}${cum}.`;
+  });
+  return [
+    { kind: 'heading', level: 2, text: 'Phases of the same timing, added' },
+    { kind: 'paragraph', tone: 'muted', text: 'Only phases of the same timing are added; one-time and annual results are never added together. Totals only, rounded as above.' },
+    { kind: 'list', items },
+  ];
 }
 
 /** Indices of the sectors with the largest change of output (absolute total), largest first. */
@@ -266,6 +322,7 @@ function phaseBlocks(p: BriefPhase, input: BriefInput, several: boolean): BriefB
     { kind: 'heading', level: 2, text: title },
     { kind: 'paragraph', tone: 'strong', text: headlineSentence(p, input.base) },
     headlineTable(p, input.base),
+    ...overTimeSentences(p).map((text): BriefBlock => ({ kind: 'paragraph', tone: 'strong', text })),
     { kind: 'paragraph', tone: 'muted', text: `Direct: the shock itself; indirect: the local supply chain's response (open model, Type I); induced: local spending of the extra household income (household-closed model, Type II); total: all three. Shares are of the county's base-year totals in the table. ${ROUNDING_NOTE}` },
   ];
   if (top.length) {
@@ -290,6 +347,7 @@ export function briefDocument(input: BriefInput): BriefDocument {
     ['Scenario', input.description ? `${input.scenario} — ${input.description}` : input.scenario],
     ['Table', input.tableName],
     ...(input.source ? [['Table file', input.source.fileName] as [string, string], ['SHA-256 of the file', input.source.sha256] as [string, string]] : [['Table file', 'not from a file (made in the app or estimated)'] as [string, string]]),
+    ...originLines(input.source?.origins),
     ['Money', `${input.moneyUnit}; ${input.priceYear ? `prices of ${input.priceYear}` : 'price year not stated (amounts as in the table)'}`],
     ['Model', input.model],
     ['Table check', input.verdict],
@@ -297,7 +355,9 @@ export function briefDocument(input: BriefInput): BriefDocument {
   ];
   const blocks: BriefBlock[] = [
     { kind: 'facts', rows: facts },
+    ...(several ? [{ kind: 'paragraph', tone: 'muted', text: `This study has ${input.phases.length} phases, each reported on its own below; one-time and annual results are never added together.` } as BriefBlock] : []),
     ...input.phases.flatMap((p) => phaseBlocks(p, input, several)),
+    ...sameTimingBlocks(input.sameTiming ?? [], input.moneyUnit),
     { kind: 'heading', level: 2, text: 'Inputs' },
     inputTable(input.phases, input.moneyUnit, input.priceYear),
     { kind: 'heading', level: 2, text: 'Model choices' },

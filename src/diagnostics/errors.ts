@@ -179,6 +179,7 @@ export const ERROR_CODES = [
   'draws-range',
   'uncertainty-range',
   'uncertainty-unavailable',
+  'flq-origin-mismatch',
   // Studies (src/study)
   'report-unavailable',
   'unknown-scenario',
@@ -198,6 +199,8 @@ export interface Location {
   column?: number;
   rowLabel?: string;
   columnLabel?: string;
+  /** The phase of a scenario the line belongs to, when the scenario has several (a line number alone is ambiguous). */
+  phase?: string;
 }
 
 export class InputError extends Error {
@@ -227,6 +230,7 @@ export function formatLocation(loc: Location): string {
   if (loc.column !== undefined) where += `:${loc.column}`;
   if (where) parts.push(where);
   const labels: string[] = [];
+  if (loc.phase !== undefined) labels.push(`phase '${loc.phase}'`);
   if (loc.rowLabel !== undefined) labels.push(`row '${loc.rowLabel}'`);
   if (loc.columnLabel !== undefined) labels.push(`column '${loc.columnLabel}'`);
   if (labels.length) parts.push(`(${labels.join(', ')})`);

@@ -39,7 +39,7 @@ function at(o: LineOrigin | undefined, field: string, rowLabel: string) {
 export function checkActivity(a: Activity): void {
   const o = a.itemOrigins ?? {};
   if (!Number.isFinite(a.output) || !(a.output > 0)) {
-    throw new InputError('activity-bad', `activity '${a.name}' needs an output above 0 (an 'output' row); found ${a.output}`, at(o.output ?? a.origin, 'amount', a.name));
+    throw new InputError('activity-bad', `activity '${a.name}' needs an output above 0 (an 'output' row); found ${Number.isFinite(a.output) ? a.output : 'none'}`, at(o.output ?? a.origin, 'amount', a.name));
   }
   for (const k of ['jobs', 'fte', 'labourIncome', 'valueAdded', 'taxes'] as const) {
     const v = a[k];

@@ -13,8 +13,9 @@ export { compareScenarios, type ScenarioComparison, type ComparisonEntry } from 
 export { parseShockCsv, SHOCK_HEADER, DEFAULT_PHASE_NAME } from './shock-csv.ts';
 export { parseMixCsv, writeMixCsv, checkMixSectors, MIX_HEADER } from './mix-csv.ts';
 export { parseActivityCsv, writeActivityCsv, checkActivity, checkActivitySectors, ACTIVITY_HEADER } from './activity-csv.ts';
-export { parseMarginsCsv, writeMarginsCsv, checkMarginSectors, MARGINS_HEADER } from './margins-csv.ts';
+export { parseMarginsCsv, writeMarginsCsv, checkMargins, checkMarginSectors, MARGINS_HEADER } from './margins-csv.ts';
 export { parsePriceIndexCsv, writePriceIndexCsv, yearOfMoneyUnit, PRICE_INDEX_HEADER } from './prices-csv.ts';
 export { parseCommutingCsv, residentShares, commutingText, NO_COMMUTING, type Commuting } from './commuting-csv.ts';
 export { checkShock, shockNotes, amountText } from './shock-checks.ts';
 export { mixesOfTable, tableMixName } from './table-mixes.ts';
+export { SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME } from './sample.ts';

@@ -47,14 +47,23 @@ export function mixShares(mix: SpendingMix): { sector: string; share: number }[]
   });
   if (mix.shares.length === 0) throw new InputError('mix-empty', `spending mix '${mix.name}' has no sectors`, at());
   let sum = 0;
+  const seen = new Set<string>();
   for (const s of mix.shares) {
+    if (seen.has(s.sector)) {
+      const o = s.origin ?? mix.origin;
+      throw new InputError('duplicate-entry', `sector '${s.sector}' appears twice in mix '${mix.name}'`, {
+        ...(o?.file !== undefined ? { file: o.file } : {}), ...(o?.line !== undefined ? { line: o.line } : {}),
+        ...(o?.columns?.sector !== undefined ? { column: o.columns.sector } : {}), rowLabel: s.sector, columnLabel: 'sector',
+      });
+    }
+    seen.add(s.sector);
     if (!Number.isFinite(s.share) || s.share < 0 || s.share > 1) {
       throw new InputError('mix-share-range', `spending mix '${mix.name}': share ${s.share} of '${s.sector}' is outside [0, 1] (shares are fractions: write 0.25, not 25)`, { ...at(), columnLabel: s.sector });
     }
     sum += s.share;
   }
   if (Math.abs(sum - 1) > MIX_SUM_TOLERANCE) {
-    throw new InputError('mix-share-sum', `spending mix '${mix.name}': shares sum to ${sum}, not 1`, at());
+    throw new InputError('mix-share-sum', `spending mix '${mix.name}': shares sum to ${Number(sum.toPrecision(12))}, not 1`, at());
   }
   return mix.shares.map((s) => ({ sector: s.sector, share: s.share / sum }));
 }

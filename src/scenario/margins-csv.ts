@@ -53,23 +53,42 @@ export function parseMarginsCsv(text: string, fileName: string): Margins {
       continue;
     }
     if (label === '') throw new InputError('missing-sector', 'sector is empty', r.at('sector'));
-    if (m.rows.some((x) => x.sector === label)) throw new InputError('duplicate-entry', `sector '${label}' has two margin rows`, r.at('sector', label));
     const shares: Record<MarginKind, number> = { retail: 0, wholesale: 0, transport: 0 };
-    let sum = 0;
-    for (const k of kinds) {
-      shares[k] = shareCell(r, k, `${k} margin share`, 'margins-exceed', label) ?? 0;
-      sum += shares[k];
-    }
-    if (sum > 1 + 1e-12) {
-      const last = [...kinds].reverse().find((k) => shares[k] > 0)!;
-      throw new InputError('margins-exceed', `the margin shares of '${label}' add up to ${Number(sum.toPrecision(12))}, more than the whole purchaser price (at most 1)`, r.at(last, label));
-    }
+    for (const k of kinds) shares[k] = shareCell(r, k, `${k} margin share`, 'margins-exceed', label) ?? 0;
     m.rows.push({ sector: label, shares, origin: r.origin() });
   }
+  checkMargins(m);
   if (!sectorRow) {
     throw new InputError('margins-bad', `the margins file needs a '${SECTOR_ROW}' row naming the table sectors that earn each margin (e.g. '${SECTOR_ROW},Retail trade,Wholesale trade,Transport')`, { file: fileName, line: f.headerLine, column: f.columns.sector! });
   }
   return m;
+}
+
+/**
+ * Refuse margins that cannot be, wherever they come from (a file, the app's editor): a share outside [0, 1], a sector
+ * listed twice, a sector whose margins add up to more than its whole purchaser price.
+ */
+export function checkMargins(m: Margins): void {
+  for (const k of MARGIN_KINDS) {
+    const v = m.localShare[k];
+    if (!(Number.isFinite(v) && v >= 0 && v <= 1)) throw new InputError('local-share-range', `local share of the ${k} margin ${v} is outside [0, 1]`, where(m.sectorOrigin ?? m.origin, k, SHARE_ROW));
+  }
+  const seen = new Set<string>();
+  for (const r of m.rows) {
+    const o = r.origin ?? m.origin;
+    if (seen.has(r.sector)) throw new InputError('duplicate-entry', `sector '${r.sector}' has two margin rows`, where(o, 'sector', r.sector));
+    seen.add(r.sector);
+    let sum = 0;
+    for (const k of MARGIN_KINDS) {
+      const v = r.shares[k];
+      if (!(Number.isFinite(v) && v >= 0 && v <= 1)) throw new InputError('margins-exceed', `${k} margin share ${v} is outside [0, 1]`, where(o, k, r.sector));
+      sum += v;
+    }
+    if (sum > 1 + 1e-12) {
+      const last = [...MARGIN_KINDS].reverse().find((k) => r.shares[k] > 0)!;
+      throw new InputError('margins-exceed', `the margin shares of '${r.sector}' add up to ${Number(sum.toPrecision(12))}, more than the whole purchaser price (at most 1)`, where(o, last, r.sector));
+    }
+  }
 }
 
 /** Refuse margins naming a sector the table lacks, or a margin with shares but no sector earning it. */

@@ -13,7 +13,7 @@ import type { SpendingMix } from './types.ts';
 const COLUMNS = ['mix', 'sector', 'share'] as const;
 export const MIX_HEADER = '[mix,]sector,share';
 
-/** Mixes in file order; each checked (shares in [0, 1], summing to 1) and located at its first line. */
+/** Mixes in file order; each checked by `mixShares` (shares in [0, 1], summing to 1, each sector once), located at its lines. */
 export function parseMixCsv(text: string, fileName: string): SpendingMix[] {
   const f = readHeaderCsv(text, fileName, COLUMNS, ['sector', 'share'], MIX_HEADER, 'mix file');
   const mixes = new Map<string, SpendingMix>();
@@ -29,7 +29,6 @@ export function parseMixCsv(text: string, fileName: string): SpendingMix[] {
       m = { name, shares: [], origin: r.origin() };
       mixes.set(name, m);
     }
-    if (m.shares.some((s) => s.sector === sector)) throw new InputError('duplicate-entry', `sector '${sector}' appears twice in mix '${name}'`, r.at('sector', sector));
     m.shares.push({ sector, share, origin: r.origin() });
   }
   if (mixes.size === 0) throw new InputError('empty', 'the mix file has a header but no rows', { file: fileName, line: f.headerLine });

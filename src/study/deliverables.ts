@@ -7,7 +7,8 @@ import {
   briefDocument, briefPdf, councilNumber, headlineRows, workbookXlsx, type BaseEconomy, type BriefDocument, type BriefFonts, type BriefInput, type BriefPhase,
   type Paper, type WorkbookSheet,
 } from '../deliverables/index.ts';
-import { CAUTIONS, modelTypeOf, SCENARIO_CAUTIONS, timingText, type ReportFile } from '../report/index.ts';
+import { CAUTIONS, modelTypeOf, originLines, SCENARIO_CAUTIONS, timingText, type ReportFile } from '../report/index.ts';
+import { sourceOriginsOf } from './source.ts';
 import { valueAddedPerUnit } from '../model/index.ts';
 import type { AnalysisReportKind } from '../report/index.ts';
 import type { PreparedStudy } from './prepare.ts';
@@ -61,7 +62,7 @@ export function baseEconomy(ps: PreparedStudy): BaseEconomy {
 
 /** The phases of an outcome, each with its timing in words (one-time, or annual with its years). */
 export function phasesOf(o: ScenarioOutcome): BriefPhase[] {
-  return o.phases.map((p) => ({ name: p.phase.name, timing: timingText(p.phase), result: { ...p.result, notes: p.notes }, lines: p.phase.lines.filter(lineReady) }));
+  return o.phases.map((p) => ({ name: p.phase.name, timing: timingText(p.phase), result: { ...p.result, notes: p.notes }, lines: p.phase.lines.filter(lineReady), overTime: p.overTime }));
 }
 
 /** Every phase's notes, each once, in phase order. */
@@ -100,7 +101,7 @@ export function briefInputOf(ps: PreparedStudy, o: ScenarioOutcome, date: string
     scenario: o.scenario.name,
     ...(o.scenario.description ? { description: o.scenario.description } : {}),
     tableName: study.table.name,
-    source: study.source ? { fileName: study.source.fileName, sha256: study.source.sha256 } : null,
+    source: study.source ? { fileName: study.source.fileName, sha256: study.source.sha256, origins: sourceOriginsOf(study) } : null,
     date,
     moneyUnit: study.table.moneyUnit,
     priceYear: tableYearOf(study) ? String(tableYearOf(study)!.year) : null,
@@ -108,6 +109,7 @@ export function briefInputOf(ps: PreparedStudy, o: ScenarioOutcome, date: string
     model: modelTypeOf(o.phases[0]!.result),
     base: baseEconomy(ps),
     phases: phasesOf(o),
+    sameTiming: o.byTiming.map((t) => ({ timing: t.timing, phases: t.phases, totals: t.gross, cumulative: t.grossCumulative })),
     modelChoices: modelChoices(o),
     notes: [...notesOf(o), ...(sure.bands ? bandSentences(sure.bands, o.scenario.name) : [])],
     cautions: [...CAUTIONS, ...SCENARIO_CAUTIONS],
@@ -169,6 +171,7 @@ function provenance(ps: PreparedStudy, date: string, o: ScenarioOutcome | null):
     ['Table', study.table.name],
     ['Table file', study.source?.fileName ?? 'not from a file (made in the app or estimated)'],
     ...(study.source ? [['SHA-256 of the file', study.source.sha256] as [string, string]] : []),
+    ...originLines(sourceOriginsOf(study)),
     ['Money unit', study.table.moneyUnit],
     ['Model', o ? modelTypeOf(o.phases[0]!.result) : (ps.models.closed === true ? 'open (Type I) and household-closed (Type II) input-output model' : 'open (Type I) input-output model')],
     ['Table check', ps.verdict.say],

@@ -124,12 +124,25 @@ export function studyModelNotes(ps: PreparedStudy, scenario?: Scenario): { model
   return { model, notes };
 }
 
+/**
+ * Run one phase's step; a refusal of one of its lines names the phase too when the scenario has several (in the app
+ * lines are numbered within their phase, so "line 2" alone does not say which).
+ */
+function inPhase<T>(scenario: Scenario, phase: Phase, run: () => T): T {
+  try {
+    return run();
+  } catch (e) {
+    if (!(e instanceof InputError) || scenario.phases.length < 2 || e.location.phase !== undefined) throw e;
+    throw new InputError(e.code, e.message, { ...e.location, phase: phase.name }, e.hint);
+  }
+}
+
 function phaseOutcome(ps: PreparedStudy, scenario: Scenario, phase: Phase, inputs: ShockInputs, want: string | 'default' | null, tableNotes: string[], studyNotes: string[]): PhaseOutcome {
   const { pm, analysis, study } = ps;
   const label = scenario.phases.length > 1 ? `${scenario.name} — ${phase.name}` : scenario.name;
   const set = { name: label, lines: phase.lines };
-  const { result, expanded } = runPhaseExpanded(pm, set, ps.models, inputs);
-  const net = hasAdditionality(phase) ? runPhaseExpanded(pm, set, ps.models, inputs, { net: true }).result : null;
+  const { result, expanded } = inPhase(scenario, phase, () => runPhaseExpanded(pm, set, ps.models, inputs));
+  const net = hasAdditionality(phase) ? inPhase(scenario, phase, () => runPhaseExpanded(pm, set, ps.models, inputs, { net: true })).result : null;
   const rounds = spendingRounds(pm, result.effectiveDemand, result.openOutput, { maxRounds: study.settings.rounds.maxRounds, perronRoot: analysis.viability.perronRoot });
   const dest = want === null ? null : want === 'default' ? (study.settings.paths.destination ?? study.table.sectors[defaultDestination(result)]!) : want;
   const paths = dest === null ? null : tracePaths(ps, result, dest);
@@ -211,7 +224,7 @@ export function compareStudyScenarios(ps: PreparedStudy, scenarios: readonly Sce
   scenarios.map(readyLines).forEach((s, si) => {
     for (const p of s.phases) {
       const label = s.phases.length > 1 ? `${s.name} — ${p.name}` : s.name;
-      const result = runPhaseExpanded(ps.pm, { name: label, lines: p.lines }, ps.models, inputs).result;
+      const result = inPhase(s, p, () => runPhaseExpanded(ps.pm, { name: label, lines: p.lines }, ps.models, inputs)).result;
       const index = entries.length;
       let baseline: number | null = null;
       if (si === 0) {

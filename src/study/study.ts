@@ -9,7 +9,7 @@ import {
   type ImportSettings, type Project, type ProjectSettings, type SourceInfo, type StudyPrices,
 } from '../project/index.ts';
 import {
-  checkActivitySectors, checkMarginSectors, checkMixSectors, mixesOfTable, residentShares, SECTOR_KINDS, type Scenario,
+  checkActivity, checkActivitySectors, checkMargins, checkMarginSectors, checkMixSectors, mixesOfTable, mixShares, residentShares, SECTOR_KINDS, type Scenario,
 } from '../scenario/index.ts';
 
 export type Study = Project;
@@ -62,9 +62,24 @@ export function projectFileOf(study: Study): string {
   return serializeProject(study);
 }
 
-/** Refuse study content (mixes, activities, margins, commuting) that names a sector the table lacks. */
+/**
+ * Refuse study content (mixes, activities, margins, commuting) that cannot be — shares out of range or not summing to
+ * 1, an activity buying more than its output, two mixes or activities of one name — or that names a sector the table
+ * lacks. The one check for content from files, projects and the app's editors alike.
+ */
 export function checkStudyInputs(study: Study): void {
   const sectors = study.table.sectors;
+  for (const [what, list] of [['spending mix', study.mixes], ['activity', study.activities]] as const) {
+    const names = new Set<string>();
+    for (const x of list) {
+      if (x.name.trim() === '') throw new InputError('missing-label', `a${what === 'activity' ? 'n' : ''} ${what} needs a name`);
+      if (names.has(x.name)) throw new InputError('duplicate-name', `two of the study's ${what === 'activity' ? 'activities' : 'spending mixes'} are named '${x.name}'`, { rowLabel: x.name });
+      names.add(x.name);
+    }
+  }
+  for (const m of study.mixes) mixShares(m);
+  for (const a of study.activities) checkActivity(a);
+  if (study.margins) checkMargins(study.margins);
   checkMixSectors(study.mixes, sectors);
   checkActivitySectors(study.activities, sectors);
   if (study.margins) checkMarginSectors(study.margins, sectors);

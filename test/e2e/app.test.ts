@@ -10,7 +10,7 @@ import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
 import Papa from 'papaparse';
-import { DOWNLOADS, REPO, shot as photograph, skipBrowser, startSession, type Session } from './harness.ts';
+import { DOWNLOADS, money, REPO, type Session, shot as photograph, skipBrowser, startSession } from './harness.ts';
 import { importTable } from '../../src/table/index.ts';
 import { prepareModel, analyzeTable } from '../../src/model/index.ts';
 import { runScenario, linesOf, onePhase } from '../support/scenario.ts';
@@ -35,10 +35,6 @@ function engineTable() {
   return importTable(readFileSync(TEST_CSV, 'utf8'), { fileName: 'ridgeline-test.csv' });
 }
 
-/** The browser shows money with one decimal in the user's locale (en-US here). */
-function shown(v: number): string {
-  return v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
-}
 
 /** Click, and collect the downloads the click starts (reports come as a CSV and its .about.txt). */
 async function downloadsOf(click: () => Promise<void>, count: number): Promise<{ name: string; path: string; text: string }[]> {
@@ -209,9 +205,9 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
 
     const expected = runScenario(prepareModel(engineTable()), TWO_LINES);
     const total = expected.totals.output.total;
-    await poll(() => page.getByTestId('total-effect').textContent(), { timeout: 10_000 }).toBe(shown(total));
-    expect(await page.getByTestId('effect-totals').textContent()).toContain(shown(expected.totals.output.direct));
-    totalBeforeSave = shown(total);
+    await poll(() => page.getByTestId('total-effect').textContent(), { timeout: 10_000 }).toBe(money(total));
+    expect(await page.getByTestId('effect-totals').textContent()).toContain(money(expected.totals.output.direct));
+    totalBeforeSave = money(total);
     // Undo takes the last edit back (local share 50 % → 100 %); redo restores it.
     await page.keyboard.press('Control+z');
     await poll(() => page.getByLabel('Local share of line 2, percent').inputValue()).toBe('100');

@@ -84,3 +84,14 @@ export async function goTo(page: Page, screen: string): Promise<void> {
 export async function shot(page: Page, name: string): Promise<void> {
   await page.screenshot({ path: join(SCREENSHOTS, `${name}.png`), fullPage: false });
 }
+
+/** Money as the app shows it: one decimal in the session's locale (en-US). */
+export function money(v: number): string {
+  return v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
+}
+
+/** The text of one cell of a table found by its test id: the row by its sector label, the column by position (0 = the label). */
+export async function rowCell(page: Page, table: string, sector: string, col: number): Promise<string> {
+  const row = page.getByTestId(table).locator('tbody tr').filter({ has: page.locator('th', { hasText: new RegExp(`^${sector}$`) }) });
+  return ((await row.locator('th, td').nth(col).textContent()) ?? '').trim();
+}

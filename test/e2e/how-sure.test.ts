@@ -6,7 +6,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { shot, skipBrowser, startSession, type Session } from './harness.ts';
+import { money, openApp, shot, skipBrowser, type Session } from './harness.ts';
 import { onePhase } from '../support/scenario.ts';
 import {
   SAMPLE_CSV, SAMPLE_FILE_NAME, defaultUncertaintySettings, prepareStudy, studyBands, studyFromTableFile, studySensitivity, utf8Bytes, type Scenario,
@@ -16,7 +16,6 @@ let s: Session;
 let page: Page;
 
 const ps = prepareStudy(studyFromTableFile(utf8Bytes(SAMPLE_CSV), SAMPLE_FILE_NAME));
-const money = (v: number) => v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
 /** ChartPanel's table alternative: up to four decimals. */
 const cell = (v: number) => v.toLocaleString('en-US', { maximumFractionDigits: 4 });
 
@@ -34,10 +33,8 @@ async function compute(draws: number, seed: number, cv: number): Promise<void> {
 
 describe.skipIf(skipBrowser)('How sure? in the browser', () => {
   beforeAll(async () => {
-    s = await startSession();
+    s = await openApp();
     page = s.page;
-    await page.goto(s.url);
-    await page.getByTestId('verdict').waitFor({ timeout: 30_000 });
   });
 
   afterAll(async () => {

@@ -9,7 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Download, Page } from 'playwright-core';
-import { DOWNLOADS, shot, skipBrowser, startSession, type Session } from './harness.ts';
+import { DOWNLOADS, money, openApp, rowCell, shot, skipBrowser, type Session } from './harness.ts';
 import { importTable } from '../../src/table/index.ts';
 import { writeTableCsv } from '../../src/table/index.ts';
 import { analyzeTable } from '../../src/model/index.ts';
@@ -29,9 +29,6 @@ const expected = regionalize(national, parseEmploymentCsv(EMPLOYMENT_SAMPLE_CSV,
 function ratio(v: number, digits = 4): string {
   return v.toLocaleString('en-US', { minimumFractionDigits: digits, maximumFractionDigits: digits });
 }
-function money(v: number): string {
-  return v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
-}
 
 async function downloadsOf(click: () => Promise<void>, count: number): Promise<{ name: string; text: string }[]> {
   const got: Download[] = [];
@@ -50,17 +47,12 @@ async function downloadsOf(click: () => Promise<void>, count: number): Promise<{
 }
 
 /** The text of one cell of the sector table: row by sector label, column by position (0 = sector). */
-async function sectorCell(sector: string, col: number): Promise<string> {
-  const row = page.getByTestId('regional-sectors').locator('tbody tr').filter({ has: page.locator('th', { hasText: new RegExp(`^${sector}$`) }) });
-  return ((await row.locator('th, td').nth(col).textContent()) ?? '').trim();
-}
+const sectorCell = (sector: string, col: number) => rowCell(page, 'regional-sectors', sector, col);
 
 describe.skipIf(skipBrowser)('Start from a larger table, in the browser', () => {
   beforeAll(async () => {
-    s = await startSession();
+    s = await openApp();
     page = s.page;
-    await page.goto(s.url);
-    await page.getByTestId('verdict').waitFor({ timeout: 30_000 });
   });
 
   afterAll(async () => {

@@ -86,11 +86,13 @@ describe.skipIf(skipBrowser)('scenario input', () => {
   });
 
   it('shows lines spread by a spending mix with short amounts', async () => {
-    await page.locator('details:has(select) summary').click();
-    const mix = page.locator('details select').first();
+    // The scenario editor's own "Spread an amount by a spending mix" (the study inputs have details of their own).
+    const spread = page.getByTestId('scenario-editor').locator('details:has(select)');
+    await spread.locator('summary').click();
+    const mix = spread.locator('select').first();
     await mix.selectOption({ index: 1 });
-    await page.locator('details input[type="number"]').first().fill('1000');
-    await page.locator('details button').click();
+    await spread.locator('input[type="number"]').first().fill('1000');
+    await spread.locator('button').click();
     await poll(() => page.locator('[data-line-amount]').count()).toBeGreaterThan(2);
     const amounts = await page.locator('[data-line-amount]').evaluateAll((els) => els.map((e) => (e as HTMLInputElement).value));
     // At most two decimals on screen (the field's title keeps every digit).

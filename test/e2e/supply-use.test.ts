@@ -8,7 +8,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
-import { shot, skipBrowser, startSession, type Session } from './harness.ts';
+import { money, openApp, rowCell, shot, skipBrowser, type Session } from './harness.ts';
 import { deriveSymmetric, readSupplyUse, SUPPLY_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_CSV, USE_SAMPLE_FILE_NAME } from '../../src/sut/index.ts';
 
 let s: Session;
@@ -18,20 +18,13 @@ const pair = readSupplyUse({ text: SUPPLY_SAMPLE_CSV, fileName: SUPPLY_SAMPLE_FI
 const modelD = deriveSymmetric(pair, { assumption: 'product-sales' });
 const modelA = deriveSymmetric(pair, { assumption: 'product' });
 
-/** Money on screen: one decimal in the user's locale (en-US here). */
-const money = (v: number) => v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
 
-async function cell(sector: string, col: number): Promise<string> {
-  const row = page.getByTestId('sut-rows').locator('tbody tr').filter({ has: page.locator('th', { hasText: new RegExp(`^${sector}$`) }) });
-  return ((await row.locator('th, td').nth(col).textContent()) ?? '').trim();
-}
+const cell = (sector: string, col: number) => rowCell(page, 'sut-rows', sector, col);
 
 describe.skipIf(skipBrowser)('Start from supply and use tables, in the browser', () => {
   beforeAll(async () => {
-    s = await startSession();
+    s = await openApp();
     page = s.page;
-    await page.goto(s.url);
-    await page.getByTestId('verdict').waitFor({ timeout: 30_000 });
   });
   afterAll(async () => {
     await s?.close();
