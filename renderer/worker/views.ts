@@ -225,7 +225,7 @@ export function previewView(p: TablePreview, src: TableSource): PreviewView {
     const by = new Map<string, string[]>();
     for (const x of xs) if (ROLE_PLURAL[x.role]) by.set(x.role, [...(by.get(x.role) ?? []), x.label]);
     for (const [role, labels] of by) {
-      if (labels.length > 1) combined.push(`${labels.length} ${axis} are read as ${ROLE_PLURAL[role]} (${labels.map((l) => `'${l}'`).join(', ')}): they are added together${role === 'labourIncome' ? ' into the household income of the Type II model' : role === 'householdConsumption' ? ' into the households’ spending pattern of the Type II model' : ''}.`);
+      if (labels.length > 1) combined.push(`${labels.length} ${axis} are read as ${ROLE_PLURAL[role]} (${labels.map((l) => `'${l}'`).join(', ')}): they are added together${role === 'labourIncome' ? ' into the household income of the Type II model' : role === 'householdConsumption' ? ' into the households’ purchases in the Type II model' : ''}.`);
     }
   };
   group(p.rows, 'rows');
