@@ -146,7 +146,7 @@ export async function derive(): Promise<void> {
 export async function acceptSymmetric(): Promise<boolean> {
   const v = supplyUse.view;
   if (!v || v.result.hasNegatives) return false;
-  const ok = await useTable({ text: v.result.csv, fileName: v.result.fileName, name: v.result.name });
+  const ok = await useTable({ text: v.result.csv, fileName: v.result.fileName, name: v.result.name, derivedFrom: v.sources });
   if (ok) {
     say(`Now using ${v.result.fileName}`);
     app.screen = 'overview';

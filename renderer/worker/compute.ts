@@ -6,11 +6,11 @@
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
   type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
-import { analysisView, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
+import { analysisView, gridMargins, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
 import { regionalApi } from './regional.ts';
 import { howSureMemory, uncertaintyApi } from './uncertainty.ts';
 import { supplyUseApi } from './supply-use.ts';
@@ -142,6 +142,7 @@ function starter(study: Study): ScenarioDraft {
 
 function loadTable(src: TableSource): ReturnType<typeof load> {
   const study = studyFromTableFile(utf8Bytes(src.text), src.fileName, importSettings(src));
+  if (src.derivedFrom?.length) study.source = { ...study.source!, derivedFrom: src.derivedFrom.map((o) => ({ ...o })) };
   return load(state ? withTable(state.study, study) : study);
 }
 
@@ -169,7 +170,8 @@ function paths(args: { scenario: ScenarioDraft; phase?: number; choices: StudyCh
 }
 
 function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
-  const { pm, study, models } = current();
+  const ps = current();
+  const { pm, study, models } = ps;
   let values: Float64Array;
   if (args.which === 'Z') values = Float64Array.from(study.table.Z);
   else if (args.which === 'A') values = Float64Array.from(pm.coef.A);
@@ -180,7 +182,7 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
   }
   let max = 0;
   for (let k = 0; k < values.length; k++) if (values[k]! > max) max = values[k]!;
-  return { which: args.which, n: pm.coef.n, sectors: pm.coef.sectors, values, max };
+  return { which: args.which, n: pm.coef.n, sectors: pm.coef.sectors, values, max, ...gridMargins(ps, args.which, values) };
 }
 
 function reports(args: { scenarios: ScenarioDraft[]; choices: StudyChoices }): { kind: ReportKind; label: string; what: string; scope: string; unavailable: string | null }[] {
@@ -237,6 +239,14 @@ function recoveryBase(args: { name: string; choices: StudyChoices }): string {
   return projectFileOf({ ...study, name: args.name, scenarios: [] });
 }
 
+/**
+ * The same project text as a JSON string literal in a Blob: what the crash-recovery copy embeds. Escaped and encoded
+ * here, so the window's main thread never holds the 20 MB text of a 2,000-sector table (a Blob crosses by reference).
+ */
+function recoveryBaseJson(args: { name: string; choices: StudyChoices }): Blob {
+  return new Blob([JSON.stringify(recoveryBase(args))], { type: 'application/json' });
+}
+
 function openProject(args: { text: string; fileName: string }): ReturnType<typeof load> & { scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
   const study = studyFromProjectFile(args.text, args.fileName);
   const loaded = load(study);
@@ -268,7 +278,19 @@ function sourceOf(study: Study): TableSource | null {
     ...(imp.name ? { name: imp.name } : {}),
     ...(imp.delimiter ? { delimiter: imp.delimiter } : {}),
     ...(imp.decimalMark ? { decimalMark: imp.decimalMark } : {}),
+    ...(src.derivedFrom?.length ? { derivedFrom: src.derivedFrom.map((o) => ({ ...o })) } : {}),
   };
+}
+
+/**
+ * The bundled two-phase example (building the plant once, operating it yearly) as a scenario of the screen, or null
+ * when the table in use lacks a sector it names (it is written for the sample county). Lines lose their file line.
+ */
+function exampleScenario(_: Record<string, never>): ScenarioDraft | null {
+  const s = parseShockCsv(SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME);
+  const sectors = new Set(current().study.table.sectors);
+  if (s.phases.some((p) => p.lines.some((l) => !sectors.has(l.sector)))) return null;
+  return { ...s, name: 'Food plant, built then operated', phases: s.phases.map((p) => ({ ...p, lines: p.lines.map(({ origin: _origin, ...l }) => l) })) };
 }
 
 function spread(args: { mix: SpendingMix; amount: number; localShare: number }): ScenarioLine[] {
@@ -284,6 +306,7 @@ export const api = {
   loadTable,
   runScenario,
   spread,
+  exampleScenario,
   setStudyInput,
   setStudyContent,
   mixFile,
@@ -295,6 +318,7 @@ export const api = {
   workbook,
   saveProject,
   recoveryBase,
+  recoveryBaseJson,
   openProject,
   ...regionalApi,
   ...uncertaintyApi(studyAt, howSure),

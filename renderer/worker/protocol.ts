@@ -5,7 +5,7 @@
  */
 import type { api } from './compute.ts';
 import type {
-  Activity, Closure, Commuting, DecimalMark, Delimiter, LinkageClass, Margins, MeasureKey, PriceIndex, RoleMap, Scenario, SpendingMix, Timing, Variable,
+  Activity, Closure, Commuting, DecimalMark, Delimiter, LinkageClass, Margins, MeasureKey, PriceIndex, ProjectSourceOrigin, RoleMap, Scenario, SpendingMix, Timing, Variable,
 } from '../../src/study/index.ts';
 
 export type EngineApi = typeof api;
@@ -24,6 +24,8 @@ export interface TableSource {
   /** Field delimiter and decimal mark chosen on the Import screen; detected when absent. */
   delimiter?: Delimiter;
   decimalMark?: DecimalMark;
+  /** The supply and use pair the table was derived from, each file with its SHA-256 (kept in the study's source). */
+  derivedFrom?: ProjectSourceOrigin[];
 }
 
 /** The screen's choices that the study keeps in its settings. */
@@ -85,6 +87,8 @@ export interface TableInfo {
   mixes: { name: string; shares: { sector: string; share: number }[] }[];
   /** Activities not in the table that the study describes (their names, for activity lines). */
   activities: string[];
+  /** The sectors each activity buys from, by activity name (a new table may lack some). */
+  activitySectors: Record<string, string[]>;
   hasTaxes: boolean;
   hasFte: boolean;
   /** Roles as imported (for the project file and the role editor). */
@@ -267,6 +271,19 @@ export interface GridView {
   /** Row-major n×n values. */
   values: Float64Array;
   max: number;
+  /** Rows under the n×n block (value added, imports, totals, jobs, column sums): n values each, one per column. */
+  below: GridMargin[];
+  /** Columns right of the block (final demand, totals): n values each, one per row. */
+  right: GridMargin[];
+}
+
+/** One row or column around a matrix: its label, its n values (NaN where there is none) and how to show them. */
+export interface GridMargin {
+  label: string;
+  values: Float64Array;
+  style: 'money' | 'ratio' | 'jobs';
+  /** What it is, for the header's tooltip. */
+  note: string;
 }
 
 /** Settings of the "How sure?" panel (the engine checks them: src/uncertainty/settings.ts). */

@@ -5,7 +5,7 @@
  * imported file, and "Use as the larger table" hands it to the county estimate as its national table.
  */
 import {
-  formatLocated, parseSutRoleMap, supplyUseRolesOf, symmetricFromSupplyUse, utf8Bytes, type Assumption, type NegativesRemedy, type SutRoleMap, type SutRoles, type TableBy,
+  formatLocated, parseSutRoleMap, supplyUseRolesOf, symmetricFromSupplyUse, utf8Bytes, type Assumption, type NegativesRemedy, type ProjectSourceOrigin, type SutRoleMap, type SutRoles, type TableBy,
 } from '../../src/study/index.ts';
 import type { RegionalFile } from './regional.ts';
 
@@ -56,6 +56,8 @@ export interface SupplyUseView {
   warnings: string[];
   /** The derived table: CSV and sidecar, whether it holds negative cells (it then cannot be used here), the verdict. */
   result: { name: string; n: number; fileName: string; csv: string; about: string; hasNegatives: boolean; perron: number | null; productive: boolean | null; verdict: string };
+  /** The pair's files with their SHA-256: shown, and kept with the table when it is used. */
+  sources: ProjectSourceOrigin[];
 }
 
 const asFile = (f: RegionalFile) => ({ bytes: utf8Bytes(f.text), fileName: f.fileName });
@@ -109,6 +111,7 @@ export function buildSymmetric(req: SupplyUseRequest): SupplyUseView {
     tolerance: r.pair.balance.tolerance,
     notes: r.derived.notes,
     warnings: r.warnings.map((w) => formatLocated(w)),
+    sources: r.sources.map((o) => ({ ...o })),
     result: {
       name: t.name, n, fileName: r.fileName, csv: r.csv, about,
       hasNegatives: r.importSettings.allowNegative === true,

@@ -26,7 +26,7 @@ try {
   rmSync(join(out, 'chunks'), { recursive: true, force: true });
   mkdirSync(out, { recursive: true });
   const result = await build({
-    entryPoints: [join(here, 'main.ts')],
+    entryPoints: [join(here, 'main.ts'), join(here, 'draw-engine.ts')],
     outdir: out,
     outExtension: { '.js': '.mjs' },
     entryNames: '[name]',
@@ -41,13 +41,14 @@ try {
     metafile: true,
   });
   copyFileSync(join(here, 'parallel-worker.mjs'), join(out, 'parallel-worker.mjs'));
+  copyFileSync(join(here, 'draw-worker.mjs'), join(out, 'draw-worker.mjs'));
   // The sources the bundle was built from, relative to src/ (esbuild's inputs are relative to the working folder).
   // A new source file matters only once an existing one imports it, and that edit makes the importer newer.
   const srcDir = join(here, '..');
   const sources = Object.keys(result.metafile.inputs)
     .map((input) => relative(srcDir, resolve(input)))
     .filter((p) => !p.startsWith('..') && !p.includes(':'));
-  sources.push(relative(srcDir, join(here, 'parallel-worker.mjs')), relative(srcDir, join(here, 'roundwise.mjs')));
+  sources.push(relative(srcDir, join(here, 'parallel-worker.mjs')), relative(srcDir, join(here, 'draw-worker.mjs')), relative(srcDir, join(here, 'roundwise.mjs')));
   writeFileSync(join(out, 'sources.txt'), [...new Set(sources)].sort().join('\n') + '\n');
 } catch (e) {
   console.warn(`roundwise: CLI bundle not built (${e instanceof Error ? e.message.split('\n')[0] : e}); the CLI runs from source through tsx`);

@@ -6,6 +6,7 @@
  * (rounding.ts), so the PDF and the print view show the same text.
  */
 import type { Cell } from '../csv/index.ts';
+import { originLines, type SourceOrigin } from '../report/index.ts';
 import type { OverTime, ScenarioLine, ScenarioResult, Timing, TotalsRecord } from '../scenario/index.ts';
 import { type BriefBlock, type BriefDocument, type BriefTable } from './document.ts';
 import { councilNumber, dateText, plainNumber, ROUNDING_NOTE, shareText, type Quantity } from './rounding.ts';
@@ -47,7 +48,8 @@ export interface BriefInput {
   scenario: string;
   description?: string;
   tableName: string;
-  source: { fileName: string; sha256: string } | null;
+  /** The table file and its SHA-256; `origins`: the supply and use pair it was derived from, with theirs. */
+  source: { fileName: string; sha256: string; origins?: SourceOrigin[] } | null;
   /** ISO 8601 date-time of the run. */
   date: string;
   moneyUnit: string;
@@ -345,6 +347,7 @@ export function briefDocument(input: BriefInput): BriefDocument {
     ['Scenario', input.description ? `${input.scenario} — ${input.description}` : input.scenario],
     ['Table', input.tableName],
     ...(input.source ? [['Table file', input.source.fileName] as [string, string], ['SHA-256 of the file', input.source.sha256] as [string, string]] : [['Table file', 'not from a file (made in the app or estimated)'] as [string, string]]),
+    ...originLines(input.source?.origins),
     ['Money', `${input.moneyUnit}; ${input.priceYear ? `prices of ${input.priceYear}` : 'price year not stated (amounts as in the table)'}`],
     ['Model', input.model],
     ['Table check', input.verdict],

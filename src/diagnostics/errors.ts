@@ -179,6 +179,7 @@ export const ERROR_CODES = [
   'draws-range',
   'uncertainty-range',
   'uncertainty-unavailable',
+  'flq-origin-mismatch',
   // Studies (src/study)
   'report-unavailable',
   'unknown-scenario',

@@ -13,7 +13,7 @@
  * transposed solve (I − A)ᵀ mᵀ = cᵀ. `luInverse` is for when the user asks to see or export the whole matrix.
  */
 import { gemmSubtract } from './gemm.ts';
-import { factorStorage, withKernel, withWorkspace } from './workspace.ts';
+import { factorStorage, releaseFactorStorage, withKernel, withWorkspace } from './workspace.ts';
 
 export interface LU {
   n: number;
@@ -40,6 +40,11 @@ export const LU_BLOCK = 64;
 /** Split point of a recursion over w > LEAF rows or columns: about half, a multiple of 4 so the SIMD kernel's 4×4 tiles fit. */
 function half(w: number): number {
   return Math.max(4, (w >> 1) & ~3);
+}
+
+/** The factors `f` will not be used again: their storage may be reused by the next factorisation of the same size. */
+export function releaseLU(f: LU): void {
+  releaseFactorStorage(f.lu);
 }
 
 /** Factor an n×n matrix (the input is not modified). */

@@ -62,9 +62,31 @@ export function factorStorage(elements: number): FactorStorage | null {
     view.fill(0);
     return { view, kernel: shared };
   }
+  if (spare !== null && spare.view.length === elements) {
+    const reused = spare;
+    spare = null;
+    reused.view.fill(0);
+    return reused;
+  }
   const kernel = instantiateGemm(bytes);
   if (kernel === null) return null;
-  return { view: new Float64Array(kernel.memory.buffer, 0, elements), kernel };
+  const view = new Float64Array(kernel.memory.buffer, 0, elements);
+  owners.set(view, kernel);
+  return { view, kernel };
+}
+
+/** Own storage handed back by its factorisation's owner (releaseFactorStorage), kept for the next one of its size. */
+let spare: FactorStorage | null = null;
+const owners = new WeakMap<Float64Array, WasmKernel>();
+
+/**
+ * The caller will not read the factors in `view` again: their storage may hold the next factorisation of the same size
+ * (a loop that factors one matrix after another — the Monte Carlo draws — then reuses one memory instead of a fresh,
+ * page-faulting one each time). Views that are not own storage are ignored.
+ */
+export function releaseFactorStorage(view: Float64Array): void {
+  const kernel = owners.get(view);
+  if (kernel !== undefined) spare = { view, kernel };
 }
 
 /** Run `work` with `kernel` as the active Wasm kernel (the previous one restored after). */

@@ -46,14 +46,22 @@ function perUnit(v: Float64Array, x: Float64Array): Float64Array {
   return out;
 }
 
-/** Coefficients of a validated table. Sectors with zero output get zero coefficients (the importer refuses such a sector that buys inputs). */
-export function coefficients(t: IOTable): Coefficients {
+/**
+ * Coefficients of a validated table. Sectors with zero output get zero coefficients (the importer refuses such a sector
+ * that buys inputs). `A`, when given, is taken as the intermediate coefficients instead of Z/x (the Monte Carlo draws
+ * perturb the coefficients themselves, into a buffer they reuse); everything else still comes from the table.
+ */
+export function coefficients(t: IOTable, given?: Float64Array): Coefficients {
   const { n, Z, x } = t;
-  const A = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < n; j++) {
-      const xj = x[j]!;
-      A[i * n + j] = xj > 0 ? Z[i * n + j]! / xj : 0;
+  let A: Float64Array;
+  if (given) A = given;
+  else {
+    A = new Float64Array(n * n);
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) {
+        const xj = x[j]!;
+        A[i * n + j] = xj > 0 ? Z[i * n + j]! / xj : 0;
+      }
     }
   }
   const labour = sumVectors(t.labourIncome, n);

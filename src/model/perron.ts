@@ -30,6 +30,13 @@ export interface PerronOptions {
   blocks?: SectorBlock[];
   /** Iterate the right vector only (half the work per step; bounds from the right vector alone; `left` is then all zeros). */
   rightOnly?: boolean;
+  /**
+   * Stop a block's iteration as soon as its certified bounds lie on one side of this value (upper < it, or lower ≥ it):
+   * for callers that only compare ρ with it (the Monte Carlo draws compare with 1). The comparison comes out as the
+   * full iteration's would: the bounds only narrow as it goes on (each is the best over all steps), so a side once
+   * certified stays certified, and an undecided block runs to the same end as without this option.
+   */
+  decideAt?: number;
 }
 
 export interface PerronResult {
@@ -182,7 +189,7 @@ function bordered(b: Bordered): Operator {
  * `vectorsOnly`: stop when the vectors settle (max change ≤ tol·max entry) instead of when the bounds meet — for the
  * whole of a reducible matrix, whose Perron vector may have zeros so its upper bound need not converge.
  */
-function iterate(op: Operator, shift: number, tol: number, maxIter: number, rightOnly = false, vectorsOnly = false): Iterated {
+function iterate(op: Operator, shift: number, tol: number, maxIter: number, rightOnly = false, vectorsOnly = false, decideAt = Number.NaN): Iterated {
   const m = op.m;
   let v = new Float64Array(m).fill(1);
   let w = new Float64Array(m).fill(1);
@@ -220,6 +227,7 @@ function iterate(op: Operator, shift: number, tol: number, maxIter: number, righ
       if (hi < upper) upper = hi;
     }
     if (upper - lower <= tol * upper) { converged = true; it++; break; }
+    if (upper < decideAt || lower >= decideAt) { it++; break; }
     let mv = 0, mw = 0;
     for (let i = 0; i < m; i++) {
       av[i] = av[i]! + shift * v[i]!;
@@ -298,7 +306,7 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
       if (blocks.length === 1) single = { lower: d, upper: d, right: Float64Array.of(1), left: Float64Array.of(1), iterations: 0, converged: true };
       continue;
     }
-    const r = iterate(dense(m === n ? a : subMatrix(a, n, blk.sectors), m), blk.period === 1 ? 0 : 1, tol, Math.min(opts.maxIterations ?? defaultCap(m), PERRON_MAX_STEPS), opts.rightOnly ?? false);
+    const r = iterate(dense(m === n ? a : subMatrix(a, n, blk.sectors), m), blk.period === 1 ? 0 : 1, tol, Math.min(opts.maxIterations ?? defaultCap(m), PERRON_MAX_STEPS), opts.rightOnly ?? false, false, opts.decideAt);
     iterations += r.iterations;
     converged &&= r.converged;
     if (r.lower > lower) lower = r.lower;
@@ -338,7 +346,7 @@ export function perronRootBordered(b: Bordered, opts: Omit<PerronOptions, 'block
   if (period === null) {
     return { root: 0, lower: 0, upper: 0, right: new Float64Array(m), left: new Float64Array(m), iterations: 0, converged: true, blockBounds: [[0, 0]], blocks };
   }
-  const r = iterate(bordered(b), period === 1 ? 0 : 1, tol, Math.min(opts.maxIterations ?? defaultCap(m), PERRON_MAX_STEPS), true);
+  const r = iterate(bordered(b), period === 1 ? 0 : 1, tol, Math.min(opts.maxIterations ?? defaultCap(m), PERRON_MAX_STEPS), true, false, opts.decideAt);
   const upper = r.upper < r.lower ? r.lower : r.upper;
   return { root: (r.lower + upper) / 2, lower: r.lower, upper, right: r.right, left: r.left, iterations: r.iterations, converged: r.converged, blockBounds: [[r.lower, r.upper]], blocks };
 }

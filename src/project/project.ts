@@ -40,6 +40,15 @@ export interface SourceInfo {
   content?: Uint8Array;
   /** The import settings used on `content`. */
   import?: ImportSettings;
+  /** The files this source was derived from (a supply and use pair → the symmetric table), each with its SHA-256. */
+  derivedFrom?: SourceOrigin[];
+}
+
+/** A file a source table was derived from. */
+export interface SourceOrigin {
+  role: 'supply' | 'use';
+  fileName: string;
+  sha256: string;
 }
 
 /** The price index and the table's money year (null: read from the table's corner cell, if it holds one year). */
@@ -161,6 +170,7 @@ function toDoc(p: Project): ProjectV4Doc {
       ...(src.bytes !== undefined ? { bytes: src.bytes } : {}),
       import: importDoc(src.import),
       ...(src.content ? { content: contentDoc(src.content) } : {}),
+      ...(src.derivedFrom?.length ? { derivedFrom: src.derivedFrom.map((o) => ({ ...o })) } : {}),
     } : null,
     // The numbers only when the source bytes are not at hand: otherwise the table is re-imported from them.
     ...(src?.content ? {} : { table: tableDoc(t) }),
@@ -372,7 +382,10 @@ function tableFromDoc(t: NonNullable<ProjectV4Doc['table']>, roles: ProjectV4Doc
 
 /** The source's bytes from the document, with their recorded hash checked (a mismatch is said, not hidden). */
 function sourceFromDoc(src: NonNullable<ProjectV4Doc['source']>, file: string): { source: SourceInfo; warning: Warning | null } {
-  const base: SourceInfo = { fileName: src.fileName, sha256: src.sha256, ...(src.bytes !== undefined ? { bytes: src.bytes } : {}), import: src.import as ImportSettings };
+  const base: SourceInfo = {
+    fileName: src.fileName, sha256: src.sha256, ...(src.bytes !== undefined ? { bytes: src.bytes } : {}), import: src.import as ImportSettings,
+    ...(src.derivedFrom?.length ? { derivedFrom: src.derivedFrom.map((o) => ({ ...o })) } : {}),
+  };
   if (!src.content) return { source: base, warning: null };
   const bytes = src.content.encoding === 'utf-8' ? new TextEncoder().encode(src.content.data) : fromBase64(src.content.data);
   if (!bytes) throw invalid(file, 'source.content.data', 'not valid base64');

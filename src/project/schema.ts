@@ -234,11 +234,16 @@ export const settingsV4Schema = settingsV3Schema.extend({
   /** Discount rate for the present value of annual phases (a share per year), or null for none. */
   discountRate: num.min(0).lt(1).nullable(),
 });
+/**
+ * The files a source table was derived from (a supply and use pair), each with its SHA-256: an optional key of
+ * version 4, so files without it read as before (and a reader before it ignores it).
+ */
+export const sourceOriginV4 = z.object({ role: z.enum(['supply', 'use']), fileName: z.string(), sha256: hash });
 export const projectV4Schema = z.object({
   format: z.literal(PROJECT_FORMAT),
   version: z.literal(4),
   name: z.string(),
-  source: projectV3Schema.shape.source,
+  source: z.object({ ...projectV3Schema.shape.source.unwrap().shape, derivedFrom: z.array(sourceOriginV4).optional() }).nullable(),
   table: z.object(tableFields(z.array(num))).optional(),
   roles: roleMapSchema,
   scenarios: z.array(scenarioV4),

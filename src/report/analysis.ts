@@ -3,7 +3,7 @@
  * Each is a rectangular CSV with units in the header names plus an `.about.txt` sidecar with the cautions (document.ts).
  */
 import type { Cell } from '../csv/index.ts';
-import { reportFiles, type ReportFile, type ReportMeta } from './document.ts';
+import { reportFiles, type ReportFile, type ReportMeta, type SourceOrigin } from './document.ts';
 import { CONDITION_LIMIT, type Analysis } from '../model/index.ts';
 import type { NullNote } from '../model/index.ts';
 import { verdictOf } from './verdict.ts';
@@ -12,6 +12,7 @@ import { LINKAGE_CLASS_NAMES, linkageClass, measureHeader, measuresOf, measureVa
 export interface AnalysisReportContext {
   sourceFile?: string;
   sourceHash?: string;
+  sourceOrigins?: SourceOrigin[];
   /** ISO 8601 date-time of the run. */
   date: string;
   /** What the study adds to the model line (commuting), one clause each. */
@@ -45,6 +46,7 @@ function meta(an: Analysis, ctx: AnalysisReportContext, title: string, extra: st
     tableName: an.tableName,
     ...(ctx.sourceFile !== undefined ? { sourceFile: ctx.sourceFile } : {}),
     ...(ctx.sourceHash !== undefined ? { sourceHash: ctx.sourceHash } : {}),
+    ...(ctx.sourceOrigins?.length ? { sourceOrigins: ctx.sourceOrigins } : {}),
     modelType: modelType(an, an.viability.closedProductive ? ctx.model ?? [] : []),
     date: ctx.date,
     moneyUnit: an.moneyUnit,

@@ -14,6 +14,8 @@ export interface ReportMeta {
   sourceFile?: string;
   /** Hex SHA-256 of the source file, when known. */
   sourceHash?: string;
+  /** The files the source was derived from (a supply and use pair), each with its SHA-256. */
+  sourceOrigins?: SourceOrigin[];
   /** e.g. "open (Type I) and household-closed (Type II)". */
   modelType: string;
   /** ISO 8601 date-time of the run. */
@@ -22,6 +24,18 @@ export interface ReportMeta {
   moneyUnit: string;
   /** Extra notes (warnings, scenario description, aggregation-bias note...). */
   notes?: string[];
+}
+
+/** A file a table was derived from: what it is ("Supply table"), its name and the SHA-256 of its bytes. */
+export interface SourceOrigin {
+  what: string;
+  fileName: string;
+  sha256: string;
+}
+
+/** A source's origins as lines (the sidecars, summaries and the brief say them alike). */
+export function originLines(origins: readonly SourceOrigin[] | undefined): [string, string][] {
+  return (origins ?? []).flatMap((o): [string, string][] => [[`${o.what} file`, o.fileName], [`${o.what} SHA-256`, o.sha256]]);
 }
 
 export interface ReportFile {
@@ -54,6 +68,7 @@ export function aboutText(meta: ReportMeta): string {
     `Table: ${meta.tableName}`,
     ...(meta.sourceFile ? [`Source file: ${meta.sourceFile}`] : []),
     ...(meta.sourceHash ? [`Source SHA-256: ${meta.sourceHash}`] : []),
+    ...originLines(meta.sourceOrigins).map(([k, v]) => `${k}: ${v}`),
     `Model: ${meta.modelType}`,
     `Money unit: ${meta.moneyUnit}`,
     `Produced: ${meta.date}`,

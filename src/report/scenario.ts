@@ -5,7 +5,7 @@
  * header names plus an `.about.txt` sidecar (see document.ts).
  */
 import type { Cell } from '../csv/index.ts';
-import { reportFiles, type ReportFile, type ReportMeta } from './document.ts';
+import { reportFiles, type ReportFile, type ReportMeta, type SourceOrigin } from './document.ts';
 import type { ExpandedLine, OverTime, PathAnalysis, Phase, Timing, TotalsRecord } from '../scenario/index.ts';
 import { COVERAGE_TARGETS, type RoundsResult } from '../scenario/index.ts';
 import type { ScenarioComparison } from '../scenario/index.ts';
@@ -25,6 +25,7 @@ export interface ScenarioReportContext {
   tableName: string;
   sourceFile?: string;
   sourceHash?: string;
+  sourceOrigins?: SourceOrigin[];
   /** ISO 8601 date-time of the run. */
   date: string;
   /** What the study adds to the model line (commuting, margins, price conversion), one clause each. */
@@ -73,6 +74,7 @@ function meta(ctx: ScenarioReportContext, title: string, modelType: string, mone
     tableName: ctx.tableName,
     ...(ctx.sourceFile !== undefined ? { sourceFile: ctx.sourceFile } : {}),
     ...(ctx.sourceHash !== undefined ? { sourceHash: ctx.sourceHash } : {}),
+    ...(ctx.sourceOrigins?.length ? { sourceOrigins: ctx.sourceOrigins } : {}),
     modelType,
     date: ctx.date,
     moneyUnit,

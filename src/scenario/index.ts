@@ -18,3 +18,4 @@ export { parsePriceIndexCsv, writePriceIndexCsv, yearOfMoneyUnit, PRICE_INDEX_HE
 export { parseCommutingCsv, residentShares, commutingText, NO_COMMUTING, type Commuting } from './commuting-csv.ts';
 export { checkShock, shockNotes, amountText } from './shock-checks.ts';
 export { mixesOfTable, tableMixName } from './table-mixes.ts';
+export { SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME } from './sample.ts';

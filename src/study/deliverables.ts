@@ -7,7 +7,8 @@ import {
   briefDocument, briefPdf, councilNumber, headlineRows, workbookXlsx, type BaseEconomy, type BriefDocument, type BriefFonts, type BriefInput, type BriefPhase,
   type Paper, type WorkbookSheet,
 } from '../deliverables/index.ts';
-import { CAUTIONS, modelTypeOf, SCENARIO_CAUTIONS, timingText, type ReportFile } from '../report/index.ts';
+import { CAUTIONS, modelTypeOf, originLines, SCENARIO_CAUTIONS, timingText, type ReportFile } from '../report/index.ts';
+import { sourceOriginsOf } from './source.ts';
 import { valueAddedPerUnit } from '../model/index.ts';
 import type { AnalysisReportKind } from '../report/index.ts';
 import type { PreparedStudy } from './prepare.ts';
@@ -100,7 +101,7 @@ export function briefInputOf(ps: PreparedStudy, o: ScenarioOutcome, date: string
     scenario: o.scenario.name,
     ...(o.scenario.description ? { description: o.scenario.description } : {}),
     tableName: study.table.name,
-    source: study.source ? { fileName: study.source.fileName, sha256: study.source.sha256 } : null,
+    source: study.source ? { fileName: study.source.fileName, sha256: study.source.sha256, origins: sourceOriginsOf(study) } : null,
     date,
     moneyUnit: study.table.moneyUnit,
     priceYear: tableYearOf(study) ? String(tableYearOf(study)!.year) : null,
@@ -170,6 +171,7 @@ function provenance(ps: PreparedStudy, date: string, o: ScenarioOutcome | null):
     ['Table', study.table.name],
     ['Table file', study.source?.fileName ?? 'not from a file (made in the app or estimated)'],
     ...(study.source ? [['SHA-256 of the file', study.source.sha256] as [string, string]] : []),
+    ...originLines(sourceOriginsOf(study)),
     ['Money unit', study.table.moneyUnit],
     ['Model', o ? modelTypeOf(o.phases[0]!.result) : (ps.models.closed === true ? 'open (Type I) and household-closed (Type II) input-output model' : 'open (Type I) input-output model')],
     ['Table check', ps.verdict.say],

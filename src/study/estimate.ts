@@ -150,3 +150,34 @@ export function estimateCountyTable(req: EstimateRequest, date = new Date().toIS
   });
   return { national: inputs.national, regional, balance, grouping, table, csv, fileName: `${slugOf(req.employment.fileName)}-${steps}-estimate.csv`, about, notes, judged };
 }
+
+/** Where a study's table came from, when the user says it is an FLQ estimate: the estimate's inputs and its δ. */
+export interface FlqOrigin {
+  inputs: EstimateInputs;
+  delta: number;
+  /** The county table at another δ (the same steps as the estimate). */
+  tableAt: (delta: number) => IOTable;
+}
+
+/** Relative difference allowed between the table and its re-estimate (the table writer round-trips doubles exactly). */
+const SAME_TABLE_TOLERANCE = 1e-9;
+
+/**
+ * A study's table does not record how it was made, so FLQ δ sensitivity and draws need the estimate's inputs from the
+ * user (the national table, county employment, the δ used) and re-run the estimate from them: the result must be the
+ * study's table, sector for sector and flow for flow, or it is refused — δ is never varied on a table it did not make.
+ * Only the plain FLQ estimate is re-run (no RAS balancing, no grouping).
+ */
+export function flqOriginOf(table: IOTable, national: EstimateFile, employment: EstimateFile, delta: number, nationalImport?: ImportSettings): FlqOrigin {
+  const inputs = readEstimateInputs({ national, employment, method: 'flq', delta, ...(nationalImport ? { nationalImport } : {}) });
+  const again = countyTableAt(inputs, delta);
+  const mismatch = (why: string, at: { rowLabel?: string; columnLabel?: string } = {}) => new InputError('flq-origin-mismatch', `the table is not the FLQ estimate (δ = ${delta}) of ${national.fileName} with the county employment in ${employment.fileName}: ${why}; FLQ δ can only be varied on the estimate itself`, at);
+  if (again.n !== table.n || again.sectors.some((s, i) => s !== table.sectors[i])) throw mismatch(`its sectors differ (${table.n} here, ${again.n} in the estimate)`);
+  const n = table.n;
+  const close = (a: number, b: number) => Math.abs(a - b) <= SAME_TABLE_TOLERANCE * Math.max(Math.abs(a), Math.abs(b), 1e-300);
+  for (let j = 0; j < n; j++) if (!close(again.x[j]!, table.x[j]!)) throw mismatch('a total output differs', { columnLabel: table.sectors[j]! });
+  for (let k = 0; k < n * n; k++) {
+    if (!close(again.Z[k]!, table.Z[k]!)) throw mismatch('a flow differs', { rowLabel: table.sectors[Math.floor(k / n)]!, columnLabel: table.sectors[k % n]! });
+  }
+  return { inputs, delta, tableAt: (d) => countyTableAt(inputs, d) };
+}

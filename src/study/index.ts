@@ -17,7 +17,7 @@ export {
   type ReportKind, type ReportEntry, type ScenarioReportKind,
 } from './reports.ts';
 export { studyAnalysisJson, scenarioJson } from './json.ts';
-export { estimateCountyTable, type CountyEstimate, type EstimateRequest, type EstimateFile } from './estimate.ts';
+export { estimateCountyTable, flqOriginOf, type CountyEstimate, type EstimateRequest, type EstimateFile, type FlqOrigin } from './estimate.ts';
 
 // What the front ends need besides the study itself (they import engine code only through this file).
 export type Closure = import('./study.ts').StudySettings['closure'];
@@ -35,7 +35,7 @@ export {
   spreadMix, mixShares, mixesOfTable, tableMixName, parseShockCsv, parseMixCsv, writeMixCsv, parseActivityCsv, writeActivityCsv, checkActivity,
   parseMarginsCsv, writeMarginsCsv, parsePriceIndexCsv, writePriceIndexCsv, parseCommutingCsv, yearOfMoneyUnit, checkDiscountRate,
   VARIABLES, MONEY_VARIABLES, LINE_KINDS, SECTOR_KINDS, TIMINGS, MARGIN_KINDS, DEFAULT_PHASE_NAME, SHOCK_HEADER, MIX_HEADER, ACTIVITY_HEADER,
-  MARGINS_HEADER, PRICE_INDEX_HEADER,
+  MARGINS_HEADER, PRICE_INDEX_HEADER, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME,
   type Scenario, type Phase, type Timing, type ScenarioLine, type SpendingMix, type Activity, type Margins, type MarginKind, type PriceIndex,
   type Commuting, type LineKind, type PriceBasis, type Variable, type EffectSplit, type EffectTotals, type OutsideRow, type OverTime,
   type ScenarioMultiplier, type ScenarioResult, type PathAnalysis, type RoundsResult, type ExpandedLine, type TotalsRecord,
@@ -64,17 +64,21 @@ export {
   type Assumption, type TableBy, type NegativesRemedy, type SutRoleMap, type NegativesReport, type ProductBalance, type SutRoles, type SutLabelRole, type SupplyColumnRole,
 } from '../sut/index.ts';
 
+// Where a table came from: its file and SHA-256, and the supply and use pair it was derived from.
+export { sourceContext, sourceOriginsOf } from './source.ts';
+export { originLines, type SourceOrigin } from '../report/index.ts';
+export type { ProjectSourceOrigin } from '../project/index.ts';
 // Classification bridges: employment, shock and spending-mix files that name codes instead of sectors.
 export { readBridge, bridgeSummary, employmentByBridge, scenarioByBridge, spendingMixByBridge, shockFromFile, mixesFromFile, type Bridge, type BridgeSummary } from './bridges.ts';
 export { BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, EMPLOYMENT_BY_CODE_SAMPLE_CSV, EMPLOYMENT_BY_CODE_SAMPLE_FILE_NAME } from '../classification/index.ts';
 
 // How sure the numbers are (Monte Carlo bands, one-at-a-time sensitivity).
-export { drawSetupOf, beginStudyBands, studyBands, studySensitivity, bandReports, sensitivityReports, type BandsRequest, type BandsRun } from './uncertainty.ts';
+export { drawSetupOf, beginStudyBands, drawChunk, studyBands, studySensitivity, bandReports, sensitivityReports, type SensitivityRequest, type BandsRequest, type BandsRun } from './uncertainty.ts';
 export {
   defaultSettings as defaultUncertaintySettings, checkSettings as checkUncertaintySettings, parseCvCsv, multiplierBandsJson, scenarioBandsJson, sensitivityJson,
-  drawsProblem, seedProblem, cvProblem, shareRangeProblem, DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_CV, DEFAULT_SHARE_STEP, MIN_DRAWS, MAX_DRAWS, MAX_CV, MIN_ACCEPTED,
+  drawsProblem, seedProblem, cvProblem, shareRangeProblem, deltaRangeProblem, DEFAULT_DRAWS, DEFAULT_SEED, DEFAULT_CV, DEFAULT_SHARE_STEP, DEFAULT_MARGIN_STEP, MIN_DRAWS, MAX_DRAWS, MAX_CV, MIN_ACCEPTED,
   MULTIPLIER_KEYS as BAND_MULTIPLIER_KEYS,
-  type UncertaintySettings, type UncertaintyResult, type ScenarioBands, type PointBand, type SensitivityResult, type SensitivityItem, type RunOptions, type CvRule,
+  type UncertaintySettings, type UncertaintyResult, type DrawSetup, type DrawChunk, type ScenarioBands, type PointBand, type SensitivityResult, type SensitivityItem, type RunOptions, type CvRule,
 } from '../uncertainty/index.ts';
 
 // The brief (PDF) and the workbook (XLSX).

@@ -11,6 +11,7 @@ import {
 } from '../report/index.ts';
 import type { Scenario } from '../scenario/index.ts';
 import type { PreparedStudy } from './prepare.ts';
+import { sourceContext } from './source.ts';
 import { compareStudyScenarios, runStudyScenario, studyModelNotes, type PhaseOutcome, type ScenarioOutcome } from './scenarios.ts';
 
 export type ScenarioReportKind =
@@ -61,9 +62,8 @@ const SCENARIO_FILE: Record<ScenarioReportKind, string> = {
 const PER_SCENARIO: readonly ScenarioReportKind[] = ['scenario-inputs', 'scenario-phases'];
 
 function context(ps: PreparedStudy, date: string, o?: ScenarioOutcome): ScenarioReportContext {
-  const src = ps.study.source;
   const extra = o ? { model: o.model, notes: o.inputNotes } : { model: studyModelNotes(ps).model };
-  return { tableName: ps.study.table.name, date, ...(src ? { sourceFile: src.fileName, sourceHash: src.sha256 } : {}), ...extra };
+  return { tableName: ps.study.table.name, date, ...sourceContext(ps.study), ...extra };
 }
 
 /**

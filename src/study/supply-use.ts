@@ -6,7 +6,7 @@
  * a pair keeps it as its source bytes, so projects, the county estimate and exports treat it as an imported file.
  */
 import { InputError, type Warning } from '../diagnostics/index.ts';
-import { sha256Hex, utf8Bytes, type ImportSettings } from '../project/index.ts';
+import { sha256Hex, utf8Bytes, type ImportSettings, type ProjectSourceOrigin } from '../project/index.ts';
 import { aboutText, type Cell, type ReportFile, reportFiles } from '../report/index.ts';
 import {
   ASSUMPTION_BY, DEFAULT_ASSUMPTION, deriveSymmetric, readSupplyUse, supplyUseRoles,
@@ -16,6 +16,7 @@ import { writeTableCsv, type DecimalMark, type Delimiter, type IOTable } from '.
 import type { EstimateFile } from './estimate.ts';
 import { prepareStudy, type PreparedStudy } from './prepare.ts';
 import { studyFromTableFile, type Study } from './study.ts';
+import { sourceOriginsOf } from './source.ts';
 
 export interface SupplyUseRequest {
   supply: EstimateFile;
@@ -42,6 +43,8 @@ export interface SymmetricFromSupplyUse {
   csv: string;
   fileName: string;
   importSettings: ImportSettings;
+  /** The pair's files with their SHA-256 (also the study's `source.derivedFrom`). */
+  sources: ProjectSourceOrigin[];
   /** Notes of the transformation (what was assumed, where each part came from, negatives) and the pair's warnings. */
   notes: string[];
   warnings: Warning[];
@@ -113,7 +116,14 @@ export function symmetricFromSupplyUse(req: SupplyUseRequest, date = new Date().
   const hasNegative = Array.from(table.Z).some((v) => v < 0) || [...table.labourIncome, ...table.otherValueAdded, ...table.imports, ...table.householdConsumption, ...table.otherFinalDemand].some((r) => r.values.some((v) => v < 0));
   const importSettings: ImportSettings = hasNegative ? { allowNegative: true } : {};
   const warnings = derived.warnings;
-  const judged = prepareStudy(studyFromTableFile(utf8Bytes(csv), SYMMETRIC_TABLE_FILE, importSettings), { spectrum: false });
+  // The pair's files with their SHA-256 travel with the table: reports, the brief, projects and the app name them.
+  const sources: ProjectSourceOrigin[] = [
+    { role: 'supply', fileName: req.supply.fileName, sha256: sha256Hex(req.supply.bytes) },
+    { role: 'use', fileName: req.use.fileName, sha256: sha256Hex(req.use.bytes) },
+  ];
+  const study = studyFromTableFile(utf8Bytes(csv), SYMMETRIC_TABLE_FILE, importSettings);
+  study.source = { ...study.source!, derivedFrom: sources };
+  const judged = prepareStudy(study, { spectrum: false });
   const notes = [...derived.notes, ...warnings.map((w) => w.message)];
   const meta = {
     tableName: table.name,
@@ -121,14 +131,14 @@ export function symmetricFromSupplyUse(req: SupplyUseRequest, date = new Date().
     modelType: derived.method,
     date,
     moneyUnit: table.moneyUnit,
+    sourceOrigins: sourceOriginsOf(study),
   };
-  const hashes = [`Supply table SHA-256: ${sha256Hex(req.supply.bytes)}`, `Use table SHA-256: ${sha256Hex(req.use.bytes)}`];
   const reports: ReportFile[] = [
     { name: SYMMETRIC_TABLE_FILE, content: csv },
-    { name: SYMMETRIC_TABLE_FILE.replace(/\.csv$/, '.about.txt'), content: aboutText({ ...meta, title: `Symmetric input–output table derived from supply and use tables (${ASSUMPTION_BY[assumption]} by ${ASSUMPTION_BY[assumption]})`, notes: [...hashes, ...notes, `Verdict on the derived table: ${judged.verdict.say}`] }) },
-    ...reportFiles('transformation', { ...meta, title: `Transformation of the supply and use tables: ${derived.method}`, notes: [...hashes, ...notes] }, transformationRows(derived)),
+    { name: SYMMETRIC_TABLE_FILE.replace(/\.csv$/, '.about.txt'), content: aboutText({ ...meta, title: `Symmetric input–output table derived from supply and use tables (${ASSUMPTION_BY[assumption]} by ${ASSUMPTION_BY[assumption]})`, notes: [...notes, `Verdict on the derived table: ${judged.verdict.say}`] }) },
+    ...reportFiles('transformation', { ...meta, title: `Transformation of the supply and use tables: ${derived.method}`, notes }, transformationRows(derived)),
   ];
-  return { pair, derived, table, csv, fileName: SYMMETRIC_TABLE_FILE, importSettings, notes, warnings, reports, judged };
+  return { pair, derived, table, csv, fileName: SYMMETRIC_TABLE_FILE, importSettings, sources, notes, warnings, reports, judged };
 }
 
 /** The roles of the pair's labels with the request's role map (the app's role preview; shown even while the pair is refused). */

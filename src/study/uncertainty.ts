@@ -4,7 +4,7 @@
  * the study's own results use. The CLI and the app's worker call these, so the same seed gives the same bands in both.
  */
 import {
-  multiplierBandReport, runDraws, scenarioBandReport, sensitivity, sensitivityReport, startRun, summarise,
+  multiplierBandReport, planDraws, runDraws, scenarioBandReport, sensitivity, sensitivityReport, startRun, summarise,
   type BandReportContext, type DrawChunk, type DrawSetup, type RunOptions, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
 } from '../uncertainty/index.ts';
 import type { ReportFile } from '../report/index.ts';
@@ -12,6 +12,8 @@ import { residentShares, type LineSet, type Scenario } from '../scenario/index.t
 import type { PreparedStudy } from './prepare.ts';
 import { readyLines, shockInputsOf } from './scenarios.ts';
 import { scenarioSlug } from './reports.ts';
+import { sourceContext } from './source.ts';
+import type { FlqOrigin } from './estimate.ts';
 
 export interface BandsRequest {
   settings: UncertaintySettings;
@@ -43,21 +45,41 @@ export function drawSetupOf(ps: PreparedStudy, req: BandsRequest): DrawSetup {
 /** A run taken a range of draws at a time (the app's worker, between which the UI shows progress and may stop). */
 export interface BandsRun {
   total: number;
+  /**
+   * What is drawn, as plain data: another thread can compute any range of the draws from it (`drawChunk`) and hand the
+   * result back through `add`. Null when the draws need what cannot be posted (the county estimate at another δ).
+   */
+  setup: DrawSetup | null;
   /** Compute draws from ≤ k < to (any split gives the same numbers). */
   step(from: number, to: number): void;
+  /** Draws computed elsewhere from `setup`. */
+  add(chunk: DrawChunk): void;
   /** The bands of every draw computed so far; they must cover 0 … total − 1. */
   finish(): UncertaintyResult;
 }
 
 /** Checks the settings and computes the point estimate through the draws' evaluation (refused when not usable). */
-export function beginStudyBands(ps: PreparedStudy, req: BandsRequest): BandsRun {
-  const { plan, point } = startRun(drawSetupOf(ps, req));
+export function beginStudyBands(ps: PreparedStudy, req: BandsRequest, origin: FlqOrigin | null = null): BandsRun {
+  const setup = drawSetupOf(ps, req);
+  const { plan, point } = startRun(setup, origin ? { tableAt: origin.tableAt } : {});
   const chunks: DrawChunk[] = [];
   return {
     total: req.settings.draws,
+    setup: plan.tableAt ? null : setup,
     step: (from, to) => { chunks.push(runDraws(plan, from, to)); },
+    add: (chunk) => { chunks.push(chunk); },
     finish: () => summarise(plan, point, chunks),
   };
+}
+
+/**
+ * Draws from ≤ k < to of a setup posted by `BandsRun.setup` (another thread's part of a run). The plan is made once per
+ * setup object and kept while the same setup keeps coming.
+ */
+let lastPlan: { setup: DrawSetup; plan: ReturnType<typeof planDraws> } | null = null;
+export function drawChunk(setup: DrawSetup, from: number, to: number): DrawChunk {
+  if (lastPlan?.setup !== setup) lastPlan = { setup, plan: planDraws(setup) };
+  return runDraws(lastPlan.plan, from, to);
 }
 
 /** The bands of the request; null when `onProgress` stopped the run. */
@@ -72,21 +94,29 @@ export function studyBands(ps: PreparedStudy, req: BandsRequest, opts: RunOption
   return run.finish();
 }
 
+export interface SensitivityRequest {
+  /** Local shares ± this. */
+  step?: number;
+  /** Margin shares × (1 ± this). */
+  marginStep?: number;
+  /** The table's FLQ origin (flqOriginOf) and the δ range to try; without it δ is not varied. */
+  flq?: { origin: FlqOrigin; range: [number, number] } | null;
+}
+
 /** One-at-a-time sensitivity of a scenario's totals, phase by phase, in the models the study uses. */
-export function studySensitivity(ps: PreparedStudy, scenario: Scenario, step?: number): SensitivityResult[] {
+export function studySensitivity(ps: PreparedStudy, scenario: Scenario, step?: number, more: Omit<SensitivityRequest, 'step'> = {}): SensitivityResult[] {
   const inputs = shockInputsOf(ps.study);
   const residentShare = residentShares(ps.study.commuting, ps.study.table.sectors);
+  const flq = more.flq ?? null;
   return phaseSets(scenario).map((set) => sensitivity(ps.pm, set, {
     available: ps.analysis.availability, closure: ps.study.settings.closure, inputs, residentShare, ...(step !== undefined ? { step } : {}),
+    ...(more.marginStep !== undefined ? { marginStep: more.marginStep } : {}),
+    delta: flq ? { tableAt: flq.origin.tableAt, range: flq.range, estimate: flq.origin.delta } : null,
   }));
 }
 
 function bandContext(ps: PreparedStudy, date: string, modelType: string): BandReportContext {
-  const src = ps.study.source;
-  return {
-    tableName: ps.study.table.name, date, moneyUnit: ps.study.table.moneyUnit, modelType,
-    ...(src ? { sourceFile: src.fileName, sourceHash: src.sha256 } : {}),
-  };
+  return { tableName: ps.study.table.name, date, moneyUnit: ps.study.table.moneyUnit, modelType, ...sourceContext(ps.study) };
 }
 
 const MODEL_OF = (ps: PreparedStudy) => (ps.models.closed === true

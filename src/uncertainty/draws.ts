@@ -13,11 +13,12 @@
  * A draw uses the household-closed model exactly when the point estimate does, so totals never mix Type I and II.
  */
 import { isInputError } from '../diagnostics/index.ts';
+import { releaseLU } from '../linalg/index.ts';
 import { coefficients, computeMultipliers, decideModels, modelsForClosure, prepareModel, spectrum, type Availability, type Multipliers, type PreparedModel } from '../model/index.ts';
 import { runPhase, VARIABLES, type LineSet, type ScenarioResult, type ShockInputs, type Variable } from '../scenario/index.ts';
 import type { IOTable } from '../table/index.ts';
 import { sigmaPlan, type SigmaPlan } from './cv.ts';
-import { perturbTable } from './perturb.ts';
+import { perturbCoefficients } from './perturb.ts';
 import { PURPOSE, Stream } from './random.ts';
 import type { UncertaintySettings } from './settings.ts';
 
@@ -146,13 +147,25 @@ export interface DrawPlan {
   closed: true | string;
   shareGroups: ShareGroups[];
   tableAt: ((delta: number) => IOTable) | null;
+  /** The point estimate's intermediate coefficients (each draw multiplies them by its factors). */
+  A: Float64Array;
 }
 
 /** Resolve the CVs against the table and make the point estimate's model decision once per thread. */
-/** The model of a table under the study's commuting shares (the household row the study's own results use). */
-export function modelOf(table: IOTable, residentShare: Float64Array | null): PreparedModel {
-  return residentShare ? prepareModel(table, coefficients(table), { residentShare }) : prepareModel(table);
+/**
+ * The model of a table under the study's commuting shares (the household row the study's own results use); `A`, when
+ * given, are the table's intermediate coefficients already computed (a draw's perturbed ones).
+ */
+export function modelOf(table: IOTable, residentShare: Float64Array | null, A?: Float64Array): PreparedModel {
+  return prepareModel(table, coefficients(table, A), residentShare ? { residentShare } : {});
 }
+
+/**
+ * The draws only compare the Perron roots with 1 (productive or not, closed model certified not productive), so their
+ * power iterations stop once the certified bounds settle that comparison; the decision is the full iteration's
+ * (perron.ts, `decideAt`).
+ */
+const DRAW_PERRON = { decideAt: 1 };
 
 export function planDraws(setup: DrawSetup, ctx: DrawContext = {}): DrawPlan {
   const pm = modelOf(setup.table, setup.residentShare);
@@ -164,6 +177,7 @@ export function planDraws(setup: DrawSetup, ctx: DrawContext = {}): DrawPlan {
     closed: base.availability.closed,
     shareGroups: setup.scenarios.map(localShareGroups),
     tableAt: setup.settings.deltaRange && ctx.tableAt ? ctx.tableAt : null,
+    A: pm.coef.A,
   };
 }
 
@@ -221,11 +235,19 @@ function drawShares(s: LineSet, groups: ShareGroups, range: number, rng: Stream)
  * One evaluation of the study's quantities on `table` (perturbed or not), written at `out[base…]`: the status says
  * whether it counts. `shares` is the local-share stream (null: the shares as typed).
  */
-function evaluate(plan: DrawPlan, table: IOTable, shares: Stream | null, out: Float64Array, base: number): DrawStatus {
+function evaluate(plan: DrawPlan, table: IOTable, A: Float64Array | undefined, shares: Stream | null, out: Float64Array, base: number): DrawStatus {
+  const pm = modelOf(table, plan.setup.residentShare, A);
+  try {
+    return evaluateModel(plan, pm, shares, out, base);
+  } finally {
+    releaseLU(pm.openLU); // nothing of the draw's model is kept: the next draw factors in the same storage
+  }
+}
+
+function evaluateModel(plan: DrawPlan, pm: PreparedModel, shares: Stream | null, out: Float64Array, base: number): DrawStatus {
   const { setup, layout } = plan;
   const n = layout.n;
-  const pm = modelOf(table, setup.residentShare);
-  const decision = decideModels(pm, { spectralRadius: spectralRadiusFor(setup, pm.coef.A, n) });
+  const decision = decideModels(pm, { spectralRadius: spectralRadiusFor(setup, pm.coef.A, n), perron: DRAW_PERRON });
   if (decision.availability.open !== true) return DRAW_STATUS.notProductive;
   if (plan.closed === true && decision.availability.closed !== true) return DRAW_STATUS.closedNotUsable;
   // The point estimate's models: the closed model exactly when the point estimate uses it.
@@ -252,7 +274,7 @@ function evaluate(plan: DrawPlan, table: IOTable, shares: Stream | null, out: Fl
 /** The point estimate through the same evaluation (no perturbation, δ and local shares as estimated and typed). */
 export function pointEstimate(plan: DrawPlan): { values: Float64Array; status: DrawStatus } {
   const values = new Float64Array(plan.layout.size);
-  return { values, status: evaluate(plan, plan.setup.table, null, values, 0) };
+  return { values, status: evaluate(plan, plan.setup.table, plan.A, null, values, 0) };
 }
 
 /** Draws from ≤ k < to. Draw k depends only on (seed, k): any split of the draws over threads gives the same numbers. */
@@ -263,16 +285,21 @@ export function runDraws(plan: DrawPlan, from: number, to: number): DrawChunk {
   const values = new Float64Array(count * layout.size);
   const status = new Uint8Array(count);
   const delta = new Float64Array(count).fill(Number.NaN);
+  // One buffer for every draw's coefficients in this range: a draw's model is dropped before the next draw starts.
+  const buffer = new Float64Array(layout.n * layout.n);
   for (let c = 0; c < count; c++) {
     const k = from + c;
     let table = setup.table;
+    let A = plan.A;
     if (plan.tableAt && deltaRange) {
       const d = deltaRange[0] + (deltaRange[1] - deltaRange[0]) * new Stream(seed, k, PURPOSE.delta).uniform();
       delta[c] = d;
       table = plan.tableAt(d);
+      A = coefficients(table).A;
     }
-    table = perturbTable(table, plan.sigma, new Stream(seed, k, PURPOSE.coefficients));
-    status[c] = evaluate(plan, table, new Stream(seed, k, PURPOSE.localShares), values, c * layout.size);
+    const drawn = perturbCoefficients(table, A, plan.sigma, new Stream(seed, k, PURPOSE.coefficients), buffer);
+    if (drawn) ({ table, A } = drawn);
+    status[c] = evaluate(plan, table, A, new Stream(seed, k, PURPOSE.localShares), values, c * layout.size);
   }
   return { from, to, values, status, delta };
 }

@@ -13,5 +13,5 @@ export {
 } from './draws.ts';
 export { summarise, MIN_ACCEPTED, REJECTED_WARNING_SHARE, type PointBand, type ScenarioBands, type Rejections, type UncertaintyResult } from './bands.ts';
 export { startRun, runUncertainty, type RunOptions } from './run.ts';
-export { sensitivity, DEFAULT_SHARE_STEP, type SensitivityResult, type SensitivityItem, type SensitivitySide, type SensitivityOptions, type Totals } from './sensitivity.ts';
+export { sensitivity, DEFAULT_SHARE_STEP, DEFAULT_MARGIN_STEP, type SensitivityResult, type SensitivityItem, type SensitivitySide, type SensitivityOptions, type Totals } from './sensitivity.ts';
 export { multiplierBandReport, scenarioBandReport, sensitivityReport, multiplierBandsJson, scenarioBandsJson, sensitivityJson, type BandReportContext } from './output.ts';

@@ -3,7 +3,7 @@
  * --json `uncertainty` and `sensitivity` keys). The point estimate is the first number of every row: the bands sit
  * beside it and never replace it.
  */
-import { MEASURES, reportFiles, SCENARIO_CAUTIONS, CAUTIONS, VARIABLE_NAMES, type Cell, type ReportFile } from '../report/index.ts';
+import { MEASURES, reportFiles, SCENARIO_CAUTIONS, CAUTIONS, VARIABLE_NAMES, type Cell, type ReportFile, type SourceOrigin } from '../report/index.ts';
 import { VARIABLES, type Variable } from '../scenario/index.ts';
 import { PARTS } from './draws.ts';
 import type { PointBand, ScenarioBands, UncertaintyResult } from './bands.ts';
@@ -13,6 +13,7 @@ export interface BandReportContext {
   tableName: string;
   sourceFile?: string;
   sourceHash?: string;
+  sourceOrigins?: SourceOrigin[];
   date: string;
   moneyUnit: string;
   /** The model the point estimate used, in words. */
@@ -28,6 +29,7 @@ function meta(ctx: BandReportContext, title: string, notes: string[], cautions: 
     title, tableName: ctx.tableName, modelType: ctx.modelType, date: ctx.date, moneyUnit: ctx.moneyUnit,
     ...(ctx.sourceFile !== undefined ? { sourceFile: ctx.sourceFile } : {}),
     ...(ctx.sourceHash !== undefined ? { sourceHash: ctx.sourceHash } : {}),
+    ...(ctx.sourceOrigins?.length ? { sourceOrigins: ctx.sourceOrigins } : {}),
     notes: [...notes, ...cautions],
   };
 }
@@ -84,7 +86,7 @@ function headJson(r: UncertaintyResult): Record<string, unknown> {
   const s = r.settings;
   return {
     draws: r.draws, seed: s.seed, cv: s.cv, ...(s.cvFile ? { cvFile: s.cvFile } : {}), localShareRange: s.localShareRange,
-    ...(s.deltaRange ? { deltaRange: s.deltaRange } : {}),
+    ...(s.deltaRange ? { deltaRange: s.deltaRange } : {}), ...(r.deltaDrawn ? { deltaDrawn: r.deltaDrawn } : {}),
     accepted: r.accepted, rejected: r.rejected, rejectedWhy: { ...r.rejectedWhy },
   };
 }
@@ -114,7 +116,7 @@ export function scenarioBandsJson(r: UncertaintyResult, s: ScenarioBands): Recor
 
 export function sensitivityJson(s: SensitivityResult): Record<string, unknown> {
   return {
-    step: s.step, point: s.point,
+    step: s.step, ...(s.marginStep !== null ? { marginStep: s.marginStep } : {}), point: s.point,
     items: s.items.map((it) => ({ kind: it.kind, assumption: it.assumption, base: it.base, low: { ...it.low }, high: { ...it.high }, swing: it.swing })),
     notes: s.notes,
   };

@@ -41,6 +41,43 @@ function perturbRows(rows: LabelledVector[], sigmas: (number | Float64Array)[], 
   return rows.map((r, k) => ({ label: r.label, values: perturbVector(r.values, sigmas[k]!, rng) }));
 }
 
+/**
+ * The draw's intermediate coefficients written into `out`: a_ij·f_ij with a factor drawn for every non-zero flow z_ij in
+ * row-major order, as perturbTable draws them (a_ij = z_ij/x_j with x held fixed, so perturbing the coefficient is
+ * perturbing the flow; only the last bit of rounding differs from dividing a perturbed flow).
+ */
+function perturbCoefficientsInto(Z: Float64Array, A: Float64Array, sigma: number | Float64Array, rng: Stream, out: Float64Array): void {
+  const uniform = typeof sigma === 'number';
+  const s0 = uniform ? sigma : 0;
+  const shift0 = -0.5 * s0 * s0;
+  for (let i = 0; i < Z.length; i++) {
+    if (Z[i] === 0) { out[i] = 0; continue; }
+    if (uniform) out[i] = A[i]! * Math.exp(shift0 + s0 * rng.normal());
+    else {
+      const s = sigma[i]!;
+      out[i] = A[i]! * Math.exp(s * rng.normal() - 0.5 * s * s);
+    }
+  }
+}
+
+/**
+ * One draw's table and coefficients without forming the perturbed flows: `A` (the unperturbed table's coefficients)
+ * times the factors, written into `out`; the labour-income and household rows perturbed as perturbTable does, from
+ * the same stream after the coefficients. Returns null when nothing is perturbed (the caller uses the table as it is).
+ */
+export function perturbCoefficients(table: IOTable, A: Float64Array, plan: SigmaPlan, rng: Stream, out: Float64Array): { table: IOTable; A: Float64Array } | null {
+  if (!plan.perturbed) return null;
+  perturbCoefficientsInto(table.Z, A, plan.z, rng, out);
+  return {
+    table: {
+      ...table,
+      labourIncome: perturbRows(table.labourIncome, plan.labour, rng),
+      householdConsumption: perturbRows(table.householdConsumption, plan.household, rng),
+    },
+    A: out,
+  };
+}
+
 /** The table with its perturbed cells drawn from `rng`; the table itself when nothing is perturbed. */
 export function perturbTable(table: IOTable, plan: SigmaPlan, rng: Stream): IOTable {
   if (!plan.perturbed) return table;

@@ -3,19 +3,24 @@
  * same numbers whichever thread computes it and in whatever order (the results are bit-identical with one thread or
  * several), and switching one kind of perturbation on or off leaves the other kinds' numbers unchanged.
  *
- * Generator and uniform deviates: pure-rand (xoroshiro128+, period 2¹²⁸ − 1, and its uniformFloat64: 53 random bits
- * on [0, 1)), a maintained library rather than code of our own. A stream's four state words are derived from
+ * Generator and uniform deviates: xoroshiro128+ (period 2¹²⁸ − 1) and 53 random bits on [0, 1), exactly as pure-rand's
+ * `xoroshiro128plus` and `uniformFloat64` compute them (a maintained library, kept as the reference: random.test.ts
+ * checks the two give the same numbers bit for bit). The steps are written out here, on four plain fields, because a
+ * draw of a 500-sector table needs a quarter of a million deviates and the library's object and call per step cost
+ * about half of the draw's perturbation (test/bench). A stream's four state words are derived from
  * (seed, draw, purpose) by the 32-bit finaliser of MurmurHash3 (Appleby, public domain; common practice, no source)
  * applied to a Weyl sequence, so neighbouring seeds and draws start from unrelated states; xoroshiro's authors
  * advise seeding through a hash for the same reason (Blackman & Vigna, "Scrambled linear pseudorandom number
  * generators", ACM TOMS 47(4), 2021 — recalled from memory). The state is then advanced WARM_UP steps.
- * Normal deviates: Marsaglia's polar method (Marsaglia & Bray, "A convenient method for generating normal variables",
- * SIAM Review 6(3), 1964 — recalled from memory), both deviates of each accepted pair used.
- * Math.log and Math.sqrt are deterministic in one JavaScript engine, so a stream is reproducible on one build of Node
+ * Normal deviates: the ziggurat method with 128 strips (Marsaglia & Tsang, "The ziggurat method for generating random
+ * variables", Journal of Statistical Software 5(8), 2000: r = 3.442619855899, strip area v = 9.91256303526217e-3, the
+ * tail by their exponential rejection), in Doornik's form ("An improved ziggurat method to generate normal random
+ * samples", 2005: the strip index from bits the value does not use, the value from a full 53-bit uniform) — both
+ * recalled from memory. Nearly every deviate costs two generator steps and a comparison, against a logarithm and a
+ * square root per pair in the polar method: the deviates are most of a large table's perturbation (test/bench).
+ * Math.exp, Math.log and Math.sqrt are deterministic in one JavaScript engine, so a stream is reproducible on one build of Node
  * or of the browser; across engines the last bits of log may differ (stated in README).
  */
-import { xoroshiro128plusFromState } from 'pure-rand/generator/xoroshiro128plus';
-import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 
 /** Streams of one draw: coefficient errors, local shares, the FLQ δ. */
 export const PURPOSE = { coefficients: 0, localShares: 1, delta: 2 } as const;
@@ -43,38 +48,83 @@ export function streamState(seed: number, draw: number, purpose: Purpose): numbe
   return state;
 }
 
+const SCALE26 = 2 ** -26;
+const SCALE53 = 2 ** -53;
+
+/** Ziggurat of 128 strips of equal area under exp(−x²/2) (Marsaglia & Tsang 2000): ZIG_X[i] is strip i's right edge. */
+const ZIG_R = 3.442619855899;
+const ZIG_V = 9.91256303526217e-3;
+const ZIG_X = new Float64Array(129);
+/** ZIG_X[i + 1] / ZIG_X[i]: below this |u| the point lies under the curve without evaluating it. */
+const ZIG_Q = new Float64Array(128);
+{
+  const f = (x: number) => Math.exp(-0.5 * x * x);
+  ZIG_X[0] = ZIG_V / f(ZIG_R); // the base strip's rectangle, of the same area as the others (the tail included)
+  ZIG_X[1] = ZIG_R;
+  for (let i = 1; i < 127; i++) ZIG_X[i + 1] = Math.sqrt(-2 * Math.log(ZIG_V / ZIG_X[i]! + f(ZIG_X[i]!)));
+  ZIG_X[128] = 0;
+  for (let i = 0; i < 128; i++) ZIG_Q[i] = ZIG_X[i + 1]! / ZIG_X[i]!;
+}
+
 export class Stream {
-  private readonly rng;
-  private spare = 0;
-  private hasSpare = false;
+  // xoroshiro128+ state as pure-rand's fromState([s01, s00, s11, s10]) holds it.
+  private s01: number;
+  private s00: number;
+  private s11: number;
+  private s10: number;
 
   /** The stream of `draw` (0-based) and `purpose` under `seed` (an unsigned 32-bit integer). */
   constructor(seed: number, draw: number, purpose: Purpose) {
-    this.rng = xoroshiro128plusFromState(streamState(seed, draw, purpose));
-    for (let i = 0; i < WARM_UP; i++) this.rng.next();
+    const st = streamState(seed, draw, purpose);
+    this.s01 = st[0]!; this.s00 = st[1]!; this.s11 = st[2]!; this.s10 = st[3]!;
+    for (let i = 0; i < WARM_UP; i++) this.next();
   }
 
-  /** Uniform on [0, 1), 53 random bits. */
+  /** One 32-bit output (signed), the generator's step. */
+  next(): number {
+    const s00 = this.s00, s01 = this.s01;
+    const out = (s00 + this.s10) | 0;
+    const a0 = this.s10 ^ s00;
+    const a1 = this.s11 ^ s01;
+    this.s00 = (s00 << 24) ^ (s01 >>> 8) ^ a0 ^ (a0 << 16);
+    this.s01 = (s01 << 24) ^ (s00 >>> 8) ^ a1 ^ ((a1 << 16) | (a0 >>> 16));
+    this.s10 = (a1 << 5) ^ (a0 >>> 27);
+    this.s11 = (a0 << 5) ^ (a1 >>> 27);
+    return out;
+  }
+
+  /** Uniform on [0, 1), 53 random bits (26 from one step, 27 from the next). */
   uniform(): number {
-    return uniformFloat64(this.rng);
+    const hi = this.next() & 0x3ffffff;
+    const lo = this.next() & 0x7ffffff;
+    return hi * SCALE26 + lo * SCALE53;
   }
 
-  /** Standard normal deviate (polar method). */
+  /** Standard normal deviate (ziggurat; see the file comment). */
   normal(): number {
-    if (this.hasSpare) {
-      this.hasSpare = false;
-      return this.spare;
-    }
     for (;;) {
-      const u = 2 * uniformFloat64(this.rng) - 1;
-      const v = 2 * uniformFloat64(this.rng) - 1;
-      const s = u * u + v * v;
-      if (s > 0 && s < 1) {
-        const f = Math.sqrt((-2 * Math.log(s)) / s);
-        this.spare = v * f;
-        this.hasSpare = true;
-        return u * f;
-      }
+      const a = this.next();
+      const b = this.next();
+      // The value from 26 + 27 low bits of the two steps (as uniform()), the strip from their 6 + 1 top bits.
+      const u = 2 * ((a & 0x3ffffff) * SCALE26 + (b & 0x7ffffff) * SCALE53) - 1;
+      const i = ((a >>> 26) << 1) | (b >>> 31);
+      if (Math.abs(u) < ZIG_Q[i]!) return u * ZIG_X[i]!;
+      if (i === 0) return this.tail(u < 0);
+      // The wedge between the strip's rectangle and the curve: accept where a uniform height lies under the curve.
+      const x = u * ZIG_X[i]!;
+      const x0 = ZIG_X[i]!, x1 = ZIG_X[i + 1]!;
+      const f0 = Math.exp(-0.5 * (x0 * x0 - x * x));
+      const f1 = Math.exp(-0.5 * (x1 * x1 - x * x));
+      if (f1 + this.uniform() * (f0 - f1) < 1) return x;
+    }
+  }
+
+  /** A deviate beyond ±r (Marsaglia's exponential rejection for the normal tail). */
+  private tail(negative: boolean): number {
+    for (;;) {
+      const x = -Math.log(1 - this.uniform()) / ZIG_R;
+      const y = -Math.log(1 - this.uniform());
+      if (y + y >= x * x) return negative ? -(ZIG_R + x) : ZIG_R + x;
     }
   }
 }

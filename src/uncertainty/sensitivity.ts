@@ -5,12 +5,15 @@
  * limits: they show each assumption's own swing, not interactions). Assumptions:
  *  - each local share (a final-demand line's, or a spending mix's for all its lines together) ± a stated step, within 0–1;
  *  - the household closure off and on (when the table's closed model is usable);
- *  - the FLQ δ over a range, for a table estimated with FLQ (the study re-runs the estimate).
+ *  - the FLQ δ over a range, for a table estimated with FLQ (the study re-runs the estimate);
+ *  - for scenarios with purchaser-price lines: each margin's shares (retail, wholesale, transport, every sector's
+ *    share of that margin together) × (1 ± a relative step), a share capped so a sector's margins never exceed its
+ *    purchaser price, and each margin's local share ± the local-share step.
  * Items are sorted by the swing (high − low) of total output, largest first: the order of a tornado chart.
  */
 import { decideModels, modelsForClosure, type Availability, type PreparedModel } from '../model/index.ts';
 import { isInputError } from '../diagnostics/index.ts';
-import { NO_SHOCK_INPUTS, runPhase, VARIABLES, type LineSet, type ScenarioResult, type ShockInputs, type Variable } from '../scenario/index.ts';
+import { MARGIN_KINDS, NO_SHOCK_INPUTS, runPhase, VARIABLES, type LineSet, type MarginKind, type Margins, type ScenarioResult, type ShockInputs, type Variable } from '../scenario/index.ts';
 import type { IOTable } from '../table/index.ts';
 import { localShareGroups, modelOf, shareRange } from './draws.ts';
 
@@ -25,7 +28,7 @@ export interface SensitivitySide {
 }
 
 export interface SensitivityItem {
-  kind: 'local-share' | 'closure' | 'flq-delta';
+  kind: 'local-share' | 'closure' | 'flq-delta' | 'margin-share' | 'margin-local-share';
   /** The assumption in words. */
   assumption: string;
   /** The value as typed or estimated. */
@@ -41,6 +44,8 @@ export interface SensitivityResult {
   point: Totals;
   /** Step of the local shares. */
   step: number;
+  /** Relative step of the margin shares (null when no margin was varied). */
+  marginStep: number | null;
   items: SensitivityItem[];
   notes: string[];
 }
@@ -48,6 +53,8 @@ export interface SensitivityResult {
 export interface SensitivityOptions {
   /** Local shares move by ± this (default 0.1). */
   step?: number;
+  /** Margin shares move by × (1 ± this) (default 0.2). */
+  marginStep?: number;
   /** The models the point estimate may use (the analysis' availability) and the study's closure setting. */
   available: Availability;
   closure: 'households' | 'none';
@@ -60,6 +67,23 @@ export interface SensitivityOptions {
 }
 
 export const DEFAULT_SHARE_STEP = 0.1;
+export const DEFAULT_MARGIN_STEP = 0.2;
+
+/** The margins with one kind's shares scaled by `factor`, each capped at what the sector's other margins leave of 1. */
+function scaledMargins(m: Margins, kind: MarginKind, factor: number): Margins {
+  return {
+    ...m,
+    rows: m.rows.map((r) => {
+      let others = 0;
+      for (const k of MARGIN_KINDS) if (k !== kind) others += r.shares[k];
+      return { ...r, shares: { ...r.shares, [kind]: Math.min(Math.max(0, 1 - others), r.shares[kind] * factor) } };
+    }),
+  };
+}
+
+function withMarginLocalShare(m: Margins, kind: MarginKind, share: number): Margins {
+  return { ...m, localShare: { ...m.localShare, [kind]: share } };
+}
 
 function totalsOf(r: ScenarioResult): Totals {
   const t = {} as Totals;
@@ -143,11 +167,32 @@ export function sensitivity(pm: PreparedModel, scenario: LineSet, opts: Sensitiv
     items.push({ kind: 'flq-delta', assumption: 'FLQ δ of the county estimate', base: num(estimate), low, high, swing: swing(low.totals, high.totals) });
   }
 
+  const margins = inputs.margins;
+  const purchaser = scenario.lines.some((l) => l.prices === 'purchaser');
+  const marginStep = opts.marginStep ?? DEFAULT_MARGIN_STEP;
+  let variedMargins = false;
+  if (purchaser && margins) {
+    const withMargins = (m: Margins) => (): ScenarioResult => runPhase(pm, scenario, models, { ...inputs, margins: m });
+    for (const kind of MARGIN_KINDS) {
+      if (margins.sectors[kind] === null || !margins.rows.some((r) => r.shares[kind] > 0)) continue;
+      variedMargins = true;
+      const low = side(`× ${num(1 - marginStep)}`, withMargins(scaledMargins(margins, kind, 1 - marginStep)));
+      const high = side(`× ${num(1 + marginStep)}`, withMargins(scaledMargins(margins, kind, 1 + marginStep)));
+      items.push({ kind: 'margin-share', assumption: `${kind} margin shares (every sector's, together)`, base: 'as in the margins file', low, high, swing: swing(low.totals, high.totals) });
+      const [lo, hi] = shareRange(margins.localShare[kind], step);
+      const lowL = side(num(lo), withMargins(withMarginLocalShare(margins, kind, lo)));
+      const highL = side(num(hi), withMargins(withMarginLocalShare(margins, kind, hi)));
+      items.push({ kind: 'margin-local-share', assumption: `local share of the ${kind} margin`, base: num(margins.localShare[kind]), low: lowL, high: highL, swing: swing(lowL.totals, highL.totals) });
+    }
+  }
+
   const key = (i: SensitivityItem) => Math.abs(i.swing.output ?? 0);
   items.sort((a, b) => key(b) - key(a));
   notes.push(
     `One-at-a-time sensitivity: each assumption moved on its own to a low and a high setting (local shares ± ${step}, within 0–1), every other assumption as typed; sorted by the swing in total output. The swings do not add up and say nothing about assumptions moved together.`,
-    'The margin shares of purchaser-price lines, and the margins\' local shares, are not varied.',
+    variedMargins
+      ? `Margins of purchaser-price lines: each margin's shares moved together by × (1 ± ${marginStep}) (a share capped where a sector's margins would exceed its purchaser price), and each margin's local share ± ${step}.`
+      : purchaser ? 'The margins are not varied: no margin sector earns a share of these lines.' : 'No line is in purchaser prices, so no margin is varied.',
   );
-  return { scenario: scenario.name, point, step, items, notes };
+  return { scenario: scenario.name, point, step, marginStep: variedMargins ? marginStep : null, items, notes };
 }

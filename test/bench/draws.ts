@@ -3,9 +3,11 @@
  * numpy loop doing the same work per draw: perturb every intermediate coefficient by an independent log-normal
  * factor, factor I − A and the bordered household-closed system, solve for the scenario's output in both models and
  * for the output multipliers (one transposed solve). Ours additionally decides productivity per draw (Hawkins–Simon,
- * certified Perron bounds, the closed-model decision), which numpy's loop does not. Reported as time per draw, the
- * projection to 1,000 draws, and the ratio ours/numpy; plus `roundwise scenario --draws N` process start to exit
- * (helper threads on, as the CLI runs it for tables of 500 sectors or more).
+ * certified Perron bounds, the closed-model decision), which numpy's loop does not. Reported: ours in process on one
+ * thread (every multiplier plus the scenario) per draw; `roundwise scenario --draws N` from process start to exit (the
+ * CLI shares the draws between this thread and a helper thread on a 2-core machine, src/cli/draw-pool.ts); numpy's
+ * loop (its BLAS on every core; Python's start and numpy's import not counted; time per draw from up to 200 draws); and
+ * the ratio ours (CLI, whole process) / numpy (loop only, projected to the same number of draws).
  */
 import { spawnSync } from 'node:child_process';
 import { writeFileSync } from 'node:fs';
@@ -22,7 +24,10 @@ export interface DrawsBench {
   oursPerDrawMs: number;
   numpyPerDrawMs: number | null;
   cli: { draws: number; wallMs: number } | null;
+  /** Ours in process / numpy's loop, per draw. */
   ratio: number | null;
+  /** The CLI's whole run / numpy's loop of the same number of draws. */
+  cliRatio: number | null;
 }
 
 const LOOP = `
@@ -46,6 +51,8 @@ ms = (time.perf_counter() - t) * 1000
 print(json.dumps({"perDrawMs": ms / draws}))
 `;
 
+const NUMPY_DRAWS = 200;
+
 function scenarioOf(sectors: string[]): Scenario {
   return onePhase('bench', [{ sector: sectors[0]!, amount: 25_000, kind: 'final-demand', localShare: 1 }, { sector: sectors[10]!, amount: 5_000, kind: 'final-demand', localShare: 0.8 }]);
 }
@@ -68,7 +75,9 @@ export function benchDraws(n: number, draws: number, outDir: string, withNumpy: 
     buf.set(A, 0); buf.set(h, n * n); buf.set(c, n * n + n); buf.set(y, n * n + 2 * n);
     const path = join(outDir, `draws-${n}.f64`);
     writeFileSync(path, new Uint8Array(buf.buffer));
-    const r = spawnSync('python3', ['-c', LOOP, path, String(n), String(draws)], { encoding: 'utf8', env: childEnv() });
+    // numpy's time per draw from up to NUMPY_DRAWS draws (its loop costs the same per draw; on a loaded machine 1,000
+    // would take most of an hour), projected to the CLI's number of draws for the ratio.
+    const r = spawnSync('python3', ['-c', LOOP, path, String(n), String(Math.max(draws, Math.min(cliDraws, NUMPY_DRAWS)))], { encoding: 'utf8', env: childEnv() });
     if (r.status === 0) numpyPerDrawMs = (JSON.parse(r.stdout) as { perDrawMs: number }).perDrawMs;
   }
 
@@ -82,5 +91,8 @@ export function benchDraws(n: number, draws: number, outDir: string, withNumpy: 
     const r = spawnSync(process.execPath, [join('src', 'cli', 'roundwise.mjs'), 'scenario', csv, '--shock', shock, '--draws', String(cliDraws), '--json'], { encoding: 'utf8', maxBuffer: 1 << 28 });
     if (r.status === 0) cli = { draws: cliDraws, wallMs: performance.now() - t0 };
   }
-  return { n, draws, oursPerDrawMs, numpyPerDrawMs, cli, ratio: numpyPerDrawMs ? oursPerDrawMs / numpyPerDrawMs : null };
+  return {
+    n, draws, oursPerDrawMs, numpyPerDrawMs, cli, ratio: numpyPerDrawMs ? oursPerDrawMs / numpyPerDrawMs : null,
+    cliRatio: numpyPerDrawMs && cli ? cli.wallMs / (numpyPerDrawMs * cli.draws) : null,
+  };
 }

@@ -2,7 +2,7 @@
  * `npm run bench`: dense kernels, and the whole job when its parts exist, on seeded invented matrices of
  * n = 50, 200, 500, 1000, 2000, side by side with ml-matrix and (when python3 has numpy) numpy/OpenBLAS.
  * Prints a table and writes JSON to bench-results/. Options: --sizes 50,200  --quick (fewer repeats)  --pairs K (runs of
- * each whole job, default 5)  --no-app (skip the app in Chromium)  --large N (the large-table run, default 5000; 0 skips)
+ * each whole job, default 5)  --no-app (skip the app in Chromium: the import run and every screen, app-screens.ts)  --large N (the large-table run, default 5000; 0 skips)
  * --whole (the whole-process jobs only: no kernel rows, no in-process job rows).
  * Speed is measured here only, never in unit tests.
  */
@@ -19,7 +19,9 @@ import { numpyAvailable, numpyInverse, type NumpyTiming } from './numpy.ts';
 import { benchJob, jobCsv, type JobRow } from './job.ts';
 import { analyzeJob, scenarioJob, pythonExecutable, EQUAL_TOLERANCE, type PairedJob } from './cli-job.ts';
 import { appLongTasks, type LongTasks } from './longtasks.ts';
+import { appScreens, printAppRun, type AppRun } from './app-screens.ts';
 import { benchDraws, type DrawsBench } from './draws.ts';
+import { drawingApp, drawingAppLine, type DrawingApp } from './draws-app.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../src/cli/parallel.ts';
 
 const args = process.argv.slice(2);
@@ -154,12 +156,27 @@ process.stderr.write(`draws n=${drawsN}…`);
 const draws: DrawsBench = benchDraws(drawsN, QUICK ? 20 : 100, outDir, numpyVersion !== null, QUICK ? 50 : 1000);
 process.stderr.write(' done\n');
 
+// The app while it draws (the How sure? panel, on the table the draws bench gave the CLI).
+let drawingRun: DrawingApp | { skipped: string } = { skipped: 'not run (--no-app)' };
+if (!args.includes('--no-app')) {
+  process.stderr.write(`app drawing n=${drawsN}…`);
+  try { drawingRun = await drawingApp(join(outDir, `draws-${drawsN}.csv`), drawsN, QUICK ? 50 : 200); } catch (e) { drawingRun = { skipped: `failed: ${String(e).split('\n')[0]}` }; }
+  process.stderr.write(' done\n');
+}
+
 // Long main-thread tasks in the app, at the largest size (the table file the CLI job just used).
 const appN = Math.max(...SIZES);
 let app: LongTasks | { skipped: string } = { skipped: 'not run (--no-app)' };
 if (!args.includes('--no-app')) {
   process.stderr.write(`app n=${appN}…`);
   try { app = await appLongTasks(join(outDir, `invented-${appN}.csv`), appN); } catch (e) { app = { skipped: `failed: ${String(e).split('\n')[0]}` }; }
+  process.stderr.write(' done\n');
+}
+// Every screen of the app at the largest size, as a planner uses it (app-screens.ts): long tasks, keystrokes, edits.
+let appRun: AppRun | { skipped: string } = { skipped: 'not run (--no-app)' };
+if (!args.includes('--no-app')) {
+  process.stderr.write(`app screens n=${appN}…`);
+  try { appRun = await appScreens(join(outDir, `invented-${appN}.csv`), appN); } catch (e) { appRun = { skipped: `failed: ${String(e).split('\n')[0]}` }; }
   process.stderr.write(' done\n');
 }
 
@@ -210,9 +227,12 @@ else {
   for (const t of app.tasks) console.log(`  long task at +${fmt(t.startMs)}: ${fmt(t.durationMs)} (${t.phase})`);
 }
 
-console.log(`Monte Carlo draws at n=${draws.n} (full scenario, open and household-closed, plus every multiplier), ${draws.draws} draws in process, 1 thread: ${fmt(draws.oursPerDrawMs)} per draw (1,000 draws ≈ ${fmt(draws.oursPerDrawMs * 1000)}); numpy loop doing the same solves: ${draws.numpyPerDrawMs === null ? 'n/a' : `${fmt(draws.numpyPerDrawMs)} per draw`}; ours/numpy ${draws.ratio === null ? '—' : `${draws.ratio.toFixed(1)}×`}.${draws.cli ? ` roundwise scenario --draws ${draws.cli.draws} (helper threads on), start to exit: ${fmt(draws.cli.wallMs)}.` : ''}`);
+printAppRun(appRun);
 
-const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis, scenarios, large, app, draws };
+console.log(`Monte Carlo draws at n=${draws.n} (full scenario, open and household-closed, plus every multiplier), ${draws.draws} draws in process, 1 thread: ${fmt(draws.oursPerDrawMs)} per draw (1,000 draws ≈ ${fmt(draws.oursPerDrawMs * 1000)}); numpy loop doing the same solves: ${draws.numpyPerDrawMs === null ? 'n/a' : `${fmt(draws.numpyPerDrawMs)} per draw`}; ours/numpy ${draws.ratio === null ? '—' : `${draws.ratio.toFixed(2)}×`}.${draws.cli ? ` roundwise scenario --draws ${draws.cli.draws} (draws shared by ${HELPERS + 1} threads), start to exit: ${fmt(draws.cli.wallMs)}${draws.numpyPerDrawMs === null ? '' : ` against numpy's loop of the same draws ${fmt(draws.numpyPerDrawMs * draws.cli.draws)}: ${draws.cliRatio!.toFixed(2)}×`} (targets: under 10 s and at most 1.0×).` : ''}`);
+console.log(drawingAppLine(drawingRun));
+
+const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis, scenarios, large, app, appRun, draws, drawingApp: drawingRun };
 const stamp = started.toISOString().replace(/[:.]/g, '-');
 writeFileSync(join(outDir, `bench-${stamp}.json`), JSON.stringify(json, null, 2));
 writeFileSync(join(outDir, 'latest.json'), JSON.stringify(json, null, 2));

@@ -2,7 +2,8 @@
  * The study's own inputs by hand, in real Chromium on the sample county: a spending mix, an activity not in the table
  * and trade margins typed into the Scenarios screen's editors are refused with the same message as the same content
  * read from a file, used by scenario lines once accepted, undone one edit at a time (button and Ctrl+Z), and the mixes
- * export as a mix file that reads back. A refusal of a line in a scenario of several phases names the phase.
+ * export as a mix file that reads back. A refusal of a line in a scenario of several phases names the phase. The
+ * bundled two-phase example is offered on the sample and reported phase by phase.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Download, Page } from 'playwright-core';
@@ -179,6 +180,23 @@ describe.skipIf(skipBrowser)('study input editors', () => {
     await poll(() => page.getByTestId('scenario-error').textContent()).toMatch(/line 1 \(phase 'Phase 2', row 'Construction', column 'price_year'\): the line is in 1999 money, but there is no price index/);
     await page.getByTestId('scenario-error').scrollIntoViewIfNeeded();
     await shot('study-editors-phase-refusal');
+  });
+
+  it('adds the bundled two-phase example, whose phases are reported apart', async () => {
+    await page.getByTestId('add-example').click();
+    await poll(() => page.getByTestId('scenario-name').inputValue()).toBe('Food plant, built then operated');
+    const tabs = page.getByTestId('phase-tabs').getByRole('tab');
+    expect(await tabs.allTextContents()).toEqual(['Building the plant (one-time)', 'Operating the plant (annual)']);
+    await poll(() => page.getByTestId('phase-timing-note').textContent()).toMatch(/— Building the plant: one-time \(2026\)\.$/);
+    const once = await total().textContent();
+    await tabs.nth(1).click();
+    await poll(() => page.getByTestId('phase-timing-note').textContent()).toMatch(/— Operating the plant: annual — one year's effects, from 2027, for 20 years\.$/);
+    await poll(() => page.getByTestId('over-time').textContent()).toMatch(/^Over 20 years: /);
+    expect(await total().textContent()).not.toBe(once);
+    // Two phases of different timings: no total across them.
+    expect(await page.getByTestId('timing-totals').count()).toBe(0);
+    await page.getByTestId('phase-tabs').scrollIntoViewIfNeeded();
+    await shot('study-editors-two-phase-example');
     expect(s.errors).toEqual([]);
   });
 });

@@ -6,6 +6,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
+import { createHash } from 'node:crypto';
 import { goTo, openApp, shot, skipBrowser, type Session } from './harness.ts';
 import { deriveSymmetric, readSupplyUse, SUPPLY_SAMPLE_CSV, USE_SAMPLE_CSV, USE_SAMPLE_FILE_NAME } from '../../src/sut/index.ts';
 
@@ -17,6 +18,13 @@ const lines = SUPPLY_SAMPLE_CSV.trimEnd().split('\n');
 const ODD = `${lines.map((l, k) => `${l},${k === 0 ? 'Statistical discrepancy' : '0'}`).join('\n')}\n`;
 const csv = (name: string, text: string, mimeType = 'text/csv') => ({ name, mimeType, buffer: Buffer.from(text, 'utf8') });
 const poll = <T>(fn: () => T | Promise<T>) => expect.poll(fn, { interval: 100, timeout: 30_000 });
+/** A cell of the first row of the derived table, or the refusal shown instead (so a failure says why). */
+async function firstRowCell(col: number): Promise<string> {
+  const err = page.getByTestId('sut-error');
+  if (await err.count()) return `refused: ${await err.textContent()}`;
+  const td = page.getByTestId('sut-rows').locator('tbody tr').first().locator('td').nth(col);
+  return ((await td.textContent({ timeout: 2_000 }).catch(() => '')) ?? '').trim();
+}
 const money = (v: number) => v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
 
 describe.skipIf(skipBrowser)('roles of a supply and use pair, in the browser', () => {
@@ -37,10 +45,13 @@ describe.skipIf(skipBrowser)('roles of a supply and use pair, in the browser', (
     await page.selectOption('[data-role-supply="Statistical discrepancy"]', 'ignore');
     await page.getByTestId('sut-rows').waitFor();
     const want = deriveSymmetric(readSupplyUse({ text: ODD, fileName: 'supply-odd.csv' }, { text: USE_SAMPLE_CSV, fileName: USE_SAMPLE_FILE_NAME }, { map: { supply: { 'Statistical discrepancy': 'ignore' } } }), { assumption: 'product-sales' }).table;
-    const first = page.getByTestId('sut-rows').locator('tbody tr').first();
-    await poll(async () => ((await first.locator('td').first().textContent()) ?? '').trim()).toBe(money(want.x[0]!));
+    await poll(() => firstRowCell(0)).toBe(money(want.x[0]!));
     expect(await page.getByTestId('sut-roles').locator('summary').textContent()).toMatch(/1 role set by you/);
     expect(await page.getByTestId('sut-accept').isEnabled()).toBe(true);
+    // Both files of the pair with their SHA-256 (Node's crypto here), as the sidecars and the project file keep them.
+    const sources = (await page.getByTestId('sut-sources').textContent()) ?? '';
+    expect(sources).toContain(`Supply table: supply-odd.csv, SHA-256 ${createHash('sha256').update(ODD).digest('hex')}`);
+    expect(sources).toContain(`Use table: ${USE_SAMPLE_FILE_NAME}, SHA-256 ${createHash('sha256').update(USE_SAMPLE_CSV).digest('hex')}`);
     await page.getByTestId('sut-roles').scrollIntoViewIfNeeded();
     await shot(page, 'supply-use-roles-set');
   });
@@ -51,8 +62,7 @@ describe.skipIf(skipBrowser)('roles of a supply and use pair, in the browser', (
     // Value added (column 3 of the by-industry table) is now labour income alone: the other row became taxes.
     expect(want.otherValueAdded).toEqual([]);
     const va = want.labourIncome.reduce((a, r) => a + r.values[0]!, 0);
-    const first = page.getByTestId('sut-rows').locator('tbody tr').first();
-    await poll(async () => ((await first.locator('td').nth(2).textContent()) ?? '').trim()).toBe(money(va));
+    await poll(() => firstRowCell(2)).toBe(money(va));
     // A role map file replaces the roles set on screen.
     await page.getByTestId('sut-map-file').setInputFiles(csv('roles.json', '{"supply": {"Statistical discrepancy": "ignore"}}', 'application/json'));
     await poll(() => page.getByTestId('sut-roles').locator('summary').textContent()).toMatch(/1 role set by you \(from roles\.json\)/);

@@ -9,6 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { api } from '../../renderer/worker/compute.ts';
 import { runCli } from '../support/cli.ts';
+import { formatLocated, type InputError } from '../../src/study/index.ts';
 import type { StudyChoices } from '../../renderer/worker/protocol.ts';
 
 const ON: StudyChoices = { closure: 'households', destination: null };
@@ -82,5 +83,26 @@ describe('the app\'s classification bridge', () => {
     expect(bad('code,sector\nX,Farming\nX,Utilities\n')).toMatch(/code 'X' is mapped twice \(also on line 2\) without shares/);
     expect(bad('code,sector\nX,Mining\n')).toMatch(/sector 'Mining' is not a sector of the table/);
     expect(refusal(() => api.setStudyInput({ kind: 'mix', text: MIX.replace('FH-14', 'ZZ'), fileName: 'mix.csv', bridge: BRIDGE }))).toMatch(/code 'ZZ' is not in the bridge/);
+  });
+
+  it('county employment by codes (the "Larger table" screen\'s bridge) is refused with the CLI\'s located messages', async () => {
+    const national = { text: readFileSync('sample-data/national-table.csv', 'utf8'), fileName: 'sample-data/national-table.csv' };
+    const jobs = readFileSync('sample-data/fernhollow-employment-by-code.csv', 'utf8');
+    // As the worker posts a refusal to the screen (engine.worker.ts): formatLocated, file line and column first.
+    const refusal = (f: () => unknown) => { try { f(); } catch (e) { return formatLocated(e as InputError); } throw new Error('not refused'); };
+    const cases: [string, string, string][] = [
+      // a code the bridge lacks: the employment file's line; shares not summing to 1 and a code twice without shares: the bridge's line
+      ['unknown code', jobs.replace('FH-05,', 'FH-55,'), BRIDGE.text],
+      ['shares', jobs, BRIDGE.text.replace('FH-12,Real estate,0.4', 'FH-12,Real estate,0.3')],
+      ['twice', jobs, BRIDGE.text.replace('FH-01,Farming,', 'FH-01,Farming,\nFH-01,Utilities,')],
+    ];
+    for (const [what, emp, bridgeText] of cases) {
+      writeFileSync(p('jobs.csv'), emp);
+      writeFileSync(p('bridge.csv'), bridgeText);
+      const app = refusal(() => api.buildRegional({ national, employment: { text: emp, fileName: p('jobs.csv') }, bridge: { text: bridgeText, fileName: p('bridge.csv') }, method: 'slq', delta: 0.3 }));
+      const cli = await runCli(['regionalize', national.fileName, '--employment', p('jobs.csv'), '--bridge', p('bridge.csv'), '--method', 'slq']);
+      expect(cli.code, what).toBe(2);
+      expect(`roundwise regionalize: ${app}\n`, what).toBe(cli.err);
+    }
   });
 });

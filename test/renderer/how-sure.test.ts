@@ -6,7 +6,7 @@ import { api } from '../../renderer/worker/compute.ts';
 import { bandsView } from '../../renderer/worker/uncertainty.ts';
 import { readWorkbook } from '../support/deliverables.ts';
 import { linesOf, onePhase } from '../support/scenario.ts';
-import { defaultUncertaintySettings, prepareStudy, SAMPLE_CSV, SAMPLE_FILE_NAME, studyBands, studyFromTableFile, utf8Bytes, type Scenario } from '../../src/study/index.ts';
+import { defaultUncertaintySettings, parseMarginsCsv, prepareStudy, SAMPLE_CSV, SAMPLE_FILE_NAME, studyBands, studyFromTableFile, studySensitivity, utf8Bytes, type Scenario } from '../../src/study/index.ts';
 
 const choices = { closure: 'households' as const, destination: null };
 const settings = { draws: 45, seed: 21, cv: 0.15, localShareRange: 0.1 };
@@ -48,5 +48,20 @@ describe('How sure? worker operations', () => {
     const changed = onePhase(scenario.name, [{ ...linesOf(scenario)[0]!, amount: 3000 }]);
     expect(readWorkbook((await api.workbook({ scenario: changed, scenarios: [changed], choices })).xlsx).names).not.toContain('Uncertainty bands');
     expect(readWorkbook((await api.workbook({ scenario, scenarios: [scenario], choices: { ...choices, closure: 'none' } })).xlsx).names).not.toContain('Uncertainty bands');
+  });
+
+  it('show the margins of purchaser-price lines in the sensitivity, as the study computes them', () => {
+    const text = 'sector,retail,wholesale,transport\nmargin sector,Wholesale and retail trade,Wholesale and retail trade,Transport and warehousing\nlocal share,0.5,0.5,1\nFood processing,0.2,0.1,0.05\n';
+    api.setStudyInput({ kind: 'margins', text, fileName: 'margins.csv' });
+    try {
+      const bought: Scenario = onePhase('Groceries', [{ sector: 'Food processing', amount: 1000, kind: 'final-demand', localShare: 1, prices: 'purchaser' }]);
+      const view = api.sensitivity({ choices, scenario: bought, step: 0.1 });
+      const ref = studySensitivity(prepareStudy({ ...ps.study, margins: parseMarginsCsv(text, 'margins.csv') }), bought, 0.1)[0]!;
+      expect(view.items.map((i) => [i.kind, i.assumption, i.swing.output])).toEqual(ref.items.map((i) => [i.kind, i.assumption, i.swing.output]));
+      expect(view.items.filter((i) => i.kind === 'margin-share')).toHaveLength(3);
+      expect(view.items.filter((i) => i.kind === 'margin-local-share')).toHaveLength(3);
+    } finally {
+      api.setStudyInput({ kind: 'margins', text: null, fileName: '' });
+    }
   });
 });

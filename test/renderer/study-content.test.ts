@@ -10,7 +10,7 @@ import { fileURLToPath } from 'node:url';
 import { api } from '../../renderer/worker/compute.ts';
 import type { StudyContent } from '../../renderer/worker/protocol.ts';
 import type { StudyChoices } from '../../renderer/worker/protocol.ts';
-import { formatLocated, InputError, parseMarginsCsv, parseMixCsv, writeActivityCsv, writeMarginsCsv, writeMixCsv, type Activity, type Margins, type SpendingMix } from '../../src/study/index.ts';
+import { formatLocated, InputError, parseMarginsCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseMixCsv, writeActivityCsv, writeMarginsCsv, writeMixCsv, type Activity, type Margins, type SpendingMix } from '../../src/study/index.ts';
 import { onePhase } from '../support/scenario.ts';
 
 const ON: StudyChoices = { closure: 'households', destination: null };
@@ -122,5 +122,18 @@ describe('refusals of a line name its phase when the scenario has several', () =
     // One phase: the line number is enough, as before.
     const single = refusalOf(() => api.runScenario({ scenario: { ...scenario, phases: [scenario.phases[1]!] }, choices: ON }));
     expect(single.location.phase).toBeUndefined();
+  });
+});
+
+describe('the bundled two-phase example in the app', () => {
+  it('is offered on the sample county with the CLI\'s phases and lines, and not on a table without its sectors', () => {
+    api.loadSample({});
+    const s = api.exampleScenario({})!;
+    const file = parseShockCsv(SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME);
+    expect(s.phases.map((p) => ({ ...p, lines: p.lines.map((l) => ({ ...l, origin: undefined })) }))).toEqual(file.phases.map((p) => ({ ...p, lines: p.lines.map((l) => ({ ...l, origin: undefined })) })));
+    const view = api.runScenario({ scenario: s, choices: ON });
+    expect(view.phases.map((p) => p.timing)).toEqual(['once', 'annual']);
+    api.loadTable({ text: TABLE, fileName: 'ridgeline-test.csv' });
+    expect(api.exampleScenario({})).toBeNull();
   });
 });

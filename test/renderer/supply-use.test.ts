@@ -115,4 +115,16 @@ describe('the county estimate\'s adapter with a classification bridge', () => {
     // A role map that does not read is refused at its key.
     expect(() => api.readSutMap({ text: '{\n "supply": {"Statistical discrepancy": "exports"}\n}', fileName: 'roles.json' })).toThrow(/unknown supply-table role for 'Statistical discrepancy'/);
   });
+
+  it('keeps the pair\'s files and their SHA-256 with the table it hands over: project file, reports, the source replayed', () => {
+    const v = api.buildSymmetric(req({}));
+    expect(v.sources.map((o) => o.role)).toEqual(['supply', 'use']);
+    expect(v.result.about).toContain(`Supply table SHA-256: ${v.sources[0]!.sha256}`);
+    const loaded = api.loadTable({ text: v.result.csv, fileName: v.result.fileName, name: v.result.name, derivedFrom: v.sources });
+    expect(loaded.table.sectors.length).toBe(v.sectors.length);
+    const choices = { closure: 'households' as const, destination: null };
+    expect(JSON.parse(api.saveProject({ name: 'x', scenarios: [], choices, active: 0 })).source.derivedFrom).toEqual(v.sources);
+    const about = api.report({ kind: 'multipliers', scenarios: [], choices }).find((f) => f.name.endsWith('.about.txt'))!.content;
+    expect(about).toContain(`Use table file: ${USE_SAMPLE_FILE_NAME}\r\nUse table SHA-256: ${v.sources[1]!.sha256}`);
+  });
 });

@@ -5,9 +5,9 @@
 import { deliverableFiles, XLSX_OPTION } from './deliverables.ts';
 import {
   MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy, type PrepareOptions, type Study, formatLocated, visibleText,
-  bandReports, multiplierBandsJson, studyBands,
+  bandReports, multiplierBandsJson,
 } from '../../study/index.ts';
-import { multiplierBandsSummary, uncertaintySettingsOf, UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
+import { bandsOf, multiplierBandsSummary, uncertaintySettingsOf, UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand } from '../command.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
@@ -116,7 +116,7 @@ export const analyze = defineCommand({
     const settings = uncertaintySettingsOf(values, ctx);
     const ps = await prepare(study, { inverse: values.out !== undefined || values.xlsx !== undefined });
     for (const w of ps.analysis.warnings) ctx.warn(formatLocated(w));
-    const bands = settings ? await withHelperThreads(study.table.n, () => studyBands(ps, { settings, multipliers: true, scenarios: [] })!) : null;
+    const bands = settings ? await bandsOf(ps, { settings, multipliers: true, scenarios: [] }) : null;
     return {
       summary: () => summary(ps) + (bands ? `${multiplierBandsSummary(bands).join('\n')}\n` : ''),
       json: () => ({ ...studyAnalysisJson(ps), ...(bands ? { uncertainty: multiplierBandsJson(bands) } : {}) }),

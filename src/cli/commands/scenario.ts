@@ -13,11 +13,11 @@ import {
   tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, mixesFromFile, parseActivityCsv,
   parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
   type Closure, type EffectTotals, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult, type Variable,
-  bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studyBands, studySensitivity,
+  bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
-import { prepare, startHelpersFor, withHelperThreads } from './analyze.ts';
-import { scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
+import { prepare, startHelpersFor } from './analyze.ts';
+import { bandsOf, flqOf, scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
 const fmt = (v: number | null | undefined) => (v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
 
@@ -186,12 +186,20 @@ export const scenario = defineCommand({
       if (destination === null) throw new InputError('unknown-sector', `--paths: unknown sector '${values.paths}'`, { rowLabel: values.paths });
       study.settings.paths.destination = destination;
     }
-    const settings = uncertaintySettingsOf(values, ctx);
+    const drawn = uncertaintySettingsOf(values, ctx);
     if (values['share-step'] !== undefined && !values.sensitivity) throw ctx.usageError('--share-step needs --sensitivity');
+    if (values['margin-step'] !== undefined && !values.sensitivity) throw ctx.usageError('--margin-step needs --sensitivity');
+    const flq = flqOf(values, ctx, study.table);
+    if (flq && !values.sensitivity && !(drawn && flq.rangeGiven)) throw ctx.usageError('--flq-national needs --sensitivity, or --draws with --delta-range');
+    // δ is drawn only when a range is given with --draws.
+    const settings = drawn && flq?.rangeGiven ? { ...drawn, deltaRange: flq.range } : drawn;
     const ps = await prepare(study, { spectrum: false });
     const outcome = runStudyScenario(ps, scenario, { paths: destination });
-    const bands = settings ? await withHelperThreads(study.table.n, () => studyBands(ps, { settings, multipliers: false, scenarios: [scenario] })!) : null;
-    const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step']) : null;
+    const bands = settings ? await bandsOf(ps, { settings, multipliers: false, scenarios: [scenario] }, flq?.origin ?? null) : null;
+    const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step'], {
+      ...(values['margin-step'] !== undefined ? { marginStep: values['margin-step'] } : {}),
+      flq: flq ? { origin: flq.origin, range: flq.range } : null,
+    }) : null;
     const names = { output: 'output', valueAdded: 'value added', income: 'labour income', employment: 'employment' };
     const files = await deliverableFiles(ps, outcome, values, ctx, { bands, sensitivity: sens });
     if (values.project !== undefined) {

@@ -4,7 +4,7 @@
  * study layer).
  */
 import {
-  ASSUMPTIONS, ASSUMPTION_BY, CAUTIONS, formatLocated, NEGATIVES_REMEDIES, SUT_DEFAULT_TOLERANCE, TABLE_BY, parseSutRoleMap, supplyUseTotals, symmetricFromSupplyUse,
+  ASSUMPTIONS, ASSUMPTION_BY, CAUTIONS, formatLocated, originLines, sourceOriginsOf, NEGATIVES_REMEDIES, SUT_DEFAULT_TOLERANCE, TABLE_BY, parseSutRoleMap, supplyUseTotals, symmetricFromSupplyUse,
   type Assumption, type NegativesRemedy, type SymmetricFromSupplyUse, type TableBy,
 } from '../../study/index.ts';
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
@@ -28,6 +28,7 @@ function summary(r: SymmetricFromSupplyUse): string {
   return [
     `${r.pair.products.length} products × ${r.pair.industries.length} industries → ${t.n} sectors: ${r.derived.method}.`,
     `Formula: ${r.derived.formula}.`,
+    ...originLines(sourceOriginsOf(r.judged.study)).map(([k, v]) => `${k}: ${v}`),
     '',
     textTable(
       ['Sector', `Output (${unit})`, `Final demand (${unit})`, ...(t.employment ? ['Jobs'] : [])],
@@ -113,6 +114,7 @@ export const sut = defineCommand({
         remedy: r.derived.remedy,
         notes: r.notes,
         warnings: r.warnings,
+        sources: r.sources,
         verdict: r.judged.verdict,
         cautions: CAUTIONS,
       }),

@@ -4,11 +4,18 @@
  * checks (src/uncertainty/settings.ts), so the app refuses the same values with the same words.
  */
 import {
-  cvProblem, defaultUncertaintySettings, drawsProblem, parseCvCsv, seedProblem, shareRangeProblem,
+  beginStudyBands, cvProblem, defaultUncertaintySettings, deltaRangeProblem, flqOriginOf, DEFAULT_FLQ_DELTA, DEFAULT_MARGIN_STEP, drawsProblem, parseCvCsv, seedProblem, shareRangeProblem,
   visibleText, DEFAULT_CV, DEFAULT_SEED, DEFAULT_SHARE_STEP,
-  type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
+  type BandsRequest, type FlqOrigin, type PreparedStudy, type IOTable, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
 } from '../../study/index.ts';
 import type { RunContext } from '../command.ts';
+import { drawThreadsWorthIt, finishBandsThreaded } from '../draw-pool.ts';
+
+/** The bands of a request, the draws shared with helper threads when the run is large enough to gain from them. */
+export async function bandsOf(ps: PreparedStudy, req: BandsRequest, origin: FlqOrigin | null = null): Promise<UncertaintyResult> {
+  const run = beginStudyBands(ps, req, origin);
+  return (await finishBandsThreaded(run, drawThreadsWorthIt(ps.study.table.n, req.settings.draws) ? undefined : 0)).bands;
+}
 
 export const UNCERTAINTY_OPTIONS = {
   draws: { type: 'number', value: 'N', help: 'add Monte Carlo bands (5th, 50th, 95th percentiles and mean) from N draws of the table (20–100000; 1000 is usual)', check: drawsProblem },
@@ -22,7 +29,48 @@ export const SCENARIO_UNCERTAINTY_OPTIONS = {
   'share-range': { type: 'number', value: 'R', help: 'with --draws: also draw each local share uniformly within ± R (0–1, within 0–1)', check: shareRangeProblem },
   sensitivity: { type: 'boolean', help: 'add one-at-a-time sensitivity of the totals: each local share ± the step, the household closure off and on' },
   'share-step': { type: 'number', value: 'X', help: `step of the local shares for --sensitivity (default ${DEFAULT_SHARE_STEP})`, check: (x: number) => (x > 0 && x <= 1 ? null : 'must be a number above 0 and at most 1') },
+  'margin-step': { type: 'number', value: 'X', help: `relative step of the margin shares of purchaser-price lines for --sensitivity: × (1 ± X) (default ${DEFAULT_MARGIN_STEP})`, check: (x: number) => (x > 0 && x <= 1 ? null : 'must be a number above 0 and at most 1') },
+  'flq-national': { type: 'string', value: 'NATIONAL.csv', help: 'the table is an FLQ estimate (roundwise regionalize --method flq) from this national table: vary FLQ δ (--sensitivity) or draw it (--draws with --delta-range); needs --flq-employment' },
+  'flq-employment': { type: 'string', value: 'EMP.csv', help: 'the county employment the FLQ estimate was made with (as for regionalize --employment)' },
+  'flq-delta': { type: 'number', value: 'D', help: `the δ the FLQ estimate was made with (default ${DEFAULT_FLQ_DELTA}); the estimate is re-run and must give the table`, check: (x: number) => (x >= 0 && x <= 1 ? null : 'must be a number from 0 to 1') },
+  'delta-range': { type: 'string', value: 'LOW,HIGH', help: 'FLQ δ range: the low and high settings of --sensitivity (default δ ± 0.1 within 0–1), and with --draws δ drawn uniformly from it' },
 } as const;
+
+interface FlqValues {
+  'flq-national'?: string | undefined;
+  'flq-employment'?: string | undefined;
+  'flq-delta'?: number | undefined;
+  'delta-range'?: string | undefined;
+}
+
+/** Half-width of the default δ range around the estimate's δ (common practice, no source: FLQ δ is usually tried within about ± 0.1). */
+const DEFAULT_DELTA_SPREAD = 0.1;
+
+/**
+ * The table's FLQ origin and the δ range, when --flq-national says the table is an FLQ estimate; null otherwise. The
+ * estimate is re-run from the files named and must reproduce the table (flqOriginOf refuses it otherwise).
+ */
+export function flqOf(values: FlqValues, ctx: RunContext, table: IOTable): { origin: FlqOrigin; range: [number, number]; rangeGiven: boolean } | null {
+  if (values['flq-national'] === undefined) {
+    const stray = (['flq-employment', 'flq-delta', 'delta-range'] as const).find((k) => values[k] !== undefined);
+    if (stray) throw ctx.usageError(`--${stray} needs --flq-national NATIONAL.csv`);
+    return null;
+  }
+  if (values['flq-employment'] === undefined) throw ctx.usageError('--flq-national needs --flq-employment EMP.csv');
+  const delta = values['flq-delta'] ?? DEFAULT_FLQ_DELTA;
+  let range: [number, number] = [Math.max(0, delta - DEFAULT_DELTA_SPREAD), Math.min(1, delta + DEFAULT_DELTA_SPREAD)];
+  const given = values['delta-range'];
+  if (given !== undefined) {
+    const parts = given.split(',').map((x) => Number(x.trim()));
+    const why = parts.length === 2 && given.split(',').every((x) => x.trim() !== '') ? deltaRangeProblem(parts as [number, number]) : 'must be two numbers LOW,HIGH with 0 ≤ LOW ≤ HIGH ≤ 1';
+    if (why) throw ctx.usageError(`--delta-range ${given} ${why}`);
+    range = parts as [number, number];
+  }
+  const nat = ctx.input(values['flq-national']);
+  const emp = ctx.input(values['flq-employment']);
+  const origin = flqOriginOf(table, { bytes: nat.bytes, fileName: nat.name }, { bytes: emp.bytes, fileName: emp.name }, delta);
+  return { origin, range, rangeGiven: given !== undefined };
+}
 
 interface Values {
   draws: number | undefined;

@@ -7,6 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mkdtempSync, readFileSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
+import { createHash } from 'node:crypto';
 import { join } from 'node:path';
 import Papa from 'papaparse';
 import { importTable } from '../../../src/table/index.ts';
@@ -30,6 +31,17 @@ beforeAll(() => {
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 describe('roundwise sut --json', () => {
+  it('names both files of the pair with their SHA-256 in the summary and the JSON', async () => {
+    // SHA-256 by Node's crypto (OpenSSL), independent of the engine's own hash.
+    const sha = (t: string) => createHash('sha256').update(t).digest('hex');
+    const j = await cli(p('supply.csv'), p('use.csv'), '--json');
+    expect(j.code, j.err).toBe(0);
+    expect(JSON.parse(j.out).sources).toEqual([{ role: 'supply', fileName: p('supply.csv'), sha256: sha(SUPPLY) }, { role: 'use', fileName: p('use.csv'), sha256: sha(USE) }]);
+    const s = await cli(p('supply.csv'), p('use.csv'));
+    expect(s.out).toContain(`Supply table SHA-256: ${sha(SUPPLY)}\n`);
+    expect(s.out).toContain(`Use table SHA-256: ${sha(USE)}\n`);
+  });
+
   it('prints sectors, A (row-major) and the notes; by default the fixed product sales structure, industry by industry', async () => {
     const r = await cli(p('supply.csv'), p('use.csv'), '--json');
     expect(r.code, r.err).toBe(0);

@@ -95,6 +95,71 @@ describe('scenario --sensitivity', () => {
   });
 });
 
+describe('scenario --sensitivity with margins', () => {
+  it('varies each margin\'s shares and local share; the swings are the money moved times the Type II multipliers', async () => {
+    // Invented margins: food bought at purchaser prices, 20 % retail and 10 % wholesale margin (both earned by trade,
+    // half of it locally), 5 % transport.
+    const shock = join(dir, 'food-purchases.csv');
+    writeFileSync(shock, 'sector,amount,kind,local_share,prices\nFood processing,1000,final-demand,1,purchaser\n');
+    const margins = join(dir, 'margins.csv');
+    writeFileSync(margins, 'sector,retail,wholesale,transport\nmargin sector,Wholesale and retail trade,Wholesale and retail trade,Transport and warehousing\nlocal share,0.5,0.5,1\nFood processing,0.2,0.1,0.05\n');
+    const j = await json('scenario', TABLE, '--shock', shock, '--margins', margins, '--sensitivity', '--margin-step', '0.25');
+    const items = j.sensitivity.items as { kind: string; assumption: string; swing: { output: number } }[];
+    expect(j.sensitivity.marginStep).toBe(0.25);
+    expect(items.filter((i) => i.kind === 'margin-share').map((i) => i.assumption).sort()).toEqual(['retail margin shares (every sector\'s, together)', 'transport margin shares (every sector\'s, together)', 'wholesale margin shares (every sector\'s, together)']);
+    // Effects are linear in final demand (Miller & Blair 2009, ch. 2: x = L·f): scaling the retail share 0.2 by
+    // 0.75 and by 1.25 moves 1000 × 0.2 × 0.5 = 100 from the producer value (local share 1, food processing) to the retail
+    // margin (local share 0.5, trade), so the swing is 100 × (0.5·m_trade − m_food) with the Type II output multipliers.
+    const an = await json('analyze', TABLE);
+    const m = (s: string) => an.multipliers.output.typeII[an.sectors.indexOf(s)] as number;
+    const retail = items.find((i) => i.assumption.startsWith('retail margin shares'))!;
+    expect(retail.swing.output / (100 * (0.5 * m('Wholesale and retail trade') - m('Food processing'))) - 1).toBeCloseTo(0, 9);
+    // The retail margin's local share 0.5 ± 0.1 (the share step): 1000 × 0.2 × 0.2 = 40 of demand on trade.
+    const local = items.find((i) => i.assumption === 'local share of the retail margin')!;
+    expect(local.swing.output / (40 * m('Wholesale and retail trade')) - 1).toBeCloseTo(0, 9);
+  });
+});
+
+describe('scenario --sensitivity on an FLQ estimate', () => {
+  const national = 'sample-data/national-table.csv';
+  const employment = 'sample-data/fernhollow-employment.csv';
+  const estimateAt = async (delta: string, name: string): Promise<string> => {
+    const out = join(dir, name);
+    const r = await runCli(['regionalize', national, '--employment', employment, '--method', 'flq', '--delta', delta, '--out', out]);
+    expect(r.code, r.err).toBe(0);
+    return join(out, 'regional-table.csv');
+  };
+
+  it('re-runs the estimate at the ends of the δ range: each side is the scenario on the estimate made at that δ', async () => {
+    const county = await estimateAt('0.25', 'flq-25');
+    const shock = join(dir, 'flq-shock.csv');
+    writeFileSync(shock, 'sector,amount,kind,local_share\nConstruction,5000,final-demand,0.8\n');
+    const j = await json('scenario', county, '--shock', shock, '--sensitivity', '--flq-national', national, '--flq-employment', employment, '--flq-delta', '0.25', '--delta-range', '0.15,0.4');
+    const item = (j.sensitivity.items as { kind: string; base: string; low: { setting: string; totals: { output: number } }; high: { setting: string; totals: { output: number } } }[]).find((i) => i.kind === 'flq-delta')!;
+    expect([item.base, item.low.setting, item.high.setting]).toEqual(['0.25', 'δ = 0.15', 'δ = 0.4']);
+    // Independently: the estimate made by regionalize at δ = 0.15 and 0.4, the same scenario run on each.
+    for (const [delta, side] of [['0.15', item.low], ['0.4', item.high]] as const) {
+      const other = await json('scenario', await estimateAt(delta, `flq-${delta}`), '--shock', shock);
+      expect(side.totals.output / other.totals.output.total - 1).toBeCloseTo(0, 9);
+    }
+    // Draws of δ: bands from tables estimated at δ within the range.
+    const d = await json('scenario', county, '--shock', shock, '--draws', '20', '--cv', '0', '--flq-national', national, '--flq-employment', employment, '--flq-delta', '0.25', '--delta-range', '0.2,0.3');
+    expect(d.uncertainty.deltaDrawn[0]).toBeGreaterThanOrEqual(0.2);
+    expect(d.uncertainty.deltaDrawn[1]).toBeLessThanOrEqual(0.3);
+  }, 120_000);
+
+  it('refuses a table that the named estimate does not reproduce, and FLQ options without --flq-national', async () => {
+    const county = await estimateAt('0.25', 'flq-25b');
+    const shock = join(dir, 'flq-shock.csv');
+    const r = await runCli(['scenario', county, '--shock', shock, '--sensitivity', '--flq-national', national, '--flq-employment', employment, '--flq-delta', '0.3']);
+    expect(r.code).toBe(2);
+    expect(r.err).toMatch(/the table is not the FLQ estimate \(δ = 0\.3\)/);
+    const u = await runCli(['scenario', county, '--shock', shock, '--sensitivity', '--delta-range', '0.1,0.2']);
+    expect(u.code).toBe(1);
+    expect(u.err).toMatch(/--delta-range needs --flq-national/);
+  }, 120_000);
+});
+
 describe('analyze --draws', () => {
   it('adds a band per sector and multiplier; at CV 0 each is its point estimate', async () => {
     const j = await json('analyze', TABLE, '--draws', '20', '--cv', '0');

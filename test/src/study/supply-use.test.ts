@@ -3,9 +3,12 @@
 // use → symmetric → location quotients → RAS → grouping). Reference: the hand-worked pair (test/support/sut-pairs.ts;
 // Z = D·U = [[18, 9], [7, 16]] under the fixed product sales structure, arithmetic in test/src/sut/hand-worked.test.ts).
 import { describe, expect, it } from 'vitest';
+import { createHash } from 'node:crypto';
 import {
-  assumptionOf, estimateCountyTable, projectFileOf, studyFromProjectFile, studyFromSupplyUse, symmetricFromSupplyUse, utf8Bytes,
+  assumptionOf, briefInputOf, buildReport, estimateCountyTable, prepareStudy, projectFileOf, runStudyScenario, studyFromProjectFile, studyFromSupplyUse,
+  symmetricFromSupplyUse, utf8Bytes,
 } from '../../../src/study/index.ts';
+import { briefDocument } from '../../../src/deliverables/index.ts';
 import { parseEmploymentCsv, regionalize } from '../../../src/regional/index.ts';
 import { refusal } from '../../support/refusal.ts';
 import { SUPPLY, USE } from '../../support/sut-pairs.ts';
@@ -20,6 +23,32 @@ describe('a study from supply and use tables', () => {
     const back = studyFromProjectFile(projectFileOf(study), 'p.roundwise');
     expect(Array.from(back.table.Z)).toEqual(Array.from(study.table.Z));
     expect(back.table.sectors).toEqual(['Industry A', 'Industry B']);
+  });
+
+  it('names both files of the pair with their SHA-256 wherever the table\'s source hash appears: sidecars, project file, brief', () => {
+    // SHA-256 by Node's crypto (OpenSSL), independent of the engine's own hash.
+    const sha = (t: string) => createHash('sha256').update(t).digest('hex');
+    const want = [{ role: 'supply', fileName: 'supply.csv', sha256: sha(SUPPLY) }, { role: 'use', fileName: 'use.csv', sha256: sha(USE) }];
+    const { study, derived } = studyFromSupplyUse(req);
+    expect(derived.sources).toEqual(want);
+    expect(study.source?.derivedFrom).toEqual(want);
+    for (const f of derived.reports.filter((r) => r.name.endsWith('.about.txt'))) {
+      expect(f.content).toContain(`Supply table file: supply.csv\r\nSupply table SHA-256: ${sha(SUPPLY)}\r\nUse table file: use.csv\r\nUse table SHA-256: ${sha(USE)}`);
+    }
+    // The project file keeps them; the reopened study's reports and brief say them.
+    const text = projectFileOf(study);
+    expect(JSON.parse(text).source.derivedFrom).toEqual(want);
+    const back = studyFromProjectFile(text, 'p.roundwise');
+    expect(back.source?.derivedFrom).toEqual(want);
+    back.scenarios = [{ name: 'Plant', phases: [{ name: 'Build', timing: 'once', lines: [{ sector: 'Industry A', amount: 10, kind: 'final-demand', localShare: 1 }] }] }];
+    const ps = prepareStudy(back, { spectrum: false });
+    expect(buildReport(ps, 'multipliers', { date: 'd' }).find((f) => f.name.endsWith('.about.txt'))!.content).toContain(`Use table SHA-256: ${sha(USE)}`);
+    const brief = briefDocument(briefInputOf(ps, runStudyScenario(ps, back.scenarios[0]!), 'd'));
+    expect(JSON.stringify(brief)).toContain(sha(SUPPLY));
+    // A project without the key (every project before it) reads as before.
+    const plain = JSON.parse(text);
+    delete plain.source.derivedFrom;
+    expect(studyFromProjectFile(JSON.stringify(plain), 'old.roundwise').source?.derivedFrom).toBeUndefined();
   });
 
   it('the county estimate from the derived CSV is the location-quotient estimate of the derived table', () => {

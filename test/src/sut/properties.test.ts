@@ -45,8 +45,12 @@ function identities(s: SupplyUse, d: DerivedTable): void {
     expect(rel(sales, t.x[i]!, scale)).toBeLessThan(TOL);
     expect(rel(inputs, t.x[i]!, scale)).toBeLessThan(TOL);
   }
-  // total output is the supply table's, and the total of final demand is kept
+  // output is reproduced sector by sector: the industries' g (industry by industry) or the products' q (product by
+  // product), both read off the supply table; so total output is the supply table's
+  const out = d.flows.by === 'industry' ? s.g : s.q;
+  for (let i = 0; i < n; i++) expect(rel(t.x[i]!, out[i]!, scale)).toBeLessThan(TOL);
   expect(rel(sum(t.x), sum(s.V), scale)).toBeLessThan(TOL);
+  // the total of final demand is kept
   expect(rel(sum(fd.flatMap((c) => Array.from(c.values))), s.finalDemand.reduce((a, c) => a + sum(c.values), 0), scale)).toBeLessThan(TOL);
   // jobs are kept in total too
   if (t.employment) expect(rel(sum(t.employment), sum(s.industryRows.find((r) => r.role === 'employment')!.values), sum(t.employment))).toBeLessThan(TOL);

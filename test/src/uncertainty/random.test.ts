@@ -3,6 +3,8 @@
 import { describe, expect, it } from 'vitest';
 import { PURPOSE, Stream, sigmaOf } from '../../../src/uncertainty/index.ts';
 import { streamState } from '../../../src/uncertainty/random.ts';
+import { xoroshiro128plusFromState } from 'pure-rand/generator/xoroshiro128plus';
+import { uniformFloat64 } from 'pure-rand/distribution/uniformFloat64';
 
 const N = 20000;
 
@@ -54,6 +56,15 @@ describe('random streams', () => {
     expect(Math.abs(sab / Math.sqrt(saa * sbb))).toBeLessThan(4 / Math.sqrt(a.length));
   });
 
+  it('are pure-rand\'s xoroshiro128+ and uniformFloat64, bit for bit (the library is the reference for the inlined steps)', () => {
+    for (const [seed, draw, purpose] of [[0, 0, PURPOSE.coefficients], [4294967295, 99999, PURPOSE.delta], [20261202, 7, PURPOSE.localShares]] as const) {
+      const ref = xoroshiro128plusFromState(streamState(seed, draw, purpose));
+      for (let i = 0; i < 16; i++) ref.next(); // the stream's warm-up
+      const ours = new Stream(seed, draw, purpose);
+      for (let i = 0; i < 5000; i++) expect(ours.uniform()).toBe(uniformFloat64(ref));
+    }
+  });
+
   it('give standard normal deviates (mean, variance, Kolmogorov–Smirnov)', () => {
     const z = normals(20261202, 0);
     // Mean: standard error 1/√N; variance: standard error √(2/(N−1)); 4 standard errors each.
@@ -68,6 +79,27 @@ describe('random streams', () => {
       d = Math.max(d, Math.abs(f - i / N), Math.abs((i + 1) / N - f));
     }
     expect(d).toBeLessThan(1.95 / Math.sqrt(N));
+  });
+
+  it('put the normal probability into each tail and each strip of the ziggurat (a million deviates)', () => {
+    const M = 1_000_000;
+    const s = new Stream(99, 0, PURPOSE.coefficients);
+    const cuts = [0.5, 1, 2, 3, 3.442619855899, 4];
+    const beyond = new Array<number>(cuts.length).fill(0);
+    let negative = 0;
+    for (let k = 0; k < M; k++) {
+      const z = s.normal();
+      if (z < 0) negative++;
+      const a = Math.abs(z);
+      for (let c = 0; c < cuts.length; c++) if (a > cuts[c]!) beyond[c]!++;
+    }
+    // P(|Z| > c) = 2(1 − Φ(c)) (phi above, |error| < 1.5e-7); each count within 5 binomial standard deviations (plus
+    // the approximation's error). The cut at r = 3.4426… is where the ziggurat's base strip hands over to its tail.
+    cuts.forEach((c, i) => {
+      const p = 2 * (1 - phi(c));
+      expect(Math.abs(beyond[i]! / M - p)).toBeLessThan(5 * Math.sqrt(p * (1 - p) / M) + 3e-7);
+    });
+    expect(Math.abs(negative / M - 0.5)).toBeLessThan(5 * Math.sqrt(0.25 / M));
   });
 
   it('give uniforms on [0, 1) with the mean and variance of U(0, 1)', () => {
