@@ -52,7 +52,7 @@ const bridge: RoundwiseBridge = {
       handlers.delete(handler);
     };
   },
-  autosave: (content) => call(CHANNELS.autosave, content),
+  autosave: async (content) => call(CHANNELS.autosave, content !== null && typeof content === 'object' ? await content.text() : content),
   recoverAutosave: () => call(CHANNELS.recoverAutosave),
   discardRecovered: () => call(CHANNELS.discardRecovered),
 };

@@ -256,7 +256,8 @@ export function createBrowserBridge(env: BrowserEnv = defaultEnv()): RoundwiseBr
       };
     },
     async autosave(content) {
-      await recoverySlots.write(content);
+      // In the browser a recovery copy is a Blob (renderer/state/recovery.ts); a string is stored as one too.
+      await recoverySlots.write(content !== null && typeof content === 'object' ? (content as Blob) : content);
     },
     async recoverAutosave() {
       await moveLegacyCopy();

@@ -63,6 +63,18 @@ export function writeRecoveryCopy(c: RecoveryCopy & { savedAt: string; tableName
   return `${head.slice(0, -1)},"project":${projectJson ?? JSON.stringify(c.project)}}`;
 }
 
+/**
+ * The copy as a Blob around the project's JSON string literal (`recoveryBaseJson`, a Blob from the worker): the same
+ * text as `writeRecoveryCopy`, assembled without the page ever holding the project text.
+ */
+export function recoveryCopyBlob(c: Omit<RecoveryCopy, 'project'> & { savedAt: string; tableName: string; scenarios: ScenarioDraft[] }, projectJson: Blob): Blob {
+  const head = JSON.stringify({
+    format: RECOVERY_FORMAT, version: 2, savedAt: c.savedAt, tableName: c.tableName, projectName: c.projectName,
+    selected: c.selected, scenarios: c.scenarios,
+  });
+  return new Blob([`${head.slice(0, -1)},"project":`, projectJson, '}'], { type: 'application/json' });
+}
+
 /** The copy, or a reason it cannot be used (damaged, or not a copy at all). */
 export function readRecoveryCopy(text: string): RecoveryCopy | { damaged: string } {
   let raw: unknown;

@@ -11,7 +11,7 @@ import { getBridge } from '../bridge/index.ts';
 import { engine, CancelledError } from '../worker/client.ts';
 import { app, choices, markDirty, messageOf, resetHistory, say } from './app.ts';
 import { applyProject } from './project.ts';
-import { describeCopy, readRecoveryCopy, writeRecoveryCopy, type RecoveryCopy } from './recovery-copy.ts';
+import { describeCopy, readRecoveryCopy, recoveryCopyBlob, type RecoveryCopy } from './recovery-copy.ts';
 import type { ScenarioDraft } from '../worker/protocol.ts';
 
 /** Quiet time after the last change before the copy is written (edits come in bursts). */
@@ -35,22 +35,25 @@ export const recovery = reactive({
 let timer: ReturnType<typeof setTimeout> | null = null;
 /** Writes run one after another, so a slow older copy never lands after a newer one (or after a removal). */
 let writes: Promise<void> = Promise.resolve();
-/** The project text of the table and settings, rebuilt only when they change (scenario edits are the usual change). */
-let base: { table: unknown; choices: string; name: string; text: string; json: string } | null = null;
+/**
+ * The project text of the table and settings as a JSON string in a Blob made by the worker, asked for again only when
+ * they change (scenario edits are the usual change). The page never holds that text (20 MB at 2,000 sectors): copying
+ * or encoding it on every edit froze the window for a second or more.
+ */
+let base: { table: unknown; choices: string; name: string; json: Blob } | null = null;
 
-async function copyText(): Promise<string> {
+async function copyContent(): Promise<Blob> {
   const table = app.table!;
   const name = (app.project?.name ?? table.name ?? 'project').replace(/\.roundwise$/, '');
   const now = choices();
   if (!base || base.table !== toRaw(table) || base.choices !== JSON.stringify(now) || base.name !== name) {
-    const text = await engine().call('recoveryBase', { name, choices: now }, null);
-    base = { table: toRaw(table), choices: JSON.stringify(now), name, text, json: JSON.stringify(text) };
+    const json = await engine().call('recoveryBaseJson', { name, choices: now }, null);
+    base = { table: toRaw(table), choices: JSON.stringify(now), name, json };
   }
-  return writeRecoveryCopy({
+  return recoveryCopyBlob({
     savedAt: new Date().toISOString(),
     tableName: table.name,
     projectName: app.project?.name ?? null,
-    project: base.text,
     scenarios: JSON.parse(JSON.stringify(app.scenarios)) as ScenarioDraft[],
     selected: app.selected,
   }, base.json);
@@ -65,7 +68,7 @@ async function writeCopy(): Promise<void> {
   }
   if (!app.table) return;
   try {
-    await bridge.autosave(await copyText());
+    await bridge.autosave(await copyContent());
     recovery.problem = null;
   } catch (e) {
     if (e instanceof CancelledError) return; // the user stopped the worker; the next change tries again

@@ -10,7 +10,7 @@ import {
   type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
-import { analysisView, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
+import { analysisView, gridMargins, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
 import { regionalApi } from './regional.ts';
 import { howSureMemory, uncertaintyApi } from './uncertainty.ts';
 import { supplyUseApi } from './supply-use.ts';
@@ -170,7 +170,8 @@ function paths(args: { scenario: ScenarioDraft; phase?: number; choices: StudyCh
 }
 
 function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
-  const { pm, study, models } = current();
+  const ps = current();
+  const { pm, study, models } = ps;
   let values: Float64Array;
   if (args.which === 'Z') values = Float64Array.from(study.table.Z);
   else if (args.which === 'A') values = Float64Array.from(pm.coef.A);
@@ -181,7 +182,7 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
   }
   let max = 0;
   for (let k = 0; k < values.length; k++) if (values[k]! > max) max = values[k]!;
-  return { which: args.which, n: pm.coef.n, sectors: pm.coef.sectors, values, max };
+  return { which: args.which, n: pm.coef.n, sectors: pm.coef.sectors, values, max, ...gridMargins(ps, args.which, values) };
 }
 
 function reports(args: { scenarios: ScenarioDraft[]; choices: StudyChoices }): { kind: ReportKind; label: string; what: string; scope: string; unavailable: string | null }[] {
@@ -236,6 +237,14 @@ function saveProject(args: { name: string; scenarios: ScenarioDraft[]; choices: 
 function recoveryBase(args: { name: string; choices: StudyChoices }): string {
   const { study } = studyAt(args.choices);
   return projectFileOf({ ...study, name: args.name, scenarios: [] });
+}
+
+/**
+ * The same project text as a JSON string literal in a Blob: what the crash-recovery copy embeds. Escaped and encoded
+ * here, so the window's main thread never holds the 20 MB text of a 2,000-sector table (a Blob crosses by reference).
+ */
+function recoveryBaseJson(args: { name: string; choices: StudyChoices }): Blob {
+  return new Blob([JSON.stringify(recoveryBase(args))], { type: 'application/json' });
 }
 
 function openProject(args: { text: string; fileName: string }): ReturnType<typeof load> & { scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
@@ -309,6 +318,7 @@ export const api = {
   workbook,
   saveProject,
   recoveryBase,
+  recoveryBaseJson,
   openProject,
   ...regionalApi,
   ...uncertaintyApi(studyAt, howSure),

@@ -87,6 +87,8 @@ export interface TableInfo {
   mixes: { name: string; shares: { sector: string; share: number }[] }[];
   /** Activities not in the table that the study describes (their names, for activity lines). */
   activities: string[];
+  /** The sectors each activity buys from, by activity name (a new table may lack some). */
+  activitySectors: Record<string, string[]>;
   hasTaxes: boolean;
   hasFte: boolean;
   /** Roles as imported (for the project file and the role editor). */
@@ -269,6 +271,19 @@ export interface GridView {
   /** Row-major n×n values. */
   values: Float64Array;
   max: number;
+  /** Rows under the n×n block (value added, imports, totals, jobs, column sums): n values each, one per column. */
+  below: GridMargin[];
+  /** Columns right of the block (final demand, totals): n values each, one per row. */
+  right: GridMargin[];
+}
+
+/** One row or column around a matrix: its label, its n values (NaN where there is none) and how to show them. */
+export interface GridMargin {
+  label: string;
+  values: Float64Array;
+  style: 'money' | 'ratio' | 'jobs';
+  /** What it is, for the header's tooltip. */
+  note: string;
 }
 
 /** Settings of the "How sure?" panel (the engine checks them: src/uncertainty/settings.ts). */

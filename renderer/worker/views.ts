@@ -8,7 +8,8 @@ import {
   type ModeKind, type PreparedStudy, type ScenarioOutcome, type PhaseOutcome, type Study, type EffectSplit, type EffectTotals, type ScenarioMultiplier,
   type Variable, type PathAnalysis, type TotalsRecord,
 } from '../../src/study/index.ts';
-import type { AnalysisView, EffectView, Eigen, MultiplierRow, PathsView, PhaseView, PreviewView, ScenarioView, TableInfo, TableSource, TotalsView } from './protocol.ts';
+import type { LabelledVector } from '../../src/table/index.ts';
+import type { AnalysisView, EffectView, Eigen, GridMargin, MultiplierRow, PathsView, PhaseView, PreviewView, ScenarioView, TableInfo, TableSource, TotalsView } from './protocol.ts';
 
 const finite = (v: number | null | undefined): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null);
 
@@ -33,6 +34,7 @@ export function tableInfo(study: Study, fileName: string): TableInfo {
     totalOutput: total,
     mixes: shockInputsOf(study).mixes.map((m) => ({ name: m.name, shares: m.shares.map((x) => ({ sector: x.sector, share: x.share })) })),
     activities: study.activities.map((a) => a.name),
+    activitySectors: Object.fromEntries(study.activities.map((a) => [a.name, a.purchases.map((p) => p.sector)])),
     hasTaxes: (t.taxes?.length ?? 0) > 0,
     hasFte: t.fte != null,
     roles: { rows: { ...t.roles.rows }, columns: { ...t.roles.columns } },
@@ -223,7 +225,7 @@ export function previewView(p: TablePreview, src: TableSource): PreviewView {
     const by = new Map<string, string[]>();
     for (const x of xs) if (ROLE_PLURAL[x.role]) by.set(x.role, [...(by.get(x.role) ?? []), x.label]);
     for (const [role, labels] of by) {
-      if (labels.length > 1) combined.push(`${labels.length} ${axis} are read as ${ROLE_PLURAL[role]} (${labels.map((l) => `'${l}'`).join(', ')}): they are added together${role === 'labourIncome' ? ' into the household income of the Type II model' : role === 'householdConsumption' ? ' into the households’ spending pattern of the Type II model' : ''}.`);
+      if (labels.length > 1) combined.push(`${labels.length} ${axis} are read as ${ROLE_PLURAL[role]} (${labels.map((l) => `'${l}'`).join(', ')}): they are added together${role === 'labourIncome' ? ' into the household income of the Type II model' : role === 'householdConsumption' ? ' into the households’ purchases in the Type II model' : ''}.`);
     }
   };
   group(p.rows, 'rows');
@@ -252,4 +254,55 @@ export function previewView(p: TablePreview, src: TableSource): PreviewView {
     warnings: p.warnings.map((w) => formatLocated(w)),
     refusal: p.refusal?.formatted ?? null,
   };
+}
+
+/** Σ over rows of an n×n row-major matrix: one total per column. */
+function columnSums(values: Float64Array, n: number): Float64Array {
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) out[j] = out[j]! + values[i * n + j]!;
+  return out;
+}
+
+/**
+ * The rows and columns around the n×n block, as the table has them: for flows, each final-demand column, total final
+ * demand and total output on the right, and below the intermediate inputs, each value-added, taxes and imports row,
+ * total output, jobs and FTE; for coefficients the same rows per unit of output (the engine's coefficients); for the
+ * Leontief inverse its column sums, the Type I output multipliers. Totals are plain sums of what is shown.
+ */
+export function gridMargins(ps: PreparedStudy, which: 'Z' | 'A' | 'L', values: Float64Array): { below: GridMargin[]; right: GridMargin[] } {
+  const { table: t } = ps.study;
+  const c = ps.pm.coef;
+  const n = c.n;
+  const unit = t.moneyUnit;
+  if (which === 'L') {
+    return { below: [{ label: 'Column sum (Type I output multiplier)', values: columnSums(values, n), style: 'ratio', note: 'output in every sector per unit of final demand for the column’s sector' }], right: [] };
+  }
+  const rows = (list: LabelledVector[] | undefined, what: string) => (list ?? []).map((v) => ({ label: v.label, values: v.values, what }));
+  const vaRows = [...rows(t.labourIncome, 'labour income'), ...rows(t.otherValueAdded, 'other value added'), ...rows(t.taxes, 'taxes less subsidies'), ...rows(t.imports, 'imports')];
+  if (which === 'A') {
+    const perOutput = (v: Float64Array) => Float64Array.from(v, (a, j) => (c.x[j]! !== 0 ? a / c.x[j]! : Number.NaN));
+    const below: GridMargin[] = [
+      { label: 'Column sum (intermediate inputs)', values: columnSums(values, n), style: 'ratio', note: `intermediate inputs per ${unit} of the column’s output` },
+      ...vaRows.map((r) => ({ label: r.label, values: perOutput(r.values), style: 'ratio' as const, note: `${r.what} per ${unit} of output` })),
+    ];
+    if (c.e) below.push({ label: `Jobs per ${unit} of output`, values: c.e, style: 'ratio', note: 'employment coefficient' });
+    if (c.fte) below.push({ label: `FTE per ${unit} of output`, values: c.fte, style: 'ratio', note: 'full-time-equivalent coefficient' });
+    return { below, right: [] };
+  }
+  const fd = [...rows(t.householdConsumption, 'household final demand'), ...rows(t.otherFinalDemand, 'final demand')];
+  const totalFd = new Float64Array(n);
+  for (const f of fd) for (let i = 0; i < n; i++) totalFd[i] = totalFd[i]! + f.values[i]!;
+  const right: GridMargin[] = [
+    ...fd.map((f) => ({ label: f.label, values: f.values, style: 'money' as const, note: `${f.what}, ${unit}` })),
+    ...(fd.length > 1 ? [{ label: 'Total final demand', values: totalFd, style: 'money' as const, note: `sum of the final-demand columns, ${unit}` }] : []),
+    { label: 'Total output', values: c.x, style: 'money', note: `each row sector’s total output, ${unit}` },
+  ];
+  const below: GridMargin[] = [
+    { label: 'Intermediate inputs', values: columnSums(values, n), style: 'money', note: `column sum of the flows, ${unit}` },
+    ...vaRows.map((r) => ({ label: r.label, values: r.values, style: 'money' as const, note: `${r.what}, ${unit}` })),
+    { label: 'Total output', values: c.x, style: 'money', note: `each column sector’s total output, ${unit}` },
+  ];
+  if (t.employment) below.push({ label: 'Jobs', values: t.employment, style: 'jobs', note: 'employment (headcount), not money' });
+  if (t.fte) below.push({ label: 'Full-time equivalents', values: t.fte, style: 'jobs', note: 'full-time equivalents, not money' });
+  return { below, right };
 }

@@ -5,6 +5,15 @@
  * ever talks to a RoundwiseBridge, never asks which one it has.
  */
 
+/**
+ * A crash-recovery copy handed over as a Blob (20 MB of text at 2,000 sectors): the browser stores it as it is,
+ * without copying the text on the page's main thread; the desktop preload reads it to text for the shell.
+ */
+export interface RecoveryContent {
+  readonly size: number;
+  text(): Promise<string>;
+}
+
 export interface OpenedFile {
   /** File name shown to the user (no folder in browser mode). */
   name: string;
@@ -59,7 +68,7 @@ export interface RoundwiseBridge {
    * it (after a save, or when the project is clean). Call it debounced while dirty. Rejects, with the reason, when
    * the copy cannot be written (disk or browser storage full, storage unavailable), so the UI can say so.
    */
-  autosave(content: string | null): Promise<void>;
+  autosave(content: string | RecoveryContent | null): Promise<void>;
   /**
    * A recovery copy left by a window that is gone (crashed, killed, reloaded), or null when there is none. The copy
    * is reserved for this window until `discardRecovered()`, so no other window offers it; copies of windows still

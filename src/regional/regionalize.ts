@@ -207,7 +207,7 @@ export function regionalizeTable(national: IOTable, emp: EmploymentInput, opts: 
   const methodName = opts.method.toUpperCase();
   const notes = [
     `Estimated from the national table '${national.name}' with ${methodName} location quotients and county employment from ${emp.fileName}.`,
-    opts.method === 'flq' ? `FLQ with δ = ${delta} and λ* = ${lambda}; Flegg & Tohmo (2013) report δ around 0.25–0.35 fitting survey-based tables.` : `Regional coefficients r_ij = a_ij · min(${methodName}, 1).`,
+    opts.method === 'flq' ? `FLQ with δ = ${delta} and λ* = ${Number(lambda!.toPrecision(4))}; Flegg & Tohmo (2013) report δ around 0.25–0.35 fitting survey-based tables.` : `Regional coefficients r_ij = a_ij · min(${methodName}, 1).`,
     'County output = national output per job × county jobs; labour-income, other value-added, taxes, employment and full-time-equivalent coefficients are the national ones.',
     'Household consumption per unit of income is regionalized with min(SLQ, 1); exports and other final demand are what remains of county output.',
     ...(absent.length ? [`Absent sectors (no county employment, supply nothing locally): ${absent.join('; ')}.`] : []),

@@ -16,9 +16,9 @@
  * path o→…→k is not extended when |f_o|·I_D(partial)·l_dk — what everything beyond k can still carry to d, before the
  * partial path's own feedback — is below `minShare`·|x_d|; `maxVisits` caps the work.
  */
-import { luDeterminant, luFactor } from '../linalg/index.ts';
+import { luDeterminant, luFactor, luSolveMany } from '../linalg/index.ts';
 import {
-  solveClosed, solveClosedTransposed, solveOpen, solveOpenTransposed, type PreparedModel,
+  borderedOf, closedBorder, solveClosedTransposed, solveOpenTransposed, type PreparedModel,
 } from '../model/index.ts';
 
 export interface PathOptions {
@@ -33,7 +33,6 @@ export interface PathOptions {
   /** Search the open model (Type I, default) or the household-closed one (households as a pole). */
   model?: 'open' | 'closed';
 }
-
 export interface StructuralPath {
   /** Poles from origin to destination (indices; n is the household pole in the closed model). */
   poles: number[];
@@ -73,26 +72,66 @@ export const HOUSEHOLD_POLE_LABEL = 'Households';
 /** No search takes more steps than this, whatever `maxVisits` asks (every search ends; elementary paths bound the depth). */
 export const MAX_PATH_VISITS = 10_000_000;
 
+/**
+ * The system searched, as A (n×n) plus, for the closed model, the household column hc, row hr and corner (Ā is never
+ * formed: at 2,000 sectors it would be another 32 MB), with the transposed solve and the columns of its inverse.
+ */
 interface System {
   m: number;
-  M: Float64Array;
-  solve: (b: Float64Array) => Float64Array;
+  n: number;
+  A: Float64Array;
+  hc: Float64Array | null;
+  hr: Float64Array | null;
+  corner: number;
   solveT: (c: Float64Array) => Float64Array;
+  /** Columns k of (I − M)⁻¹ for the given poles, all in one blocked solve (luSolveMany). */
+  columns: (poles: number[]) => Float64Array[];
   labels: string[];
 }
 
+/** Columns `poles` of L = (I − A)⁻¹: one blocked solve with a unit vector per pole. */
+function openColumns(pm: PreparedModel, poles: number[]): Float64Array[] {
+  const n = pm.coef.n;
+  const k = poles.length;
+  if (k === 0) return [];
+  const b = new Float64Array(n * k);
+  poles.forEach((p, c) => { if (p < n) b[p * k + c] = 1; });
+  const x = luSolveMany(pm.openLU, b, k);
+  return poles.map((_, c) => {
+    const col = new Float64Array(n);
+    for (let i = 0; i < n; i++) col[i] = x[i * k + c]!;
+    return col;
+  });
+}
+
 function systemOf(pm: PreparedModel, model: 'open' | 'closed'): System {
+  const { n, A } = pm.coef;
   if (model === 'closed') {
     if (!pm.closed) throw new Error('the table has no household closure');
+    const parts = borderedOf(A, n, pm.closed);
     return {
-      m: pm.closed.m,
-      M: pm.closed.Abar,
-      solve: (b) => solveClosed(pm, b),
+      m: n + 1, n, A, hc: parts.hc, hr: parts.hr, corner: parts.corner,
       solveT: (c) => solveClosedTransposed(pm, c),
+      // Column k of L̄ by the bordering (prepared.ts): x = L·e_k + u·y, y = w_k/s (k < n); for the household pole
+      // (k = n) x = u/s, y = 1/s.
+      columns: (poles) => {
+        const border = closedBorder(pm);
+        if (!border || border.s === 0) throw new Error('matrix is singular: no unique solution');
+        const { u, w, s } = border;
+        const open = openColumns(pm, poles);
+        return poles.map((p, c) => {
+          const y = p < n ? w[p]! / s : 1 / s;
+          const out = new Float64Array(n + 1);
+          const x0 = open[c]!;
+          for (let i = 0; i < n; i++) out[i] = (p < n ? x0[i]! : 0) + u[i]! * y;
+          out[n] = y;
+          return out;
+        });
+      },
       labels: [...pm.coef.sectors, HOUSEHOLD_POLE_LABEL],
     };
   }
-  return { m: pm.coef.n, M: pm.coef.A, solve: (b) => solveOpen(pm, b), solveT: (c) => solveOpenTransposed(pm, c), labels: pm.coef.sectors };
+  return { m: n, n, A, hc: null, hr: null, corner: 0, solveT: (c) => solveOpenTransposed(pm, c), columns: (poles) => openColumns(pm, poles), labels: pm.coef.sectors };
 }
 
 /**
@@ -102,7 +141,7 @@ function systemOf(pm: PreparedModel, model: 'open' | 'closed'): System {
 export function structuralPaths(pm: PreparedModel, f: Float64Array, destination: number, opts: PathOptions = {}): PathAnalysis {
   const model = opts.model ?? 'open';
   const sys = systemOf(pm, model);
-  const { m, M } = sys;
+  const { m, n, A, hc, hr, corner } = sys;
   const settings = {
     maxLength: opts.maxLength ?? 6,
     minShare: opts.minShare ?? 1e-4,
@@ -119,22 +158,13 @@ export function structuralPaths(pm: PreparedModel, f: Float64Array, destination:
   for (let o = 0; o < m; o++) destinationTotal += toDest[o]! * f[o]!;
   const threshold = settings.minShare * Math.abs(destinationTotal);
 
+  // Columns of the inverse on the poles of found paths, solved together after the search (one blocked solve for all).
   const columns = new Map<number, Float64Array>();
-  const column = (k: number): Float64Array => {
-    let c = columns.get(k);
-    if (!c) {
-      const e = new Float64Array(m);
-      e[k] = 1;
-      c = sys.solve(e);
-      columns.set(k, c);
-    }
-    return c;
-  };
   const pathMultiplier = (poles: number[]): number => {
     const k = poles.length;
     const sub = new Float64Array(k * k);
     for (let c = 0; c < k; c++) {
-      const col = column(poles[c]!);
+      const col = columns.get(poles[c]!)!;
       for (let r = 0; r < k; r++) sub[r * k + c] = col[poles[r]!]!;
     }
     return luDeterminant(luFactor(sub, k));
@@ -148,9 +178,15 @@ export function structuralPaths(pm: PreparedModel, f: Float64Array, destination:
 
   const extend = (origin: number, last: number, direct: number): void => {
     if (truncated) return;
+    // Column `last` of M (A, or Ā = [A hc; hrᵀ corner] without forming it): entry k < n at col[base + k·stride], then
+    // the household row's entry.
+    const col = last < n ? A : hc!;
+    const base = last < n ? last : 0;
+    const stride = last < n ? n : 1;
+    const tail = m === n ? 0 : last < n ? hr![last]! : corner;
     for (let k = 0; k < m; k++) {
       if (onPath[k]) continue;
-      const a = M[k * m + last]!;
+      const a = k < n ? col[base + k * stride]! : tail;
       if (a === 0) continue;
       if (++visits > settings.maxVisits) { truncated = true; return; }
       const d = direct * a;
@@ -183,6 +219,8 @@ export function structuralPaths(pm: PreparedModel, f: Float64Array, destination:
     if (truncated) break;
   }
 
+  const needed = [...new Set(found.flatMap((p) => p.poles))].sort((a, b) => a - b);
+  sys.columns(needed).forEach((c, q) => columns.set(needed[q]!, c));
   const all: StructuralPath[] = found.map(({ poles, direct, origin }) => {
     const pm_ = pathMultiplier(poles);
     const total = direct * pm_;

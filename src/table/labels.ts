@@ -16,8 +16,16 @@ import { unescapeFormulaLead } from '../csv/index.ts';
 const INVISIBLE = /[\p{Cf}\p{Cc}]/gu;
 const SPACES = /[\t\n\v\f\r \u0085\u00a0\u1680\u2000-\u200a\u2028\u2029\u202f\u205f\u3000]+/g;
 
+/**
+ * Printable ASCII words separated by single spaces — nearly every label — which normaliseText returns as they are
+ * (ASCII is its own NFC; no Cf or Cc character, no run of white space, nothing to trim): tested first, as the full
+ * form costs about 20 µs a label, 80 ms for the 4,000 labels of a 2,000-sector table.
+ */
+const PLAIN = /^[!-~]+(?: [!-~]+)*$/;
+
 /** NFC, invisible characters removed, white-space runs made one space, trimmed. (U+FEFF is invisible, not a space, as in JavaScript's \s.) */
 export function normaliseText(s: string): string {
+  if (PLAIN.test(s)) return s;
   // White space first (tabs and line breaks are Cc, and must separate words rather than vanish).
   return s.normalize('NFC').replace(SPACES, ' ').replace(INVISIBLE, '').replace(SPACES, ' ').trim();
 }

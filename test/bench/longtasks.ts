@@ -1,11 +1,15 @@
 /**
  * Long main-thread tasks in the app while it imports and analyses a large table: the renderer in Debian's Chromium
- * (the end-to-end harness: Vite dev server + playwright-core), a PerformanceObserver for 'longtask' entries installed
+ * (the end-to-end suite's global setup, run here outside vitest: the production build served by Vite's preview server,
+ * one Chromium through playwright-core), a PerformanceObserver for 'longtask' entries installed
  * before the page loads, the file given to the import screen's file input, accepted, then the multiplier table shown.
  * A long task is one that kept the main thread busy for more than 50 ms (the Long Tasks API's definition).
  */
 import { existsSync } from 'node:fs';
-import { startSession, CHROMIUM } from '../e2e/harness.ts';
+import { chromium } from 'playwright-core';
+import type { TestProject } from 'vitest/node';
+import { CHROMIUM } from '../e2e/harness.ts';
+import setupE2e from '../e2e/global-setup.ts';
 
 export interface LongTasks {
   n: number;
@@ -23,7 +27,12 @@ declare global {
 
 export async function appLongTasks(file: string, n: number): Promise<LongTasks | { skipped: string }> {
   if (!existsSync(CHROMIUM)) return { skipped: `no Chromium at ${CHROMIUM}` };
-  const s = await startSession();
+  let shared: { url: string; wsEndpoint: string } | null = null;
+  const teardown = await setupE2e({ provide: (_key: string, value: typeof shared) => { shared = value; } } as unknown as TestProject);
+  const started = shared as { url: string; wsEndpoint: string } | null;
+  if (started === null) { await teardown(); return { skipped: 'the e2e setup did not start a server and a browser' }; }
+  const browser = await chromium.connect(started.wsEndpoint);
+  const s = { url: started.url, page: await (await browser.newContext({ viewport: { width: 1280, height: 800 }, locale: 'en-US' })).newPage() };
   try {
     const page = s.page;
     await page.addInitScript(() => {
@@ -53,6 +62,7 @@ export async function appLongTasks(file: string, n: number): Promise<LongTasks |
     const tasks = raw.map((t) => ({ startMs: t.startMs - t0, durationMs: t.durationMs, phase: phase(t.startMs) }));
     return { n, totalMs: tShown - t0, tasks, maxMs: Math.max(0, ...tasks.map((t) => t.durationMs)), over100: tasks.filter((t) => t.durationMs > 100).length };
   } finally {
-    await s.close();
+    await browser.close().catch(() => {});
+    await teardown();
   }
 }

@@ -2,7 +2,7 @@
  * `npm run bench`: dense kernels, and the whole job when its parts exist, on seeded invented matrices of
  * n = 50, 200, 500, 1000, 2000, side by side with ml-matrix and (when python3 has numpy) numpy/OpenBLAS.
  * Prints a table and writes JSON to bench-results/. Options: --sizes 50,200  --quick (fewer repeats)  --pairs K (runs of
- * each whole job, default 5)  --no-app (skip the app in Chromium)  --large N (the large-table run, default 5000; 0 skips)
+ * each whole job, default 5)  --no-app (skip the app in Chromium: the import run and every screen, app-screens.ts)  --large N (the large-table run, default 5000; 0 skips)
  * --whole (the whole-process jobs only: no kernel rows, no in-process job rows).
  * Speed is measured here only, never in unit tests.
  */
@@ -19,6 +19,7 @@ import { numpyAvailable, numpyInverse, type NumpyTiming } from './numpy.ts';
 import { benchJob, jobCsv, type JobRow } from './job.ts';
 import { analyzeJob, scenarioJob, pythonExecutable, EQUAL_TOLERANCE, type PairedJob } from './cli-job.ts';
 import { appLongTasks, type LongTasks } from './longtasks.ts';
+import { appScreens, printAppRun, type AppRun } from './app-screens.ts';
 import { benchDraws, type DrawsBench } from './draws.ts';
 import { drawingApp, drawingAppLine, type DrawingApp } from './draws-app.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../src/cli/parallel.ts';
@@ -171,6 +172,13 @@ if (!args.includes('--no-app')) {
   try { app = await appLongTasks(join(outDir, `invented-${appN}.csv`), appN); } catch (e) { app = { skipped: `failed: ${String(e).split('\n')[0]}` }; }
   process.stderr.write(' done\n');
 }
+// Every screen of the app at the largest size, as a planner uses it (app-screens.ts): long tasks, keystrokes, edits.
+let appRun: AppRun | { skipped: string } = { skipped: 'not run (--no-app)' };
+if (!args.includes('--no-app')) {
+  process.stderr.write(`app screens n=${appN}…`);
+  try { appRun = await appScreens(join(outDir, `invented-${appN}.csv`), appN); } catch (e) { appRun = { skipped: `failed: ${String(e).split('\n')[0]}` }; }
+  process.stderr.write(' done\n');
+}
 
 const T = HELPERS + 1;
 const best = (r: Row): number => Math.min(r.invOurs.medianMs, r.invThreads?.medianMs ?? Infinity);
@@ -215,14 +223,16 @@ for (const c of [...clis, ...scenarios, ...(large ? [large] : [])]) {
 }
 if ('skipped' in app) console.log(`App long tasks: ${app.skipped}.`);
 else {
-  console.log(`App at n=${app.n} (Chromium, Vite dev server): file chosen to multiplier table on screen ${fmt(app.totalMs)}; ${app.tasks.length} long task(s) (> 50 ms) on the main thread, ${app.over100} over 100 ms, longest ${fmt(app.maxMs)}.`);
+  console.log(`App at n=${app.n} (Chromium, production build on Vite's preview server): file chosen to multiplier table on screen ${fmt(app.totalMs)}; ${app.tasks.length} long task(s) (> 50 ms) on the main thread, ${app.over100} over 100 ms, longest ${fmt(app.maxMs)}.`);
   for (const t of app.tasks) console.log(`  long task at +${fmt(t.startMs)}: ${fmt(t.durationMs)} (${t.phase})`);
 }
+
+printAppRun(appRun);
 
 console.log(`Monte Carlo draws at n=${draws.n} (full scenario, open and household-closed, plus every multiplier), ${draws.draws} draws in process, 1 thread: ${fmt(draws.oursPerDrawMs)} per draw (1,000 draws ≈ ${fmt(draws.oursPerDrawMs * 1000)}); numpy loop doing the same solves: ${draws.numpyPerDrawMs === null ? 'n/a' : `${fmt(draws.numpyPerDrawMs)} per draw`}; ours/numpy ${draws.ratio === null ? '—' : `${draws.ratio.toFixed(2)}×`}.${draws.cli ? ` roundwise scenario --draws ${draws.cli.draws} (draws shared by ${HELPERS + 1} threads), start to exit: ${fmt(draws.cli.wallMs)}${draws.numpyPerDrawMs === null ? '' : ` against numpy's loop of the same draws ${fmt(draws.numpyPerDrawMs * draws.cli.draws)}: ${draws.cliRatio!.toFixed(2)}×`} (targets: under 10 s and at most 1.0×).` : ''}`);
 console.log(drawingAppLine(drawingRun));
 
-const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis, scenarios, large, app, draws, drawingApp: drawingRun };
+const json = { started: started.toISOString(), machine, loadBefore, loadAfter, quick: QUICK, rows, jobs, clis, scenarios, large, app, appRun, draws, drawingApp: drawingRun };
 const stamp = started.toISOString().replace(/[:.]/g, '-');
 writeFileSync(join(outDir, `bench-${stamp}.json`), JSON.stringify(json, null, 2));
 writeFileSync(join(outDir, 'latest.json'), JSON.stringify(json, null, 2));

@@ -34,28 +34,35 @@ export async function tableName(page: Page): Promise<string> {
 
 export interface StoredCopy { id: string; chars: number; tableName: string | null; scenarios: number | null }
 
-/** The recovery copies in the browser's IndexedDB, read the way any page of the origin can. */
+/** The recovery copies in the browser's IndexedDB, read the way any page of the origin can (text, or a Blob of it). */
 export async function copies(page: Page): Promise<StoredCopy[]> {
-  return page.evaluate(() => new Promise<StoredCopy[]>((resolve, reject) => {
-    const req = indexedDB.open('roundwise-recovery');
-    req.onupgradeneeded = () => req.result.createObjectStore('copies');
-    req.onerror = () => reject(req.error);
-    req.onsuccess = () => {
-      const db = req.result;
-      const out: StoredCopy[] = [];
-      const cursor = db.transaction('copies', 'readonly').objectStore('copies').openCursor();
-      cursor.onerror = () => reject(cursor.error);
-      cursor.onsuccess = () => {
-        const c = cursor.result;
-        if (!c) { db.close(); resolve(out); return; }
-        const v = c.value as { text: string };
-        let doc: { tableName?: string; scenarios?: unknown[] } = {};
-        try { doc = JSON.parse(v.text) as typeof doc; } catch { /* reported as nulls */ }
-        out.push({ id: String(c.key), chars: v.text.length, tableName: doc.tableName ?? null, scenarios: doc.scenarios?.length ?? null });
-        c.continue();
+  return page.evaluate(async () => {
+    const raw = await new Promise<[string, { text?: string; blob?: Blob }][]>((resolve, reject) => {
+      const req = indexedDB.open('roundwise-recovery');
+      req.onupgradeneeded = () => req.result.createObjectStore('copies');
+      req.onerror = () => reject(req.error);
+      req.onsuccess = () => {
+        const db = req.result;
+        const out: [string, { text?: string; blob?: Blob }][] = [];
+        const cursor = db.transaction('copies', 'readonly').objectStore('copies').openCursor();
+        cursor.onerror = () => reject(cursor.error);
+        cursor.onsuccess = () => {
+          const c = cursor.result;
+          if (!c) { db.close(); resolve(out); return; }
+          out.push([String(c.key), c.value as { text?: string; blob?: Blob }]);
+          c.continue();
+        };
       };
-    };
-  }));
+    });
+    const out: StoredCopy[] = [];
+    for (const [id, v] of raw) {
+      const text = typeof v.text === 'string' ? v.text : v.blob ? await v.blob.text() : '';
+      let doc: { tableName?: string; scenarios?: unknown[] } = {};
+      try { doc = JSON.parse(text) as typeof doc; } catch { /* reported as nulls */ }
+      out.push({ id, chars: text.length, tableName: doc.tableName ?? null, scenarios: doc.scenarios?.length ?? null });
+    }
+    return out;
+  });
 }
 
 export async function clearCopies(page: Page): Promise<void> {

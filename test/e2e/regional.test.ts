@@ -87,6 +87,19 @@ describe.skipIf(skipBrowser)('Start from a larger table, in the browser', () => 
     // National a and regional r side by side, on one scale.
     await expect.poll(() => page.locator('[data-testid="regional-coefficients"] canvas.shaded').count()).toBe(2);
     await shot(page, 'regional-02-coefficients');
+    // Each grid names its sectors: rows by number and name, columns by number (16 sectors: every one).
+    const axes = page.getByTestId('shaded-axes').first();
+    expect(await axes.locator('.shaded-rows span').allTextContents()).toEqual(expected.sectors.map((x, i) => `${i + 1} ${x}`));
+    expect(await axes.locator('.shaded-cols span').count()).toBe(expected.sectors.length);
+    // Coefficients are ratios of money to money: no money unit on them; λ* with four significant digits in the notes.
+    const coefUnit = await page.getByTestId('regional-coefficients').locator('.muted', { hasText: 'Unit:' }).textContent();
+    expect(coefUnit).toMatch(/share of the buyer’s output \(a ratio/);
+    expect(coefUnit).not.toMatch(/dollars/);
+    const heads = await page.getByTestId('regional-sectors').locator('thead th').allTextContents();
+    expect(heads.filter((h) => /National inputs|Bought locally|Import leakage/.test(h) && /dollars of output/.test(h))).toEqual([]);
+    const notes = await page.getByTestId('regional-notes').textContent();
+    expect(notes).toContain(`λ* = ${Number(expected.lambda!.toPrecision(4))};`);
+    expect(notes).not.toContain(String(expected.lambda));
     await page.click('[data-coef="share"]');
     await page.getByTestId('regional-coef-table').click();
     const cell = page.locator('[data-testid="regional-coefficients"] .m-cell').first();

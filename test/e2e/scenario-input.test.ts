@@ -101,6 +101,19 @@ describe.skipIf(skipBrowser)('scenario input', () => {
   });
 
   it('offers to map or drop the sectors of scenarios kept from the previous table', async () => {
+    // A household-income line (no sector: never flagged) and an activity line whose activity buys from Farming.
+    await page.getByTestId('study-input-activity-file').setInputFiles({
+      name: 'station.csv', mimeType: 'text/csv', buffer: Buffer.from('activity,item,sector,amount\nResearch station,output,,500\nResearch station,purchase,Farming,100\n'),
+    });
+    await poll(() => page.getByTestId('study-input-activity').textContent()).toMatch(/Research station/);
+    const rows = page.getByTestId('scenario-lines').locator('tbody tr');
+    await page.getByTestId('add-line').click();
+    const income = await rows.count();
+    await page.getByLabel(`Kind of line ${income}`).selectOption('labour-income');
+    await page.getByTestId('add-line').click();
+    const activity = await rows.count();
+    await page.getByLabel(`Kind of line ${activity}`).selectOption('activity');
+    await page.getByLabel(`Activity of line ${activity}`).selectOption('Research station');
     await page.click('[data-screen="import"]');
     await page.getByTestId('file-input').setInputFiles(join(REPO, 'test', 'fixtures', 'e2e', 'ridgeline-test.csv'));
     await page.getByTestId('accept-import').click();
@@ -109,7 +122,12 @@ describe.skipIf(skipBrowser)('scenario input', () => {
     const panel = page.getByTestId('stale-sectors');
     await panel.waitFor();
     expect(await panel.textContent()).toMatch(/Farming/);
+    expect(await page.getByTestId('stale-inputs').textContent()).toMatch(/activity “Research station” \(1 line\) buys from ‘Farming’/);
     await shot('scenario-stale-sectors');
+    // Lines refused for their sector still fit the screen (the note under the sector wraps).
+    await page.getByTestId('scenario-lines').scrollIntoViewIfNeeded();
+    expect(await page.locator('.lines-wrap').evaluate((el) => el.scrollWidth <= el.clientWidth + 1)).toBe(true);
+    await shot('scenario-stale-lines');
     const k = (await panel.locator('tbody th').allTextContents()).indexOf('Farming');
     const picker = page.getByRole('combobox', { name: 'Sector of this table for Farming' });
     await picker.fill('Orch');
@@ -120,8 +138,13 @@ describe.skipIf(skipBrowser)('scenario input', () => {
     const sectors = await page.getByRole('combobox', { name: /^Sector of line/ }).evaluateAll((els) => els.map((e) => (e as HTMLInputElement).value));
     expect(sectors).toContain('Orchards');
     expect(sectors).not.toContain('Farming');
+    // The activity's purchases come from its file: listed until its lines are dropped, not mapped here.
+    expect(await page.getByTestId('stale-inputs').count()).toBe(1);
     await page.getByTestId('drop-stale').click();
     await poll(() => panel.count()).toBe(0);
+    const kinds = await page.getByRole('combobox', { name: /^Kind of line/ }).evaluateAll((els) => els.map((e) => (e as HTMLSelectElement).value));
+    expect(kinds).toContain('labour-income');
+    expect(kinds).not.toContain('activity');
     await poll(() => page.getByRole('combobox', { name: /^Sector of line/ }).count()).toBe(1);
     // Undo brings the dropped lines back, as any scenario edit.
     await page.keyboard.press('Control+z');

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { REPO, shot as photograph, skipBrowser, type Session, openApp, goTo } from './harness.ts';
+import { REPO, SCREENSHOTS, shot as photograph, skipBrowser, type Session, openApp, goTo } from './harness.ts';
 import { sparseTableCsv } from '../support/random-tables.ts';
 import { SAMPLE_CSV, SAMPLE_FILE_NAME, importTable } from '../../src/table/index.ts';
 import { analyzeTable } from '../../src/model/index.ts';
@@ -78,6 +78,63 @@ describe.skipIf(skipBrowser)('screens', () => {
     await shot('multipliers-jobs-per-million');
   });
 
+  it('fits a scenario\'s lines at 1280×800, Remove included; with the extra line options Remove stays pinned in view', async () => {
+    await go('scenarios');
+    await page.getByTestId('add-line').click();
+    const wrap = page.locator('.lines-wrap');
+    await wrap.waitFor();
+    const fits = () => wrap.evaluate((el) => el.scrollWidth <= el.clientWidth + 1);
+    expect(await fits()).toBe(true);
+    await shot('scenario-lines-fit');
+    await page.getByTestId('more-line-options').check();
+    const [box, remove] = await Promise.all([wrap.boundingBox(), page.getByRole('button', { name: 'Remove line 1' }).boundingBox()]);
+    expect(remove!.x + remove!.width).toBeLessThanOrEqual(box!.x + box!.width + 1);
+    expect(remove!.x).toBeGreaterThanOrEqual(box!.x);
+    await shot('scenario-lines-more-options');
+    await page.getByTestId('more-line-options').uncheck();
+    await page.getByRole('button', { name: 'Remove line 2' }).click();
+  });
+
+  it('shows the table with final demand, value added, totals and jobs around the flows, and the inverse with its column sums', async () => {
+    const table = importTable(SAMPLE_CSV, { fileName: SAMPLE_FILE_NAME });
+    const ref = analyzeTable(table);
+    await go('table');
+    const matrix = page.locator('.matrix');
+    await matrix.locator('.m-cell').first().waitFor();
+    const num = (t: string | null) => Number((t ?? '').replace(/,/g, ''));
+    /** Cells of the row labelled `label` now rendered, as [column index, number]. */
+    const rowCells = async (label: string) => {
+      const row = matrix.locator('.m-row').filter({ has: page.locator('.m-label', { hasText: label }) });
+      const cells = await row.locator('.m-cell').evaluateAll((els) => els.map((e) => [Number(e.getAttribute('aria-colindex')) - 2, e.textContent ?? ''] as const));
+      return cells.filter(([, t]) => t !== '').map(([c, t]) => [c, num(t)] as const);
+    };
+    // Right end: the final-demand columns and total output; first row is the first sector.
+    await matrix.evaluate((el) => { el.scrollLeft = el.scrollWidth; });
+    await poll(() => matrix.locator('.m-head').last().textContent()).toMatch(/Total output/);
+    const heads = await matrix.locator('.m-head').allTextContents();
+    for (const f of [...table.householdConsumption, ...table.otherFinalDemand]) expect(heads.join('|')).toContain(f.label);
+    const firstRow = matrix.locator('.m-row').nth(1).locator('.m-cell').last();
+    expect(num(await firstRow.textContent())).toBeCloseTo(table.x[0]!, 1);
+    await shot('table-flows-final-demand');
+    // Bottom left: value added, imports, total output and jobs below the sector columns.
+    await matrix.evaluate((el) => { el.scrollLeft = 0; el.scrollTop = el.scrollHeight; });
+    await poll(() => matrix.locator('.m-label', { hasText: 'Jobs' }).count()).toBe(1);
+    for (const [j, v] of await rowCells('Total output')) expect(v, `total output of column ${j}`).toBeCloseTo(table.x[j]!, 1);
+    for (const [j, v] of await rowCells('Jobs')) expect(v, `jobs of column ${j}`).toBeCloseTo(table.employment![j]!, 1);
+    for (const r of [...table.labourIncome, ...table.otherValueAdded, ...table.imports]) expect(await matrix.locator('.m-label', { hasText: r.label }).count(), r.label).toBe(1);
+    await shot('table-flows-value-added');
+    // The Leontief inverse's column sums are the engine's Type I output multipliers.
+    await page.click('[data-matrix="L"]');
+    await poll(() => page.locator('[data-matrix="L"]').getAttribute('aria-pressed')).toBe('true');
+    await matrix.evaluate((el) => { el.scrollLeft = 0; el.scrollTop = el.scrollHeight; });
+    await poll(() => matrix.locator('.m-label', { hasText: 'Column sum (Type I output multiplier)' }).count()).toBe(1);
+    const sums = await rowCells('Column sum (Type I output multiplier)');
+    expect(sums.length).toBeGreaterThan(4);
+    for (const [j, v] of sums) expect(v, `column sum ${j}`).toBeCloseTo(ref.multipliers.output.typeI[j]!, 4);
+    await shot('table-leontief-column-sums');
+    await page.click('[data-matrix="Z"]');
+  });
+
   it('says plainly why a table above 400 sectors has no eigenvalue chart, and shows the Perron root bounds instead', async () => {
     const file = join(REPO, 'test-output', 'e2e-450-sectors.csv');
     writeFileSync(file, sparseTableCsv(450));
@@ -92,6 +149,28 @@ describe.skipIf(skipBrowser)('screens', () => {
     expect(await page.locator('text=unit circle |λ| = 1').count()).toBe(0);
     expect(await page.locator('body').innerText()).not.toMatch(/full spectrum skipped/);
     await shot('structure-450-sectors');
+  });
+
+  it('draws every screen at device pixel ratio 2 (screenshots dpr2-*.png, looked at by hand)', async () => {
+    const hi = await s.browser.newContext({ viewport: { width: 1280, height: 800 }, deviceScaleFactor: 2, locale: 'en-US' });
+    try {
+      const p = await hi.newPage();
+      p.setDefaultTimeout(60_000);
+      const errors: string[] = [];
+      p.on('pageerror', (e) => errors.push(e.message));
+      await p.goto(s.url);
+      await p.getByTestId('verdict').waitFor({ timeout: 150_000 });
+      expect(await p.evaluate(() => window.devicePixelRatio)).toBe(2);
+      for (const screen of ['overview', 'import', 'table', 'structure', 'multipliers', 'scenarios', 'export', 'regional', 'supply-use', 'guide']) {
+        await goTo(p, screen);
+        await p.waitForTimeout(500); // charts and virtual rows settle
+        expect(await p.locator('body').innerText(), screen).not.toMatch(/\bNaN\b|Infinity|∞/);
+        await p.screenshot({ path: join(SCREENSHOTS, `dpr2-${screen}.png`) });
+      }
+      expect(errors).toEqual([]);
+    } finally {
+      await hi.close();
+    }
   });
 
   it('shows no console errors', () => {

@@ -41,6 +41,8 @@ describe('preload', () => {
     expect(await bridge.exportFile('r', 'csv', 'a')).toEqual({ channel: CHANNELS.exportFile, args: ['r', 'csv', 'a'] });
     expect(await bridge.openRecent('/a/p.roundwise')).toEqual({ channel: CHANNELS.openRecent, args: ['/a/p.roundwise'] });
     expect(await bridge.autosave(null)).toEqual({ channel: CHANNELS.autosave, args: [null] });
+    // A recovery copy handed over as a Blob reaches the shell as its text (IPC arguments are checked as strings).
+    expect(await bridge.autosave(new Blob(['{"copy":', '1}']))).toEqual({ channel: CHANNELS.autosave, args: ['{"copy":1}'] });
     expect(await bridge.discardRecovered()).toEqual({ channel: CHANNELS.discardRecovered, args: [] });
     bridge.setDirty(true);
     expect(fake.invoke).toHaveBeenLastCalledWith(CHANNELS.setDirty, true);

@@ -9,7 +9,7 @@ import { fileURLToPath } from 'node:url';
 import Papa from 'papaparse';
 import { reactive } from 'vue';
 import { api } from '../../renderer/worker/compute.ts';
-import { readRecoveryCopy, writeRecoveryCopy } from '../../renderer/state/recovery-copy.ts';
+import { readRecoveryCopy, recoveryCopyBlob, writeRecoveryCopy } from '../../renderer/state/recovery-copy.ts';
 import { plain } from '../../renderer/worker/client.ts';
 import { importTable } from '../../src/table/index.ts';
 import { SAMPLE_CSV, SAMPLE_FILE_NAME } from '../../src/table/index.ts';
@@ -138,6 +138,14 @@ describe('worker adapter over the engine', () => {
     api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
     const wrong: Scenario = onePhase('Old', [{ sector: 'Food processing', amount: 1, kind: 'final-demand', localShare: 1 }]);
     expect(() => api.saveProject({ name: 'x', scenarios: [wrong], choices: ON, active: 0 })).toThrow(/Food processing.*not in this table/);
+  });
+
+  it('the recovery copy assembled around the worker\'s Blob is the text writeRecoveryCopy writes', async () => {
+    api.loadTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv' });
+    const args = { name: 'Study', choices: { closure: 'none', destination: 'Retail' } } as const;
+    const c = { savedAt: '2026-05-01T12:00:00.000Z', tableName: 'Ridgeline', projectName: null, scenarios: [SCENARIO], selected: 0 };
+    const blob = recoveryCopyBlob(c, api.recoveryBaseJson({ ...args, choices: { ...args.choices } }));
+    expect(await blob.text()).toBe(writeRecoveryCopy({ ...c, project: api.recoveryBase({ ...args, choices: { ...args.choices } }) }));
   });
 
   it('writes the recovery copy of a study a save would refuse, and it reads back to the same work', () => {
@@ -293,5 +301,53 @@ describe('what the Multipliers screen says about missing values', () => {
     expect(a.typeIIReason).toMatch(/not productive: households would re-spend more than all they earn/);
     expect(a.typeIIReason).not.toMatch(/no (household|labour) income row/);
     for (const n of a.notes) expect(n).not.toMatch(ENGINE_KEY);
+  });
+});
+
+describe('grid margins around the matrix (Table screen)', () => {
+  const table = importTable(SAMPLE_CSV, { fileName: SAMPLE_FILE_NAME });
+  const ref = analyzeTable(table);
+  const row = (g: { below: { label: string; values: Float64Array }[] }, label: string) => Array.from(g.below.find((m) => m.label === label)!.values);
+
+  it('Leontief inverse: the column sums are the engine\'s Type I output multipliers (column sums of L, Miller & Blair 2009, ch. 6)', () => {
+    api.loadSample({});
+    const g = api.grid({ which: 'L' });
+    const sums = row(g, 'Column sum (Type I output multiplier)');
+    expect(sums).toHaveLength(ref.n);
+    sums.forEach((v, j) => expect(v).toBeCloseTo(ref.multipliers.output.typeI[j]!, 12));
+  });
+
+  it('flows: final demand and total output to the right, value added, imports, total output and jobs below, as the table has them', () => {
+    api.loadSample({});
+    const g = api.grid({ which: 'Z' });
+    expect(Array.from(g.right.at(-1)!.values)).toEqual(Array.from(table.x));
+    expect(g.right.map((m) => m.label)).toEqual([...table.householdConsumption, ...table.otherFinalDemand].map((v) => v.label).concat(['Total final demand', 'Total output']));
+    expect(row(g, 'Total output')).toEqual(Array.from(table.x));
+    expect(row(g, 'Jobs')).toEqual(Array.from(table.employment!));
+    for (const v of [...table.labourIncome, ...table.otherValueAdded, ...(table.taxes ?? []), ...table.imports]) expect(row(g, v.label)).toEqual(Array.from(v.values));
+    // Accounting identity of a balanced table: a column's intermediate inputs, value added and imports add up to its output.
+    const inputs = row(g, 'Intermediate inputs');
+    const va = [...table.labourIncome, ...table.otherValueAdded, ...(table.taxes ?? []), ...table.imports];
+    inputs.forEach((z, j) => expect(z + va.reduce((s, v) => s + v.values[j]!, 0)).toBeCloseTo(table.x[j]!, 6));
+    // Rows: each sector's sales to sectors and to final demand add up to its output.
+    const fdTotal = Array.from(g.right.find((m) => m.label === 'Total final demand')!.values);
+    for (let i = 0; i < table.n; i++) {
+      let s = fdTotal[i]!;
+      for (let j = 0; j < table.n; j++) s += table.Z[i * table.n + j]!;
+      expect(s).toBeCloseTo(table.x[i]!, 6);
+    }
+  });
+
+  it('coefficients: column sums and the engine\'s value-added and jobs coefficients per unit of output', () => {
+    api.loadSample({});
+    const g = api.grid({ which: 'A' });
+    const a = ref.coefficients;
+    row(g, 'Column sum (intermediate inputs)').forEach((s, j) => {
+      let t = 0;
+      for (let i = 0; i < ref.n; i++) t += a.A[i * ref.n + j]!;
+      expect(s).toBeCloseTo(t, 14);
+    });
+    expect(row(g, `Jobs per ${table.moneyUnit} of output`)).toEqual(Array.from(a.employment!));
+    row(g, table.labourIncome[0]!.label).forEach((h, j) => expect(h).toBeCloseTo(table.labourIncome[0]!.values[j]! / table.x[j]!, 14));
   });
 });

@@ -12,8 +12,13 @@ import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand } from '../command.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
 
-/** From this many sectors the factorisation's updates are shared with helper threads (one per extra core). */
+/**
+ * From this many sectors the Monte Carlo draws share their factorisations' updates with helper threads (one per extra
+ * core); a single factorisation gains from them only from FACTOR_PARALLEL_MIN_SECTORS (at 500 sectors a 2-thread LU
+ * saves about 1.5 ms, less than a helper's start-up: test/bench).
+ */
 const PARALLEL_MIN_SECTORS = 500;
+const FACTOR_PARALLEL_MIN_SECTORS = 1000;
 
 function fmt(x: number | null, digits = 4): string {
   return x === null ? '—' : x.toFixed(digits);
@@ -57,8 +62,8 @@ export function summary(ps: PreparedStudy): string {
   return lines.join('\n') + '\n';
 }
 
-/** A table file from this size usually holds PARALLEL_MIN_SECTORS sectors or more (a 500-sector matrix CSV is about 1.5 MB). */
-const EARLY_HELPER_BYTES = 1 << 20;
+/** A table file from this size usually holds FACTOR_PARALLEL_MIN_SECTORS sectors or more (a 1,000-sector matrix CSV is about 5 MB). */
+const EARLY_HELPER_BYTES = 4 << 20;
 
 /**
  * Start the helper threads as soon as a large table file has been read, before it is parsed: their start-up (a thread,
@@ -73,8 +78,8 @@ export function startHelpersFor(tableBytes: number): void {
  * `work` with helper threads for the factorisations' updates when the table is large (`sectors`); the numbers are
  * the same with or without them (each update's chunks are computed by the same kernel, whoever runs them).
  */
-export async function withHelperThreads<T>(sectors: number, work: () => T): Promise<T> {
-  const threaded = sectors >= PARALLEL_MIN_SECTORS && startParallelKernels() > 0;
+export async function withHelperThreads<T>(sectors: number, work: () => T, minSectors = PARALLEL_MIN_SECTORS): Promise<T> {
+  const threaded = sectors >= minSectors && startParallelKernels() > 0;
   try {
     if (threaded) await parallelKernelsReady(2000);
     return work();
@@ -85,7 +90,7 @@ export async function withHelperThreads<T>(sectors: number, work: () => T): Prom
 
 /** The engine part of the command: the prepared study (helper threads for large tables). */
 export async function prepare(study: Study, opts: PrepareOptions = {}): Promise<PreparedStudy> {
-  return withHelperThreads(study.table.n, () => prepareStudy(study, opts));
+  return withHelperThreads(study.table.n, () => prepareStudy(study, opts), FACTOR_PARALLEL_MIN_SECTORS);
 }
 
 export const analyze = defineCommand({

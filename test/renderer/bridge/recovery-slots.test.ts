@@ -4,7 +4,7 @@
 // spec for "a closed page's locks are released". The same code runs against real Chromium in test/e2e/recovery.test.ts.
 import 'fake-indexeddb/auto';
 import { describe, it, expect, beforeEach } from 'vitest';
-import { createStore, keys, type UseStore } from 'idb-keyval';
+import { createStore, get, keys, set, type UseStore } from 'idb-keyval';
 import { createRecoverySlots, TAB_PAGE_KEY, type SlotEnv } from '../../../renderer/bridge/recovery-slots.ts';
 import { createBrowserBridge, STORAGE_KEYS, type BrowserEnv } from '../../../renderer/bridge/browser.ts';
 import { FakeLockBrowser } from '../../support/fake-locks.ts';
@@ -65,6 +65,21 @@ describe('browser recovery copies', () => {
     c.die();
     b.die();
     expect((await openPage().slots.claim())?.text).toBe('work in tab B');
+  });
+
+  it('keeps the copy as a Blob (no large string cloned on the main thread), and still reads copies kept as text', async () => {
+    const a = openPage();
+    await a.slots.write('work kept as a blob: é');
+    const stored = await get('page-1', store);
+    expect((stored as { blob?: unknown }).blob).toBeInstanceOf(Blob);
+    a.die();
+    const got = await openPage().slots.claim();
+    expect(got).toEqual({ name: 'Recovered project', text: 'work kept as a blob: é', size: new TextEncoder().encode('work kept as a blob: é').length });
+    await set('page-old', { when: '2026-04-01T10:00:00.000Z', text: 'an earlier version\'s copy' }, store);
+    const older = openPage();
+    await older.slots.discardClaimed();
+    // page-1 is claimed by the page above; a fresh page gets the text-form copy.
+    expect((await older.slots.claim())?.text).toBe('an earlier version\'s copy');
   });
 
   it('offers the newest copy first', async () => {

@@ -4,6 +4,8 @@
 // all write tables this way).
 import { describe, it, expect } from 'vitest';
 import { importTable, previewTable, writeTableCsv, cleanLabel, matchKey, type IOTable } from '../../../src/table/index.ts';
+import { normaliseText } from '../../../src/table/labels.ts';
+import { seeded } from '../../support/random.ts';
 import { aggregateTable, parseGroupMapping, parseEmploymentCsv, regionalize } from '../../../src/regional/index.ts';
 import { analyzeTable } from '../../../src/model/index.ts';
 import { BASE } from './helpers.ts';
@@ -148,5 +150,23 @@ describe('written tables read back as the same sectors and roles', () => {
     const want = analyzeTable(regional).multipliers.income.typeII;
     expect(want.every((v) => v !== null)).toBe(true);
     expect(analyzeTable(back).multipliers.income.typeII).toEqual(want);
+  });
+});
+
+describe('normaliseText fast path', () => {
+  // The full form, as labels.ts writes it after its plain-ASCII test (reference: the function's own definition).
+  const SPACES = /[\t\n\v\f\r \u0085\u00a0\u1680\u2000-\u200a\u2028\u2029\u202f\u205f\u3000]+/g;
+  const full = (s: string): string => s.normalize('NFC').replace(SPACES, ' ').replace(/[\p{Cf}\p{Cc}]/gu, '').replace(SPACES, ' ').trim();
+  it('gives what the full normalisation gives, on plain labels and on every kind it must not take', () => {
+    const r = seeded(7);
+    const alphabet = ['a', 'Z', '0', ' ', '  ', '\t', '\u00a0', '\u200b', '\u0301', 'e\u0301', '\u007f', '\u0001', '(', '~', '!', '\ufeff', 'é', '\n', '\r\n'];
+    const cases = ['', ' ', 'Farming', 'Real estate', ' Real estate', 'Real estate ', 'Real  estate', 'Food (sector)', 'A&B, C/D ~ 1.5%'];
+    for (let k = 0; k < 2000; k++) {
+      let s = '';
+      const len = Math.floor(r() * 8);
+      for (let q = 0; q < len; q++) s += alphabet[Math.floor(r() * alphabet.length)]!;
+      cases.push(s);
+    }
+    for (const s of cases) expect(normaliseText(s)).toBe(full(s));
   });
 });
