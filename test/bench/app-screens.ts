@@ -11,17 +11,15 @@
  * Run alone: `npx tsx test/bench/app-screens.ts [n]` (writes the table to bench-results/ first); `npm run bench` runs
  * it at the largest size. Speed is measured here only, never in tests.
  */
-import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { build, preview } from 'vite';
-import { chromium, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
+import { startBenchApp } from './browser.ts';
+import { CHROMIUM } from '../e2e/harness.ts';
 
 const REPO = fileURLToPath(new URL('../..', import.meta.url));
-const CHROMIUM = process.env.ROUNDWISE_CHROMIUM ?? '/usr/bin/chromium';
 /** The e2e harness's flags (test/e2e/harness.ts), repeated here: the bench runs outside vitest, without its setup. */
-const CHROMIUM_ARGS = ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'];
 
 export interface Step {
   /** What was done. */
@@ -48,13 +46,6 @@ export interface AppRun {
   keystrokes: Keystrokes[];
   /** Longest long task over the whole run (from choosing the file on). */
   maxTaskMs: number;
-}
-
-declare global {
-  interface Window {
-    __tasks?: { start: number; duration: number }[];
-    __keys?: { name: string; start: number; duration: number }[];
-  }
 }
 
 const SETTLE_MS = 400;
@@ -92,25 +83,11 @@ async function typeInto(page: Page, selector: string, field: string, text: strin
 }
 
 export async function appScreens(file: string, n: number): Promise<AppRun | { skipped: string }> {
-  if (!existsSync(CHROMIUM)) return { skipped: `no Chromium at ${CHROMIUM}` };
-  const configFile = join(REPO, 'renderer', 'vite.config.ts');
-  const outDir = mkdtempSync(join(tmpdir(), 'roundwise-bench-'));
-  await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true, reportCompressedSize: false } });
-  const server = await preview({ configFile, logLevel: 'error', build: { outDir }, preview: { port: 0, strictPort: false } });
-  const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
+  const app = await startBenchApp();
+  if (!app) return { skipped: `no Chromium at ${CHROMIUM}` };
   try {
-    const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, locale: 'en-US' });
-    const page = await context.newPage();
-    page.setDefaultTimeout(180_000);
-    await page.addInitScript(() => {
-      window.__tasks = [];
-      window.__keys = [];
-      new PerformanceObserver((l) => { for (const e of l.getEntries()) window.__tasks!.push({ start: e.startTime, duration: e.duration }); })
-        .observe({ type: 'longtask', buffered: true });
-      new PerformanceObserver((l) => { for (const e of l.getEntries()) window.__keys!.push({ name: e.name, start: e.startTime, duration: e.duration }); })
-        .observe({ type: 'event', durationThreshold: 16, buffered: true } as PerformanceObserverInit);
-    });
-    await page.goto(server.resolvedUrls!.local[0]!);
+    const page = await app.newPage(180_000);
+    await page.goto(app.url);
     await page.getByTestId('verdict').waitFor();
     // Open every screen once on the sample county, so the run measures the app at work, not its first load of each.
     for (const s of ['table', 'structure', 'multipliers', 'scenarios', 'export', 'overview']) {
@@ -151,9 +128,7 @@ export async function appScreens(file: string, n: number): Promise<AppRun | { sk
     const all = await tasksBetween(page, tRun, await now(page));
     return { n, steps, keystrokes: [picker, filter], maxTaskMs: Math.max(0, ...all.map((t) => t.duration)) };
   } finally {
-    await browser.close().catch(() => {});
-    await server.close();
-    rmSync(outDir, { recursive: true, force: true });
+    await app.close();
   }
 }
 

@@ -1,5 +1,5 @@
 /**
- * The app while it draws: Debian's Chromium (playwright-core) against Vite's dev server, an invented table of n sectors
+ * The app while it draws: Debian's Chromium (playwright-core) on the production build (browser.ts), an invented table of n sectors
  * imported, the Multipliers screen's "How sure?" panel computing Monte Carlo bands (the draws run in the engine worker,
  * a range at a time, the main thread only showing progress), and the multiplier table's filter typed into while it
  * draws. Measured in the page: long tasks (PerformanceObserver 'longtask', the main thread busy over 50 ms) from the
@@ -11,11 +11,11 @@
 import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { createServer } from 'vite';
-import { chromium, type Page } from 'playwright-core';
+import type { Page } from 'playwright-core';
+import { startBenchApp } from './browser.ts';
+import { CHROMIUM } from '../e2e/harness.ts';
 
 const REPO = fileURLToPath(new URL('../..', import.meta.url));
-const CHROMIUM = process.env.ROUNDWISE_CHROMIUM ?? '/usr/bin/chromium';
 
 export interface DrawingApp {
   n: number;
@@ -32,32 +32,14 @@ export interface DrawingApp {
   baseline: { wallMs: number; longTasks: number; longestTaskMs: number; keysTyped: number; keyMedianMs: number; keyMaxMs: number };
 }
 
-declare global {
-  interface Window {
-    __tasks?: { start: number; duration: number }[];
-    __keys?: { name: string; start: number; duration: number }[];
-  }
-}
-
 const now = (page: Page): Promise<number> => page.evaluate(() => performance.now());
 
 export async function drawingApp(file: string, n: number, draws: number): Promise<DrawingApp | { skipped: string }> {
-  if (!existsSync(CHROMIUM)) return { skipped: `no Chromium at ${CHROMIUM}` };
-  const server = await createServer({ configFile: join(REPO, 'renderer', 'vite.config.ts'), server: { port: 0, hmr: false }, logLevel: 'error' });
-  await server.listen();
-  const browser = await chromium.launch({ executablePath: CHROMIUM, args: ['--no-sandbox', '--disable-gpu'], headless: true });
+  const app = await startBenchApp();
+  if (!app) return { skipped: `no Chromium at ${CHROMIUM}` };
   try {
-    const page = await (await browser.newContext({ viewport: { width: 1280, height: 800 }, locale: 'en-US' })).newPage();
-    page.setDefaultTimeout(300_000);
-    await page.addInitScript(() => {
-      window.__tasks = [];
-      window.__keys = [];
-      new PerformanceObserver((l) => { for (const e of l.getEntries()) window.__tasks!.push({ start: e.startTime, duration: e.duration }); })
-        .observe({ type: 'longtask', buffered: true });
-      new PerformanceObserver((l) => { for (const e of l.getEntries()) window.__keys!.push({ name: e.name, start: e.startTime, duration: e.duration }); })
-        .observe({ type: 'event', durationThreshold: 16, buffered: true } as PerformanceObserverInit);
-    });
-    await page.goto(server.resolvedUrls!.local[0]!);
+    const page = await app.newPage(300_000);
+    await page.goto(app.url);
     await page.getByTestId('verdict').waitFor();
     await page.click('[data-screen="import"]');
     await page.getByTestId('file-input').setInputFiles(file);
@@ -101,8 +83,7 @@ export async function drawingApp(file: string, n: number, draws: number): Promis
     await page.waitForTimeout(300);
     return { n, draws, ...(await measure(t0, t1)), baseline };
   } finally {
-    await browser.close().catch(() => {});
-    await server.close();
+    await app.close();
   }
 }
 
@@ -110,7 +91,7 @@ export function drawingAppLine(r: DrawingApp | { skipped: string }): string {
   if ('skipped' in r) return `App while drawing: ${r.skipped}.`;
   const keys = r.keysTyped ? `; ${r.keysTyped} keystrokes typed meanwhile, key event to paint median ${r.keyMedianMs.toFixed(0)} ms, worst ${r.keyMaxMs.toFixed(0)} ms (Event Timing reports only events over 16 ms)` : '; no keystroke over 16 ms to paint while drawing';
   const b = r.baseline;
-  return `App while drawing (Chromium, Vite dev server, n=${r.n}, ${r.draws} draws in the engine worker): ${(r.wallMs / 1000).toFixed(1)} s from Compute to the bands; ${r.longTasks} main-thread task(s) over 50 ms${r.longTasks ? `, longest ${r.longestTaskMs.toFixed(0)} ms` : ''}${keys}. Baseline, the same typing with nothing drawing (${(b.wallMs / 1000).toFixed(1)} s): ${b.longTasks} task(s) over 50 ms${b.longTasks ? `, longest ${b.longestTaskMs.toFixed(0)} ms` : ''}, keystrokes median ${b.keyMedianMs.toFixed(0)} ms, worst ${b.keyMaxMs.toFixed(0)} ms (${b.keysTyped} over 16 ms).`;
+  return `App while drawing (Chromium, production build, n=${r.n}, ${r.draws} draws in the engine worker): ${(r.wallMs / 1000).toFixed(1)} s from Compute to the bands; ${r.longTasks} main-thread task(s) over 50 ms${r.longTasks ? `, longest ${r.longestTaskMs.toFixed(0)} ms` : ''}${keys}. Baseline, the same typing with nothing drawing (${(b.wallMs / 1000).toFixed(1)} s): ${b.longTasks} task(s) over 50 ms${b.longTasks ? `, longest ${b.longestTaskMs.toFixed(0)} ms` : ''}, keystrokes median ${b.keyMedianMs.toFixed(0)} ms, worst ${b.keyMaxMs.toFixed(0)} ms (${b.keysTyped} over 16 ms).`;
 }
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {

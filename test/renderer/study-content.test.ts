@@ -10,22 +10,15 @@ import { fileURLToPath } from 'node:url';
 import { api } from '../../renderer/worker/compute.ts';
 import type { StudyContent } from '../../renderer/worker/protocol.ts';
 import type { StudyChoices } from '../../renderer/worker/protocol.ts';
-import { formatLocated, InputError, parseMarginsCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseMixCsv, writeActivityCsv, writeMarginsCsv, writeMixCsv, type Activity, type Margins, type SpendingMix } from '../../src/study/index.ts';
+import { formatLocated, parseMarginsCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseMixCsv, writeActivityCsv, writeMarginsCsv, writeMixCsv, type Activity, type Margins, type SpendingMix } from '../../src/study/index.ts';
 import { onePhase } from '../support/scenario.ts';
+import { refusal } from '../support/refusal.ts';
 
 const ON: StudyChoices = { closure: 'households', destination: null };
 const TABLE = readFileSync(fileURLToPath(new URL('../fixtures/e2e/ridgeline-test.csv', import.meta.url)), 'utf8');
 const EMPTY: StudyContent = { mixes: [], activities: [], margins: null, priceIndex: null, commuting: [] };
 
-function refusalOf(f: () => unknown): InputError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof InputError) return e;
-    throw e;
-  }
-  throw new Error('expected a refusal');
-}
+const refusalOf = refusal;
 
 /** Refused by the editor's path and by the file's path (content written by the engine's writer, read by its reader, then checked against the table as the worker does). */
 function bothRefuse(content: Partial<StudyContent>, file: () => void): void {

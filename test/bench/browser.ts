@@ -1,0 +1,63 @@
+/**
+ * The app as the bench measures it in Debian's Chromium (playwright-core, the e2e harness's flags): the renderer built
+ * for production into a temporary folder and served by Vite's preview server (the app as shipped, not the dev
+ * server's on-demand modules), one browser, and pages that record from their first script on the main thread's long
+ * tasks (Long Tasks API: busy over 50 ms) and key events' latency (Event Timing: event to the next paint, entries over
+ * 16 ms).
+ */
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { build, preview } from 'vite';
+import { chromium, type Browser, type Page } from 'playwright-core';
+import { CHROMIUM, CHROMIUM_ARGS } from '../e2e/harness.ts';
+
+const REPO = fileURLToPath(new URL('../..', import.meta.url));
+
+declare global {
+  interface Window {
+    __tasks?: { start: number; duration: number }[];
+    __keys?: { name: string; start: number; duration: number }[];
+  }
+}
+
+export interface BenchApp {
+  url: string;
+  browser: Browser;
+  /** A 1280×800 page (en-US) recording long tasks into `window.__tasks` and key events into `window.__keys`. */
+  newPage(timeoutMs: number): Promise<Page>;
+  close(): Promise<void>;
+}
+
+/** null when there is no Chromium (the bench then says the app part was skipped, and why). */
+export async function startBenchApp(): Promise<BenchApp | null> {
+  if (!existsSync(CHROMIUM)) return null;
+  const configFile = join(REPO, 'renderer', 'vite.config.ts');
+  const outDir = mkdtempSync(join(tmpdir(), 'roundwise-bench-'));
+  await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true, reportCompressedSize: false } });
+  const server = await preview({ configFile, logLevel: 'error', build: { outDir }, preview: { port: 0, strictPort: false } });
+  const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
+  return {
+    url: server.resolvedUrls!.local[0]!,
+    browser,
+    async newPage(timeoutMs) {
+      const page = await (await browser.newContext({ viewport: { width: 1280, height: 800 }, locale: 'en-US' })).newPage();
+      page.setDefaultTimeout(timeoutMs);
+      await page.addInitScript(() => {
+        window.__tasks = [];
+        window.__keys = [];
+        new PerformanceObserver((l) => { for (const e of l.getEntries()) window.__tasks!.push({ start: e.startTime, duration: e.duration }); })
+          .observe({ type: 'longtask', buffered: true });
+        new PerformanceObserver((l) => { for (const e of l.getEntries()) window.__keys!.push({ name: e.name, start: e.startTime, duration: e.duration }); })
+          .observe({ type: 'event', durationThreshold: 16, buffered: true } as PerformanceObserverInit);
+      });
+      return page;
+    },
+    async close() {
+      await browser.close().catch(() => {});
+      await server.close();
+      rmSync(outDir, { recursive: true, force: true });
+    },
+  };
+}
