@@ -5,7 +5,7 @@
 import { markRaw, reactive, watch } from 'vue';
 import { getBridge } from '../bridge/index.ts';
 import { engine, CancelledError, EngineError } from '../worker/client.ts';
-import type { AnalysisView, PreviewView, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputsView, TableInfo, TableSource } from '../worker/protocol.ts';
+import type { AnalysisView, FlqInputs, PreviewView, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputsView, TableInfo, TableSource } from '../worker/protocol.ts';
 import type { ScenarioDraft } from '../worker/protocol.ts';
 import { History } from './history.ts';
 import { lineReady } from '../../src/study/index.ts';
@@ -68,6 +68,8 @@ export const app = reactive({
    * were written for that table, and the Scenarios screen offers to map or drop them.
    */
   previousSectors: [] as readonly string[],
+  /** The plain FLQ estimate the table in use came from, this session (FLQ δ sensitivity); null for any other table. */
+  flqInputs: null as FlqInputs | null,
   toast: '' as string,
   fatal: '' as string,
 });
@@ -222,6 +224,7 @@ export async function useTable(source: TableSource): Promise<boolean> {
     app.previousSectors = markRaw([...(app.table?.sectors ?? []), ...app.previousSectors.filter((x) => !app.table?.sectors.includes(x))]);
     app.table = markRaw(r.table);
     app.source = source;
+    app.flqInputs = null;
     app.analysis = markRaw(r.analysis);
     app.content = r.content;
     app.importError = null;

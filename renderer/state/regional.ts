@@ -7,6 +7,7 @@ import { type LqMethod, BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, EMPLOYMENT_B
 import { reactive } from 'vue';
 import { engine, CancelledError } from '../worker/client.ts';
 import type { RegionalFile, RegionalView } from '../worker/regional.ts';
+import type { FlqInputs } from '../worker/protocol.ts';
 import { app, messageOf, say, useTable } from './app.ts';
 import { exportReportFiles } from './exporting.ts';
 
@@ -37,6 +38,8 @@ export const regional = reactive({
   useBridge: false,
   bridge: null as RegionalFile | null,
   view: null as RegionalView | null,
+  /** The inputs of `view` when it is a plain FLQ estimate (no RAS, no grouping, no bridge): FLQ δ can then be varied on it. */
+  viewFlq: null as FlqInputs | null,
   /** Located one-line refusal of the inputs as they stand; the table in use is untouched. */
   error: null as string | null,
   busy: false,
@@ -83,6 +86,8 @@ export async function estimate(): Promise<void> {
     }, 'Estimating the county table…');
     if (my !== seq) return;
     regional.view = v;
+    regional.viewFlq = regional.method === 'flq' && !balance && !groups && !bridge
+      ? { national: { ...regional.national }, employment: { ...regional.employment }, delta: d.value } : null;
     regional.error = null;
   } catch (e) {
     if (my !== seq || e instanceof CancelledError) return;
@@ -97,8 +102,10 @@ export async function estimate(): Promise<void> {
 export async function acceptEstimate(): Promise<boolean> {
   const v = regional.view;
   if (!v) return false;
+  const flq = regional.viewFlq;
   const ok = await useTable({ text: v.result.csv, fileName: v.result.fileName });
   if (ok) {
+    app.flqInputs = flq;
     say(`Now using ${v.result.fileName}`);
     app.screen = 'overview';
   } else {

@@ -28,6 +28,17 @@ export interface TableSource {
   derivedFrom?: ProjectSourceOrigin[];
 }
 
+/**
+ * The inputs of a plain FLQ county estimate (no RAS, no grouping, employment by sector) whose CSV is the table in use,
+ * remembered when the planner takes it from the Larger-table screen: with them the sensitivity can vary FLQ δ, after
+ * the study layer (flqOriginOf) has checked the estimate is this table flow for flow. Not kept in projects.
+ */
+export interface FlqInputs {
+  national: TableSource;
+  employment: TableSource;
+  delta: number;
+}
+
 /** The screen's choices that the study keeps in its settings. */
 /** The study's input files besides the table (README "Shock files"). */
 export type StudyInputKind = 'mix' | 'activity' | 'margins' | 'price-index' | 'commuting';

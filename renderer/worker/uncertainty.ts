@@ -5,10 +5,10 @@
  * CLI's --draws and --sensitivity use, so the same seed gives the same bands in both. Views are plain and finite.
  */
 import {
-  beginStudyBands, checkUncertaintySettings, defaultUncertaintySettings, MEASURES, readyLines, studySensitivity, VARIABLES,
+  beginStudyBands, checkUncertaintySettings, defaultUncertaintySettings, flqOriginOf, MEASURES, readyLines, studySensitivity, utf8Bytes, VARIABLES,
   type BandsRun, type HowSure, type IOTable, type PointBand, type PreparedStudy, type UncertaintyResult,
 } from '../../src/study/index.ts';
-import type { BandSettings, BandView, BandsView, ScenarioDraft, SensitivityView, StudyChoices } from './protocol.ts';
+import type { BandSettings, BandView, BandsView, FlqInputs, ScenarioDraft, SensitivityView, StudyChoices } from './protocol.ts';
 
 const VARIABLE_LABELS: Record<string, string> = { output: 'Output', valueAdded: 'Value added', income: 'Labour income', employment: 'Employment', taxes: 'Taxes' };
 
@@ -91,9 +91,18 @@ export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: Scen
       run = null;
       return bandsView(result, r.target, r.moneyUnit);
     },
-    sensitivity(args: { choices: StudyChoices; scenario: ScenarioDraft; step: number }): SensitivityView {
+    /**
+     * With `flq` (the table in use is the plain FLQ estimate of those inputs, as the Larger-table screen made it) FLQ δ
+     * is varied over `range` too, after flqOriginOf has checked the estimate is this table (refused otherwise, as the
+     * CLI's --flq-national/--flq-employment/--flq-delta are).
+     */
+    sensitivity(args: { choices: StudyChoices; scenario: ScenarioDraft; step: number; flq?: { inputs: FlqInputs; range: [number, number] } | null }): SensitivityView {
       const ps = studyAt(args.choices);
-      const all = studySensitivity(ps, args.scenario, args.step);
+      const file = (f: FlqInputs['national']) => ({ bytes: utf8Bytes(f.text), fileName: f.fileName });
+      const flq = args.flq
+        ? { origin: flqOriginOf(ps.study.table, file(args.flq.inputs.national), file(args.flq.inputs.employment), args.flq.inputs.delta), range: args.flq.range }
+        : null;
+      const all = studySensitivity(ps, args.scenario, args.step, { flq });
       memory.rememberSensitivity(ps, args.scenario, all);
       const s = all[0]!; // the first phase (the panel shows one phase's sensitivity; the workbook has every phase's)
       return {

@@ -208,6 +208,14 @@ describe.skipIf(skipBrowser)('Start from a larger table, in the browser', () => 
     const total = runScenario(prepareModel(used), starter).totals.output.total;
     await expect.poll(() => page.getByTestId('total-effect').textContent(), { timeout: 10_000 }).toBe(money(total));
     await shot(page, 'regional-07-scenario');
+
+    // The table is the plain FLQ estimate at δ = 0.3: the sensitivity offers δ ± 0.1 and varies it (worker test: the study's numbers).
+    expect(await page.getByTestId('sens-delta-low').inputValue()).toBe('0.2');
+    expect(await page.getByTestId('sens-delta-high').inputValue()).toBe('0.4');
+    await page.getByTestId('sens-compute').click();
+    await expect.poll(() => page.getByTestId('sens-table').locator('tbody th').allTextContents(), { timeout: 30_000 }).toContain('FLQ δ of the county estimate');
+    await page.getByTestId('sens-table').scrollIntoViewIfNeeded();
+    await shot(page, 'regional-08-delta-sensitivity');
   });
 
   it('shows no console errors during the whole flow', () => {

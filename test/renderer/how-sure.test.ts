@@ -4,9 +4,13 @@
 import { describe, expect, it } from 'vitest';
 import { api } from '../../renderer/worker/compute.ts';
 import { bandsView } from '../../renderer/worker/uncertainty.ts';
+import { buildRegional } from '../../renderer/worker/regional.ts';
 import { readWorkbook } from '../support/deliverables.ts';
 import { linesOf, onePhase } from '../support/scenario.ts';
-import { defaultUncertaintySettings, parseMarginsCsv, prepareStudy, SAMPLE_CSV, SAMPLE_FILE_NAME, studyBands, studyFromTableFile, studySensitivity, utf8Bytes, type Scenario } from '../../src/study/index.ts';
+import {
+  defaultUncertaintySettings, EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, flqOriginOf, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME, parseMarginsCsv, prepareStudy,
+  SAMPLE_CSV, SAMPLE_FILE_NAME, studyBands, studyFromTableFile, studySensitivity, utf8Bytes, type Scenario,
+} from '../../src/study/index.ts';
 
 const choices = { closure: 'households' as const, destination: null };
 const settings = { draws: 45, seed: 21, cv: 0.15, localShareRange: 0.1 };
@@ -62,6 +66,33 @@ describe('How sure? worker operations', () => {
       expect(view.items.filter((i) => i.kind === 'margin-local-share')).toHaveLength(3);
     } finally {
       api.setStudyInput({ kind: 'margins', text: null, fileName: '' });
+    }
+  });
+
+  it('vary FLQ δ on a table taken from the Larger-table screen, as the study does with the estimate\'s inputs; refuse them for another table', () => {
+    const national = { text: NATIONAL_SAMPLE_CSV, fileName: NATIONAL_SAMPLE_FILE_NAME };
+    const employment = { text: EMPLOYMENT_SAMPLE_CSV, fileName: EMPLOYMENT_SAMPLE_FILE_NAME };
+    const inputs = { national, employment, delta: 0.3 };
+    const range: [number, number] = [0.2, 0.45];
+    const bytes = (f: { text: string; fileName: string }) => ({ bytes: utf8Bytes(f.text), fileName: f.fileName });
+    // The sample county is not that estimate: refused with the study's words, as the CLI refuses it.
+    expect(() => api.sensitivity({ choices, scenario, step: 0.1, flq: { inputs, range } })).toThrow(/is not the FLQ estimate \(δ = 0\.3\)/);
+    const est = buildRegional({ national, employment, method: 'flq', delta: 0.3, balance: null, groups: null, bridge: null });
+    api.loadTable({ text: est.result.csv, fileName: est.result.fileName });
+    try {
+      const county = prepareStudy(studyFromTableFile(utf8Bytes(est.result.csv), est.result.fileName));
+      const s0 = county.study.table.sectors;
+      const visitors = onePhase('Visitors', [{ sector: s0[0]!, amount: 2000, kind: 'final-demand', localShare: 0.7 }, { sector: s0[3]!, amount: 500, kind: 'final-demand', localShare: 1 }]);
+      const view = api.sensitivity({ choices, scenario: visitors, step: 0.1, flq: { inputs, range } });
+      const origin = flqOriginOf(county.study.table, bytes(national), bytes(employment), 0.3);
+      const ref = studySensitivity(county, visitors, 0.1, { flq: { origin, range } })[0]!;
+      const delta = view.items.find((i) => i.kind === 'flq-delta')!;
+      expect(delta.low.setting).toBe(ref.items.find((i) => i.kind === 'flq-delta')!.low.setting);
+      expect(view.items.map((i) => [i.kind, i.assumption, i.swing.output, i.low.totals, i.high.totals])).toEqual(ref.items.map((i) => [i.kind, i.assumption, i.swing.output, i.low.totals, i.high.totals]));
+      // FLQ scales coefficients by λ^δ with λ < 1 (Flegg & Tohmo 2013): a larger δ buys less locally, so output falls.
+      expect(delta.swing.output).toBeLessThan(0);
+    } finally {
+      api.loadSample({});
     }
   });
 });
