@@ -11,14 +11,13 @@
  * Run alone: `npx tsx test/bench/app-screens.ts [n]` (writes the table to bench-results/ first); `npm run bench` runs
  * it at the largest size. Speed is measured here only, never in tests.
  */
-import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
-import { startBenchApp } from './browser.ts';
+import { inventedFile, startBenchApp } from './browser.ts';
 import { CHROMIUM } from '../e2e/harness.ts';
 
-const REPO = fileURLToPath(new URL('../..', import.meta.url));
 /** The e2e harness's flags (test/e2e/harness.ts), repeated here: the bench runs outside vitest, without its setup. */
 
 export interface Step {
@@ -157,13 +156,7 @@ export function printAppRun(r: AppRun | { skipped: string }): void {
 
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
   const n = Number(process.argv[2] ?? 2000);
-  const dir = join(REPO, 'bench-results');
-  mkdirSync(dir, { recursive: true });
-  const file = join(dir, `invented-${n}.csv`);
-  if (!existsSync(file)) {
-    const { jobCsv } = await import('./job.ts');
-    writeFileSync(file, jobCsv(n));
-  }
+  const { file, dir } = await inventedFile(n);
   const r = await appScreens(file, n);
   printAppRun(r);
   writeFileSync(join(dir, `app-${n}.json`), JSON.stringify(r, null, 2));

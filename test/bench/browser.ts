@@ -5,7 +5,7 @@
  * tasks (Long Tasks API: busy over 50 ms) and key events' latency (Event Timing: event to the next paint, entries over
  * 16 ms).
  */
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -60,4 +60,16 @@ export async function startBenchApp(): Promise<BenchApp | null> {
       rmSync(outDir, { recursive: true, force: true });
     },
   };
+}
+
+/** For a bench part run alone: the invented n-sector table in bench-results/ (written once), and where its result goes. */
+export async function inventedFile(n: number): Promise<{ file: string; dir: string }> {
+  const dir = join(REPO, 'bench-results');
+  mkdirSync(dir, { recursive: true });
+  const file = join(dir, `invented-${n}.csv`);
+  if (!existsSync(file)) {
+    const { jobCsv } = await import('./job.ts');
+    writeFileSync(file, jobCsv(n));
+  }
+  return { file, dir };
 }

@@ -8,14 +8,13 @@
  *
  * Run alone: `npx tsx test/bench/draws-app.ts [n] [draws]`; `npm run bench` runs it at 500 sectors.
  */
-import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
+import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
-import { startBenchApp } from './browser.ts';
+import { inventedFile, startBenchApp } from './browser.ts';
 import { CHROMIUM } from '../e2e/harness.ts';
 
-const REPO = fileURLToPath(new URL('../..', import.meta.url));
 
 export interface DrawingApp {
   n: number;
@@ -97,13 +96,7 @@ export function drawingAppLine(r: DrawingApp | { skipped: string }): string {
 if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
   const n = Number(process.argv[2] ?? 500);
   const draws = Number(process.argv[3] ?? 200);
-  const dir = join(REPO, 'bench-results');
-  mkdirSync(dir, { recursive: true });
-  const file = join(dir, `invented-${n}.csv`);
-  if (!existsSync(file)) {
-    const { jobCsv } = await import('./job.ts');
-    writeFileSync(file, jobCsv(n));
-  }
+  const { file, dir } = await inventedFile(n);
   const r = await drawingApp(file, n, draws);
   console.log(drawingAppLine(r));
   writeFileSync(join(dir, `draws-app-${n}.json`), JSON.stringify(r, null, 2));
