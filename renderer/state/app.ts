@@ -270,6 +270,13 @@ export function editScenarios(fn: (s: ScenarioDraft[]) => void, select?: number)
   markDirty(true);
 }
 
+/** `base`, or `base (2)`, `base (3)`… : the first name no scenario of the study has yet. */
+export function uniqueScenarioName(base: string): string {
+  const names = new Set(app.scenarios.map((s) => s.name));
+  if (!names.has(base)) return base;
+  for (let k = 2; ; k++) if (!names.has(`${base} (${k})`)) return `${base} (${k})`;
+}
+
 /** Keep the phase index inside the selected scenario's phases. */
 export function clampPhase(): void {
   const n = app.scenarios[app.selected]?.phases.length ?? 1;

@@ -8,7 +8,7 @@ import { reactive } from 'vue';
 import { BRIDGE_SAMPLE_CSV, BRIDGE_SAMPLE_FILE_NAME, type BridgeSummary } from '../../src/study/index.ts';
 import { engine, CancelledError } from '../worker/client.ts';
 import type { RegionalFile } from '../worker/regional.ts';
-import { app, editScenarios, editStudyContent, messageOf, say } from './app.ts';
+import { app, editScenarios, editStudyContent, messageOf, say, uniqueScenarioName } from './app.ts';
 
 export const SAMPLE_BRIDGE: RegionalFile = { text: BRIDGE_SAMPLE_CSV, fileName: BRIDGE_SAMPLE_FILE_NAME };
 
@@ -51,8 +51,7 @@ export async function checkBridge(): Promise<void> {
 export async function addShockFileScenario(file: RegionalFile, via: RegionalFile | null): Promise<string> {
   const s = await engine().call('readShockFile', { text: file.text, fileName: file.fileName, bridge: via }, 'Reading the shock file…');
   const lines = s.phases.reduce((a, p) => a + p.lines.length, 0);
-  const names = new Set(app.scenarios.map((x) => x.name));
-  for (let k = 2, base = s.name; names.has(s.name); k++) s.name = `${base} (${k})`;
+  s.name = uniqueScenarioName(s.name);
   editScenarios((list) => { list.push(s); }, app.scenarios.length);
   app.phase = 0;
   say(`Added scenario ${s.name}`);

@@ -1,17 +1,15 @@
 /**
- * The app as the bench measures it in Debian's Chromium (playwright-core, the e2e harness's flags): the renderer built
- * for production into a temporary folder and served by Vite's preview server (the app as shipped, not the dev
- * server's on-demand modules), one browser, and pages that record from their first script on the main thread's long
- * tasks (Long Tasks API: busy over 50 ms) and key events' latency (Event Timing: event to the next paint, entries over
- * 16 ms).
+ * The app as the bench measures it in Debian's Chromium (playwright-core, the e2e harness's flags): the renderer as
+ * shipped (../e2e/built-renderer.ts, not the dev server's on-demand modules), one browser, and pages that record from
+ * their first script on the main thread's long tasks (Long Tasks API: busy over 50 ms) and key events' latency (Event
+ * Timing: event to the next paint, entries over 16 ms).
  */
-import { existsSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { existsSync, mkdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { build, preview } from 'vite';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { CHROMIUM, CHROMIUM_ARGS } from '../e2e/harness.ts';
+import { serveBuiltRenderer } from '../e2e/built-renderer.ts';
 
 const REPO = fileURLToPath(new URL('../..', import.meta.url));
 
@@ -33,13 +31,10 @@ export interface BenchApp {
 /** null when there is no Chromium (the bench then says the app part was skipped, and why). */
 export async function startBenchApp(): Promise<BenchApp | null> {
   if (!existsSync(CHROMIUM)) return null;
-  const configFile = join(REPO, 'renderer', 'vite.config.ts');
-  const outDir = mkdtempSync(join(tmpdir(), 'roundwise-bench-'));
-  await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true, reportCompressedSize: false } });
-  const server = await preview({ configFile, logLevel: 'error', build: { outDir }, preview: { port: 0, strictPort: false } });
+  const app = await serveBuiltRenderer();
   const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
   return {
-    url: server.resolvedUrls!.local[0]!,
+    url: app.url,
     browser,
     async newPage(timeoutMs) {
       const page = await (await browser.newContext({ viewport: { width: 1280, height: 800 }, locale: 'en-US' })).newPage();
@@ -56,8 +51,7 @@ export async function startBenchApp(): Promise<BenchApp | null> {
     },
     async close() {
       await browser.close().catch(() => {});
-      await server.close();
-      rmSync(outDir, { recursive: true, force: true });
+      await app.close();
     },
   };
 }

@@ -42,8 +42,7 @@ describe.skipIf(skipBrowser)('classification bridge on the Scenarios screen', ()
     const ps = prepareStudy(studyFromTableFile(utf8Bytes(SAMPLE_CSV), SAMPLE_FILE_NAME, {}), { spectrum: false });
     const bridge = readBridge({ bytes: utf8Bytes(BRIDGE_SAMPLE_CSV), fileName: BRIDGE_SAMPLE_FILE_NAME }, ps.study.table.sectors);
     const want = runStudyScenario(ps, shockFromFile(SHOCK, 'plant-by-code.csv', bridge)).phases[0]!.result.totals.output.total;
-    const shown = want.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
-    await poll(() => page.getByTestId('total-effect').textContent()).toBe(shown);
+    await poll(() => page.getByTestId('total-effect').textContent()).toBe(money(want));
     await page.getByTestId('code-bridge-panel').scrollIntoViewIfNeeded();
     await shot(page, 'bridge-shock-read');
   });

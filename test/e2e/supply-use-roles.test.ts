@@ -7,7 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { createHash } from 'node:crypto';
-import { goTo, openApp, shot, skipBrowser, type Session } from './harness.ts';
+import { goTo, money, openApp, type Session, shot, skipBrowser } from './harness.ts';
 import { deriveSymmetric, readSupplyUse, SUPPLY_SAMPLE_CSV, USE_SAMPLE_CSV, USE_SAMPLE_FILE_NAME } from '../../src/sut/index.ts';
 
 let s: Session;
@@ -25,7 +25,6 @@ async function firstRowCell(col: number): Promise<string> {
   const td = page.getByTestId('sut-rows').locator('tbody tr').first().locator('td').nth(col);
   return ((await td.textContent({ timeout: 2_000 }).catch(() => '')) ?? '').trim();
 }
-const money = (v: number) => v.toLocaleString('en-US', { minimumFractionDigits: 1, maximumFractionDigits: 1 });
 
 describe.skipIf(skipBrowser)('roles of a supply and use pair, in the browser', () => {
   beforeAll(async () => {
