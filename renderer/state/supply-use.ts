@@ -41,6 +41,11 @@ export const supplyUse = reactive({
   map: {} as SutRoleMap,
   /** The role map file last read (its roles may since have been changed on screen). */
   mapFileName: null as string | null,
+  /**
+   * Located refusal of the role map file last picked. Kept apart from `error` (the pair's refusal): the roles, and so
+   * the preview, stay as they were, and a derivation still running from an earlier change must not clear it.
+   */
+  mapError: null as string | null,
   /** Every label's role as the reader decides it with `map` (shown even while the pair is refused). */
   roles: null as SutRoles | null,
   view: null as SupplyUseView | null,
@@ -67,6 +72,7 @@ export function setSutRole<P extends RolePart>(part: P, label: string, role: Rol
   if (Object.keys(entries).length) (next as Record<RolePart, unknown>)[part] = entries;
   else delete next[part];
   supplyUse.map = next;
+  supplyUse.mapError = null;
 }
 
 /** Read a role map file (JSON, as the CLI's --map); a refusal is shown and the roles stay as they were. */
@@ -74,10 +80,10 @@ export async function loadSutMap(file: RegionalFile): Promise<void> {
   try {
     supplyUse.map = await engine().call('readSutMap', file, 'Reading the role map…');
     supplyUse.mapFileName = file.fileName;
+    supplyUse.mapError = null;
   } catch (e) {
     if (e instanceof CancelledError) return;
-    supplyUse.view = null;
-    supplyUse.error = messageOf(e);
+    supplyUse.mapError = messageOf(e);
   }
 }
 
@@ -85,6 +91,7 @@ export async function loadSutMap(file: RegionalFile): Promise<void> {
 export function resetSutMap(): void {
   supplyUse.map = {};
   supplyUse.mapFileName = null;
+  supplyUse.mapError = null;
 }
 
 /** The roles set on screen as a role map file (JSON) that `roundwise sut --map` and "Read a role map…" read back. */
