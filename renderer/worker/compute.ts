@@ -6,10 +6,10 @@
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  studyFromTableFile, utf8Bytes, sha256HexPortable, usePlatformSha256, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
   type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
-import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
+import type { AnalysisView, FileSource, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource, TextSource } from './protocol.ts';
 import { analysisView, gridMargins, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
 import { regionalApi } from './regional.ts';
 import { howSureMemory, uncertaintyApi } from './uncertainty.ts';
@@ -140,14 +140,73 @@ function starter(study: Study): ScenarioDraft {
   };
 }
 
-function loadTable(src: TableSource): ReturnType<typeof load> {
-  const study = studyFromTableFile(utf8Bytes(src.text), src.fileName, importSettings(src));
+/** Import the table file's bytes under the source's settings and make it the study (keeping the study's other inputs). */
+function loadBytes(bytes: Uint8Array, src: TableSource): ReturnType<typeof load> {
+  const study = studyFromTableFile(bytes, src.fileName, importSettings(src));
   if (src.derivedFrom?.length) study.source = { ...study.source!, derivedFrom: src.derivedFrom.map((o) => ({ ...o })) };
   return load(state ? withTable(state.study, study) : study);
 }
 
-function previewTable(src: TableSource): PreviewView {
-  return previewView(enginePreview(src.text, { fileName: src.fileName, ...importSettings(src) }), src);
+function loadTable(src: TextSource): ReturnType<typeof load> {
+  return loadBytes(utf8Bytes(src.text), src);
+}
+
+function previewOf(text: string, src: TableSource): PreviewView {
+  return previewView(enginePreview(text, { fileName: src.fileName, ...importSettings(src) }), src);
+}
+
+function previewTable(src: TextSource): PreviewView {
+  return previewOf(src.text, src);
+}
+
+/**
+ * The last picked file the worker read: its text (for previews), its bytes and their SHA-256. A file is previewed,
+ * perhaps with other roles, then imported: it is read and hashed once. The hash is the platform's (Web Crypto), started
+ * as soon as the file is read, so it is ready by the time "Use this table" is pressed.
+ */
+let lastFile: { id: string; text: string; bytes: Uint8Array; sha256: Promise<string> } | null = null;
+
+async function readFile(src: FileSource): Promise<NonNullable<typeof lastFile>> {
+  if (lastFile?.id === src.id) return lastFile;
+  lastFile = null;
+  const raw = new Uint8Array(await src.file.arrayBuffer());
+  let text: string;
+  let bytes: Uint8Array;
+  try {
+    // Valid UTF-8: the text is what the window's Blob.text() gave (a leading byte order mark dropped), and the bytes
+    // after that mark are exactly the text's UTF-8, so they need not be encoded again.
+    text = new TextDecoder('utf-8', { fatal: true }).decode(raw);
+    bytes = raw[0] === 0xef && raw[1] === 0xbb && raw[2] === 0xbf ? raw.subarray(3) : raw;
+  } catch {
+    text = new TextDecoder('utf-8').decode(raw); // malformed sequences become U+FFFD, as Blob.text() reads them
+    bytes = utf8Bytes(text);
+  }
+  lastFile = { id: src.id, text, bytes, sha256: platformSha256(bytes) };
+  return lastFile;
+}
+
+/** Hex SHA-256 by Web Crypto (native, off this thread), or the engine's own code where Web Crypto is missing. */
+async function platformSha256(bytes: Uint8Array): Promise<string> {
+  const subtle = globalThis.crypto?.subtle;
+  if (!subtle) return sha256HexPortable(bytes);
+  const digest = new Uint8Array(await subtle.digest('SHA-256', bytes as Uint8Array<ArrayBuffer>));
+  return Array.from(digest, (b) => b.toString(16).padStart(2, '0')).join('');
+}
+
+async function previewFile(src: FileSource): Promise<PreviewView> {
+  return previewOf((await readFile(src)).text, src);
+}
+
+async function loadFile(src: FileSource): Promise<ReturnType<typeof load>> {
+  const f = await readFile(src);
+  const hex = await f.sha256;
+  // The study fingerprints these bytes with the hash already made; anything else is hashed as usual.
+  usePlatformSha256((d) => (d === f.bytes ? hex : sha256HexPortable(d)));
+  try {
+    return loadBytes(f.bytes, src);
+  } finally {
+    usePlatformSha256(null);
+  }
 }
 
 /**
@@ -299,11 +358,13 @@ function spread(args: { mix: SpendingMix; amount: number; localShare: number }):
 
 export const api = {
   loadSample(_: Record<string, never>): ReturnType<typeof load> & { source: TableSource; note: string } {
-    const source: TableSource = { text: SAMPLE_CSV, fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' };
+    const source: TextSource = { text: SAMPLE_CSV, fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' };
     return { ...loadTable(source), source, note: SAMPLE_NOTE };
   },
   previewTable,
+  previewFile,
   loadTable,
+  loadFile,
   runScenario,
   spread,
   exampleScenario,
