@@ -262,6 +262,7 @@ export async function useTable(source: TableSource): Promise<boolean> {
 export function discardDraft(): void {
   app.draft = null;
   app.importError = null;
+  void engine().call('dropPreview', {}, null).catch(() => undefined); // the worker's copy of the preview's table and study
 }
 
 export async function openTable(): Promise<void> {

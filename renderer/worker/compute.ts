@@ -6,8 +6,8 @@
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, sha256HexPortable, usePlatformSha256, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
-  type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
+  studyFromImportedTable, studyFromTableFile, utf8Bytes, sha256HexPortable, usePlatformSha256, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  type BriefDocument, type BriefFonts, type IOTable, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
 import type { AnalysisView, FileSource, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource, TextSource } from './protocol.ts';
 import { analysisView, gridMargins, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
@@ -125,10 +125,19 @@ function mixFile(args: { names: string[] | null }): { name: string; text: string
   return { name: `${scenarioSlug(mixes.length === 1 ? mixes[0]!.name : `${study.name || study.table.name} mixes`)}.csv`, text: writeMixCsv(mixes) };
 }
 
-function load(study: Study): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft; content: StudyContent } {
+interface Loaded { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft; content: StudyContent }
+
+/** The study prepared (factorisation, analysis) and what the screens get of it, without making it the worker's state. */
+function prepared(study: Study): { ps: PreparedStudy; views: Loaded } {
   const ps = prepareStudy(study);
+  return { ps, views: { table: tableInfo(study, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study), content: contentOf(study) } };
+}
+
+function load(study: Study): Loaded {
+  const { ps, views } = prepared(study);
   state = ps;
-  return { table: tableInfo(study, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study), content: contentOf(study) };
+  dropPreview({}); // what was read or prepared ahead for a preview belongs to the state before
+  return views;
 }
 
 function starter(study: Study): ScenarioDraft {
@@ -140,15 +149,18 @@ function starter(study: Study): ScenarioDraft {
   };
 }
 
-/** Import the table file's bytes under the source's settings and make it the study (keeping the study's other inputs). */
-function loadBytes(bytes: Uint8Array, src: TableSource): ReturnType<typeof load> {
-  const study = studyFromTableFile(bytes, src.fileName, importSettings(src));
+/**
+ * Import the table file's bytes under the source's settings and make it the study (keeping the study's other inputs);
+ * `table`: what the preview of the same bytes and settings read, taken instead of reading them again.
+ */
+function studyOfBytes(bytes: Uint8Array, src: TableSource, table: IOTable | null = null): Study {
+  const study = table ? studyFromImportedTable(bytes, src.fileName, importSettings(src), table) : studyFromTableFile(bytes, src.fileName, importSettings(src));
   if (src.derivedFrom?.length) study.source = { ...study.source!, derivedFrom: src.derivedFrom.map((o) => ({ ...o })) };
-  return load(state ? withTable(state.study, study) : study);
+  return state ? withTable(state.study, study) : study;
 }
 
-function loadTable(src: TextSource): ReturnType<typeof load> {
-  return loadBytes(utf8Bytes(src.text), src);
+function loadTable(src: TextSource): Loaded {
+  return load(studyOfBytes(utf8Bytes(src.text), src));
 }
 
 function previewOf(text: string, src: TableSource): PreviewView {
@@ -156,6 +168,7 @@ function previewOf(text: string, src: TableSource): PreviewView {
 }
 
 function previewTable(src: TextSource): PreviewView {
+  dropPreview({});
   return previewOf(src.text, src);
 }
 
@@ -193,20 +206,72 @@ async function platformSha256(bytes: Uint8Array): Promise<string> {
   return Array.from(digest, (b) => b.toString(16).padStart(2, '0')).join('');
 }
 
+/**
+ * The table the last preview of a picked file read, and the settings it was read under: "Use this table" right after
+ * takes it instead of reading 20 MB again. Not kept for a text starting with U+FEFF after the byte order mark (the
+ * import drops a leading U+FEFF of the bytes, the preview of the text does not).
+ */
+interface PreviewRead { id: string; settings: string; table: IOTable }
+let lastPreview: PreviewRead | null = null;
+const settingsKey = (src: TableSource) => JSON.stringify([src.fileName, importSettings(src)]);
+
 async function previewFile(src: FileSource): Promise<PreviewView> {
-  return previewOf((await readFile(src)).text, src);
+  const f = await readFile(src);
+  dropPreview({});
+  const p = enginePreview(f.text, { fileName: src.fileName, ...importSettings(src) });
+  if (p.table && f.text.charCodeAt(0) !== 0xfeff) {
+    const preview: PreviewRead = { id: src.id, settings: settingsKey(src), table: p.table };
+    lastPreview = preview;
+    const from = state;
+    setTimeout(() => { void prepareAhead(src, preview, from).catch(() => undefined); }, 0); // after this answer is sent
+  }
+  return previewView(p, src);
 }
 
-async function loadFile(src: FileSource): Promise<ReturnType<typeof load>> {
+/**
+ * The study of the last previewed file, prepared while the planner reads the preview (its factorisation and analysis
+ * are most of "Use this table" at 2,000 sectors), with the worker's state it was made from: loadFile takes it when
+ * that preview is the one accepted and the state is unchanged; anything else discards it. A refusal is left to
+ * loadFile to report.
+ */
+let ahead: { preview: PreviewRead; from: PreparedStudy | null; ps: PreparedStudy; views: Loaded } | null = null;
+
+async function prepareAhead(src: FileSource, preview: PreviewRead, from: PreparedStudy | null): Promise<void> {
   const f = await readFile(src);
   const hex = await f.sha256;
-  // The study fingerprints these bytes with the hash already made; anything else is hashed as usual.
-  usePlatformSha256((d) => (d === f.bytes ? hex : sha256HexPortable(d)));
+  if (lastPreview !== preview || state !== from) return; // another preview, or another table, came first
+  const r = withSha256(f.bytes, hex, () => prepared(studyOfBytes(f.bytes, src, preview.table)));
+  if (lastPreview === preview && state === from) ahead = { preview, from, ...r };
+}
+
+/** The preview is gone (discarded, or another file previewed): so is what was read or prepared for it. */
+function dropPreview(_: Record<string, never>): void {
+  lastPreview = null;
+  ahead = null;
+}
+
+/** Run `fn` with the study fingerprinting `bytes` by the hash already made; anything else is hashed as usual. */
+function withSha256<T>(bytes: Uint8Array, hex: string, fn: () => T): T {
+  usePlatformSha256((d) => (d === bytes ? hex : sha256HexPortable(d)));
   try {
-    return loadBytes(f.bytes, src);
+    return fn();
   } finally {
     usePlatformSha256(null);
   }
+}
+
+async function loadFile(src: FileSource): Promise<Loaded> {
+  const f = await readFile(src);
+  const hex = await f.sha256;
+  const settings = settingsKey(src);
+  const done = ahead?.preview.id === src.id && ahead.preview.settings === settings && ahead.from === state ? ahead : null;
+  const table = lastPreview?.id === src.id && lastPreview.settings === settings ? lastPreview.table : null;
+  dropPreview({});
+  if (done) {
+    state = done.ps;
+    return done.views;
+  }
+  return withSha256(f.bytes, hex, () => load(studyOfBytes(f.bytes, src, table)));
 }
 
 /**
@@ -306,7 +371,7 @@ function recoveryBaseJson(args: { name: string; choices: StudyChoices }): Blob {
   return new Blob([JSON.stringify(recoveryBase(args))], { type: 'application/json' });
 }
 
-function openProject(args: { text: string; fileName: string }): ReturnType<typeof load> & { scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
+function openProject(args: { text: string; fileName: string }): Loaded & { scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
   const study = studyFromProjectFile(args.text, args.fileName);
   const loaded = load(study);
   const active = Math.max(0, study.scenarios.findIndex((s) => s.name === study.settings.activeScenario));
@@ -357,7 +422,7 @@ function spread(args: { mix: SpendingMix; amount: number; localShare: number }):
 }
 
 export const api = {
-  loadSample(_: Record<string, never>): ReturnType<typeof load> & { source: TableSource; note: string } {
+  loadSample(_: Record<string, never>): Loaded & { source: TableSource; note: string } {
     const source: TextSource = { text: SAMPLE_CSV, fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' };
     return { ...loadTable(source), source, note: SAMPLE_NOTE };
   },
@@ -365,6 +430,7 @@ export const api = {
   previewFile,
   loadTable,
   loadFile,
+  dropPreview,
   runScenario,
   spread,
   exampleScenario,

@@ -3,7 +3,7 @@
  * The CLI commands and the app's worker reach the engine only through here.
  */
 export {
-  studyFromTableFile, studyFromProjectFile, studyOfTable, projectFileOf, withTable, scenarioNamed, checkStudyInputs,
+  studyFromTableFile, studyFromImportedTable, studyFromProjectFile, studyOfTable, projectFileOf, withTable, scenarioNamed, checkStudyInputs,
   type Study, type StudySettings, type StudySource, type ImportSettings, type StudyPrices,
 } from './study.ts';
 export { prepareStudy, restudy, CLOSURE_OFF, type PreparedStudy, type PrepareOptions } from './prepare.ts';
