@@ -21,6 +21,15 @@ const noWoff2 = {
   },
 };
 
+// zod is loaded on first use (zod-on-demand.mjs replaces src/schema/zod.ts in the bundle): most runs never need it.
+const zodOnDemand = {
+  name: 'zod-on-demand',
+  setup(b) {
+    const configured = join(here, '..', 'schema', 'zod.ts');
+    b.onResolve({ filter: /^\.\/zod\.ts$/ }, (args) => (args.kind === 'import-statement' && join(args.resolveDir, args.path) === configured ? { path: join(here, 'zod-on-demand.mjs') } : undefined));
+  },
+};
+
 try {
   const { build } = await import('esbuild');
   rmSync(join(out, 'chunks'), { recursive: true, force: true });
@@ -37,15 +46,22 @@ try {
     format: 'esm',
     target: 'node20',
     logLevel: 'warning',
-    plugins: [noWoff2],
+    plugins: [noWoff2, zodOnDemand],
     metafile: true,
+  });
+  // zod, configured as src/schema/zod.ts does, as one CommonJS file beside the output that holds zod-on-demand.mjs.
+  const [lazyOut] = Object.entries(result.metafile.outputs).find(([, o]) => Object.keys(o.inputs).some((i) => i.endsWith('zod-on-demand.mjs'))) ?? [];
+  if (lazyOut === undefined) throw new Error('zod-on-demand.mjs is in no output');
+  const zod = await build({
+    entryPoints: [join(here, '..', 'schema', 'zod.ts')], outfile: join(dirname(resolve(lazyOut)), 'zod.cjs'),
+    bundle: true, platform: 'node', format: 'cjs', target: 'node20', logLevel: 'warning', metafile: true,
   });
   copyFileSync(join(here, 'parallel-worker.mjs'), join(out, 'parallel-worker.mjs'));
   copyFileSync(join(here, 'draw-worker.mjs'), join(out, 'draw-worker.mjs'));
   // The sources the bundle was built from, relative to src/ (esbuild's inputs are relative to the working folder).
   // A new source file matters only once an existing one imports it, and that edit makes the importer newer.
   const srcDir = join(here, '..');
-  const sources = Object.keys(result.metafile.inputs)
+  const sources = [...Object.keys(result.metafile.inputs), ...Object.keys(zod.metafile.inputs)]
     .map((input) => relative(srcDir, resolve(input)))
     .filter((p) => !p.startsWith('..') && !p.includes(':'));
   sources.push(relative(srcDir, join(here, 'parallel-worker.mjs')), relative(srcDir, join(here, 'draw-worker.mjs')), relative(srcDir, join(here, 'roundwise.mjs')));
