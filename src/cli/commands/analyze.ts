@@ -11,6 +11,7 @@ import { bandsOf, multiplierBandsSummary, uncertaintySettingsOf, UNCERTAINTY_OPT
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand } from '../command.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
+import { collectImportGarbage } from '../memory.ts';
 
 /**
  * From this many sectors the Monte Carlo draws share their factorisations' updates with helper threads (one per extra
@@ -112,6 +113,7 @@ export const analyze = defineCommand({
     const file = ctx.input(input);
     startHelpersFor(file.bytes.length);
     const study = studyFromTableFile(file.bytes, file.name, { ...tableDialect(values), allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
+    collectImportGarbage(file.bytes.length);
     if (values.tolerance !== undefined) study.settings.rounds.tolerance = values.tolerance;
     const settings = uncertaintySettingsOf(values, ctx);
     const ps = await prepare(study, { inverse: values.out !== undefined || values.xlsx !== undefined });
