@@ -9,7 +9,10 @@ const root = fileURLToPath(new URL('.', import.meta.url));
  *   engine once instead of once per file is most of the saving. Safe because these tests leave no module state behind
  *   (kernel mode and helper threads are restored in afterAll; nothing is mocked).
  * - shell: test/main and test/renderer, isolated per file: they mock `electron`, fake timers and browser globals.
- * - e2e: real Chromium against the built renderer (Vite build + preview server), both started once in test/e2e/global-setup.ts and shared by the files.
+ * - e2e: real Chromium against the built renderer (Vite build + preview server, started once in
+ *   test/e2e/global-setup.ts). Files are not isolated (`isolate: false`): a worker loads Playwright and the engine
+ *   once, and launches one Chromium that serves every file it runs (test/e2e/harness.ts); each file has its own
+ *   browser context, and no test leaves module state behind.
  */
 export default defineConfig({
   test: {
@@ -45,6 +48,7 @@ export default defineConfig({
           testTimeout: 180_000,
           hookTimeout: 180_000,
           fileParallelism: true,
+          isolate: false,
         },
       },
     ],

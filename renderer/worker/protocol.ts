@@ -340,6 +340,11 @@ export interface BandsView {
   seed: number;
   cv: number;
   localShareRange: number;
+  /**
+   * When every draw re-estimated the table at a drawn FLQ δ: the range asked for, how many draws did so, and the
+   * lowest and highest δ among the draws kept.
+   */
+  delta: { range: [number, number]; draws: number; drawn: [number, number] | null } | null;
   sectors: string[];
   notes: string[];
   multipliers: { key: string; label: string; unit: string; values: (BandView | null)[] }[] | null;

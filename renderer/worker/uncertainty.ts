@@ -22,6 +22,7 @@ export function bandsView(r: UncertaintyResult, target: BandsView['target'], mon
     target,
     draws: r.draws, accepted: r.accepted, rejected: r.rejected, rejectedWhy: { ...r.rejectedWhy },
     seed: r.settings.seed, cv: r.settings.cv, localShareRange: r.settings.localShareRange,
+    delta: r.settings.deltaRange ? { range: [...r.settings.deltaRange], draws: r.deltaDraws, drawn: r.deltaDrawn ? [...r.deltaDrawn] : null } : null,
     sectors: r.sectors,
     notes: r.notes,
     multipliers: r.multipliers ? r.multipliers.map((m) => {
@@ -61,6 +62,21 @@ export function howSureMemory() {
 }
 export type HowSureMemory = ReturnType<typeof howSureMemory>;
 
+/** FLQ inputs and a δ range as the panel sends them. */
+export interface FlqRequest {
+  inputs: FlqInputs;
+  range: [number, number];
+}
+
+/**
+ * The table's FLQ origin from the inputs the Larger-table screen kept: flqOriginOf re-runs the estimate and refuses a
+ * table it does not reproduce, as the CLI's --flq-national/--flq-employment/--flq-delta are refused.
+ */
+function originOf(ps: PreparedStudy, inputs: FlqInputs) {
+  const file = (f: FlqInputs['national']) => ({ bytes: utf8Bytes(f.text), fileName: f.fileName });
+  return flqOriginOf(ps.study.table, file(inputs.national), file(inputs.employment), inputs.delta);
+}
+
 /** The operations, given the worker's way to the study as the screens have it now. */
 export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: ScenarioDraft[]) => PreparedStudy, memory: HowSureMemory = howSureMemory()) {
   let run: { id: number; bands: BandsRun; target: BandsView['target']; moneyUnit: string; ps: PreparedStudy; scenario: ScenarioDraft | null } | null = null;
@@ -71,13 +87,17 @@ export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: Scen
     return run;
   };
   return {
-    /** Check the settings, compute the point estimate and plan the draws; the draws follow with bandsStep. */
-    bandsStart(args: { choices: StudyChoices; settings: BandSettings; scenario: ScenarioDraft | null }): { id: number; total: number } {
-      const settings = defaultUncertaintySettings({ ...args.settings });
+    /**
+     * Check the settings, compute the point estimate and plan the draws; the draws follow with bandsStep. With `flq`
+     * every draw re-estimates the table at a δ drawn uniformly in `flq.range`, as the CLI's --draws with --delta-range.
+     */
+    bandsStart(args: { choices: StudyChoices; settings: BandSettings; scenario: ScenarioDraft | null; flq?: FlqRequest | null }): { id: number; total: number } {
+      const settings = defaultUncertaintySettings({ ...args.settings, deltaRange: args.flq ? [...args.flq.range] : null });
       checkUncertaintySettings(settings);
       const ps = studyAt(args.choices);
       const scenarios = args.scenario ? [readyLines(args.scenario)] : [];
-      run = { id: ++lastId, bands: beginStudyBands(ps, { settings, multipliers: !args.scenario, scenarios }), target: args.scenario ? 'scenario' : 'multipliers', moneyUnit: ps.study.table.moneyUnit, ps, scenario: args.scenario };
+      const origin = args.flq ? originOf(ps, args.flq.inputs) : null;
+      run = { id: ++lastId, bands: beginStudyBands(ps, { settings, multipliers: !args.scenario, scenarios }, origin), target: args.scenario ? 'scenario' : 'multipliers', moneyUnit: ps.study.table.moneyUnit, ps, scenario: args.scenario };
       return { id: run.id, total: run.bands.total };
     },
     bandsStep(args: { id: number; from: number; to: number }): { done: number } {
@@ -96,12 +116,9 @@ export function uncertaintyApi(studyAt: (choices: StudyChoices, scenarios?: Scen
      * is varied over `range` too, after flqOriginOf has checked the estimate is this table (refused otherwise, as the
      * CLI's --flq-national/--flq-employment/--flq-delta are).
      */
-    sensitivity(args: { choices: StudyChoices; scenario: ScenarioDraft; step: number; flq?: { inputs: FlqInputs; range: [number, number] } | null }): SensitivityView {
+    sensitivity(args: { choices: StudyChoices; scenario: ScenarioDraft; step: number; flq?: FlqRequest | null }): SensitivityView {
       const ps = studyAt(args.choices);
-      const file = (f: FlqInputs['national']) => ({ bytes: utf8Bytes(f.text), fileName: f.fileName });
-      const flq = args.flq
-        ? { origin: flqOriginOf(ps.study.table, file(args.flq.inputs.national), file(args.flq.inputs.employment), args.flq.inputs.delta), range: args.flq.range }
-        : null;
+      const flq = args.flq ? { origin: originOf(ps, args.flq.inputs), range: args.flq.range } : null;
       const all = studySensitivity(ps, args.scenario, args.step, { flq });
       memory.rememberSensitivity(ps, args.scenario, all);
       const s = all[0]!; // the first phase (the panel shows one phase's sensitivity; the workbook has every phase's)

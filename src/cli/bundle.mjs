@@ -21,6 +21,25 @@ const noWoff2 = {
   },
 };
 
+// Libraries loaded on first use: each stand-in (*-on-demand.mjs) takes the place of an import in the bundle and
+// `require`s the library, built as one CommonJS file beside the output that holds the stand-in, when first used.
+// zod (with src/schema/zod.ts's setting) serves only project files and role maps; ml-matrix only the spectrum of a
+// small table written with --out. Compiling them at every start was most of the CLI's start-up (test/bench).
+const ON_DEMAND = [
+  { importPath: './zod.ts', importedFile: join(here, '..', 'schema', 'zod.ts'), standIn: 'zod-on-demand.mjs', entry: join(here, '..', 'schema', 'zod.ts'), file: 'zod.cjs' },
+  { importPath: 'ml-matrix', importedFile: null, standIn: 'ml-matrix-on-demand.mjs', entry: 'ml-matrix', file: 'ml-matrix.cjs' },
+];
+const onDemand = {
+  name: 'on-demand',
+  setup(b) {
+    for (const d of ON_DEMAND) {
+      const filter = new RegExp(`^${d.importPath.replace(/[.\/]/g, (c) => `\\${c}`)}$`);
+      b.onResolve({ filter }, (args) => (args.kind === 'import-statement' && !args.importer.endsWith(d.standIn) && (d.importedFile === null || join(args.resolveDir, args.path) === d.importedFile)
+        ? { path: join(here, d.standIn) } : undefined));
+    }
+  },
+};
+
 try {
   const { build } = await import('esbuild');
   rmSync(join(out, 'chunks'), { recursive: true, force: true });
@@ -37,15 +56,25 @@ try {
     format: 'esm',
     target: 'node20',
     logLevel: 'warning',
-    plugins: [noWoff2],
+    plugins: [noWoff2, onDemand],
     metafile: true,
   });
+  const libraryInputs = [];
+  for (const d of ON_DEMAND) {
+    const [holder] = Object.entries(result.metafile.outputs).find(([, o]) => Object.keys(o.inputs).some((i) => i.endsWith(d.standIn))) ?? [];
+    if (holder === undefined) throw new Error(`${d.standIn} is in no output`);
+    const lib = await build({
+      entryPoints: [d.entry], outfile: join(dirname(resolve(holder)), d.file),
+      bundle: true, platform: 'node', format: 'cjs', target: 'node20', logLevel: 'warning', metafile: true,
+    });
+    libraryInputs.push(...Object.keys(lib.metafile.inputs));
+  }
   copyFileSync(join(here, 'parallel-worker.mjs'), join(out, 'parallel-worker.mjs'));
   copyFileSync(join(here, 'draw-worker.mjs'), join(out, 'draw-worker.mjs'));
   // The sources the bundle was built from, relative to src/ (esbuild's inputs are relative to the working folder).
   // A new source file matters only once an existing one imports it, and that edit makes the importer newer.
   const srcDir = join(here, '..');
-  const sources = Object.keys(result.metafile.inputs)
+  const sources = [...Object.keys(result.metafile.inputs), ...libraryInputs]
     .map((input) => relative(srcDir, resolve(input)))
     .filter((p) => !p.startsWith('..') && !p.includes(':'));
   sources.push(relative(srcDir, join(here, 'parallel-worker.mjs')), relative(srcDir, join(here, 'draw-worker.mjs')), relative(srcDir, join(here, 'roundwise.mjs')));

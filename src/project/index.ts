@@ -6,4 +6,3 @@ export {
 export { migrateV1, migrateV2, migrateV3, MIGRATED_PHASE, type ProjectV1Doc, type ProjectV2Doc, type ProjectV3Doc, type ProjectV4Doc } from './schema.ts';
 export { sha256Hex, sha256HexPortable, usePlatformSha256, utf8Bytes } from './sha256.ts';
 export { toBase64, fromBase64 } from './base64.ts';
-export { roleMapSchema } from './schema.ts';

@@ -18,8 +18,7 @@ import {
 import { validateTable, type IOTable, type LabelledVector, type RoleMap } from '../table/index.ts';
 import { writeJson, type Json } from './json.ts';
 import {
-  DEFAULT_SETTINGS, PROJECT_FORMAT, PROJECT_VERSION, migrateV1, migrateV2, migrateV3, projectV1Schema, projectV2Schema, projectV3Schema,
-  projectV4Schema, type ProjectV2Doc, type ProjectV3Doc, type ProjectV4Doc,
+  DEFAULT_SETTINGS, PROJECT_FORMAT, PROJECT_VERSION, migrateV1, migrateV2, migrateV3, projectSchemas, type ProjectV2Doc, type ProjectV3Doc, type ProjectV4Doc,
 } from './schema.ts';
 import { sha256Hex } from './sha256.ts';
 import { fromBase64, toBase64 } from './base64.ts';
@@ -468,21 +467,21 @@ export function parseProject(text: string, fileName = 'project'): Project {
   const notes: string[] = [];
   let v3: ProjectV3Doc;
   if (version === 4) {
-    return fromDoc(parsed(projectV4Schema.safeParse(raw), fileName), fileName, notes);
+    return fromDoc(parsed(projectSchemas().projectV4Schema.safeParse(raw), fileName), fileName, notes);
   }
   if (version === 3) {
-    v3 = parsed(projectV3Schema.safeParse(raw), fileName);
+    v3 = parsed(projectSchemas().projectV3Schema.safeParse(raw), fileName);
   } else {
     let v2: ProjectV2Doc;
     if (version === 1) {
-      const v1 = parsed(projectV1Schema.safeParse(raw), fileName);
+      const v1 = parsed(projectSchemas().projectV1Schema.safeParse(raw), fileName);
       const n = v1.table.sectors.length;
       const rows = v1.table.Z;
       const bad = rows.findIndex((r) => r.length !== n);
       if (rows.length !== n || bad >= 0) throw invalid(fileName, bad >= 0 ? `table.Z[${bad}]` : 'table.Z', `expected ${n} rows of ${n} flows`);
       v2 = migrateV1(v1);
     } else {
-      v2 = parsed(projectV2Schema.safeParse(raw), fileName);
+      v2 = parsed(projectSchemas().projectV2Schema.safeParse(raw), fileName);
     }
     const m = migrateV2(v2);
     v3 = m.doc;

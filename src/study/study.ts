@@ -17,10 +17,15 @@ export type StudySettings = ProjectSettings;
 export type StudySource = SourceInfo;
 export type { ImportSettings, StudyPrices };
 
-/** A study of the table in `bytes` (the file as read), with no scenarios yet. */
-export function studyFromTableFile(bytes: Uint8Array, fileName: string, settings: ImportSettings = {}, opts: { name?: string; scenarios?: Scenario[] } = {}): Study {
+/**
+ * A study of the table in `bytes` (the file as read), with no scenarios yet. The study keeps the bytes (a project
+ * saves them) unless `keepBytes` is false: a run that saves no project then need not hold the file in memory (its
+ * name, size and SHA-256 stay in `source`, and a project made of it saves the table's numbers instead).
+ */
+export function studyFromTableFile(bytes: Uint8Array, fileName: string, settings: ImportSettings = {}, opts: { name?: string; scenarios?: Scenario[]; keepBytes?: boolean } = {}): Study {
   const source = sourceInfo(fileName, bytes, { import: settings });
   const table = importSource(source as SourceInfo & { content: Uint8Array });
+  if (opts.keepBytes === false) delete source.content;
   return createProject(table, { source, ...(opts.name !== undefined ? { name: opts.name } : {}), ...(opts.scenarios ? { scenarios: opts.scenarios } : {}) });
 }
 

@@ -26,13 +26,16 @@ export function suggestSupplyRole(label: string): SupplyColumnRole | null {
   return null;
 }
 
-const mapSchema = z
-  .object({
-    rows: z.record(z.string(), z.enum(ROW_ROLES as [RowRole, ...RowRole[]])).optional(),
-    columns: z.record(z.string(), z.enum(COLUMN_ROLES as [ColumnRole, ...ColumnRole[]])).optional(),
-    supply: z.record(z.string(), z.enum(SUPPLY_COLUMN_ROLES as [SupplyColumnRole, ...SupplyColumnRole[]])).optional(),
-  })
-  .strict();
+/** Built on first use (see src/project/schema.ts: a run that reads no role map never needs zod). */
+function mapSchema() {
+  return z
+    .object({
+      rows: z.record(z.string(), z.enum(ROW_ROLES as [RowRole, ...RowRole[]])).optional(),
+      columns: z.record(z.string(), z.enum(COLUMN_ROLES as [ColumnRole, ...ColumnRole[]])).optional(),
+      supply: z.record(z.string(), z.enum(SUPPLY_COLUMN_ROLES as [SupplyColumnRole, ...SupplyColumnRole[]])).optional(),
+    })
+    .strict();
+}
 
 /** Line and column of the first occurrence of a JSON key in the text (for messages). */
 function keyLocation(text: string, key: string | undefined, file: string): Location {
@@ -58,7 +61,7 @@ export function parseSutRoleMap(text: string, fileName: string): SutRoleMap {
     const before = m ? text.slice(0, Number(m[1])) : '';
     throw new InputError('role-map-json', 'the role map is not valid JSON', m ? { file: fileName, line: before.split('\n').length, column: Number(m[1]) - before.lastIndexOf('\n') } : { file: fileName });
   }
-  const res = mapSchema.safeParse(data);
+  const res = mapSchema().safeParse(data);
   if (!res.success) {
     const issue = res.error.issues[0]!;
     const path = issue.path.map(String);

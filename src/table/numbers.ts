@@ -14,13 +14,16 @@ export type DecimalMark = '.' | ',';
 
 const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
 
-/** Where the last `scanNumber` stopped reading (the index of the first character it did not take). */
-let scanStop = 0;
+/**
+ * The value the last `scanNumber` read. scanNumber returns where it stopped (a small integer) and leaves the number
+ * here: a double returned from a function the compiler does not inline is boxed, one heap object per cell — 64 MB of
+ * garbage and a dozen young-generation collections for a 2,000-sector table (test/bench).
+ */
+const scanned = new Float64Array(1);
 
 /** Plain number in s[start, end), or NaN when the cell is not a plain number (or needs the slow path). */
 export function scanPlain(s: string, start: number, end: number, decimalCode: number): number {
-  const v = scanNumber(s, start, end, decimalCode);
-  return scanStop === end ? v : NaN;
+  return scanNumber(s, start, end, decimalCode) === end ? scanned[0]! : NaN;
 }
 
 /**
@@ -33,10 +36,52 @@ export function scanPlainFields(s: string, start: number, stop: number, delimite
   let p = start;
   let c = 0;
   for (; c < count && p <= stop; c++) {
-    const v = scanNumber(s, p, stop, decimalCode);
-    const at = scanStop;
+    // The common field, [sign] digits [mark digits] up to the delimiter, read here with scanNumber's own arithmetic
+    // (the same digits into m, the same scale, the same one operation): no call per cell. Anything else (an
+    // exponent, a 16th significant digit, no digit, other characters) is read again by scanNumber from the start.
+    let q = p;
+    let ch = q < stop ? s.charCodeAt(q) : -1;
+    let neg = false;
+    if (ch === 45 /* - */ || ch === 43 /* + */) {
+      neg = ch === 45;
+      ch = ++q < stop ? s.charCodeAt(q) : -1;
+    }
+    let m = 0;
+    let sig = 0;
+    let scale = 0;
+    let anyDigit = false;
+    let common = true;
+    while (ch >= 48 && ch <= 57) {
+      anyDigit = true;
+      if (m !== 0 || ch !== 48) {
+        if (sig >= 15) { common = false; break; }
+        m = m * 10 + (ch - 48);
+        sig++;
+      }
+      ch = ++q < stop ? s.charCodeAt(q) : -1;
+    }
+    if (common && ch === decimalCode) {
+      ch = ++q < stop ? s.charCodeAt(q) : -1;
+      while (ch >= 48 && ch <= 57) {
+        anyDigit = true;
+        if (m !== 0 || ch !== 48) {
+          if (sig >= 15) { common = false; break; }
+          m = m * 10 + (ch - 48);
+          sig++;
+        }
+        scale--;
+        ch = ++q < stop ? s.charCodeAt(q) : -1;
+      }
+    }
+    if (common && anyDigit && scale >= -22 && (q >= stop || ch === delimiterCode)) {
+      const v = m === 0 ? 0 : scale === 0 ? m : m / POW10[-scale]!;
+      out[c] = neg ? -v : v;
+      p = q + 1;
+      continue;
+    }
+    const at = scanNumber(s, p, stop, decimalCode);
     if (at === stop || s.charCodeAt(at) === delimiterCode) {
-      out[c] = v;
+      out[c] = scanned[0]!;
       p = at + 1;
     } else {
       // Not a plain number: the field runs to the next delimiter.
@@ -48,16 +93,16 @@ export function scanPlainFields(s: string, start: number, stop: number, delimite
   for (; c < count; c++) out[c] = NaN;
 }
 
-/** The number at s[start..) read as far as it is a plain number (at most `end`); `scanStop` says where it stopped. */
+/** Read the number at s[start..) as far as it is a plain number (at most `end`) into `scanned` (NaN when it is none); returns where it stopped. */
 function scanNumber(s: string, start: number, end: number, decimalCode: number): number {
   let p = start;
-  scanStop = p;
-  if (p >= end) return NaN;
+  scanned[0] = NaN;
+  if (p >= end) return p;
   let neg = false;
   let c = s.charCodeAt(p);
   if (c === 45 /* - */ || c === 43 /* + */) {
     neg = c === 45;
-    if (++p >= end) { scanStop = p; return NaN; }
+    if (++p >= end) return p;
   }
   let m = 0;
   let sig = 0; // significant digits accumulated into m
@@ -69,7 +114,7 @@ function scanNumber(s: string, start: number, end: number, decimalCode: number):
     if (c < 48 || c > 57) break;
     anyDigit = true;
     if (m !== 0 || c !== 48) {
-      if (sig >= 15) { scanStop = p; return NaN; }
+      if (sig >= 15) return p;
       m = m * 10 + (c - 48);
       sig++;
     }
@@ -82,7 +127,7 @@ function scanNumber(s: string, start: number, end: number, decimalCode: number):
       if (c < 48 || c > 57) break;
       anyDigit = true;
       if (m !== 0 || c !== 48) {
-        if (sig >= 15) { scanStop = p; return NaN; }
+        if (sig >= 15) return p;
         m = m * 10 + (c - 48);
         sig++;
       }
@@ -90,10 +135,10 @@ function scanNumber(s: string, start: number, end: number, decimalCode: number):
       p++;
     }
   }
-  if (!anyDigit) { scanStop = p; return NaN; }
+  if (!anyDigit) return p;
   if (p < end && (c === 101 || c === 69) /* e E */) {
     p++;
-    if (p >= end) { scanStop = p; return NaN; }
+    if (p >= end) return p;
     let eneg = false;
     c = s.charCodeAt(p);
     if (c === 45 || c === 43) {
@@ -106,20 +151,20 @@ function scanNumber(s: string, start: number, end: number, decimalCode: number):
       c = s.charCodeAt(p);
       if (c < 48 || c > 57) break;
       e = e * 10 + (c - 48);
-      if (++eDigits > 4) { scanStop = p; return NaN; }
+      if (++eDigits > 4) return p;
       p++;
     }
-    if (eDigits === 0) { scanStop = p; return NaN; }
+    if (eDigits === 0) return p;
     scale += eneg ? -e : e;
   }
-  scanStop = p;
   let v: number;
   if (m === 0) v = 0;
   else if (scale === 0) v = m;
   else if (scale > 0 && scale <= 22) v = m * POW10[scale]!;
   else if (scale < 0 && scale >= -22) v = m / POW10[-scale]!;
-  else return NaN;
-  return neg ? -v : v;
+  else return p;
+  scanned[0] = neg ? -v : v;
+  return p;
 }
 
 export type NumberProblem = 'blank' | 'non-numeric' | 'not-finite' | 'overflow';

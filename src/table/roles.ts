@@ -122,13 +122,16 @@ export function suggestRoles(rowLabels: readonly string[], columnLabels: readonl
   return { rows, columns };
 }
 
-const roleMapSchema = z
-  .object({
-    rows: z.record(z.string(), z.enum(ROW_ROLES as [RowRole, ...RowRole[]])).optional(),
-    columns: z.record(z.string(), z.enum(COLUMN_ROLES as [ColumnRole, ...ColumnRole[]])).optional(),
-    sectors: z.array(z.string()).optional(),
-  })
-  .strict();
+/** Built on first use (see src/project/schema.ts: a run that reads no role map never needs zod). */
+function roleMapSchema() {
+  return z
+    .object({
+      rows: z.record(z.string(), z.enum(ROW_ROLES as [RowRole, ...RowRole[]])).optional(),
+      columns: z.record(z.string(), z.enum(COLUMN_ROLES as [ColumnRole, ...ColumnRole[]])).optional(),
+      sectors: z.array(z.string()).optional(),
+    })
+    .strict();
+}
 
 /** Where a key first appears in the JSON text (for messages). */
 function locateKey(text: string, key: string | number | undefined, fileName: string): Location {
@@ -166,7 +169,7 @@ export function parseRoleMap(text: string, fileName: string): Partial<RoleMap> {
   } catch (e) {
     throw new InputError('role-map-json', 'the role map is not valid JSON', jsonErrorLocation(text, e, fileName));
   }
-  const res = roleMapSchema.safeParse(data);
+  const res = roleMapSchema().safeParse(data);
   if (!res.success) {
     const issue = res.error.issues[0]!;
     const path = issue.path.map(String);

@@ -41,8 +41,10 @@ export interface UncertaintyResult {
   /** Every multiplier per sector; null when multipliers were not drawn. */
   multipliers: { key: MultiplierKey; values: (PointBand | null)[] }[] | null;
   scenarios: ScenarioBands[];
-  /** Range of the FLQ δ actually drawn, when δ was drawn. */
+  /** Range of the FLQ δ actually drawn over the accepted draws, when δ was drawn. */
   deltaDrawn: [number, number] | null;
+  /** How many draws (accepted or not) re-estimated the table at a drawn FLQ δ; 0 when δ was not drawn. */
+  deltaDraws: number;
   /** What a reader must know beside the bands (rejections, few draws, what was perturbed). */
   notes: string[];
 }
@@ -72,9 +74,11 @@ export function summarise(plan: DrawPlan, point: Float64Array, chunks: readonly 
   const rows: Float64Array[] = [];
   let dLo = Infinity;
   let dHi = -Infinity;
+  let deltaDraws = 0;
   for (const c of all) {
     for (let i = 0; i < c.to - c.from; i++) {
       const s = c.status[i];
+      if (!Number.isNaN(c.delta[i]!)) deltaDraws++;
       if (s === DRAW_STATUS.accepted) {
         rows.push(c.values.subarray(i * layout.size, (i + 1) * layout.size));
         const d = c.delta[i]!;
@@ -116,7 +120,7 @@ export function summarise(plan: DrawPlan, point: Float64Array, chunks: readonly 
   const notes = runNotes(plan, accepted, rejected, why);
   return {
     settings, sectors: [...setup.table.sectors], draws: settings.draws, accepted, rejected, rejectedWhy: why,
-    multipliers, scenarios, deltaDrawn: dLo <= dHi ? [dLo, dHi] : null, notes,
+    multipliers, scenarios, deltaDrawn: dLo <= dHi ? [dLo, dHi] : null, deltaDraws, notes,
   };
 }
 

@@ -86,7 +86,7 @@ function headJson(r: UncertaintyResult): Record<string, unknown> {
   const s = r.settings;
   return {
     draws: r.draws, seed: s.seed, cv: s.cv, ...(s.cvFile ? { cvFile: s.cvFile } : {}), localShareRange: s.localShareRange,
-    ...(s.deltaRange ? { deltaRange: s.deltaRange } : {}), ...(r.deltaDrawn ? { deltaDrawn: r.deltaDrawn } : {}),
+    ...(s.deltaRange ? { deltaRange: s.deltaRange } : {}), ...(r.deltaDraws ? { deltaDraws: r.deltaDraws } : {}), ...(r.deltaDrawn ? { deltaDrawn: r.deltaDrawn } : {}),
     accepted: r.accepted, rejected: r.rejected, rejectedWhy: { ...r.rejectedWhy },
   };
 }

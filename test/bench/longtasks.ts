@@ -1,15 +1,11 @@
 /**
- * Long main-thread tasks in the app while it imports and analyses a large table: the renderer in Debian's Chromium
- * (the end-to-end suite's global setup, run here outside vitest: the production build served by Vite's preview server,
- * one Chromium through playwright-core), a PerformanceObserver for 'longtask' entries installed
- * before the page loads, the file given to the import screen's file input, accepted, then the multiplier table shown.
+ * Long main-thread tasks in the app while it imports and analyses a large table: the app as the bench runs it
+ * (browser.ts: the production build on Vite's preview server, Debian's Chromium, a page recording long tasks from its
+ * first script), the file given to the import screen's file input, accepted, then the multiplier table shown.
  * A long task is one that kept the main thread busy for more than 50 ms (the Long Tasks API's definition).
  */
-import { existsSync } from 'node:fs';
-import { chromium } from 'playwright-core';
-import type { TestProject } from 'vitest/node';
 import { CHROMIUM } from '../e2e/harness.ts';
-import setupE2e from '../e2e/global-setup.ts';
+import { startBenchApp } from './browser.ts';
 
 export interface LongTasks {
   n: number;
@@ -21,30 +17,15 @@ export interface LongTasks {
   over100: number;
 }
 
-declare global {
-  interface Window { __longTasks?: { startMs: number; durationMs: number }[] }
-}
-
 export async function appLongTasks(file: string, n: number): Promise<LongTasks | { skipped: string }> {
-  if (!existsSync(CHROMIUM)) return { skipped: `no Chromium at ${CHROMIUM}` };
-  let shared: { url: string; wsEndpoint: string } | null = null;
-  const teardown = await setupE2e({ provide: (_key: string, value: typeof shared) => { shared = value; } } as unknown as TestProject);
-  const started = shared as { url: string; wsEndpoint: string } | null;
-  if (started === null) { await teardown(); return { skipped: 'the e2e setup did not start a server and a browser' }; }
-  const browser = await chromium.connect(started.wsEndpoint);
-  const s = { url: started.url, page: await (await browser.newContext({ viewport: { width: 1280, height: 800 }, locale: 'en-US' })).newPage() };
+  const app = await startBenchApp();
+  if (app === null) return { skipped: `no Chromium at ${CHROMIUM}` };
   try {
-    const page = s.page;
-    await page.addInitScript(() => {
-      window.__longTasks = [];
-      new PerformanceObserver((list) => {
-        for (const e of list.getEntries()) window.__longTasks!.push({ startMs: e.startTime, durationMs: e.duration });
-      }).observe({ type: 'longtask', buffered: true });
-    });
-    await page.goto(s.url);
+    const page = await app.newPage(60_000);
+    await page.goto(app.url);
     await page.getByTestId('verdict').waitFor({ timeout: 60_000 });
     await page.click('[data-screen="import"]');
-    await page.evaluate(() => { window.__longTasks = []; });
+    await page.evaluate(() => { window.__tasks = []; });
     const now = (): Promise<number> => page.evaluate(() => performance.now());
     const t0 = await now();
     await page.getByTestId('file-input').setInputFiles(file);
@@ -57,12 +38,11 @@ export async function appLongTasks(file: string, n: number): Promise<LongTasks |
     await page.getByTestId('multiplier-table').waitFor({ timeout: 60_000 });
     const tShown = await now();
     await page.waitForTimeout(200); // let the observer deliver the last entries
-    const raw = await page.evaluate(() => window.__longTasks ?? []);
+    const raw = await page.evaluate(() => window.__tasks ?? []);
     const phase = (t: number): string => (t < tPreview ? 'reading and preview' : t < tAnalysed ? 'import and analysis' : t < tShown ? 'multiplier screen' : 'after');
-    const tasks = raw.map((t) => ({ startMs: t.startMs - t0, durationMs: t.durationMs, phase: phase(t.startMs) }));
+    const tasks = raw.map((t) => ({ startMs: t.start - t0, durationMs: t.duration, phase: phase(t.start) }));
     return { n, totalMs: tShown - t0, tasks, maxMs: Math.max(0, ...tasks.map((t) => t.durationMs)), over100: tasks.filter((t) => t.durationMs > 100).length };
   } finally {
-    await browser.close().catch(() => {});
-    await teardown();
+    await app.close();
   }
 }

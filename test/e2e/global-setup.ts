@@ -1,13 +1,11 @@
 /**
- * One end-to-end session for all e2e files: the renderer built once for production and served (built-renderer.ts),
- * plus one Chromium, both started here and reached by every file through `inject('e2e')`. Each file opens its own
- * browser context (its own storage, downloads and pages), so files stay independent; only the served files and the
- * browser process are shared.
+ * One server for all e2e files: the renderer built once for production and served (built-renderer.ts), reached by
+ * every file through `inject('e2e')`. Chromium is launched by each test worker (harness.ts startSession), and each
+ * file opens its own browser context (its own storage, downloads and pages), so files stay independent.
  */
 import { mkdirSync } from 'node:fs';
-import { chromium } from 'playwright-core';
 import type { TestProject } from 'vitest/node';
-import { CHROMIUM, CHROMIUM_ARGS, DOWNLOADS, SCREENSHOTS, chromiumFound } from './harness.ts';
+import { DOWNLOADS, SCREENSHOTS, chromiumFound } from './harness.ts';
 import { serveBuiltRenderer } from './built-renderer.ts';
 
 export default async function setup(project: TestProject): Promise<() => Promise<void>> {
@@ -17,14 +15,7 @@ export default async function setup(project: TestProject): Promise<() => Promise
   }
   mkdirSync(SCREENSHOTS, { recursive: true });
   mkdirSync(DOWNLOADS, { recursive: true });
-  // The browser starts while the app is built.
-  const [browser, app] = await Promise.all([
-    chromium.launchServer({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true }),
-    serveBuiltRenderer(),
-  ]);
-  project.provide('e2e', { url: app.url, wsEndpoint: browser.wsEndpoint() });
-  return async () => {
-    await browser.close().catch(() => {});
-    await app.close();
-  };
+  const app = await serveBuiltRenderer();
+  project.provide('e2e', { url: app.url });
+  return async () => { await app.close(); };
 }

@@ -1,8 +1,11 @@
 /**
- * End-to-end harness: every e2e file shares one server of the built renderer (the real renderer config) and one Debian Chromium,
- * both started once by global-setup.ts; startSession() connects to that browser (playwright-core) and opens a browser
- * context of the file's own. When CI is set and no Chromium is found the suite fails; elsewhere it skips with a
- * message saying why.
+ * End-to-end harness: every e2e file shares one server of the built renderer (the real renderer config), started once
+ * by global-setup.ts. Each test worker launches one Debian Chromium (playwright-core, over a pipe) on its first
+ * session and keeps it for every file it runs (the e2e project does not isolate files), and each file gets a browser
+ * context of its own. Launching in the worker rather than sharing one browser server saves the relay through the
+ * main process (every message, screenshot and picked file crossed a compressed WebSocket and a pipe), and lets
+ * Playwright hand picked files to Chromium by path. When CI is set and no Chromium is found the suite fails;
+ * elsewhere it skips with a message saying why.
  */
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
@@ -12,8 +15,8 @@ import { chromium, type Browser, type BrowserContext, type Page } from 'playwrig
 
 declare module 'vitest' {
   export interface ProvidedContext {
-    /** The shared session started by global-setup.ts; null when no Chromium was found. */
-    e2e: { url: string; wsEndpoint: string } | null;
+    /** The shared server started by global-setup.ts; null when no Chromium was found. */
+    e2e: { url: string } | null;
   }
 }
 
@@ -47,11 +50,15 @@ export interface Session {
   close(): Promise<void>;
 }
 
+let workerBrowser: Promise<Browser> | null = null;
+
 export async function startSession(): Promise<Session> {
   requireChromium();
   const shared = inject('e2e');
-  if (!shared) throw new Error('e2e: the shared server and browser were not started (run the e2e project of vitest.config.ts).');
-  const browser = await chromium.connect(shared.wsEndpoint);
+  if (!shared) throw new Error('e2e: the shared server was not started (run the e2e project of vitest.config.ts).');
+  // Closed by Playwright when the worker exits.
+  workerBrowser ??= chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
+  const browser = await workerBrowser;
   const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, acceptDownloads: true, locale: 'en-US' });
   const page = await context.newPage();
   const errors: string[] = [];
@@ -61,7 +68,6 @@ export async function startSession(): Promise<Session> {
     url: shared.url, browser, context, page, errors,
     async close() {
       await context.close().catch(() => {});
-      await browser.close().catch(() => {}); // disconnects; the shared browser is closed by the global setup
     },
   };
 }

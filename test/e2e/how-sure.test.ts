@@ -8,8 +8,10 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { money, openApp, shot, skipBrowser, type Session } from './harness.ts';
 import { onePhase } from '../support/scenario.ts';
+import { buildRegional } from '../../renderer/worker/regional.ts';
 import {
-  SAMPLE_CSV, SAMPLE_FILE_NAME, defaultUncertaintySettings, prepareStudy, studyBands, studyFromTableFile, studySensitivity, utf8Bytes, type Scenario,
+  EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME, SAMPLE_CSV, SAMPLE_FILE_NAME,
+  beginStudyBands, defaultUncertaintySettings, flqOriginOf, prepareStudy, studyBands, studyFromTableFile, studySensitivity, utf8Bytes, type Scenario,
 } from '../../src/study/index.ts';
 
 let s: Session;
@@ -97,4 +99,46 @@ describe.skipIf(skipBrowser)('How sure? in the browser', () => {
     await panel.getByTestId('band-summary').waitFor({ timeout: 30_000 });
     expect(s.errors).toEqual([]);
   });
+
+  it('draws FLQ δ on a table taken from the Larger-table screen as the study does with the estimate\'s inputs, and says so', async () => {
+    await page.click('[data-screen="import"]');
+    await page.getByTestId('start-larger').click();
+    await page.click('[data-method="flq"]');
+    await page.getByTestId('delta').fill('0.3');
+    await page.getByTestId('regional-sectors').waitFor({ timeout: 30_000 });
+    await page.getByTestId('regional-accept').click();
+    await expect.poll(() => page.getByTestId('table-name').textContent(), { timeout: 30_000 }).toMatch(/fernhollow-flq-estimate/);
+    await page.click('[data-screen="scenarios"]');
+    const panel = page.getByTestId('how-sure');
+    await panel.waitFor({ timeout: 30_000 });
+    // Offered only for such a table, off by default (as the CLI draws δ only with --delta-range), range δ ± 0.1.
+    expect(await panel.getByTestId('band-draw-delta').isChecked()).toBe(false);
+    expect([await panel.getByTestId('band-delta-low').inputValue(), await panel.getByTestId('band-delta-high').inputValue()]).toEqual(['0.2', '0.4']);
+    await panel.getByTestId('band-draw-delta').check();
+    await panel.getByTestId('band-delta-high').fill('0.45');
+    await compute(100, 5, 0.05);
+
+    // The same estimate, made here by the worker's own function, and its bands by the study layer with the same seed.
+    const national = { text: NATIONAL_SAMPLE_CSV, fileName: NATIONAL_SAMPLE_FILE_NAME };
+    const employment = { text: EMPLOYMENT_SAMPLE_CSV, fileName: EMPLOYMENT_SAMPLE_FILE_NAME };
+    const est = buildRegional({ national, employment, method: 'flq', delta: 0.3, balance: null, groups: null, bridge: null });
+    const county = prepareStudy(studyFromTableFile(utf8Bytes(est.result.csv), est.result.fileName));
+    const bytes = (f: { text: string; fileName: string }) => ({ bytes: utf8Bytes(f.text), fileName: f.fileName });
+    const scenario: Scenario = onePhase('New food plant', [{ sector: 'Food processing', amount: 1000, kind: 'final-demand', localShare: 1 }]);
+    const settings = defaultUncertaintySettings({ draws: 100, seed: 5, cv: 0.05, deltaRange: [0.2, 0.45] });
+    const run = beginStudyBands(county, { settings, multipliers: false, scenarios: [scenario] }, flqOriginOf(county.study.table, bytes(national), bytes(employment), 0.3));
+    run.step(0, 100);
+    const ref = run.finish();
+    expect(ref.deltaDraws).toBe(100);
+    const out = ref.scenarios[0]!.totals.output!;
+    const row = page.getByTestId('band-totals').locator('tr[data-variable="output"] td');
+    expect((await row.allTextContents()).slice(0, 5).map((t) => t.trim())).toEqual([out.point, out.p5, out.p50, out.p95, out.mean].map(money));
+    const said = (await panel.getByTestId('band-delta').textContent())!.replace(/\s+/g, ' ');
+    expect(said).toContain('FLQ δ drawn uniformly from 0.2 to 0.45 in 100 of the 100 draws');
+    expect(said).toContain(`δ of the draws kept: ${ref.deltaDrawn![0].toFixed(4)} to ${ref.deltaDrawn![1].toFixed(4)}`);
+    expect(await panel.getByTestId('band-summary').textContent()).toMatch(new RegExp(`100 draws, seed 5, CV 0.05, FLQ δ 0.2–0.45:\\s+${ref.accepted} kept`));
+    await panel.getByTestId('band-summary').scrollIntoViewIfNeeded();
+    await shot(page, 'how-sure-04-delta-draws');
+    expect(s.errors).toEqual([]);
+  }, 120_000);
 });

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { REPO, SCREENSHOTS, shot as photograph, skipBrowser, type Session, openApp, goTo } from './harness.ts';
+import { REPO, shot as photograph, skipBrowser, type Session, openApp, goTo } from './harness.ts';
 import { sparseTableCsv } from '../support/random-tables.ts';
 import { SAMPLE_CSV, SAMPLE_FILE_NAME, importTable } from '../../src/table/index.ts';
 import { analyzeTable } from '../../src/model/index.ts';
@@ -149,28 +149,6 @@ describe.skipIf(skipBrowser)('screens', () => {
     expect(await page.locator('text=unit circle |λ| = 1').count()).toBe(0);
     expect(await page.locator('body').innerText()).not.toMatch(/full spectrum skipped/);
     await shot('structure-450-sectors');
-  });
-
-  it('draws every screen at device pixel ratio 2 (screenshots dpr2-*.png, looked at by hand)', async () => {
-    const hi = await s.browser.newContext({ viewport: { width: 1280, height: 800 }, deviceScaleFactor: 2, locale: 'en-US' });
-    try {
-      const p = await hi.newPage();
-      p.setDefaultTimeout(60_000);
-      const errors: string[] = [];
-      p.on('pageerror', (e) => errors.push(e.message));
-      await p.goto(s.url);
-      await p.getByTestId('verdict').waitFor({ timeout: 150_000 });
-      expect(await p.evaluate(() => window.devicePixelRatio)).toBe(2);
-      for (const screen of ['overview', 'import', 'table', 'structure', 'multipliers', 'scenarios', 'export', 'regional', 'supply-use', 'guide']) {
-        await goTo(p, screen);
-        await p.waitForTimeout(500); // charts and virtual rows settle
-        expect(await p.locator('body').innerText(), screen).not.toMatch(/\bNaN\b|Infinity|∞/);
-        await p.screenshot({ path: join(SCREENSHOTS, `dpr2-${screen}.png`) });
-      }
-      expect(errors).toEqual([]);
-    } finally {
-      await hi.close();
-    }
   });
 
   it('shows no console errors', () => {

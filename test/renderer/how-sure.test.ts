@@ -1,14 +1,18 @@
 // The worker's "How sure?" operations against the study called directly: draws taken in uneven ranges give exactly
 // the bands of one studyBands run with the same seed (what the CLI's --draws prints), and a run replaced by a newer
 // one refuses further steps instead of mixing draws of two runs.
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { api } from '../../renderer/worker/compute.ts';
 import { bandsView } from '../../renderer/worker/uncertainty.ts';
 import { buildRegional } from '../../renderer/worker/regional.ts';
 import { readWorkbook } from '../support/deliverables.ts';
 import { linesOf, onePhase } from '../support/scenario.ts';
+import { runCli } from '../support/cli.ts';
 import {
-  defaultUncertaintySettings, EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, flqOriginOf, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME, parseMarginsCsv, prepareStudy,
+  beginStudyBands, defaultUncertaintySettings, EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, flqOriginOf, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME, parseMarginsCsv, prepareStudy,
   SAMPLE_CSV, SAMPLE_FILE_NAME, studyBands, studyFromTableFile, studySensitivity, utf8Bytes, type Scenario,
 } from '../../src/study/index.ts';
 
@@ -95,4 +99,62 @@ describe('How sure? worker operations', () => {
       api.loadSample({});
     }
   });
+
+  it('draw FLQ δ on a table taken from the Larger-table screen as the CLI\'s --draws with --delta-range does, same seed, same bands', async () => {
+    const national = { text: NATIONAL_SAMPLE_CSV, fileName: NATIONAL_SAMPLE_FILE_NAME };
+    const employment = { text: EMPLOYMENT_SAMPLE_CSV, fileName: EMPLOYMENT_SAMPLE_FILE_NAME };
+    const inputs = { national, employment, delta: 0.3 };
+    const range: [number, number] = [0.2, 0.45];
+    const drawn = { draws: 40, seed: 11, cv: 0.05, localShareRange: 0.1 };
+    // The sample county is not that estimate: refused before any draw, with the study's words.
+    expect(() => api.bandsStart({ choices, settings: drawn, scenario, flq: { inputs, range } })).toThrow(/is not the FLQ estimate \(δ = 0\.3\)/);
+    const est = buildRegional({ national, employment, method: 'flq', delta: 0.3, balance: null, groups: null, bridge: null });
+    api.loadTable({ text: est.result.csv, fileName: est.result.fileName });
+    const dir = mkdtempSync(join(tmpdir(), 'roundwise-delta-draws-'));
+    try {
+      const s0 = prepareStudy(studyFromTableFile(utf8Bytes(est.result.csv), est.result.fileName)).study.table.sectors;
+      const visitors = onePhase('visitors', [{ sector: s0[0]!, amount: 2000, kind: 'final-demand', localShare: 0.7 }, { sector: s0[3]!, amount: 500, kind: 'final-demand', localShare: 1 }]);
+      // A δ range outside 0–1 is refused with the engine's words (the panel shows the same rule).
+      expect(() => api.bandsStart({ choices, settings: drawn, scenario: visitors, flq: { inputs, range: [0.5, 0.2] } })).toThrow(/FLQ δ range must be two numbers/);
+      const start = api.bandsStart({ choices, settings: drawn, scenario: visitors, flq: { inputs, range } });
+      for (const [from, to] of [[0, 7], [7, 40]] as const) api.bandsStep({ id: start.id, from, to });
+      const view = api.bandsFinish({ id: start.id });
+      expect(view.delta).toMatchObject({ range, draws: 40 });
+
+      // The CLI on the same table, shock and seed (the estimate's inputs as files).
+      const file = (name: string, text: string) => { const f = join(dir, name); writeFileSync(f, text); return f; };
+      const q = (x: string) => `"${x.replace(/"/g, '""')}"`;
+      const table = file(est.result.fileName, est.result.csv);
+      const shock = file('visitors.csv', `sector,amount,kind,local_share\n${q(s0[0]!)},2000,final-demand,0.7\n${q(s0[3]!)},500,final-demand,1\n`);
+      const r = await runCli(['scenario', table, '--shock', shock, '--json', '--draws', '40', '--seed', '11', '--cv', '0.05', '--share-range', '0.1',
+        '--flq-national', file(national.fileName, national.text), '--flq-employment', file(employment.fileName, employment.text), '--flq-delta', '0.3', '--delta-range', '0.2,0.45']);
+      expect(r.code, r.err).toBe(0);
+      const cli = JSON.parse(r.out).uncertainty;
+      expect(cli.deltaRange).toEqual(range);
+      expect([cli.deltaDraws, cli.deltaDrawn, cli.accepted, cli.rejected]).toEqual([view.delta!.draws, view.delta!.drawn, view.accepted, view.rejected]);
+      expect(view.totals!.filter((t) => t.band !== null).map((t) => t.variable)).toEqual(expect.arrayContaining(['output', 'employment']));
+      for (const t of view.totals!) expect(t.band, t.variable).toEqual(cli.totals[t.variable] ?? null); // the CLI leaves out rows the table lacks
+      expect(view.sectorOutput).toEqual(cli.sectors.output);
+      // δ drawn widens the bands: the same run without it is narrower in output (FLQ δ moves every coefficient).
+      const plain = api.bandsStart({ choices, settings: drawn, scenario: visitors });
+      api.bandsStep({ id: plain.id, from: 0, to: 40 });
+      const without = api.bandsFinish({ id: plain.id });
+      expect(without.delta).toBeNull();
+      const width = (v: typeof view) => { const b = v.totals!.find((t) => t.variable === 'output')!.band!; return b.p95 - b.p5; };
+      expect(width(view)).toBeGreaterThan(width(without));
+
+      // The multipliers too, as the study layer gives them with the estimate's origin.
+      const m = api.bandsStart({ choices, settings: { ...drawn, localShareRange: 0 }, scenario: null, flq: { inputs, range } });
+      api.bandsStep({ id: m.id, from: 0, to: 40 });
+      const mv = api.bandsFinish({ id: m.id });
+      const county = prepareStudy(studyFromTableFile(utf8Bytes(est.result.csv), est.result.fileName));
+      const bytes = (f: { text: string; fileName: string }) => ({ bytes: utf8Bytes(f.text), fileName: f.fileName });
+      const run = beginStudyBands(county, { settings: defaultUncertaintySettings({ ...drawn, localShareRange: 0, deltaRange: range }), multipliers: true, scenarios: [] }, flqOriginOf(county.study.table, bytes(national), bytes(employment), 0.3));
+      run.step(0, 40);
+      expect(mv).toEqual(bandsView(run.finish(), 'multipliers', county.study.table.moneyUnit));
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+      api.loadSample({});
+    }
+  }, 120_000);
 });

@@ -47,8 +47,9 @@ export function randomFlows(n: number, rnd: Random, { scale, base }: { scale: nu
 /**
  * An invented, balanced, productive CSV table of n sectors with about 1 % of flows non-zero: output at least 1.5 times
  * both what a sector sells and what it buys from other sectors, so value added and final demand stay positive.
+ * `zero` is the text of a zero flow ('0', or e.g. '0.000000000000' for a file many times larger at the same size).
  */
-export function sparseTableCsv(n: number, seed = 20261201): string {
+export function sparseTableCsv(n: number, seed = 20261201, zero = '0'): string {
   // The C-standard constants evaluated in doubles (the product exceeds 2^53 and rounds): not seededC's sequence, but
   // the one the end-to-end tables were first made with, kept so that their files stay the same.
   let state = seed;
@@ -63,7 +64,7 @@ export function sparseTableCsv(n: number, seed = 20261201): string {
   const out = s.map((_, i) => Math.max(x[i]!, sold[i]! * 1.5, bought[i]! * 1.5));
   for (let i = 0; i < n; i++) {
     const hh = (out[i]! - sold[i]!) * 0.4;
-    lines.push([s[i], ...Z[i]!, hh, out[i]! - sold[i]! - hh, out[i]].join(','));
+    lines.push([s[i], ...Z[i]!.map((v) => (v === 0 ? zero : v)), hh, out[i]! - sold[i]! - hh, out[i]].join(','));
   }
   const lab = s.map((_, j) => (out[j]! - bought[j]!) * 0.55);
   lines.push(['Compensation of employees', ...lab, '', '', ''].join(','));

@@ -5,12 +5,13 @@
 import { deliverableFiles, XLSX_OPTION } from './deliverables.ts';
 import {
   MEASURES, measureValues, prepareStudy, studyAnalysisJson, studyFromTableFile, tableReportSet, type PreparedStudy, type PrepareOptions, type Study, formatLocated, visibleText,
-  bandReports, multiplierBandsJson,
+  bandReports, multiplierBandsJson, type ImportSettings,
 } from '../../study/index.ts';
 import { bandsOf, multiplierBandsSummary, uncertaintySettingsOf, UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
-import { defineCommand } from '../command.ts';
+import { defineCommand, type RunContext } from '../command.ts';
 import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
+import { collectImportGarbage } from '../memory.ts';
 
 /**
  * From this many sectors the Monte Carlo draws share their factorisations' updates with helper threads (one per extra
@@ -93,6 +94,17 @@ export async function prepare(study: Study, opts: PrepareOptions = {}): Promise<
   return withHelperThreads(study.table.n, () => prepareStudy(study, opts), FACTOR_PARALLEL_MIN_SECTORS);
 }
 
+/**
+ * The study of the table file at `path`, without the file's bytes: `analyze` saves no project, so once the table is
+ * imported nothing needs them, and the collection after the import (memory.ts) can free them with the decoded text
+ * (the file's size twice off the peak). Read here, not in `run`, so no variable of `run` still holds them.
+ */
+function tableStudy(ctx: RunContext, path: string, settings: ImportSettings): Study {
+  const file = ctx.input(path);
+  startHelpersFor(file.bytes.length);
+  return studyFromTableFile(file.bytes, file.name, settings, { keepBytes: false });
+}
+
 export const analyze = defineCommand({
   name: 'analyze',
   summary: 'coefficients, viability (Hawkins–Simon, Perron root with bounds), Type I and II multipliers and linkages of a table',
@@ -109,9 +121,8 @@ export const analyze = defineCommand({
   notes: ['Warnings (e.g. an unproductive table) go to stderr; an unproductive table is analysed (exit 0), its multipliers left blank.'],
   async run({ input, values }, ctx) {
     const roles = ctx.roleMap(values.map);
-    const file = ctx.input(input);
-    startHelpersFor(file.bytes.length);
-    const study = studyFromTableFile(file.bytes, file.name, { ...tableDialect(values), allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
+    const study = tableStudy(ctx, input, { ...tableDialect(values), allowNegative: values['allow-negative'], ...(roles ? { roles } : {}) });
+    collectImportGarbage(study.source?.bytes ?? 0);
     if (values.tolerance !== undefined) study.settings.rounds.tolerance = values.tolerance;
     const settings = uncertaintySettingsOf(values, ctx);
     const ps = await prepare(study, { inverse: values.out !== undefined || values.xlsx !== undefined });

@@ -17,6 +17,7 @@ import {
 } from '../../study/index.ts';
 import { defineCommand } from '../command.ts';
 import { prepare, startHelpersFor } from './analyze.ts';
+import { collectImportGarbage } from '../memory.ts';
 import { bandsOf, flqOf, scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
 const fmt = (v: number | null | undefined) => (v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
@@ -153,6 +154,7 @@ export const scenario = defineCommand({
     const roles = ctx.roleMap(values.map);
     const shock = parseShockCsv(ctx.input(values.shock).text, values.shock);
     const study = studyFromTableFile(tableFile.bytes, tableFile.name, { ...tableDialect(values), ...(roles ? { roles } : {}) });
+    collectImportGarbage(tableFile.bytes.length);
     // With a bridge the shock file's sector column holds codes: each line is split among the code's sectors.
     const bridge = values.bridge === undefined ? null : readBridge({ bytes: ctx.input(values.bridge).bytes, fileName: values.bridge }, study.table.sectors);
     const scenario = bridge === null ? shock : scenarioByBridge(shock, bridge);

@@ -144,6 +144,8 @@ describe('scenario --sensitivity on an FLQ estimate', () => {
     }
     // Draws of δ: bands from tables estimated at δ within the range.
     const d = await json('scenario', county, '--shock', shock, '--draws', '20', '--cv', '0', '--flq-national', national, '--flq-employment', employment, '--flq-delta', '0.25', '--delta-range', '0.2,0.3');
+    expect(d.uncertainty.deltaRange).toEqual([0.2, 0.3]);
+    expect(d.uncertainty.deltaDraws).toBe(20);
     expect(d.uncertainty.deltaDrawn[0]).toBeGreaterThanOrEqual(0.2);
     expect(d.uncertainty.deltaDrawn[1]).toBeLessThanOrEqual(0.3);
   }, 120_000);

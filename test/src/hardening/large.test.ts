@@ -13,15 +13,15 @@ import { refusalOf } from './gen.ts';
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-large-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-/** n sectors of plain two-decimal flows (invented), a household column and a total output column. */
+/** n sectors of plain two-decimal flows (invented; every row has the same flows, made once), a household column and a total output column. */
 function bigTable(n: number, bad: { row: number; col: number; text: string }): string {
   const header = ['thousand dollars', ...Array.from({ length: n }, (_, j) => `Sector ${j + 1}`), 'Households', 'Total output'].join(',');
+  const cells = Array.from({ length: n }, (_, j) => String((j * 104_729 % 1_000_000) / 100));
+  const flows = cells.join(',');
   const out: string[] = [header];
   for (let i = 0; i < n; i++) {
-    const cells: string[] = new Array(n);
-    for (let j = 0; j < n; j++) cells[j] = String(((i * 7919 + j * 104_729) % 1_000_000) / 100);
-    if (i === bad.row) cells[bad.col] = bad.text;
-    out.push(`Sector ${i + 1},${cells.join(',')},1000,99999999`);
+    const row = i === bad.row ? cells.map((c, j) => (j === bad.col ? bad.text : c)).join(',') : flows;
+    out.push(`Sector ${i + 1},${row},1000,99999999`);
   }
   return out.join('\r\n') + '\r\n';
 }
