@@ -11,8 +11,8 @@ export interface Shown {
 }
 
 const cache = new Map<string, Intl.NumberFormat>();
-function nf(opts: Intl.NumberFormatOptions): Intl.NumberFormat {
-  const key = JSON.stringify(opts);
+/** One formatter per set of options; `key` names them without serialising them on every call (a table's redraw formats hundreds of cells). */
+function nf(opts: Intl.NumberFormatOptions, key = JSON.stringify(opts)): Intl.NumberFormat {
   let f = cache.get(key);
   if (!f) {
     f = new Intl.NumberFormat(undefined, opts);
@@ -28,7 +28,7 @@ export function isShowable(v: unknown): v is number {
 /** Fixed number of decimals, grouped. */
 export function fmtFixed(v: number | null | undefined, digits: number, reason = 'not available'): Shown {
   if (!isShowable(v)) return { text: DASH, reason: v === null || v === undefined ? reason : 'not a finite number' };
-  return { text: nf({ minimumFractionDigits: digits, maximumFractionDigits: digits }).format(Object.is(v, -0) ? 0 : v) };
+  return { text: nf({ minimumFractionDigits: digits, maximumFractionDigits: digits }, `fixed${digits}`).format(Object.is(v, -0) ? 0 : v) };
 }
 
 /** Money in the table's unit: grouped, one decimal, so a column of values lines up. */

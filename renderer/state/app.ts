@@ -2,10 +2,10 @@
  * The app's state and the actions on it. Screens read `app` and call the actions; every computation goes to the
  * engine worker. Scenario edits go through `editScenarios` so they can be undone and mark the project unsaved.
  */
-import { markRaw, reactive, watch } from 'vue';
+import { markRaw, reactive, toRaw, watch } from 'vue';
 import { getBridge } from '../bridge/index.ts';
-import { engine, CancelledError, EngineError } from '../worker/client.ts';
-import type { AnalysisView, FlqInputs, PreviewView, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputsView, TableInfo, TableSource } from '../worker/protocol.ts';
+import { engine, plain, CancelledError, EngineError } from '../worker/client.ts';
+import type { AnalysisView, FileSource, FlqInputs, PreviewView, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputsView, TableInfo, TableSource } from '../worker/protocol.ts';
 import type { ScenarioDraft } from '../worker/protocol.ts';
 import { History } from './history.ts';
 import { lineReady } from '../../src/study/index.ts';
@@ -125,7 +125,7 @@ function markDirty(d: boolean): void {
 export async function loadSample(): Promise<void> {
   try {
     const r = await engine().call('loadSample', {}, 'Opening the sample county…');
-    if (app.source?.text !== r.source.text) app.project = null; // another study, as in useTable
+    if (!sameContent(app.source, r.source)) app.project = null; // another study, as in useTable
     app.previousSectors = markRaw([...(app.table?.sectors ?? []), ...app.previousSectors.filter((x) => !app.table?.sectors.includes(x))]);
     app.table = markRaw(r.table);
     app.source = r.source;
@@ -151,11 +151,24 @@ export async function beginImport(source: TableSource): Promise<void> {
   await refreshPreview();
 }
 
+/** A file picked or dropped in the window, as a source the worker reads itself (FileSource). */
+let fileCount = 0;
+export function fileSource(file: File): FileSource {
+  return { file, id: `${Date.now()}-${++fileCount}`, fileName: file.name };
+}
+
+/** The same table file: the same text, or the same picked file. */
+function sameContent(a: TableSource | null, b: TableSource): boolean {
+  if (!a) return false;
+  return 'file' in a ? 'file' in b && toRaw(a.file) === toRaw(b.file) : 'text' in b && a.text === b.text;
+}
+
 export async function refreshPreview(): Promise<void> {
   const d = app.draft;
   if (!d) return;
   try {
-    d.preview = await engine().call('previewTable', d.source, 'Reading the file…');
+    const src = plain(d.source);
+    d.preview = 'file' in src ? await engine().call('previewFile', src, 'Reading the file…') : await engine().call('previewTable', src, 'Reading the file…');
     d.error = d.preview.refusal;
   } catch (e) {
     if (e instanceof CancelledError) return;
@@ -217,10 +230,11 @@ export async function acceptImport(): Promise<boolean> {
 
 export async function useTable(source: TableSource): Promise<boolean> {
   try {
-    const r = await engine().call('loadTable', source, 'Importing the table…');
+    const src = plain(source);
+    const r = 'file' in src ? await engine().call('loadFile', src, 'Importing the table…') : await engine().call('loadTable', src, 'Importing the table…');
     // Another file is another study: the opened project's name no longer applies (Save asks for one). New roles for
     // the same file keep it.
-    if (app.source?.text !== source.text) app.project = null;
+    if (!sameContent(app.source, source)) app.project = null;
     app.previousSectors = markRaw([...(app.table?.sectors ?? []), ...app.previousSectors.filter((x) => !app.table?.sectors.includes(x))]);
     app.table = markRaw(r.table);
     app.source = source;
@@ -248,6 +262,7 @@ export async function useTable(source: TableSource): Promise<boolean> {
 export function discardDraft(): void {
   app.draft = null;
   app.importError = null;
+  void engine().call('dropPreview', {}, null).catch(() => undefined); // the worker's copy of the preview's table and study
 }
 
 export async function openTable(): Promise<void> {
@@ -367,10 +382,47 @@ export function choices(): StudyChoices {
 }
 
 let recomputeSeq = 0;
-/** Results follow the inputs: every change of scenarios, closure or table recomputes them (cheap solves). */
-export async function recomputeAll(): Promise<void> {
-  if (!app.table) return;
+/** Each table the worker gave (app.table is replaced with every new table or content): a number for inputsKey. */
+const tableIds = new WeakMap<object, number>();
+let tableCount = 0;
+/** Everything the results depend on, as one string: the table, the scenarios, the study choices and content. */
+function inputsKey(): string {
+  const t = app.table!;
+  if (!tableIds.has(t)) tableIds.set(t, ++tableCount);
+  return JSON.stringify([tableIds.get(t), app.scenarios, choices(), app.studyInputs, app.content]);
+}
+/** The inputs of the results on screen, and the computation under way (null: none). */
+let shownKey = '';
+let running: { key: string; done: Promise<void> } | null = null;
+/** A change came while a computation was under way: compute once more when it ends, from the inputs as they are then. */
+let changedMeanwhile = false;
+
+/**
+ * Results follow the inputs: every change of scenarios, closure or table recomputes them (cheap solves). A call with
+ * the inputs of the results on screen, or of the computation under way, computes nothing again.
+ */
+export function recomputeAll(): Promise<void> {
+  if (!app.table) return Promise.resolve();
+  const key = inputsKey();
+  if (running?.key === key) return running.done;
+  if (!running && key === shownKey) {
+    app.resultsStale = false;
+    return Promise.resolve();
+  }
   const seq = ++recomputeSeq;
+  const done = computeResults(seq, key).finally(() => {
+    if (running?.done !== done) return;
+    running = null;
+    if (changedMeanwhile) {
+      changedMeanwhile = false;
+      void recomputeAll();
+    }
+  });
+  running = { key, done };
+  return done;
+}
+
+async function computeResults(seq: number, key: string): Promise<void> {
   const out: ScenarioResultState[] = [];
   for (const s of app.scenarios) {
     const lines = s.phases.flatMap((p) => p.lines);
@@ -387,14 +439,16 @@ export async function recomputeAll(): Promise<void> {
     if (seq !== recomputeSeq) return;
   }
   app.results = out;
-  app.resultsStale = false;
+  app.resultsStale = inputsKey() !== key; // inputs changed meanwhile: shown as outdated until their own results come
+  shownKey = key;
 }
 
-let pending: ReturnType<typeof setTimeout> | null = null;
+// No waiting time after a change (the amount fields commit on change, not per keystroke): a change during a
+// computation waits for it to end, so a burst of changes (Ctrl+Z held down) queues at most one more computation.
 watch(() => [app.scenarios, app.closure, app.discountRate, app.commutingShare, app.tableYear, app.studyInputs, app.content], () => {
   app.resultsStale = true;
-  if (pending) clearTimeout(pending);
-  pending = setTimeout(() => { void recomputeAll(); }, 120);
+  if (running) changedMeanwhile = true;
+  else void recomputeAll();
 }, { deep: true });
 
 /** Note (or clear, with null) a value typed into the selected scenario that cannot be used, with the text as typed. */

@@ -43,7 +43,7 @@ type Args<K extends Op> = Parameters<EngineApi[K]>[0];
 type Result<K extends Op> = Awaited<ReturnType<EngineApi[K]>>;
 
 /** Calls whose effect is the worker's state: replayed after a cancel. */
-const STATEFUL: ReadonlySet<string> = new Set(['loadSample', 'loadTable', 'openProject']);
+const STATEFUL: ReadonlySet<string> = new Set(['loadSample', 'loadTable', 'loadFile', 'openProject']);
 
 export class EngineClient {
   private worker: Worker;

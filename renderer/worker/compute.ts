@@ -6,10 +6,10 @@
 import {
   buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromTableFile, utf8Bytes, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
-  type BriefDocument, type BriefFonts, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
+  studyFromImportedTable, studyFromTableFile, utf8Bytes, sha256HexPortable, usePlatformSha256, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
+  type BriefDocument, type BriefFonts, type IOTable, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
 } from '../../src/study/index.ts';
-import type { AnalysisView, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource } from './protocol.ts';
+import type { AnalysisView, FileSource, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource, TextSource } from './protocol.ts';
 import { analysisView, gridMargins, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
 import { regionalApi } from './regional.ts';
 import { howSureMemory, uncertaintyApi } from './uncertainty.ts';
@@ -125,10 +125,19 @@ function mixFile(args: { names: string[] | null }): { name: string; text: string
   return { name: `${scenarioSlug(mixes.length === 1 ? mixes[0]!.name : `${study.name || study.table.name} mixes`)}.csv`, text: writeMixCsv(mixes) };
 }
 
-function load(study: Study): { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft; content: StudyContent } {
+interface Loaded { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft; content: StudyContent }
+
+/** The study prepared (factorisation, analysis) and what the screens get of it, without making it the worker's state. */
+function prepared(study: Study): { ps: PreparedStudy; views: Loaded } {
   const ps = prepareStudy(study);
+  return { ps, views: { table: tableInfo(study, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study), content: contentOf(study) } };
+}
+
+function load(study: Study): Loaded {
+  const { ps, views } = prepared(study);
   state = ps;
-  return { table: tableInfo(study, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study), content: contentOf(study) };
+  dropPreview({}); // what was read or prepared ahead for a preview belongs to the state before
+  return views;
 }
 
 function starter(study: Study): ScenarioDraft {
@@ -140,14 +149,129 @@ function starter(study: Study): ScenarioDraft {
   };
 }
 
-function loadTable(src: TableSource): ReturnType<typeof load> {
-  const study = studyFromTableFile(utf8Bytes(src.text), src.fileName, importSettings(src));
+/**
+ * Import the table file's bytes under the source's settings and make it the study (keeping the study's other inputs);
+ * `table`: what the preview of the same bytes and settings read, taken instead of reading them again.
+ */
+function studyOfBytes(bytes: Uint8Array, src: TableSource, table: IOTable | null = null): Study {
+  const study = table ? studyFromImportedTable(bytes, src.fileName, importSettings(src), table) : studyFromTableFile(bytes, src.fileName, importSettings(src));
   if (src.derivedFrom?.length) study.source = { ...study.source!, derivedFrom: src.derivedFrom.map((o) => ({ ...o })) };
-  return load(state ? withTable(state.study, study) : study);
+  return state ? withTable(state.study, study) : study;
 }
 
-function previewTable(src: TableSource): PreviewView {
-  return previewView(enginePreview(src.text, { fileName: src.fileName, ...importSettings(src) }), src);
+function loadTable(src: TextSource): Loaded {
+  return load(studyOfBytes(utf8Bytes(src.text), src));
+}
+
+function previewOf(text: string, src: TableSource): PreviewView {
+  return previewView(enginePreview(text, { fileName: src.fileName, ...importSettings(src) }), src);
+}
+
+function previewTable(src: TextSource): PreviewView {
+  dropPreview({});
+  return previewOf(src.text, src);
+}
+
+/**
+ * The last picked file the worker read: its text (for previews), its bytes and their SHA-256. A file is previewed,
+ * perhaps with other roles, then imported: it is read and hashed once. The hash is the platform's (Web Crypto), started
+ * as soon as the file is read, so it is ready by the time "Use this table" is pressed.
+ */
+let lastFile: { id: string; text: string; bytes: Uint8Array; sha256: Promise<string> } | null = null;
+
+async function readFile(src: FileSource): Promise<NonNullable<typeof lastFile>> {
+  if (lastFile?.id === src.id) return lastFile;
+  lastFile = null;
+  const raw = new Uint8Array(await src.file.arrayBuffer());
+  let text: string;
+  let bytes: Uint8Array;
+  try {
+    // Valid UTF-8: the text is what the window's Blob.text() gave (a leading byte order mark dropped), and the bytes
+    // after that mark are exactly the text's UTF-8, so they need not be encoded again.
+    text = new TextDecoder('utf-8', { fatal: true }).decode(raw);
+    bytes = raw[0] === 0xef && raw[1] === 0xbb && raw[2] === 0xbf ? raw.subarray(3) : raw;
+  } catch {
+    text = new TextDecoder('utf-8').decode(raw); // malformed sequences become U+FFFD, as Blob.text() reads them
+    bytes = utf8Bytes(text);
+  }
+  lastFile = { id: src.id, text, bytes, sha256: platformSha256(bytes) };
+  return lastFile;
+}
+
+/** Hex SHA-256 by Web Crypto (native, off this thread), or the engine's own code where Web Crypto is missing. */
+async function platformSha256(bytes: Uint8Array): Promise<string> {
+  const subtle = globalThis.crypto?.subtle;
+  if (!subtle) return sha256HexPortable(bytes);
+  const digest = new Uint8Array(await subtle.digest('SHA-256', bytes as Uint8Array<ArrayBuffer>));
+  return Array.from(digest, (b) => b.toString(16).padStart(2, '0')).join('');
+}
+
+/**
+ * The table the last preview of a picked file read, and the settings it was read under: "Use this table" right after
+ * takes it instead of reading 20 MB again. Not kept for a text starting with U+FEFF after the byte order mark (the
+ * import drops a leading U+FEFF of the bytes, the preview of the text does not).
+ */
+interface PreviewRead { id: string; settings: string; table: IOTable }
+let lastPreview: PreviewRead | null = null;
+const settingsKey = (src: TableSource) => JSON.stringify([src.fileName, importSettings(src)]);
+
+async function previewFile(src: FileSource): Promise<PreviewView> {
+  const f = await readFile(src);
+  dropPreview({});
+  const p = enginePreview(f.text, { fileName: src.fileName, ...importSettings(src) });
+  if (p.table && f.text.charCodeAt(0) !== 0xfeff) {
+    const preview: PreviewRead = { id: src.id, settings: settingsKey(src), table: p.table };
+    lastPreview = preview;
+    const from = state;
+    setTimeout(() => { void prepareAhead(src, preview, from).catch(() => undefined); }, 0); // after this answer is sent
+  }
+  return previewView(p, src);
+}
+
+/**
+ * The study of the last previewed file, prepared while the planner reads the preview (its factorisation and analysis
+ * are most of "Use this table" at 2,000 sectors), with the worker's state it was made from: loadFile takes it when
+ * that preview is the one accepted and the state is unchanged; anything else discards it. A refusal is left to
+ * loadFile to report.
+ */
+let ahead: { preview: PreviewRead; from: PreparedStudy | null; ps: PreparedStudy; views: Loaded } | null = null;
+
+async function prepareAhead(src: FileSource, preview: PreviewRead, from: PreparedStudy | null): Promise<void> {
+  const f = await readFile(src);
+  const hex = await f.sha256;
+  if (lastPreview !== preview || state !== from) return; // another preview, or another table, came first
+  const r = withSha256(f.bytes, hex, () => prepared(studyOfBytes(f.bytes, src, preview.table)));
+  if (lastPreview === preview && state === from) ahead = { preview, from, ...r };
+}
+
+/** The preview is gone (discarded, or another file previewed): so is what was read or prepared for it. */
+function dropPreview(_: Record<string, never>): void {
+  lastPreview = null;
+  ahead = null;
+}
+
+/** Run `fn` with the study fingerprinting `bytes` by the hash already made; anything else is hashed as usual. */
+function withSha256<T>(bytes: Uint8Array, hex: string, fn: () => T): T {
+  usePlatformSha256((d) => (d === bytes ? hex : sha256HexPortable(d)));
+  try {
+    return fn();
+  } finally {
+    usePlatformSha256(null);
+  }
+}
+
+async function loadFile(src: FileSource): Promise<Loaded> {
+  const f = await readFile(src);
+  const hex = await f.sha256;
+  const settings = settingsKey(src);
+  const done = ahead?.preview.id === src.id && ahead.preview.settings === settings && ahead.from === state ? ahead : null;
+  const table = lastPreview?.id === src.id && lastPreview.settings === settings ? lastPreview.table : null;
+  dropPreview({});
+  if (done) {
+    state = done.ps;
+    return done.views;
+  }
+  return withSha256(f.bytes, hex, () => load(studyOfBytes(f.bytes, src, table)));
 }
 
 /**
@@ -247,7 +371,7 @@ function recoveryBaseJson(args: { name: string; choices: StudyChoices }): Blob {
   return new Blob([JSON.stringify(recoveryBase(args))], { type: 'application/json' });
 }
 
-function openProject(args: { text: string; fileName: string }): ReturnType<typeof load> & { scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
+function openProject(args: { text: string; fileName: string }): Loaded & { scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
   const study = studyFromProjectFile(args.text, args.fileName);
   const loaded = load(study);
   const active = Math.max(0, study.scenarios.findIndex((s) => s.name === study.settings.activeScenario));
@@ -298,12 +422,15 @@ function spread(args: { mix: SpendingMix; amount: number; localShare: number }):
 }
 
 export const api = {
-  loadSample(_: Record<string, never>): ReturnType<typeof load> & { source: TableSource; note: string } {
-    const source: TableSource = { text: SAMPLE_CSV, fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' };
+  loadSample(_: Record<string, never>): Loaded & { source: TableSource; note: string } {
+    const source: TextSource = { text: SAMPLE_CSV, fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' };
     return { ...loadTable(source), source, note: SAMPLE_NOTE };
   },
   previewTable,
+  previewFile,
   loadTable,
+  loadFile,
+  dropPreview,
   runScenario,
   spread,
   exampleScenario,

@@ -13,9 +13,8 @@ export type EngineApi = typeof api;
 /** A scenario as the screens edit it (lines still being typed included). */
 export type ScenarioDraft = Scenario;
 
-/** Where a table came from: enough to import it again (the study keeps its bytes and these settings). */
-export interface TableSource {
-  text: string;
+/** How a table file is read and named: everything a source says besides its content. */
+interface SourceSettings {
   fileName: string;
   roles?: Partial<RoleMap>;
   layout?: string | undefined;
@@ -28,14 +27,32 @@ export interface TableSource {
   derivedFrom?: ProjectSourceOrigin[];
 }
 
+/** A table file given as its text (the sample, a derived table, a file the desktop shell read). */
+export interface TextSource extends SourceSettings {
+  text: string;
+}
+
+/**
+ * A table file picked or dropped in the window, given as the file itself: a Blob crosses to the worker by reference
+ * and is read there (worker ops `previewFile`, `loadFile`), so the window never decodes or copies its text (20 MB at
+ * 2,000 sectors: each copy was a task of 100–300 ms). `id` names it for the worker's copy of the last file it read.
+ */
+export interface FileSource extends SourceSettings {
+  file: Blob;
+  id: string;
+}
+
+/** Where a table came from: enough to import it again (the study keeps its bytes and these settings). */
+export type TableSource = TextSource | FileSource;
+
 /**
  * The inputs of a plain FLQ county estimate (no RAS, no grouping, employment by sector) whose CSV is the table in use,
  * remembered when the planner takes it from the Larger-table screen: with them the sensitivity can vary FLQ δ, after
  * the study layer (flqOriginOf) has checked the estimate is this table flow for flow. Not kept in projects.
  */
 export interface FlqInputs {
-  national: TableSource;
-  employment: TableSource;
+  national: TextSource;
+  employment: TextSource;
   delta: number;
 }
 
@@ -313,6 +330,19 @@ export interface BandView {
   mean: number;
 }
 
+/**
+ * n bands as columns, NaN where a value has no band (not defined, or too few draws kept): the bands of every multiplier
+ * of every sector cross from the worker as a few typed arrays (a copy of bytes), not thousands of objects to rebuild
+ * and collect on the main thread. `bandAt` (renderer/charts/bands.ts) reads one back.
+ */
+export interface BandColumns {
+  point: Float64Array;
+  p5: Float64Array;
+  p50: Float64Array;
+  p95: Float64Array;
+  mean: Float64Array;
+}
+
 /** Monte Carlo bands as the panel shows them; null bands where a value is not defined or too few draws were kept. */
 export interface BandsView {
   target: 'multipliers' | 'scenario';
@@ -330,10 +360,10 @@ export interface BandsView {
   delta: { range: [number, number]; draws: number; drawn: [number, number] | null } | null;
   sectors: string[];
   notes: string[];
-  multipliers: { key: string; label: string; unit: string; values: (BandView | null)[] }[] | null;
+  multipliers: { key: string; label: string; unit: string; values: BandColumns }[] | null;
   totals: { variable: Variable; label: string; unit: string; band: BandView | null }[] | null;
-  sectorOutput: (BandView | null)[] | null;
-  sectorJobs: (BandView | null)[] | null;
+  sectorOutput: BandColumns | null;
+  sectorJobs: BandColumns | null;
   moneyUnit: string;
 }
 

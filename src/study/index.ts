@@ -3,7 +3,7 @@
  * The CLI commands and the app's worker reach the engine only through here.
  */
 export {
-  studyFromTableFile, studyFromProjectFile, studyOfTable, projectFileOf, withTable, scenarioNamed, checkStudyInputs,
+  studyFromTableFile, studyFromImportedTable, studyFromProjectFile, studyOfTable, projectFileOf, withTable, scenarioNamed, checkStudyInputs,
   type Study, type StudySettings, type StudySource, type ImportSettings, type StudyPrices,
 } from './study.ts';
 export { prepareStudy, restudy, CLOSURE_OFF, type PreparedStudy, type PrepareOptions } from './prepare.ts';
@@ -40,7 +40,7 @@ export {
   type Commuting, type LineKind, type PriceBasis, type Variable, type EffectSplit, type EffectTotals, type OutsideRow, type OverTime,
   type ScenarioMultiplier, type ScenarioResult, type PathAnalysis, type RoundsResult, type ExpandedLine, type TotalsRecord,
 } from '../scenario/index.ts';
-export { utf8Bytes, sha256Hex } from '../project/index.ts';
+export { utf8Bytes, sha256Hex, sha256HexPortable, usePlatformSha256 } from '../project/index.ts';
 
 // The table-building commands (regionalize, balance, aggregate) and the app's "Larger table" screen use these steps.
 export {

@@ -29,6 +29,16 @@ export function studyFromTableFile(bytes: Uint8Array, fileName: string, settings
   return createProject(table, { source, ...(opts.name !== undefined ? { name: opts.name } : {}), ...(opts.scenarios ? { scenarios: opts.scenarios } : {}) });
 }
 
+/**
+ * `studyFromTableFile` for a front end that has just imported the same bytes under the same settings (the app's
+ * preview of a file, then "Use this table"): `table` is taken as given instead of being read a second time. It must be
+ * what `importSource` reads from these bytes (their UTF-8 text, `fileName`, `settings`); the app's test checks the
+ * study equals `studyFromTableFile`'s.
+ */
+export function studyFromImportedTable(bytes: Uint8Array, fileName: string, settings: ImportSettings, table: Study['table']): Study {
+  return createProject(table, { source: sourceInfo(fileName, bytes, { import: settings }) });
+}
+
 /** A study of a table that exists only in memory (an estimate, a test table): no source bytes to keep. */
 export function studyOfTable(table: Study['table'], opts: { name?: string; scenarios?: Scenario[] } = {}): Study {
   return createProject(table, { ...(opts.name !== undefined ? { name: opts.name } : {}), ...(opts.scenarios ? { scenarios: opts.scenarios } : {}) });

@@ -124,6 +124,13 @@ export async function appScreens(file: string, n: number): Promise<AppRun | { sk
       return t && t !== b && !document.querySelector('[data-testid="scenario-results"][aria-busy="true"]');
     }, before));
     await visit('export', '[data-report]');
+    // The worker prepares a previewed table's study while the planner reads the preview (above, the settling time):
+    // here the same file is chosen again and accepted the moment its preview shows, with no such head start.
+    await page.click('[data-screen="import"]');
+    await page.getByTestId('file-input').setInputFiles(file);
+    await page.locator('[data-testid="accept-import"]:not([disabled])').waitFor();
+    await step(page, steps, 'accepted the moment its preview shows: to the Overview verdict', () => page.getByTestId('accept-import').click(),
+      () => page.waitForFunction(() => !document.querySelector('[data-testid="accept-import"]') && !document.querySelector('[data-testid="progress"]')));
     const all = await tasksBetween(page, tRun, await now(page));
     return { n, steps, keystrokes: [picker, filter], maxTaskMs: Math.max(0, ...all.map((t) => t.duration)) };
   } finally {
@@ -135,13 +142,14 @@ export async function appScreens(file: string, n: number): Promise<AppRun | { sk
 export function appTargets(r: AppRun): { target: string; measured: string; met: boolean }[] {
   const f = (ms: number): string => (ms >= 1000 ? `${(ms / 1000).toFixed(2)} s` : `${Math.round(ms)} ms`);
   const ready = r.steps.find((s) => s.step.startsWith('"Use this table"'));
+  const atOnce = r.steps.find((s) => s.step.startsWith('accepted the moment'));
   const edit = r.steps.find((s) => s.step.startsWith('scenario amount changed'));
   const worstKey = Math.max(0, ...r.keystrokes.map((k) => k.maxMs));
   return [
     { target: 'no main-thread task over 50 ms on any screen', measured: `longest ${f(r.maxTaskMs)}; ${r.steps.filter((s) => s.longTasks === 0).length} of ${r.steps.length} steps without a long task`, met: r.maxTaskMs <= 50 },
     { target: 'a keystroke in a picker or filter answers in under 50 ms', measured: r.keystrokes.map((k) => `${k.field}: median ${f(k.medianMs)}, worst ${f(k.maxMs)}`).join('; '), met: worstKey < 50 },
     { target: 'a scenario edit shows new results in under 300 ms', measured: edit ? f(edit.ms) : 'not measured', met: !!edit && edit.ms < 300 },
-    { target: 'ready after "Use this table" in under 2 s', measured: ready ? f(ready.ms) : 'not measured', met: !!ready && ready.ms < 2000 },
+    { target: 'ready after "Use this table" in under 2 s', measured: `${ready ? f(ready.ms) : 'not measured'}${atOnce ? ` (${f(atOnce.ms)} when accepted the moment the preview shows)` : ''}`, met: !!ready && ready.ms < 2000 },
   ];
 }
 

@@ -154,8 +154,8 @@ describe.skipIf(skipBrowser)('study input editors', () => {
   it('refuses margins above the whole purchaser price, and keeps them once they are not', async () => {
     const editor = page.getByTestId('margins-editor');
     await editor.locator('summary').click();
-    await page.getByTestId('margins-sector-retail').selectOption('Wholesale and retail trade');
-    await page.getByTestId('margins-sector-transport').selectOption('Transport and warehousing');
+    await pick('Sector earning the retail margin (empty: none)', 'retail trade');
+    await pick('Sector earning the transport margin (empty: none)', 'transport');
     await pick('Sector of margins row 1', 'food processing');
     await editor.getByLabel('Retail share of row 1').fill('0.7');
     await editor.getByLabel('Transport share of row 1').fill('0.4');

@@ -4,6 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
+import { createHash } from 'node:crypto';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import Papa from 'papaparse';
@@ -121,6 +122,37 @@ describe('worker adapter over the engine', () => {
     const changed = api.previewTable({ text: text('ridgeline-test.csv'), fileName: 'ridgeline-test.csv', roles: { rows: { 'Other value added': 'ignore' } } });
     expect(changed.rows.find((r) => r.label === 'Other value added')?.role).toBe('ignore');
     expect(changed.balanced).toBe(false);
+  });
+
+  it('reads a picked file in the worker as the window read its text: same preview, same study (the preview\'s table taken), same SHA-256', async () => {
+    const plainText = text('ridgeline-test.csv');
+    const bom = new Uint8Array([0xef, 0xbb, 0xbf, ...new TextEncoder().encode(plainText)]);
+    const twoBoms = new Uint8Array([0xef, 0xbb, 0xbf, ...bom]); // the text starts with U+FEFF, which the import drops
+    // A byte that is not UTF-8 (0xE9, Latin-1 "é") in a row label: read as U+FFFD both ways.
+    const latin1 = new TextEncoder().encode(plainText.replace('Retail', 'Retail\u0000'));
+    const at = latin1.indexOf(0);
+    expect(at).toBeGreaterThan(0);
+    latin1[at] = 0xe9;
+    let k = 0;
+    for (const bytes of [new TextEncoder().encode(plainText), bom, twoBoms, latin1]) {
+      const file = new Blob([bytes]);
+      const asText = await file.text(); // what the window used to read and post
+      for (const waited of [false, true]) {
+        const src = { file, id: `t${++k}`, fileName: 'ridgeline-test.csv' };
+        const want = api.previewTable({ text: asText, fileName: 'ridgeline-test.csv' }); // first: a preview drops the one before
+        expect(await api.previewFile(src)).toEqual(want);
+        // Accepted at once (the preview's table taken), or after the worker has prepared the study ahead meanwhile.
+        if (waited) await new Promise((r) => setTimeout(r, 50));
+        const loaded = await api.loadFile(src);
+        const flows = api.grid({ which: 'Z' });
+        const project = api.saveProject({ name: 'Test', scenarios: [], choices: ON, active: 0 });
+        expect(loaded).toEqual(api.loadTable({ text: asText, fileName: 'ridgeline-test.csv' }));
+        expect(flows).toEqual(api.grid({ which: 'Z' }));
+        expect(project).toBe(api.saveProject({ name: 'Test', scenarios: [], choices: ON, active: 0 }));
+        // The hash Web Crypto made is the SHA-256 of the UTF-8 of that text (node:crypto as the outside reference).
+        expect(project).toContain(createHash('sha256').update(new TextEncoder().encode(asText)).digest('hex'));
+      }
+    }
   });
 
   it('saves and reopens a project with the same results', () => {
