@@ -6,7 +6,13 @@
 import type { ChartConfiguration } from 'chart.js';
 import { PALETTE, SERIES } from './register.ts';
 import { fmtCompact } from '../format/number.ts';
-import type { BandView } from '../worker/protocol.ts';
+import type { BandColumns, BandView } from '../worker/protocol.ts';
+
+/** Band j of columns (null where it has none: NaN). */
+export function bandAt(c: BandColumns, j: number): BandView | null {
+  const point = c.point[j]!;
+  return Number.isNaN(point) ? null : { point, p5: c.p5[j]!, p50: c.p50[j]!, p95: c.p95[j]!, mean: c.mean[j]! };
+}
 
 export interface BandSeries {
   label: string;

@@ -330,6 +330,19 @@ export interface BandView {
   mean: number;
 }
 
+/**
+ * n bands as columns, NaN where a value has no band (not defined, or too few draws kept): the bands of every multiplier
+ * of every sector cross from the worker as a few typed arrays (a copy of bytes), not thousands of objects to rebuild
+ * and collect on the main thread. `bandAt` (renderer/charts/bands.ts) reads one back.
+ */
+export interface BandColumns {
+  point: Float64Array;
+  p5: Float64Array;
+  p50: Float64Array;
+  p95: Float64Array;
+  mean: Float64Array;
+}
+
 /** Monte Carlo bands as the panel shows them; null bands where a value is not defined or too few draws were kept. */
 export interface BandsView {
   target: 'multipliers' | 'scenario';
@@ -347,10 +360,10 @@ export interface BandsView {
   delta: { range: [number, number]; draws: number; drawn: [number, number] | null } | null;
   sectors: string[];
   notes: string[];
-  multipliers: { key: string; label: string; unit: string; values: (BandView | null)[] }[] | null;
+  multipliers: { key: string; label: string; unit: string; values: BandColumns }[] | null;
   totals: { variable: Variable; label: string; unit: string; band: BandView | null }[] | null;
-  sectorOutput: (BandView | null)[] | null;
-  sectorJobs: (BandView | null)[] | null;
+  sectorOutput: BandColumns | null;
+  sectorJobs: BandColumns | null;
   moneyUnit: string;
 }
 

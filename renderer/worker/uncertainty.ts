@@ -8,12 +8,25 @@ import {
   beginStudyBands, checkUncertaintySettings, defaultUncertaintySettings, flqOriginOf, MEASURES, readyLines, studySensitivity, utf8Bytes, VARIABLES,
   type BandsRun, type HowSure, type IOTable, type PointBand, type PreparedStudy, type UncertaintyResult,
 } from '../../src/study/index.ts';
-import type { BandSettings, BandView, BandsView, FlqInputs, ScenarioDraft, SensitivityView, StudyChoices } from './protocol.ts';
+import type { BandColumns, BandSettings, BandView, BandsView, FlqInputs, ScenarioDraft, SensitivityView, StudyChoices } from './protocol.ts';
 
 const VARIABLE_LABELS: Record<string, string> = { output: 'Output', valueAdded: 'Value added', income: 'Labour income', employment: 'Employment', taxes: 'Taxes' };
 
 function band(b: PointBand | null): BandView | null {
   return b ? { point: b.point, p5: b.p5, p50: b.p50, p95: b.p95, mean: b.mean } : null;
+}
+
+function columns(bands: readonly (PointBand | null)[]): BandColumns {
+  const n = bands.length;
+  const c: BandColumns = { point: new Float64Array(n), p5: new Float64Array(n), p50: new Float64Array(n), p95: new Float64Array(n), mean: new Float64Array(n) };
+  bands.forEach((b, j) => {
+    c.point[j] = b ? b.point : Number.NaN;
+    c.p5[j] = b ? b.p5 : Number.NaN;
+    c.p50[j] = b ? b.p50 : Number.NaN;
+    c.p95[j] = b ? b.p95 : Number.NaN;
+    c.mean[j] = b ? b.mean : Number.NaN;
+  });
+  return c;
 }
 
 export function bandsView(r: UncertaintyResult, target: BandsView['target'], moneyUnit: string): BandsView {
@@ -27,11 +40,11 @@ export function bandsView(r: UncertaintyResult, target: BandsView['target'], mon
     notes: r.notes,
     multipliers: r.multipliers ? r.multipliers.map((m) => {
       const measure = MEASURES.find((x) => x.key === m.key)!;
-      return { key: m.key, label: measure.label, unit: measure.unit(moneyUnit), values: m.values.map(band) };
+      return { key: m.key, label: measure.label, unit: measure.unit(moneyUnit), values: columns(m.values) };
     }) : null,
     totals: s ? VARIABLES.map((v) => ({ variable: v, label: VARIABLE_LABELS[v] ?? v, unit: v === 'employment' ? 'jobs' : moneyUnit, band: band(s.totals[v] ?? null) })) : null,
-    sectorOutput: s ? s.bySector.output.map(band) : null,
-    sectorJobs: s && s.bySector.employment ? s.bySector.employment.map(band) : null,
+    sectorOutput: s ? columns(s.bySector.output) : null,
+    sectorJobs: s && s.bySector.employment ? columns(s.bySector.employment) : null,
     moneyUnit,
   };
 }
