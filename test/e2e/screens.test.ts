@@ -51,6 +51,17 @@ describe.skipIf(skipBrowser)('screens', () => {
     expect(Math.abs(head!.x - body!.x)).toBeLessThan(1);
     await shot('multipliers-scrolled-sideways');
     await scroller.evaluate((el) => { el.scrollLeft = 0; });
+    // The filter keeps the rows whose sector name holds the text typed (the rows follow the key a frame later).
+    const sectors = importTable(SAMPLE_CSV, { fileName: SAMPLE_FILE_NAME }).sectors;
+    const want = sectors.filter((name) => name.toLowerCase().includes('ing'));
+    expect(want.length).toBeGreaterThan(1);
+    expect(want.length).toBeLessThan(16);
+    const filter = table.locator('input[type="search"]');
+    await filter.pressSequentially('ing');
+    await poll(() => table.locator('tbody tr:not(.pad) th').allTextContents()).toEqual(want);
+    expect(await table.textContent()).toContain(`${want.length} of 16 rows`);
+    await filter.fill('');
+    await poll(() => table.locator('tbody tr:not(.pad)').count()).toBe(16);
   });
 
   it('shows jobs per million dollars by default, per thousand on request, and names the unit', async () => {
