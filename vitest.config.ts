@@ -4,11 +4,27 @@ import { fileURLToPath } from 'node:url';
 const root = fileURLToPath(new URL('.', import.meta.url));
 
 /**
- * Three projects (`npm test` runs all; `--project NAME` one):
+ * Shell tests that each need a module graph of their own: they mock modules, fake timers or stub globals
+ * (fake-indexeddb/auto installs indexedDB), or drive the engine worker's code, whose study and inputs are module
+ * state one file's tests build on.
+ */
+const SHELL_ISOLATED = [
+  'test/main/index.test.ts', 'test/main/preload.test.ts',
+  'test/renderer/client.test.ts', 'test/renderer/recompute.test.ts', 'test/renderer/bridge/browser.test.ts',
+  'test/renderer/bridge/recovery-slots.test.ts',
+  'test/renderer/bridges.test.ts', 'test/renderer/compute.test.ts', 'test/renderer/deliverables.test.ts',
+  'test/renderer/hardening-edges.test.ts', 'test/renderer/how-sure.test.ts', 'test/renderer/regional.test.ts',
+  'test/renderer/study-content.test.ts', 'test/renderer/supply-use.test.ts',
+];
+
+/**
+ * Four projects (`npm test` runs all; `--project NAME` one):
  * - engine: test/src, pure functions and in-process CLI runs, in one module graph (`isolate: false`): loading the
  *   engine once instead of once per file is most of the saving. Safe because these tests leave no module state behind
  *   (kernel mode and helper threads are restored in afterAll; nothing is mocked).
- * - shell: test/main and test/renderer, isolated per file: they mock `electron`, fake timers and browser globals.
+ * - shell: test/main and test/renderer in one module graph (`isolate: false`, as engine): the shell's modules
+ *   without Electron, formats, history, recovery copies; none changes a global or a module's state for later files.
+ * - shell-isolated: the rest of test/main and test/renderer (SHELL_ISOLATED), a module graph per file.
  * - e2e: real Chromium against the built renderer (Vite build + preview server, started once in
  *   test/e2e/global-setup.ts). Files are not isolated (`isolate: false`): a worker loads Playwright and the engine
  *   once, and launches one Chromium that serves every file it runs (test/e2e/harness.ts); each file has its own
@@ -34,6 +50,17 @@ export default defineConfig({
           name: 'shell',
           root,
           include: ['test/main/**/*.test.ts', 'test/renderer/**/*.test.ts'],
+          exclude: SHELL_ISOLATED,
+          environment: 'node',
+          testTimeout: 30_000,
+          isolate: false,
+        },
+      },
+      {
+        test: {
+          name: 'shell-isolated',
+          root,
+          include: SHELL_ISOLATED,
           environment: 'node',
           testTimeout: 30_000,
         },
