@@ -67,3 +67,12 @@ export async function inventedFile(n: number): Promise<{ file: string; dir: stri
   }
   return { file, dir };
 }
+
+/** On the app as loaded: choose `file` on the Import screen, accept it, and wait until its n sectors are the table in use. */
+export async function useTableFile(page: Page, file: string, n: number): Promise<void> {
+  await page.click('[data-screen="import"]');
+  await page.getByTestId('file-input').setInputFiles(file);
+  await page.locator('[data-testid="accept-import"]:not([disabled])').waitFor();
+  await page.getByTestId('accept-import').click();
+  await page.waitForFunction((s) => document.querySelector('[data-testid="table-name"]')?.textContent?.includes(s) && !document.querySelector('[data-testid="progress"]'), `${n.toLocaleString('en-US')} sectors`);
+}

@@ -12,7 +12,7 @@ import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
-import { inventedFile, startBenchApp } from './browser.ts';
+import { inventedFile, startBenchApp, useTableFile } from './browser.ts';
 import { CHROMIUM } from '../e2e/harness.ts';
 
 
@@ -40,11 +40,7 @@ export async function drawingApp(file: string, n: number, draws: number): Promis
     const page = await app.newPage(300_000);
     await page.goto(app.url);
     await page.getByTestId('verdict').waitFor();
-    await page.click('[data-screen="import"]');
-    await page.getByTestId('file-input').setInputFiles(file);
-    await page.locator('[data-testid="accept-import"]:not([disabled])').waitFor();
-    await page.getByTestId('accept-import').click();
-    await page.waitForFunction((s) => document.querySelector('[data-testid="table-name"]')?.textContent?.includes(s) && !document.querySelector('[data-testid="progress"]'), `${n.toLocaleString('en-US')} sectors`);
+    await useTableFile(page, file, n);
     await page.click('[data-screen="multipliers"]');
     await page.locator('[data-testid="multiplier-table"] tbody tr').first().waitFor();
     const filter = page.locator('[data-testid="multiplier-table"] input[type="search"]').first();

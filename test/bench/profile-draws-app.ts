@@ -15,7 +15,7 @@ import { join } from 'node:path';
 import { build, preview } from 'vite';
 import { chromium } from 'playwright-core';
 import { CHROMIUM, CHROMIUM_ARGS, REPO } from '../e2e/harness.ts';
-import { inventedFile } from './browser.ts';
+import { inventedFile, useTableFile } from './browser.ts';
 
 interface TraceEvent { name: string; ph: string; pid: number; tid: number; ts: number; dur?: number; args?: { name?: string } }
 
@@ -37,11 +37,7 @@ try {
   });
   await page.goto(server.resolvedUrls!.local[0]!);
   await page.getByTestId('verdict').waitFor();
-  await page.click('[data-screen="import"]');
-  await page.getByTestId('file-input').setInputFiles(file);
-  await page.locator('[data-testid="accept-import"]:not([disabled])').waitFor();
-  await page.getByTestId('accept-import').click();
-  await page.waitForFunction((s) => document.querySelector('[data-testid="table-name"]')?.textContent?.includes(s) && !document.querySelector('[data-testid="progress"]'), `${n.toLocaleString('en-US')} sectors`);
+  await useTableFile(page, file, n);
   await page.click(`[data-screen="${process.env.SCREEN ?? 'multipliers'}"]`);
   const panel = page.getByTestId('how-sure');
   await panel.getByTestId('band-draws').fill(String(draws));
