@@ -126,7 +126,10 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await poll(() => page.getByTestId('balance').textContent()).toMatch(/^(?!.*[1-9]\.\d\d\s?%)/s);
     await page.getByTestId('accept-import').click();
     await poll(() => page.getByTestId('table-name').textContent()).toMatch(/ridgeline-test/);
-    // Ctrl+O asks for a file too (through the bridge); dismissing the preview changes nothing.
+    // Ctrl+O asks for a file too (through the bridge); dismissing the preview changes nothing. The key goes to the
+    // page in front once the import's work has ended (a file chooser needs the page's user activation).
+    await poll(() => page.getByTestId('progress').count()).toBe(0);
+    await page.bringToFront();
     const chooser = page.waitForEvent('filechooser');
     await page.keyboard.press('Control+o');
     await (await chooser).setFiles(TEST_CSV);
