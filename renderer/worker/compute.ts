@@ -163,13 +163,14 @@ function loadTable(src: TextSource): Loaded {
   return load(studyOfBytes(utf8Bytes(src.text), src));
 }
 
-function previewOf(text: string, src: TableSource): PreviewView {
-  return previewView(enginePreview(text, { fileName: src.fileName, ...importSettings(src) }), src);
+/** The engine's preview of a table file's text under the source's settings. */
+function readPreview(text: string, src: TableSource): ReturnType<typeof enginePreview> {
+  return enginePreview(text, { fileName: src.fileName, ...importSettings(src) });
 }
 
 function previewTable(src: TextSource): PreviewView {
   dropPreview({});
-  return previewOf(src.text, src);
+  return previewView(readPreview(src.text, src), src);
 }
 
 /**
@@ -218,7 +219,7 @@ const settingsKey = (src: TableSource) => JSON.stringify([src.fileName, importSe
 async function previewFile(src: FileSource): Promise<PreviewView> {
   const f = await readFile(src);
   dropPreview({});
-  const p = enginePreview(f.text, { fileName: src.fileName, ...importSettings(src) });
+  const p = readPreview(f.text, src);
   if (p.table && f.text.charCodeAt(0) !== 0xfeff) {
     const preview: PreviewRead = { id: src.id, settings: settingsKey(src), table: p.table };
     lastPreview = preview;
