@@ -8,13 +8,15 @@
  */
 import type { Browser, Page } from 'playwright-core';
 
-interface TraceEvent { name: string; ph: string; pid: number; tid: number; ts: number; dur?: number; tdur?: number; args?: { name?: string } }
+interface TraceEvent { name: string; ph: string; pid: number; tid: number; ts: number; dur?: number; tdur?: number; args?: { name?: string; beginData?: Record<string, unknown> } }
 
 export interface PageProfile {
   /** The long tasks, one line per main-thread task over 25 ms, then one block per task over 50 ms. */
   report: string[];
   /** The CPU profile (opens in Chromium's DevTools as a .cpuprofile file). */
   profile: unknown;
+  /** The trace's events (opens in Chromium's DevTools performance panel as `{ "traceEvents": … }`). */
+  trace: unknown[];
   /** Long tasks (Long Tasks API) in the profiled window, start relative to its beginning. */
   long: { startMs: number; durationMs: number }[];
   wallMs: number;
@@ -79,5 +81,5 @@ export async function profilePage(browser: Browser, page: Page, act: () => Promi
     const top = (m: Map<string, number>, k: number) => [...m].sort((p, q) => q[1] - p[1]).slice(0, k).map(([f, v]) => `  ${v.toFixed(1).padStart(6)} ms  ${f}`).join('\n');
     report.push(`\ntask ${(t.dur! / 1000).toFixed(1)} ms at +${pageMs(t.ts).toFixed(0)}\n self:\n${top(self, 12)}\n inclusive:\n${top(incl, 40)}`);
   }
-  return { report, profile, long: long.map((t) => ({ startMs: t.start - t0, durationMs: t.duration })), wallMs: t1 - t0 };
+  return { report, profile, trace: events, long: long.map((t) => ({ startMs: t.start - t0, durationMs: t.duration })), wallMs: t1 - t0 };
 }

@@ -3,7 +3,8 @@
  * goes): the flow of draws-app.ts on an unminified production build (MINIFY=1: minified), profiled and traced from
  * Compute to the bands on screen (page-profile.ts: every main-thread task over 25 ms by trace event, each long task by
  * function). TYPE=1 also types into the multiplier table's filter meanwhile, as draws-app.ts does; SCREEN=scenarios
- * draws a scenario instead. The profile is kept in bench-results/draws-app-N.cpuprofile (opens in Chromium's DevTools).
+ * draws a scenario instead. The profile and the trace are kept in bench-results/draws-app-N.cpuprofile and
+ * .trace.json (both open in Chromium's DevTools).
  *
  * Run alone: `npx tsx test/bench/profile-draws-app.ts [n] [draws]`.
  */
@@ -40,6 +41,7 @@ try {
     await page.waitForTimeout(500);
   });
   writeFileSync(join(dir, `draws-app-${n}.cpuprofile`), JSON.stringify(r.profile));
+  writeFileSync(join(dir, `draws-app-${n}.trace.json`), JSON.stringify({ traceEvents: r.trace }));
   console.log(`${draws} draws at n=${n}: ${r.report.join('\n')}`);
 } finally {
   await app.close();

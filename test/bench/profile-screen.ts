@@ -4,7 +4,8 @@
  * and accepted, the screens of BEFORE visited (comma-separated, default `overview,multipliers`, as app-screens.ts
  * visits them before its first visit to the Scenarios screen), then the click on `screen` profiled and traced until
  * `ready` is on screen and SETTLE_MS (default 1000) more (page-profile.ts: every main-thread task over 25 ms by trace
- * event, each long task by function). The first visit's profile is kept in bench-results/screen-SCREEN-N.cpuprofile.
+ * event, each long task by function). The first visit's profile and trace are kept in bench-results/screen-SCREEN-N.cpuprofile and
+ * .trace.json (both open in Chromium's DevTools).
  * REVISITS=k: then k more visits, each from the Overview; CPU=0: the trace alone (the sampling profiler adds to
  * the script's time).
  *
@@ -44,7 +45,10 @@ try {
       await page.locator(ready).first().waitFor();
       await page.waitForTimeout(Number(process.env.SETTLE_MS ?? 1000));
     }, { cpu });
-    if (cpu && visit === 0) writeFileSync(join(dir, `screen-${screen}-${n}.cpuprofile`), JSON.stringify(r.profile));
+    if (visit === 0) {
+      if (cpu) writeFileSync(join(dir, `screen-${screen}-${n}.cpuprofile`), JSON.stringify(r.profile));
+      writeFileSync(join(dir, `screen-${screen}-${n}.trace.json`), JSON.stringify({ traceEvents: r.trace }));
+    }
     console.log(`${screen} screen at n=${n}, ${visit ? `revisit ${visit}` : 'first visit'}: ${r.report.join('\n')}`);
   }
 } finally {
