@@ -10,11 +10,13 @@ export function afterPaint(fn: () => void): void {
 }
 
 /**
- * A flag that turns true after the first paint following the calling component's mount: the parts of a large screen
- * shown behind it are mounted in a task of their own, so the screen's first render is two shorter tasks, not one long.
+ * A flag that turns true after the `paints`-th paint following the calling component's mount: the parts of a large
+ * screen shown behind it are mounted in a task of their own, so the screen's first render is several short tasks
+ * instead of one long one.
  */
-export function shownAfterPaint(): Ref<boolean> {
+export function shownAfterPaint(paints = 1): Ref<boolean> {
   const shown = ref(false);
-  onMounted(() => afterPaint(() => { shown.value = true; }));
+  const wait = (left: number): void => afterPaint(() => { if (left > 1) wait(left - 1); else shown.value = true; });
+  onMounted(() => wait(paints));
   return shown;
 }
