@@ -125,7 +125,8 @@ export const analyze = defineCommand({
     collectImportGarbage(study.source?.bytes ?? 0);
     if (values.tolerance !== undefined) study.settings.rounds.tolerance = values.tolerance;
     const settings = uncertaintySettingsOf(values, ctx);
-    const ps = await prepare(study, { inverse: values.out !== undefined || values.xlsx !== undefined });
+    // The draws perturb the flows; nothing else of this command reads them after the coefficients.
+    const ps = await prepare(study, { inverse: values.out !== undefined || values.xlsx !== undefined, flowsDone: settings === null });
     for (const w of ps.analysis.warnings) ctx.warn(formatLocated(w));
     const bands = settings ? await bandsOf(ps, { settings, multipliers: true, scenarios: [] }) : null;
     return {

@@ -205,7 +205,9 @@ export const scenario = defineCommand({
     if (flq && !values.sensitivity && !(drawn && flq.rangeGiven)) throw ctx.usageError('--flq-national needs --sensitivity, or --draws with --delta-range');
     // δ is drawn only when a range is given with --draws.
     const settings = drawn && flq?.rangeGiven ? { ...drawn, deltaRange: flq.range } : drawn;
-    const ps = await prepare(study, { spectrum: false });
+    // The flows are read again only by draws, the sensitivity's re-estimates and a project saved from the numbers.
+    const flowsDone = settings === null && !values.sensitivity && flq === null && values.project === undefined;
+    const ps = await prepare(study, { spectrum: false, flowsDone });
     const outcome = runStudyScenario(ps, scenario, { paths: destination });
     const bands = settings ? await bandsOf(ps, { settings, multipliers: false, scenarios: [scenario] }, flq?.origin ?? null) : null;
     const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step'], {
