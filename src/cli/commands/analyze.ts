@@ -91,7 +91,18 @@ export async function withHelperThreads<T>(sectors: number, work: () => T, minSe
 
 /** The engine part of the command: the prepared study (helper threads for large tables). */
 export async function prepare(study: Study, opts: PrepareOptions = {}): Promise<PreparedStudy> {
-  return withHelperThreads(study.table.n, () => prepareStudy(study, opts), FACTOR_PARALLEL_MIN_SECTORS);
+  return (await prepareAnd(study, opts, () => null)).ps;
+}
+
+/**
+ * The prepared study and `use` of it while the helper threads of a large table are still there, so the solves of `use`
+ * (a scenario's blocked path solve, say) share their updates with them too.
+ */
+export async function prepareAnd<T>(study: Study, opts: PrepareOptions, use: (ps: PreparedStudy) => T): Promise<{ ps: PreparedStudy; result: T }> {
+  return withHelperThreads(study.table.n, () => {
+    const ps = prepareStudy(study, opts);
+    return { ps, result: use(ps) };
+  }, FACTOR_PARALLEL_MIN_SECTORS);
 }
 
 /**

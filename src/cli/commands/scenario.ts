@@ -16,7 +16,7 @@ import {
   bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand, type RunContext } from '../command.ts';
-import { prepare, startHelpersFor } from './analyze.ts';
+import { prepareAnd, startHelpersFor } from './analyze.ts';
 import { collectImportGarbage } from '../memory.ts';
 import { bandsOf, flqOf, scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
@@ -207,8 +207,7 @@ export const scenario = defineCommand({
     const settings = drawn && flq?.rangeGiven ? { ...drawn, deltaRange: flq.range } : drawn;
     // The flows are read again only by draws, the sensitivity's re-estimates and a project saved from the numbers.
     const flowsDone = settings === null && !values.sensitivity && flq === null && values.project === undefined;
-    const ps = await prepare(study, { spectrum: false, flowsDone });
-    const outcome = runStudyScenario(ps, scenario, { paths: destination });
+    const { ps, result: outcome } = await prepareAnd(study, { spectrum: false, flowsDone }, (p) => runStudyScenario(p, scenario, { paths: destination }));
     const bands = settings ? await bandsOf(ps, { settings, multipliers: false, scenarios: [scenario] }, flq?.origin ?? null) : null;
     const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step'], {
       ...(values['margin-step'] !== undefined ? { marginStep: values['margin-step'] } : {}),
