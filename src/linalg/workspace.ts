@@ -60,6 +60,7 @@ export function factorStorage(elements: number): FactorStorage | null {
     pinned = { kernel: shared, end: bytes };
     const view = new Float64Array(shared.memory.buffer, 0, elements);
     view.fill(0);
+    sharedHomes.set(view, shared);
     return { view, kernel: shared };
   }
   if (spare !== null && spare.view.length === elements) {
@@ -87,6 +88,40 @@ const owners = new WeakMap<Float64Array, WasmKernel>();
 export function releaseFactorStorage(view: Float64Array): void {
   const kernel = owners.get(view);
   if (kernel !== undefined) spare = { view, kernel };
+}
+
+/** Factors kept at the start of the helpers' shared memory, and that memory's kernel (it outlives the helpers). */
+const sharedHomes = new WeakMap<Float64Array, WasmKernel>();
+
+/**
+ * Run `work` on factors `lu` where they are kept, with zero-filled buffers of the given lengths placed after them in
+ * the same memory, so a solve with many right-hand sides reads the factors in place instead of copying them into a
+ * workspace (at 2,000 sectors a 32 MB copy into fresh, page-faulting memory). Only factors kept in the helpers' shared
+ * memory qualify: it grows without moving or detaching them. Returns null, having done nothing, otherwise (the caller
+ * copies the factors into a workspace) — and while helpers of another memory are attached, whose split updates would
+ * address that memory.
+ */
+export function withKeptFactors<T>(lu: Float64Array, lengths: readonly number[], work: (lu: Float64Array, bufs: Float64Array[]) => T): T | null {
+  const kernel = sharedHomes.get(lu);
+  if (kernel === undefined || busy || kernelMode() === 'js') return null;
+  const attached = sharedKernel();
+  if (attached !== null && attached !== kernel) return null;
+  let at = aligned(lu.byteOffset + 8 * lu.length);
+  let bytes = at;
+  for (const l of lengths) bytes += aligned(8 * l);
+  if (grown(kernel, bytes) === null) return null;
+  // Views of the memory as it is now: the kernel works only on views of its current buffer (gemm.ts), and growing a
+  // shared memory gives it a new buffer object over the same bytes.
+  const buffer = kernel.memory.buffer;
+  const factors = new Float64Array(buffer, lu.byteOffset, lu.length);
+  const bufs: Float64Array[] = [];
+  for (const l of lengths) {
+    const view = new Float64Array(buffer, at, l);
+    view.fill(0);
+    bufs.push(view);
+    at += aligned(8 * l);
+  }
+  return withKernel(kernel, () => work(factors, bufs));
 }
 
 /** Run `work` with `kernel` as the active Wasm kernel (the previous one restored after). */

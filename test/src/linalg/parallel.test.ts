@@ -5,6 +5,8 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { luFactor, luInverse, luSolveMany } from '../../../src/linalg/index.ts';
 import { luFactorReference, luInverseReference } from '../../../src/linalg/lu-reference.ts';
 import { splitJobCount, sharedKernel } from '../../../src/linalg/parallel.ts';
+import { withKeptFactors } from '../../../src/linalg/workspace.ts';
+import type { LU } from '../../../src/linalg/index.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../../src/cli/index.ts';
 import { randomMatrix } from '../../support/random.ts';
 
@@ -15,6 +17,9 @@ const single = (() => {
   const f = luFactor(a, N);
   return { f, inv: luInverse(f), many: luSolveMany(f, b, 9) };
 })();
+
+/** A factorisation made while the helpers were attached: kept at the start of their shared memory. */
+let kept: LU | null = null;
 
 describe('kernels with a helper thread', () => {
   beforeAll(async () => {
@@ -28,6 +33,7 @@ describe('kernels with a helper thread', () => {
     const f = luFactor(a, N);
     const inv = luInverse(f);
     const many = luSolveMany(f, b, 9);
+    kept = f;
     expect(splitJobCount()).toBeGreaterThan(before);
     expect(sharedKernel()).not.toBeNull();
     expect(Array.from(f.piv)).toEqual(Array.from(single.f.piv));
@@ -54,5 +60,21 @@ describe('after the helpers stop', () => {
     const before = splitJobCount();
     expect(Array.from(luInverse(luFactor(a, N)))).toEqual(Array.from(single.inv));
     expect(splitJobCount()).toBe(before);
+  });
+
+  it('solves against factors kept in the shared memory where they are, after it grew, with the same results', () => {
+    const f = kept!;
+    expect(f.lu.buffer).toBeInstanceOf(SharedArrayBuffer);
+    const seen = withKeptFactors(f.lu, [N * N * 4], (lu, [x]) => {
+      // The factors in place (same bytes, a view of the grown memory), the workspace after them.
+      expect(lu.buffer).toBe(x!.buffer);
+      expect(lu.byteOffset).toBe(f.lu.byteOffset);
+      expect(x!.byteOffset).toBeGreaterThanOrEqual(f.lu.byteOffset + 8 * N * N);
+      return Array.from(lu);
+    });
+    expect(seen).toEqual(Array.from(single.f.lu));
+    expect(Array.from(luSolveMany(f, b, 9))).toEqual(Array.from(single.many));
+    // Factors elsewhere are not taken: the caller copies them into a workspace.
+    expect(withKeptFactors(single.f.lu, [9], () => true)).toBeNull();
   });
 });
