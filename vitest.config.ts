@@ -5,16 +5,12 @@ const root = fileURLToPath(new URL('.', import.meta.url));
 
 /**
  * Shell tests that each need a module graph of their own: they mock modules, fake timers or stub globals
- * (fake-indexeddb/auto installs indexedDB), or drive the engine worker's code, whose study and inputs are module
- * state one file's tests build on.
+ * (fake-indexeddb/auto installs indexedDB).
  */
 const SHELL_ISOLATED = [
   'test/main/index.test.ts', 'test/main/preload.test.ts',
   'test/renderer/client.test.ts', 'test/renderer/recompute.test.ts', 'test/renderer/bridge/browser.test.ts',
   'test/renderer/bridge/recovery-slots.test.ts',
-  'test/renderer/bridges.test.ts', 'test/renderer/compute.test.ts', 'test/renderer/deliverables.test.ts',
-  'test/renderer/hardening-edges.test.ts', 'test/renderer/how-sure.test.ts', 'test/renderer/regional.test.ts',
-  'test/renderer/study-content.test.ts', 'test/renderer/supply-use.test.ts',
 ];
 
 /**
@@ -23,7 +19,8 @@ const SHELL_ISOLATED = [
  *   engine once instead of once per file is most of the saving. Safe because these tests leave no module state behind
  *   (kernel mode and helper threads are restored in afterAll; nothing is mocked).
  * - shell: test/main and test/renderer in one module graph (`isolate: false`, as engine): the shell's modules
- *   without Electron, formats, history, recovery copies; none changes a global or a module's state for later files.
+ *   without Electron, formats, history, recovery copies, and the engine worker's code, whose study (module state) is
+ *   reset before each file (test/renderer/worker-reset.ts); no file changes a global or other module state.
  * - shell-isolated: the rest of test/main and test/renderer (SHELL_ISOLATED), a module graph per file.
  * - e2e: real Chromium against the built renderer (Vite build + preview server, started once in
  *   test/e2e/global-setup.ts). Files are not isolated (`isolate: false`): a worker loads Playwright and the engine
@@ -51,6 +48,7 @@ export default defineConfig({
           root,
           include: ['test/main/**/*.test.ts', 'test/renderer/**/*.test.ts'],
           exclude: SHELL_ISOLATED,
+          setupFiles: ['test/renderer/worker-reset.ts'],
           environment: 'node',
           testTimeout: 30_000,
           isolate: false,

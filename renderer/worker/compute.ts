@@ -422,6 +422,16 @@ function spread(args: { mix: SpendingMix; amount: number; localShare: number }):
   return spreadMix(args.mix, args.amount, { localShare: args.localShare });
 }
 
+/**
+ * The worker as it starts: no study, no file read, no preview. The shell tests drive this module in one module graph
+ * (vitest.config.ts) and call it before each file, so no file sees another's table.
+ */
+export function resetWorker(): void {
+  state = null;
+  lastFile = null;
+  dropPreview({});
+}
+
 export const api = {
   loadSample(_: Record<string, never>): Loaded & { source: TableSource; note: string } {
     const source: TextSource = { text: SAMPLE_CSV, fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' };

@@ -13,7 +13,7 @@
  * transposed solve (I − A)ᵀ mᵀ = cᵀ. `luInverse` is for when the user asks to see or export the whole matrix.
  */
 import { gemmSubtract } from './gemm.ts';
-import { factorStorage, releaseFactorStorage, withKernel, withWorkspace } from './workspace.ts';
+import { factorStorage, releaseFactorStorage, withKeptFactors, withKernel, withWorkspace } from './workspace.ts';
 
 export interface LU {
   n: number;
@@ -329,12 +329,16 @@ function solveUpper(lu: Float64Array, n: number, r0: number, r1: number, x: Floa
 export function luSolveMany(f: LU, b: Float64Array, m: number): Float64Array {
   assertSolvable(f);
   const { n, piv } = f;
-  return withWorkspace([n * n, n * m], ([lu, x]) => {
+  const solve = (lu: Float64Array, x: Float64Array): Float64Array => {
+    for (let i = 0; i < n; i++) x.set(b.subarray(piv[i]! * m, piv[i]! * m + m), i * m);
+    solveUnitLower(lu, n, 0, n, x, m, 0, m);
+    solveUpper(lu, n, 0, n, x, m, 0, m);
+    return x.slice();
+  };
+  // Factors kept in the kernel's memory are solved against where they are; others are copied into a workspace.
+  return withKeptFactors(f.lu, [n * m], (lu, [x]) => solve(lu, x!)) ?? withWorkspace([n * n, n * m], ([lu, x]) => {
     lu!.set(f.lu);
-    for (let i = 0; i < n; i++) x!.set(b.subarray(piv[i]! * m, piv[i]! * m + m), i * m);
-    solveUnitLower(lu!, n, 0, n, x!, m, 0, m);
-    solveUpper(lu!, n, 0, n, x!, m, 0, m);
-    return x!.slice();
+    return solve(lu!, x!);
   });
 }
 

@@ -84,6 +84,29 @@ export function coefficients(t: IOTable, given?: Float64Array): Coefficients {
   };
 }
 
+/**
+ * `coefficients(t)` computed in the table's own flow buffer, for a caller that never needs the flows again (a CLI run
+ * that saves no project and draws nothing): A = Z·diag(x)⁻¹ by the same divisions, entry by entry where Z was, so a
+ * large run holds one n×n matrix instead of two and touches 32 MB less fresh memory at 2,000 sectors. The table is
+ * left without flows: reading `t.Z` afterwards throws, so a use nobody foresaw fails loudly instead of reading A.
+ */
+export function coefficientsOverFlows(t: IOTable): Coefficients {
+  const { n, Z, x } = t;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      const xj = x[j]!;
+      Z[i * n + j] = xj > 0 ? Z[i * n + j]! / xj : 0;
+    }
+  }
+  const coef = coefficients(t, Z);
+  Object.defineProperty(t, 'Z', {
+    get: () => { throw new Error('the table\'s flows were turned into its coefficients (coefficientsOverFlows); nothing may read them afterwards'); },
+    enumerable: true,
+    configurable: true,
+  });
+  return coef;
+}
+
 /** Value added per unit of output: labour income + other value added + taxes less subsidies (when the table has them). */
 export function valueAddedPerUnit(c: Coefficients): Float64Array {
   const va = new Float64Array(c.n);

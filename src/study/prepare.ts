@@ -3,7 +3,7 @@
  * scenarios may use. Every result of the study (multipliers, scenarios, rounds, paths, reports) is computed from
  * this, so the CLI and the app cannot assemble the pipeline differently.
  */
-import { analyzePrepared, coefficients, modelsForClosure, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
+import { analyzePrepared, coefficients, coefficientsOverFlows, modelsForClosure, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
 import { residentShares } from '../scenario/index.ts';
 import { verdictOf, type Verdict } from '../report/index.ts';
 import type { Study } from './study.ts';
@@ -24,6 +24,11 @@ export interface PrepareOptions {
   spectrum?: AnalysisOptions['spectrum'];
   /** Form the explicit Leontief inverse now (reports of it form it on demand otherwise). */
   inverse?: boolean;
+  /**
+   * Nothing will read the table's flows again (no project saved from the table's numbers, no draws, no estimate to
+   * re-run): the coefficients take the flows' place (`coefficientsOverFlows`), one n×n matrix fewer.
+   */
+  flowsDone?: boolean;
 }
 
 /**
@@ -32,7 +37,8 @@ export interface PrepareOptions {
  */
 export function prepareStudy(study: Study, opts: PrepareOptions = {}): PreparedStudy {
   const residentShare = residentShares(study.commuting, study.table.sectors);
-  const pm = prepareModel(study.table, coefficients(study.table), residentShare ? { residentShare } : {});
+  const coef = opts.flowsDone ? coefficientsOverFlows(study.table) : coefficients(study.table);
+  const pm = prepareModel(study.table, coef, residentShare ? { residentShare } : {});
   const analysis = analyzePrepared(pm, {
     tolerance: study.settings.rounds.tolerance,
     ...(opts.spectrum !== undefined ? { spectrum: opts.spectrum } : {}),

@@ -144,30 +144,44 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
   const at = (r: number, c: number, rowLabel: string, columnLabel: string): Location => ({ file: fileName, line: grid.line(r), column: c + 1, rowLabel, columnLabel });
   const sectors = cl.sectors;
   const Z = new Float64Array(n * n);
-  // Each record's numbers in one pass (grid.plainRow); a cell that is not a plain number goes through readCell.
+  // Each record's numbers in one pass (grid.plainRow); a cell that is not a plain number, or a negative flow, goes
+  // through the functions below. No closure in the loops captures a loop variable: V8 would then allocate a context
+  // per cell (about 300 MB of short-lived garbage at 2,000 sectors) whether or not the closure is ever made.
   const values = new Float64Array(W);
+  const flowCell = (i: number, j: number): number => {
+    const r = sectorRow[i]!, c = sectorCol[j]!;
+    const where = (): Location => at(r, c, sectors[i]!, sectors[j]!);
+    let v = values[c]!;
+    if (v !== v) v = readCell(grid, r, c, dc, mark, true, where);
+    if (v < 0 && !allowNegative) throw negativeFlow(v, where());
+    return v;
+  };
+  const columnCell = (i: number, k: number): number => {
+    const r = sectorRow[i]!, { c, col } = extraCols[k]!;
+    return readCell(grid, r, c, dc, mark, false, () => at(r, c, sectors[i]!, col.label));
+  };
+  const rowCell = (k: number, j: number): number => {
+    const { r, row } = extraRows[k]!, c = sectorCol[j]!;
+    return readCell(grid, r, c, dc, mark, false, () => at(r, c, row.label, sectors[j]!));
+  };
   for (let i = 0; i < n; i++) {
-    const r = sectorRow[i]!;
-    grid.plainRow(r, dc, values);
+    grid.plainRow(sectorRow[i]!, dc, values);
     const base = i * n;
     for (let j = 0; j < n; j++) {
-      const c = sectorCol[j]!;
-      let v = values[c]!;
-      if (v !== v) v = readCell(grid, r, c, dc, mark, true, () => at(r, c, sectors[i]!, sectors[j]!));
-      if (v < 0 && !allowNegative) throw negativeFlow(v, at(r, c, sectors[i]!, sectors[j]!));
-      Z[base + j] = v;
+      const v = values[sectorCol[j]!]!;
+      Z[base + j] = v === v && (v >= 0 || allowNegative) ? v : flowCell(i, j);
     }
-    for (const { c, col } of extraCols) {
-      const v = values[c]!;
-      col.values[i] = v === v ? v : readCell(grid, r, c, dc, mark, false, () => at(r, c, sectors[i]!, col.label));
+    for (let k = 0; k < extraCols.length; k++) {
+      const v = values[extraCols[k]!.c]!;
+      extraCols[k]!.col.values[i] = v === v ? v : columnCell(i, k);
     }
   }
-  for (const { r, row } of extraRows) {
-    grid.plainRow(r, dc, values);
+  for (let k = 0; k < extraRows.length; k++) {
+    grid.plainRow(extraRows[k]!.r, dc, values);
+    const out = extraRows[k]!.row.values;
     for (let j = 0; j < n; j++) {
-      const c = sectorCol[j]!;
-      const v = values[c]!;
-      row.values[j] = v === v ? v : readCell(grid, r, c, dc, mark, false, () => at(r, c, row.label, sectors[j]!));
+      const v = values[sectorCol[j]!]!;
+      out[j] = v === v ? v : rowCell(k, j);
     }
   }
   // Labour income paid by final-demand columns (government wages): household income too (finish.ts).

@@ -91,7 +91,18 @@ export async function withHelperThreads<T>(sectors: number, work: () => T, minSe
 
 /** The engine part of the command: the prepared study (helper threads for large tables). */
 export async function prepare(study: Study, opts: PrepareOptions = {}): Promise<PreparedStudy> {
-  return withHelperThreads(study.table.n, () => prepareStudy(study, opts), FACTOR_PARALLEL_MIN_SECTORS);
+  return (await prepareAnd(study, opts, () => null)).ps;
+}
+
+/**
+ * The prepared study and `use` of it while the helper threads of a large table are still there, so the solves of `use`
+ * (a scenario's blocked path solve, say) share their updates with them too.
+ */
+export async function prepareAnd<T>(study: Study, opts: PrepareOptions, use: (ps: PreparedStudy) => T): Promise<{ ps: PreparedStudy; result: T }> {
+  return withHelperThreads(study.table.n, () => {
+    const ps = prepareStudy(study, opts);
+    return { ps, result: use(ps) };
+  }, FACTOR_PARALLEL_MIN_SECTORS);
 }
 
 /**
@@ -125,7 +136,8 @@ export const analyze = defineCommand({
     collectImportGarbage(study.source?.bytes ?? 0);
     if (values.tolerance !== undefined) study.settings.rounds.tolerance = values.tolerance;
     const settings = uncertaintySettingsOf(values, ctx);
-    const ps = await prepare(study, { inverse: values.out !== undefined || values.xlsx !== undefined });
+    // The draws perturb the flows; nothing else of this command reads them after the coefficients.
+    const ps = await prepare(study, { inverse: values.out !== undefined || values.xlsx !== undefined, flowsDone: settings === null });
     for (const w of ps.analysis.warnings) ctx.warn(formatLocated(w));
     const bands = settings ? await bandsOf(ps, { settings, multipliers: true, scenarios: [] }) : null;
     return {

@@ -12,11 +12,11 @@ import {
   CAUTIONS, checkStudyInputs, modelTypeOf, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile,
   tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, mixesFromFile, parseActivityCsv,
   parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
-  type Closure, type EffectTotals, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult, type Variable,
+  type Closure, type EffectTotals, type Scenario, type Study, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult, type Variable,
   bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studySensitivity,
 } from '../../study/index.ts';
-import { defineCommand } from '../command.ts';
-import { prepare, startHelpersFor } from './analyze.ts';
+import { defineCommand, type RunContext } from '../command.ts';
+import { prepareAnd, startHelpersFor } from './analyze.ts';
 import { collectImportGarbage } from '../memory.ts';
 import { bandsOf, flqOf, scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
@@ -123,6 +123,20 @@ function refuseToOverwriteForeign(path: string): void {
 
 const share = (v: number) => (v >= 0 && v <= 1 ? null : 'must be a share from 0 to 1');
 
+/**
+ * The table file's study and the shock, read in this order. The study keeps the file's bytes only when `--project`
+ * saves them: otherwise the collection after the import (memory.ts) frees them with the decoded text (21 MB each at
+ * 2,000 sectors off the peak). Read here, not in `run`, so no variable of `run` still holds them.
+ */
+function studyAndShock(ctx: RunContext, input: string, values: { map: string | undefined; shock: string; project: string | undefined } & Parameters<typeof tableDialect>[0]): { study: Study; shock: Scenario } {
+  const tableFile = ctx.input(input);
+  startHelpersFor(tableFile.bytes.length);
+  const roles = ctx.roleMap(values.map);
+  const shock = parseShockCsv(ctx.input(values.shock).text, values.shock);
+  const study = studyFromTableFile(tableFile.bytes, tableFile.name, { ...tableDialect(values), ...(roles ? { roles } : {}) }, { keepBytes: values.project !== undefined });
+  return { study, shock };
+}
+
 export const scenario = defineCommand({
   name: 'scenario',
   summary: 'direct, indirect, induced and total effects of a demand shock, phase by phase, on output, value added, labour income, jobs (and taxes and FTE when the table has them); spending rounds; structural paths',
@@ -149,12 +163,8 @@ export const scenario = defineCommand({
   },
   outHelp: 'write the scenario\'s reports (NAME-inputs, NAME-phases, and per phase NAME[-PHASE]-impact, -net-impact with displacement or deadweight, -implied-multipliers, -rounds, -rounds-by-sector, and -paths with --paths; NAME from the shock file; NAME-bands with --draws, NAME-sensitivity with --sensitivity) and the table\'s multipliers as CSV, each with an .about.txt',
   async run({ input, values }, ctx) {
-    const tableFile = ctx.input(input);
-    startHelpersFor(tableFile.bytes.length);
-    const roles = ctx.roleMap(values.map);
-    const shock = parseShockCsv(ctx.input(values.shock).text, values.shock);
-    const study = studyFromTableFile(tableFile.bytes, tableFile.name, { ...tableDialect(values), ...(roles ? { roles } : {}) });
-    collectImportGarbage(tableFile.bytes.length);
+    const { study, shock } = studyAndShock(ctx, input, values);
+    collectImportGarbage(study.source?.bytes ?? 0);
     // With a bridge the shock file's sector column holds codes: each line is split among the code's sectors.
     const bridge = values.bridge === undefined ? null : readBridge({ bytes: ctx.input(values.bridge).bytes, fileName: values.bridge }, study.table.sectors);
     const scenario = bridge === null ? shock : scenarioByBridge(shock, bridge);
@@ -195,8 +205,9 @@ export const scenario = defineCommand({
     if (flq && !values.sensitivity && !(drawn && flq.rangeGiven)) throw ctx.usageError('--flq-national needs --sensitivity, or --draws with --delta-range');
     // δ is drawn only when a range is given with --draws.
     const settings = drawn && flq?.rangeGiven ? { ...drawn, deltaRange: flq.range } : drawn;
-    const ps = await prepare(study, { spectrum: false });
-    const outcome = runStudyScenario(ps, scenario, { paths: destination });
+    // The flows are read again only by draws, the sensitivity's re-estimates and a project saved from the numbers.
+    const flowsDone = settings === null && !values.sensitivity && flq === null && values.project === undefined;
+    const { ps, result: outcome } = await prepareAnd(study, { spectrum: false, flowsDone }, (p) => runStudyScenario(p, scenario, { paths: destination }));
     const bands = settings ? await bandsOf(ps, { settings, multipliers: false, scenarios: [scenario] }, flq?.origin ?? null) : null;
     const sens = values.sensitivity ? studySensitivity(ps, scenario, values['share-step'], {
       ...(values['margin-step'] !== undefined ? { marginStep: values['margin-step'] } : {}),

@@ -5,6 +5,8 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { luFactor, luInverse, luSolveMany } from '../../../src/linalg/index.ts';
 import { luFactorReference, luInverseReference } from '../../../src/linalg/lu-reference.ts';
 import { splitJobCount, sharedKernel } from '../../../src/linalg/parallel.ts';
+import { withKeptFactors } from '../../../src/linalg/workspace.ts';
+import type { LU } from '../../../src/linalg/index.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../../src/cli/index.ts';
 import { randomMatrix } from '../../support/random.ts';
 
@@ -15,6 +17,9 @@ const single = (() => {
   const f = luFactor(a, N);
   return { f, inv: luInverse(f), many: luSolveMany(f, b, 9) };
 })();
+
+/** A factorisation made while the helpers were attached: kept at the start of their shared memory. */
+let kept: LU | null = null;
 
 describe('kernels with a helper thread', () => {
   beforeAll(async () => {
@@ -28,6 +33,7 @@ describe('kernels with a helper thread', () => {
     const f = luFactor(a, N);
     const inv = luInverse(f);
     const many = luSolveMany(f, b, 9);
+    kept = f;
     expect(splitJobCount()).toBeGreaterThan(before);
     expect(sharedKernel()).not.toBeNull();
     expect(Array.from(f.piv)).toEqual(Array.from(single.f.piv));
@@ -54,5 +60,33 @@ describe('after the helpers stop', () => {
     const before = splitJobCount();
     expect(Array.from(luInverse(luFactor(a, N)))).toEqual(Array.from(single.inv));
     expect(splitJobCount()).toBe(before);
+  });
+
+  it('solves against factors kept in the shared memory where they are, after it grew, with the same results', () => {
+    const f = kept!;
+    expect(f.lu.buffer).toBeInstanceOf(SharedArrayBuffer);
+    const seen = withKeptFactors(f.lu, [N * N * 4], (lu, [x]) => {
+      // The factors in place (same bytes, a view of the grown memory), the workspace after them.
+      expect(lu.buffer).toBe(x!.buffer);
+      expect(lu.byteOffset).toBe(f.lu.byteOffset);
+      expect(x!.byteOffset).toBeGreaterThanOrEqual(f.lu.byteOffset + 8 * N * N);
+      return Array.from(lu);
+    });
+    expect(seen).toEqual(Array.from(single.f.lu));
+    expect(Array.from(luSolveMany(f, b, 9))).toEqual(Array.from(single.many));
+  });
+
+  it('solves against factors in storage of their own where they are when the right-hand sides fit after them', () => {
+    // single.f was factored without helpers, in a Wasm memory of its own with room for 256 right-hand sides.
+    expect(single.f.lu.buffer).not.toBeInstanceOf(SharedArrayBuffer);
+    const inPlace = withKeptFactors(single.f.lu, [N * 9], (lu, [x]) => lu.buffer === single.f.lu.buffer && lu.byteOffset === 0 && x!.buffer === lu.buffer);
+    expect(inPlace).toBe(true);
+    // The same numbers, bit for bit, as the same factors copied into a workspace (an ordinary array is never taken).
+    const copied = luSolveMany({ ...single.f, lu: Float64Array.from(single.f.lu) }, b, 9);
+    expect(Array.from(luSolveMany(single.f, b, 9))).toEqual(Array.from(copied));
+    // Too many to fit, or factors in an ordinary array: not taken (the caller copies them into a workspace).
+    expect(withKeptFactors(single.f.lu, [N * N], () => true)).toBeNull();
+    const small = luFactor(a.subarray(0, 100), 10);
+    expect(withKeptFactors(small.lu, [10], () => true)).toBeNull();
   });
 });

@@ -104,6 +104,8 @@ describe('roundwise scenario', () => {
     const r = runStudyScenario(prepareStudy(p), p.scenarios[0]!).phases[0]!.result;
     expect(Array.from(r.effects.output.total)).toEqual(JSON.parse(a.out).effects.output.total);
     expect(p.source!.fileName).toBe('table.csv');
+    // The file's own bytes are saved (the run keeps them only because --project asks for them).
+    expect(p.source!.content).toEqual(new Uint8Array(readFileSync(fx('table.csv'))));
     // The closure the command line ran with is in the study: the app opens it with households closed too.
     expect(p.settings.closure).toBe('households');
     expect(r.closure).toBe('household');
