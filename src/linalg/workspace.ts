@@ -30,6 +30,9 @@ let busy = false;
 /** Factorisations from this many elements get storage of their own (below it, copying in and out costs next to nothing). */
 export const OWN_STORAGE_MIN_ELEMENTS = 256 * 256;
 
+/** Right-hand sides a solve against factors in their own storage may have and still run where they are (a path search has at most 140 poles with its default settings). */
+const KEPT_SOLVE_COLUMNS = 256;
+
 /** The helpers' shared memory whose start holds a kept factorisation, and that factorisation's size in bytes. */
 let pinned: { kernel: WasmKernel; end: number } | null = null;
 
@@ -69,12 +72,16 @@ export function factorStorage(elements: number): FactorStorage | null {
     reused.view.fill(0);
     return reused;
   }
-  const kernel = instantiateGemm(bytes);
+  // Room after the factors for a solve against them with up to KEPT_SOLVE_COLUMNS right-hand sides (withKeptFactors):
+  // a memory's pages cost nothing until they are first touched, and such a memory can never grow (growing would detach
+  // the factors' view).
+  const kernel = instantiateGemm(bytes + aligned(8 * Math.ceil(Math.sqrt(elements)) * KEPT_SOLVE_COLUMNS));
   if (kernel === null) return null;
   const view = new Float64Array(kernel.memory.buffer, 0, elements);
   owners.set(view, kernel);
   return { view, kernel };
 }
+
 
 /** Own storage handed back by its factorisation's owner (releaseFactorStorage), kept for the next one of its size. */
 let spare: FactorStorage | null = null;
@@ -96,20 +103,22 @@ const sharedHomes = new WeakMap<Float64Array, WasmKernel>();
 /**
  * Run `work` on factors `lu` where they are kept, with zero-filled buffers of the given lengths placed after them in
  * the same memory, so a solve with many right-hand sides reads the factors in place instead of copying them into a
- * workspace (at 2,000 sectors a 32 MB copy into fresh, page-faulting memory). Only factors kept in the helpers' shared
- * memory qualify: it grows without moving or detaching them. Returns null, having done nothing, otherwise (the caller
- * copies the factors into a workspace) — and while helpers of another memory are attached, whose split updates would
- * address that memory.
+ * workspace (at 2,000 sectors a 32 MB copy into fresh, page-faulting memory). Factors kept in the helpers' shared
+ * memory qualify (it grows without moving or detaching them), and factors in storage of their own when the buffers
+ * fit in the room left after them (see factorStorage). Returns null, having done nothing, otherwise (the caller
+ * copies the factors into a workspace) — and while helpers are attached to another memory, whose split updates
+ * would address that memory.
  */
 export function withKeptFactors<T>(lu: Float64Array, lengths: readonly number[], work: (lu: Float64Array, bufs: Float64Array[]) => T): T | null {
-  const kernel = sharedHomes.get(lu);
+  const shared = sharedHomes.get(lu);
+  const kernel = shared ?? owners.get(lu);
   if (kernel === undefined || busy || kernelMode() === 'js') return null;
   const attached = sharedKernel();
   if (attached !== null && attached !== kernel) return null;
   let at = aligned(lu.byteOffset + 8 * lu.length);
   let bytes = at;
   for (const l of lengths) bytes += aligned(8 * l);
-  if (grown(kernel, bytes) === null) return null;
+  if (shared !== undefined ? grown(kernel, bytes) === null : kernel.memory.buffer.byteLength < bytes) return null;
   // Views of the memory as it is now: the kernel works only on views of its current buffer (gemm.ts), and growing a
   // shared memory gives it a new buffer object over the same bytes.
   const buffer = kernel.memory.buffer;

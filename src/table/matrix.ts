@@ -78,6 +78,20 @@ export function negativeFlow(v: number, where: Location): InputError {
   return new InputError('negative-flow', `negative intermediate flow ${showNumber(v)} (allow negative flows to accept it)`, where);
 }
 
+/**
+ * out[base + j] = values[cols[j]] for every j < cols.length; a value that is not a plain number (NaN), or negative
+ * when `allowNegative` is false, comes from slow(row, j) instead. The hot loop of the import, in a function of its
+ * own: small, so the engine optimises it within the first records (inside readMatrix it ran interpreted for most of a
+ * 500-sector table while the large function waited to be compiled).
+ */
+function gatherRow(values: Float64Array, cols: Int32Array, out: Float64Array, base: number, allowNegative: boolean, row: number, slow: (row: number, j: number) => number): void {
+  const n = cols.length;
+  for (let j = 0; j < n; j++) {
+    const v = values[cols[j]!]!;
+    out[base + j] = v === v && (v >= 0 || allowNegative) ? v : slow(row, j);
+  }
+}
+
 export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, layout: 'matrix' | 'coefficients'): RawTable {
   const { fileName, decimalMark: mark, allowNegative } = opts;
   const dc = mark.charCodeAt(0);
@@ -166,11 +180,7 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
   };
   for (let i = 0; i < n; i++) {
     grid.plainRow(sectorRow[i]!, dc, values);
-    const base = i * n;
-    for (let j = 0; j < n; j++) {
-      const v = values[sectorCol[j]!]!;
-      Z[base + j] = v === v && (v >= 0 || allowNegative) ? v : flowCell(i, j);
-    }
+    gatherRow(values, sectorCol, Z, i * n, allowNegative, i, flowCell);
     for (let k = 0; k < extraCols.length; k++) {
       const v = values[extraCols[k]!.c]!;
       extraCols[k]!.col.values[i] = v === v ? v : columnCell(i, k);
@@ -178,11 +188,7 @@ export function readMatrix(grid: Grid, rowsInFile: number[], opts: ReadOptions, 
   }
   for (let k = 0; k < extraRows.length; k++) {
     grid.plainRow(extraRows[k]!.r, dc, values);
-    const out = extraRows[k]!.row.values;
-    for (let j = 0; j < n; j++) {
-      const v = values[sectorCol[j]!]!;
-      out[j] = v === v ? v : rowCell(k, j);
-    }
+    gatherRow(values, sectorCol, extraRows[k]!.row.values, 0, true, k, rowCell);
   }
   // Labour income paid by final-demand columns (government wages): household income too (finish.ts).
   const finalDemandIncome: RawTable['finalDemandIncome'] = [];

@@ -28,10 +28,10 @@ export interface BenchApp {
   close(): Promise<void>;
 }
 
-/** null when there is no Chromium (the bench then says the app part was skipped, and why). */
-export async function startBenchApp(): Promise<BenchApp | null> {
+/** null when there is no Chromium (the bench then says the app part was skipped, and why); `minify: false` for profiles. */
+export async function startBenchApp(opts: { minify?: boolean } = {}): Promise<BenchApp | null> {
   if (!existsSync(CHROMIUM)) return null;
-  const app = await serveBuiltRenderer();
+  const app = await serveBuiltRenderer(opts);
   const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
   return {
     url: app.url,

@@ -9,10 +9,11 @@ import { join } from 'node:path';
 import { build, preview } from 'vite';
 import { REPO } from './harness.ts';
 
-export async function serveBuiltRenderer(): Promise<{ url: string; close(): Promise<void> }> {
+/** `minify: false` keeps function names readable in CPU profiles (the profiling scripts in test/bench). */
+export async function serveBuiltRenderer(opts: { minify?: boolean } = {}): Promise<{ url: string; close(): Promise<void> }> {
   const configFile = join(REPO, 'renderer', 'vite.config.ts');
   const outDir = mkdtempSync(join(tmpdir(), 'roundwise-built-'));
-  await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true, reportCompressedSize: false } });
+  await build({ configFile, logLevel: 'error', build: { outDir, emptyOutDir: true, reportCompressedSize: false, ...(opts.minify === false ? { minify: false } : {}) } });
   const server = await preview({ configFile, logLevel: 'error', build: { outDir }, preview: { port: 0, strictPort: false } });
   const url = server.resolvedUrls?.local[0];
   if (!url) throw new Error('the preview server did not report a URL');

@@ -74,7 +74,19 @@ describe('after the helpers stop', () => {
     });
     expect(seen).toEqual(Array.from(single.f.lu));
     expect(Array.from(luSolveMany(f, b, 9))).toEqual(Array.from(single.many));
-    // Factors elsewhere are not taken: the caller copies them into a workspace.
-    expect(withKeptFactors(single.f.lu, [9], () => true)).toBeNull();
+  });
+
+  it('solves against factors in storage of their own where they are when the right-hand sides fit after them', () => {
+    // single.f was factored without helpers, in a Wasm memory of its own with room for 256 right-hand sides.
+    expect(single.f.lu.buffer).not.toBeInstanceOf(SharedArrayBuffer);
+    const inPlace = withKeptFactors(single.f.lu, [N * 9], (lu, [x]) => lu.buffer === single.f.lu.buffer && lu.byteOffset === 0 && x!.buffer === lu.buffer);
+    expect(inPlace).toBe(true);
+    // The same numbers, bit for bit, as the same factors copied into a workspace (an ordinary array is never taken).
+    const copied = luSolveMany({ ...single.f, lu: Float64Array.from(single.f.lu) }, b, 9);
+    expect(Array.from(luSolveMany(single.f, b, 9))).toEqual(Array.from(copied));
+    // Too many to fit, or factors in an ordinary array: not taken (the caller copies them into a workspace).
+    expect(withKeptFactors(single.f.lu, [N * N], () => true)).toBeNull();
+    const small = luFactor(a.subarray(0, 100), 10);
+    expect(withKeptFactors(small.lu, [10], () => true)).toBeNull();
   });
 });
