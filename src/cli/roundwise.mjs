@@ -6,6 +6,13 @@
 import { existsSync, readFileSync, readdirSync, statSync } from 'node:fs';
 import { dirname, join, sep } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
+import { setFlagsFromString } from 'node:v8';
+
+// On-stack replacement (a long-running loop switched to optimised code while it runs) compiles on the running thread
+// instead of queueing for V8's background compiler thread. A run is mostly one-shot loops over n² numbers; queued,
+// they ran interpreted until a core was free to compile them (most of a 500-sector run on a loaded 2-core machine).
+// Same numbers either way (JavaScript arithmetic is exact IEEE 754 in every tier). README "Performance" has the measurement.
+setFlagsFromString('--no-concurrent-osr');
 
 const here = dirname(fileURLToPath(import.meta.url));
 const src = join(here, '..');

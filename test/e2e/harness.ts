@@ -96,7 +96,15 @@ export async function goTo(page: Page, screen: string): Promise<void> {
   await page.waitForSelector('main[aria-label]');
 }
 
+/**
+ * Screenshots are taken only by `npm run screenshots` (test/e2e/screenshots.mjs sets ROUNDWISE_SCREENSHOTS=1): each is
+ * a fresh frame rasterised and read back, about 0.14 core-s, some 70 of them in the suite, for pictures no assertion
+ * reads. `npm test` runs the same steps and checks without them.
+ */
+export const takeScreenshots = process.env.ROUNDWISE_SCREENSHOTS === '1';
+
 export async function shot(page: Page, name: string): Promise<void> {
+  if (!takeScreenshots) return;
   await page.screenshot({ path: join(SCREENSHOTS, `${name}.png`), fullPage: false });
 }
 
