@@ -89,6 +89,27 @@ describe.skipIf(skipBrowser)('screens', () => {
     await shot('multipliers-jobs-per-million');
   });
 
+  it('draws a chart given new results as a new chart of those results draws it, pixel for pixel', async () => {
+    // The chart on screen takes new results in place (ChartPanel); a chart made afresh (the screen left and opened
+    // again) is the reference. The closure switch changes every multiplier chart's numbers.
+    await go('multipliers');
+    const chart = page.locator('.chart-box canvas').first();
+    const pixels = () => chart.evaluate((c) => (c as HTMLCanvasElement).toDataURL());
+    await chart.waitFor();
+    await poll(pixels).not.toMatch(/^data:,$/);
+    const before = await pixels();
+    const closure = page.getByRole('checkbox', { name: /Households closed/ });
+    await closure.click();
+    await poll(pixels).not.toBe(before);
+    await page.waitForTimeout(300); // no later redraw
+    const updated = await pixels();
+    await go('overview');
+    await go('multipliers');
+    await poll(pixels).toBe(updated);
+    await closure.click();
+    await poll(pixels).toBe(before);
+  });
+
   it('fits a scenario\'s lines at 1280×800, Remove included; with the extra line options Remove stays pinned in view', async () => {
     await go('scenarios');
     await page.getByTestId('add-line').click();
