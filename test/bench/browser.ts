@@ -76,3 +76,23 @@ export async function useTableFile(page: Page, file: string, n: number): Promise
   await page.getByTestId('accept-import').click();
   await page.waitForFunction((s) => document.querySelector('[data-testid="table-name"]')?.textContent?.includes(s) && !document.querySelector('[data-testid="progress"]'), `${n.toLocaleString('en-US')} sectors`);
 }
+
+/**
+ * Where the profiling aids start: the invented n-sector table, the built app (unminified unless MINIFY=1) and a page
+ * with that table in use. The app is closed again when getting there fails.
+ */
+export async function appOnInventedTable(n: number): Promise<{ app: BenchApp; page: Page; dir: string }> {
+  const { file, dir } = await inventedFile(n);
+  const app = await startBenchApp({ minify: process.env.MINIFY === '1' });
+  if (!app) throw new Error(`no Chromium at ${CHROMIUM}`);
+  try {
+    const page = await app.newPage(300_000);
+    await page.goto(app.url);
+    await page.getByTestId('verdict').waitFor();
+    await useTableFile(page, file, n);
+    return { app, page, dir };
+  } catch (e) {
+    await app.close();
+    throw e;
+  }
+}

@@ -10,20 +10,13 @@
  */
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { CHROMIUM } from '../e2e/harness.ts';
-import { inventedFile, startBenchApp, useTableFile } from './browser.ts';
+import { appOnInventedTable } from './browser.ts';
 import { profilePage } from './page-profile.ts';
 
 const n = Number(process.argv[2] ?? 500);
 const draws = Number(process.argv[3] ?? 200);
-const { file, dir } = await inventedFile(n);
-const app = await startBenchApp({ minify: process.env.MINIFY === '1' });
-if (!app) throw new Error(`no Chromium at ${CHROMIUM}`);
+const { app, page, dir } = await appOnInventedTable(n);
 try {
-  const page = await app.newPage(300_000);
-  await page.goto(app.url);
-  await page.getByTestId('verdict').waitFor();
-  await useTableFile(page, file, n);
   await page.click(`[data-screen="${process.env.SCREEN ?? 'multipliers'}"]`);
   const panel = page.getByTestId('how-sure');
   await panel.getByTestId('band-draws').fill(String(draws));

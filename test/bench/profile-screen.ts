@@ -14,22 +14,15 @@
  */
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { CHROMIUM } from '../e2e/harness.ts';
-import { inventedFile, startBenchApp, useTableFile } from './browser.ts';
+import { appOnInventedTable } from './browser.ts';
 import { profilePage } from './page-profile.ts';
 
 const n = Number(process.argv[2] ?? 2000);
 const screen = process.argv[3] ?? 'scenarios';
 const ready = process.argv[4] ?? '[data-testid="total-effect"]';
 const before = (process.env.BEFORE ?? 'overview,multipliers').split(',').filter(Boolean);
-const { file, dir } = await inventedFile(n);
-const app = await startBenchApp({ minify: process.env.MINIFY === '1' });
-if (!app) throw new Error(`no Chromium at ${CHROMIUM}`);
+const { app, page, dir } = await appOnInventedTable(n);
 try {
-  const page = await app.newPage(300_000);
-  await page.goto(app.url);
-  await page.getByTestId('verdict').waitFor();
-  await useTableFile(page, file, n);
   for (const s of before) {
     await page.click(`[data-screen="${s}"]`);
     await page.waitForTimeout(1000);
