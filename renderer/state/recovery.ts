@@ -99,11 +99,17 @@ async function lookForCopy(): Promise<void> {
   }
 }
 
-/** Look for a copy left by a window that is gone, then keep one while there are unsaved changes. */
+/**
+ * Look for a copy left by a window that is gone, and keep one while there are unsaved changes. Changes are watched
+ * from the start, and copies are written only after the look has ended (the writes queue behind it): watched only
+ * after the look, an edit made in the window's first moments was never copied until the next one.
+ */
 export async function startRecovery(): Promise<void> {
-  await lookForCopy();
+  const looked = lookForCopy();
+  writes = writes.then(() => looked);
   watch(() => app.scenarios, schedule, { deep: true });
   watch(() => [app.dirty, app.closure, app.pathDestination, app.table, app.selected], schedule);
+  await looked;
 }
 
 /** Reopen the recovered work; it stays marked unsaved (it is not the file it came from). */

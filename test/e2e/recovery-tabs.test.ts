@@ -47,11 +47,12 @@ describe.skipIf(skipBrowser)('crash recovery, in the browser: stale tables, two 
     await addScenario(a);
     await expect.poll(async () => (await copies(a)).length, { timeout: 20_000 }).toBe(1);
     const b = await openPage(s);
-    await b.waitForTimeout(2_000);
-    expect(await b.getByTestId('recovery').count()).toBe(0); // A is still open: its copy is not B's to offer
-    await addScenario(b);
+    await addScenario(b); // at once: an edit made while B still looks for a copy to offer is copied too
     await addScenario(b);
     await expect.poll(async () => (await copies(b)).map((c) => c.scenarios).sort(), { timeout: 20_000 }).toEqual([2, 3]);
+    // B writes its copy only once its look for a copy to offer has ended, so an offer would be on screen by now:
+    // A is still open, and its copy is not B's to offer.
+    expect(await b.getByTestId('recovery').count()).toBe(0);
     await kill(a);
     const c = await openPage(s);
     await c.getByTestId('recovery').waitFor({ timeout: 30_000 });
