@@ -82,7 +82,6 @@ export function factorStorage(elements: number): FactorStorage | null {
   return { view, kernel };
 }
 
-
 /** Own storage handed back by its factorisation's owner (releaseFactorStorage), kept for the next one of its size. */
 let spare: FactorStorage | null = null;
 const owners = new WeakMap<Float64Array, WasmKernel>();

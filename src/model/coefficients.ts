@@ -46,24 +46,26 @@ function perUnit(v: Float64Array, x: Float64Array): Float64Array {
   return out;
 }
 
+/** A = Z·diag(x)⁻¹ into `A` (which may be Z itself: each entry depends only on its own flow); 0 where x is 0. */
+function flowsOverOutput(t: IOTable, A: Float64Array): Float64Array {
+  const { n, Z, x } = t;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      const xj = x[j]!;
+      A[i * n + j] = xj > 0 ? Z[i * n + j]! / xj : 0;
+    }
+  }
+  return A;
+}
+
 /**
  * Coefficients of a validated table. Sectors with zero output get zero coefficients (the importer refuses such a sector
  * that buys inputs). `A`, when given, is taken as the intermediate coefficients instead of Z/x (the Monte Carlo draws
  * perturb the coefficients themselves, into a buffer they reuse); everything else still comes from the table.
  */
 export function coefficients(t: IOTable, given?: Float64Array): Coefficients {
-  const { n, Z, x } = t;
-  let A: Float64Array;
-  if (given) A = given;
-  else {
-    A = new Float64Array(n * n);
-    for (let i = 0; i < n; i++) {
-      for (let j = 0; j < n; j++) {
-        const xj = x[j]!;
-        A[i * n + j] = xj > 0 ? Z[i * n + j]! / xj : 0;
-      }
-    }
-  }
+  const { n, x } = t;
+  const A = given ?? flowsOverOutput(t, new Float64Array(n * n));
   const labour = sumVectors(t.labourIncome, n);
   let householdIncomeTotal = 0;
   for (let j = 0; j < n; j++) householdIncomeTotal += labour[j]!;
@@ -91,14 +93,7 @@ export function coefficients(t: IOTable, given?: Float64Array): Coefficients {
  * left without flows: reading `t.Z` afterwards throws, so a use nobody foresaw fails loudly instead of reading A.
  */
 export function coefficientsOverFlows(t: IOTable): Coefficients {
-  const { n, Z, x } = t;
-  for (let i = 0; i < n; i++) {
-    for (let j = 0; j < n; j++) {
-      const xj = x[j]!;
-      Z[i * n + j] = xj > 0 ? Z[i * n + j]! / xj : 0;
-    }
-  }
-  const coef = coefficients(t, Z);
+  const coef = coefficients(t, flowsOverOutput(t, t.Z));
   Object.defineProperty(t, 'Z', {
     get: () => { throw new Error('the table\'s flows were turned into its coefficients (coefficientsOverFlows); nothing may read them afterwards'); },
     enumerable: true,
