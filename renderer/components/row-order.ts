@@ -5,7 +5,7 @@
  * mapped back to its rows, first come first served. A comparator sort of 2,000 rows ran through cold code (tens of
  * thousands of calls) in the first render of a screen, 10–30 ms of it at 2,000 sectors.
  */
-export function rowOrder(keys: readonly (string | number | null)[], dir: 1 | -1): number[] {
+export function rowOrder(keys: ArrayLike<string | number | null>, dir: 1 | -1): number[] {
   const n = keys.length;
   const finite: number[] = [];
   const missing: number[] = [];
@@ -42,7 +42,7 @@ export function rowOrder(keys: readonly (string | number | null)[], dir: 1 | -1)
 }
 
 /** Text (and mixed) columns: the comparison sort, missing values last, ties in their original order. */
-function textOrder(keys: readonly (string | number | null)[], dir: 1 | -1): number[] {
+function textOrder(keys: ArrayLike<string | number | null>, dir: 1 | -1): number[] {
   const missing = (v: string | number | null) => v === null || v === undefined || (typeof v === 'number' && !Number.isFinite(v));
   const present: number[] = [];
   const absent: number[] = [];
