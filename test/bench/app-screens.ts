@@ -15,7 +15,7 @@ import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
-import { inventedFile, startBenchApp } from './browser.ts';
+import { inventedFile, startBenchApp, tableInUse } from './browser.ts';
 import { CHROMIUM } from '../e2e/harness.ts';
 
 /** The e2e harness's flags (test/e2e/harness.ts), repeated here: the bench runs outside vitest, without its setup. */
@@ -98,9 +98,7 @@ export async function appScreens(file: string, n: number): Promise<AppRun | { sk
     const tRun = await now(page);
     await step(page, steps, 'preview of the chosen file', () => page.getByTestId('file-input').setInputFiles(file),
       () => page.locator('[data-testid="accept-import"]:not([disabled])').waitFor());
-    const sectors = `${n.toLocaleString('en-US')} sectors`;
-    await step(page, steps, '"Use this table" to the Overview verdict', () => page.getByTestId('accept-import').click(),
-      () => page.waitForFunction((s) => document.querySelector('[data-testid="table-name"]')?.textContent?.includes(s) && !document.querySelector('[data-testid="progress"]'), sectors));
+    await step(page, steps, '"Use this table" to the Overview verdict', () => page.getByTestId('accept-import').click(), () => tableInUse(page, n));
     const visit = (screen: string, ready: string) => step(page, steps, `${screen} screen`, () => page.click(`[data-screen="${screen}"]`), () => page.locator(ready).first().waitFor());
     await visit('overview', '[data-testid="verdict"]');
     await visit('table', '.matrix .m-cell');

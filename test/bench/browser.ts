@@ -68,13 +68,22 @@ export async function inventedFile(n: number): Promise<{ file: string; dir: stri
   return { file, dir };
 }
 
-/** On the app as loaded: choose `file` on the Import screen, accept it, and wait until its n sectors are the table in use. */
-export async function useTableFile(page: Page, file: string, n: number): Promise<void> {
+/** Until the table of n sectors is the table in use and no work is in progress. */
+export function tableInUse(page: Page, n: number): Promise<unknown> {
+  return page.waitForFunction((s) => document.querySelector('[data-testid="table-name"]')?.textContent?.includes(s) && !document.querySelector('[data-testid="progress"]'), `${n.toLocaleString('en-US')} sectors`);
+}
+
+/** A new page of the app, loaded (the sample's verdict shown), then `file` chosen on the Import screen and accepted: its n sectors are the table in use. */
+export async function pageWithTable(app: BenchApp, file: string, n: number): Promise<Page> {
+  const page = await app.newPage(300_000);
+  await page.goto(app.url);
+  await page.getByTestId('verdict').waitFor();
   await page.click('[data-screen="import"]');
   await page.getByTestId('file-input').setInputFiles(file);
   await page.locator('[data-testid="accept-import"]:not([disabled])').waitFor();
   await page.getByTestId('accept-import').click();
-  await page.waitForFunction((s) => document.querySelector('[data-testid="table-name"]')?.textContent?.includes(s) && !document.querySelector('[data-testid="progress"]'), `${n.toLocaleString('en-US')} sectors`);
+  await tableInUse(page, n);
+  return page;
 }
 
 /**
@@ -86,11 +95,7 @@ export async function appOnInventedTable(n: number): Promise<{ app: BenchApp; pa
   const app = await startBenchApp({ minify: process.env.MINIFY === '1' });
   if (!app) throw new Error(`no Chromium at ${CHROMIUM}`);
   try {
-    const page = await app.newPage(300_000);
-    await page.goto(app.url);
-    await page.getByTestId('verdict').waitFor();
-    await useTableFile(page, file, n);
-    return { app, page, dir };
+    return { app, page: await pageWithTable(app, file, n), dir };
   } catch (e) {
     await app.close();
     throw e;

@@ -12,7 +12,7 @@ import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
-import { inventedFile, startBenchApp, useTableFile } from './browser.ts';
+import { inventedFile, pageWithTable, startBenchApp } from './browser.ts';
 import { CHROMIUM } from '../e2e/harness.ts';
 
 
@@ -37,10 +37,7 @@ export async function drawingApp(file: string, n: number, draws: number): Promis
   const app = await startBenchApp();
   if (!app) return { skipped: `no Chromium at ${CHROMIUM}` };
   try {
-    const page = await app.newPage(300_000);
-    await page.goto(app.url);
-    await page.getByTestId('verdict').waitFor();
-    await useTableFile(page, file, n);
+    const page = await pageWithTable(app, file, n);
     await page.click('[data-screen="multipliers"]');
     await page.locator('[data-testid="multiplier-table"] tbody tr').first().waitFor();
     const filter = page.locator('[data-testid="multiplier-table"] input[type="search"]').first();
