@@ -10,8 +10,7 @@ import {
 import { bandsOf, multiplierBandsSummary, uncertaintySettingsOf, UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand, type RunContext } from '../command.ts';
-import { parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
-import { bytesAtFactorHome } from '../../linalg/index.ts';
+import { bytesAtFactorHome, parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
 import { collectImportGarbage } from '../memory.ts';
 
 /**
