@@ -336,10 +336,11 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
  * ρ(Ā) of the household-closed matrix Ā = [A hc; hrᵀ corner] (non-negative), certified as `perronRoot` does, right
  * vector only. When the closed sector graph is strongly connected (households buy from and sell to the sectors, the
  * usual case) the iteration runs on the parts and Ā is never formed; otherwise Ā is formed and analysed block by block.
+ * `known`: borderedPeriod(b) when already found (of a matrix with the same zeros).
  */
-export function perronRootBordered(b: Bordered, opts: Omit<PerronOptions, 'blocks' | 'rightOnly'> = {}): PerronResult {
+export function perronRootBordered(b: Bordered, opts: Omit<PerronOptions, 'blocks' | 'rightOnly'> = {}, known?: { period: number | null | undefined }): PerronResult {
   const m = b.n + 1;
-  const period = borderedPeriod(b);
+  const period = known ? known.period : borderedPeriod(b);
   if (period === undefined) return perronRoot(borderedMatrix(b.A, b.n, b.hc, b.hr, b.corner), m, { ...opts, rightOnly: true });
   const tol = opts.tolerance ?? 1e-12;
   const blocks: SectorBlock[] = [{ sectors: Array.from({ length: m }, (_, i) => i), cyclic: period !== null, period }];
