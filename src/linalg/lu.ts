@@ -64,7 +64,7 @@ export function luFactorFrom(n: number, fill: (w: Float64Array) => void): LU {
   let maxAbs = 0;
   const factor = (w: Float64Array): void => {
     fill(w);
-    for (let k = 0; k < n * n; k++) { const v = Math.abs(w[k]!); if (v > maxAbs) maxAbs = v; }
+    maxAbs = maxAbsOf(w, n * n);
     swaps = factorColumns(w, n, 0, n, piv);
   };
   const own = factorStorage(n * n);
@@ -88,6 +88,13 @@ export function luFactorFrom(n: number, fill: (w: Float64Array) => void): LU {
   return { n, lu, piv, sign: swaps % 2 === 0 ? 1 : -1, singular };
 }
 
+/** max |w_k| over the first `len` entries (a loop of its own: a variable the closure above captured ran slower). */
+function maxAbsOf(w: Float64Array, len: number): number {
+  let best = 0;
+  for (let k = 0; k < len; k++) { const v = Math.abs(w[k]!); if (v > best) best = v; }
+  return best;
+}
+
 /** Factor columns [c0, c1) of rows [c0, n), all earlier updates applied. Returns the number of row swaps. */
 function factorColumns(lu: Float64Array, n: number, c0: number, c1: number, piv: Int32Array): number {
   const w = c1 - c0;
@@ -104,17 +111,14 @@ function factorColumns(lu: Float64Array, n: number, c0: number, c1: number, piv:
  * Unblocked LU with partial pivoting of the panel lu[k0.., k0..k0+kb): whole rows are swapped, so the L columns to
  * the left and the not-yet-updated columns to the right carry the same permutation. A zero pivot (the column is zero
  * from the diagonal down) is left in place and its column skipped, as in the reference. Returns the number of row swaps.
+ * The next column's pivot is searched for while this column's elimination updates it (one walk down the rows instead
+ * of two; the same comparisons in the same order as a search of its own).
  */
 function factorPanel(lu: Float64Array, n: number, k0: number, kb: number, piv: Int32Array): number {
   const k1 = k0 + kb;
   let swaps = 0;
+  let p = pivotRow(lu, n, k0);
   for (let j = k0; j < k1; j++) {
-    let p = j;
-    let best = Math.abs(lu[j * n + j]!);
-    for (let i = j + 1; i < n; i++) {
-      const v = Math.abs(lu[i * n + j]!);
-      if (v > best) { best = v; p = i; }
-    }
     if (p !== j) {
       const rj = j * n;
       const rp = p * n;
@@ -126,18 +130,40 @@ function factorPanel(lu: Float64Array, n: number, k0: number, kb: number, piv: I
       const t = piv[j]!; piv[j] = piv[p]!; piv[p] = t;
       swaps++;
     }
+    const next = j + 1;
     const pivot = lu[j * n + j]!;
-    if (pivot === 0) continue;
+    if (pivot === 0) {
+      if (next < k1) p = pivotRow(lu, n, next);
+      continue;
+    }
     const rj = j * n;
-    for (let i = j + 1; i < n; i++) {
+    const search = next < k1;
+    p = next;
+    let best = 0;
+    for (let i = next; i < n; i++) {
       const ri = i * n;
       const l = lu[ri + j]! / pivot;
       lu[ri + j] = l;
-      if (l === 0) continue;
-      for (let c = j + 1; c < k1; c++) lu[ri + c] = lu[ri + c]! - l * lu[rj + c]!;
+      if (l !== 0) for (let c = next; c < k1; c++) lu[ri + c] = lu[ri + c]! - l * lu[rj + c]!;
+      if (search) {
+        const v = Math.abs(lu[ri + next]!);
+        if (i === next) best = v;
+        else if (v > best) { best = v; p = i; }
+      }
     }
   }
   return swaps;
+}
+
+/** The row of the largest |lu[i, j]| for i ≥ j (the first of equals; row j when the column holds NaN there). */
+function pivotRow(lu: Float64Array, n: number, j: number): number {
+  let p = j;
+  let best = Math.abs(lu[j * n + j]!);
+  for (let i = j + 1; i < n; i++) {
+    const v = Math.abs(lu[i * n + j]!);
+    if (v > best) { best = v; p = i; }
+  }
+  return p;
 }
 
 /** Result of Gaussian elimination without pivoting (see `eliminationPivots`). */
