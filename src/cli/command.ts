@@ -47,8 +47,8 @@ export interface InputFile {
 }
 
 export interface RunContext {
-  /** Read an input file (size limit, regular files only; refusals are located). */
-  input(path: string): InputFile;
+  /** Read an input file (size limit, regular files only; refusals are located); `into` as in src/node-io's reader. */
+  input(path: string, opts?: { into?: (bytes: number) => Uint8Array | null }): InputFile;
   /** `--map MAP.json`, read and checked by the table importer's role-map parser (located messages). */
   roleMap(path: string | undefined): Partial<RoleMap> | undefined;
   /** A usage mistake found while running (e.g. two options that do not go together): exit 1 with the usage line. */

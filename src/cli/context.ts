@@ -33,8 +33,8 @@ export class CommandRun implements RunContext {
 
   constructor(private readonly spec: CommandSpec, private readonly io: CliIO) {}
 
-  input(path: string): InputFile {
-    const r = readFileLimited(path);
+  input(path: string, opts: { into?: (bytes: number) => Uint8Array | null } = {}): InputFile {
+    const r = readFileLimited(path, opts.into ? { into: opts.into } : {});
     this.inputs.push({ path: r.path, dev: r.dev, ino: r.ino });
     return new LoadedInput(path, r.bytes);
   }

@@ -7,6 +7,9 @@ import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
 import { attachHelpers, createParallelKernel, detachHelpers, readyHelpers, CONTROL_LAYOUT } from '../linalg/index.ts';
 
+/** Where the helpers' first kept factorisation will be, lent to input that dies before it (src/linalg/workspace.ts). */
+export { bytesAtFactorHome } from '../linalg/index.ts';
+
 let workers: Worker[] = [];
 
 /**

@@ -10,10 +10,24 @@
  * (Intl.NumberFormat's default, halfExpand). Common practice, no source.
  */
 
-const JOBS = new Intl.NumberFormat('en-US', { maximumFractionDigits: 0 });
-const MONEY = new Intl.NumberFormat('en-US', { maximumSignificantDigits: 3 });
-const RATIO = new Intl.NumberFormat('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
-const PLAIN = new Intl.NumberFormat('en-US', { maximumFractionDigits: 6 });
+// Made on first use, not at load: the first Intl.NumberFormat loads the locale data (10–50 ms), and this module is
+// part of every CLI start although most runs write no brief.
+const FORMATS = {
+  jobs: { maximumFractionDigits: 0 },
+  money: { maximumSignificantDigits: 3 },
+  ratio: { minimumFractionDigits: 2, maximumFractionDigits: 2 },
+  plain: { maximumFractionDigits: 6 },
+} satisfies Record<string, Intl.NumberFormatOptions>;
+const made = new Map<keyof typeof FORMATS, Intl.NumberFormat>();
+
+function format(kind: keyof typeof FORMATS): Intl.NumberFormat {
+  let f = made.get(kind);
+  if (f === undefined) {
+    f = new Intl.NumberFormat('en-US', FORMATS[kind]);
+    made.set(kind, f);
+  }
+  return f;
+}
 
 export const ROUNDING_NOTE =
   'Rounding: jobs to whole jobs; money to three significant figures; shares of the county\'s base year in per cent to one decimal; '
@@ -29,8 +43,7 @@ export type Quantity = 'jobs' | 'money' | 'ratio';
 /** A value as the brief writes it; "—" for a value that is not defined. */
 export function councilNumber(v: number | null, q: Quantity): string {
   if (v === null || !Number.isFinite(v)) return '—';
-  const f = q === 'jobs' ? JOBS : q === 'money' ? MONEY : RATIO;
-  return signed(f.format(v));
+  return signed(format(q).format(v));
 }
 
 /** A share of a county total in per cent, one decimal: "0.7 %"; "under 0.1 %" for smaller non-zero shares. */
@@ -43,7 +56,7 @@ export function shareText(part: number | null, whole: number | null): string {
 
 /** A number as typed by the user (amounts, local shares): up to six decimals, thousands separated. */
 export function plainNumber(v: number): string {
-  return signed(PLAIN.format(v));
+  return signed(format('plain').format(v));
 }
 
 const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];

@@ -31,6 +31,11 @@ export interface ReadOptions {
   maxBytes?: number;
   /** The name used in messages (default: the path as given). */
   shownAs?: string;
+  /**
+   * Where to read a file of `bytes` (its stated size plus one): a caller's memory of at least that length, or null for a
+   * buffer of the reader's own. A file that turns out longer than it stated moves to a buffer of the reader's own.
+   */
+  into?: (bytes: number) => Uint8Array | null;
 }
 
 // Windows has no O_NONBLOCK (and no FIFOs in the file system to block on).
@@ -57,7 +62,9 @@ export function readFileLimited(path: string, opts: ReadOptions = {}): ReadFile 
     if (!st.isFile()) throw new InputError('not-a-file', 'is not a regular file (a device, pipe or socket); nothing was read', { file });
     if (st.size > max) throw tooLarge(st.size, max, file, true);
     // One byte more than the stated size, to notice a file that is longer than it says.
-    let buf = Buffer.allocUnsafe(Math.min(st.size, max) + 1);
+    const want = Math.min(st.size, max) + 1;
+    const given = opts.into?.(want) ?? null;
+    let buf = given !== null && given.length >= want ? Buffer.from(given.buffer, given.byteOffset, want) : Buffer.allocUnsafe(want);
     let got = 0;
     for (;;) {
       if (got === buf.length) {

@@ -16,7 +16,7 @@ import {
   bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand, type RunContext } from '../command.ts';
-import { prepareAnd, startHelpersFor } from './analyze.ts';
+import { prepareAnd, startHelpersFor, unkeptTableBuffer } from './analyze.ts';
 import { collectImportGarbage } from '../memory.ts';
 import { bandsOf, flqOf, scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
@@ -129,11 +129,12 @@ const share = (v: number) => (v >= 0 && v <= 1 ? null : 'must be a share from 0 
  * 2,000 sectors off the peak). Read here, not in `run`, so no variable of `run` still holds them.
  */
 function studyAndShock(ctx: RunContext, input: string, values: { map: string | undefined; shock: string; project: string | undefined } & Parameters<typeof tableDialect>[0]): { study: Study; shock: Scenario } {
-  const tableFile = ctx.input(input);
+  const keepBytes = values.project !== undefined;
+  const tableFile = ctx.input(input, keepBytes ? {} : { into: unkeptTableBuffer });
   startHelpersFor(tableFile.bytes.length);
   const roles = ctx.roleMap(values.map);
   const shock = parseShockCsv(ctx.input(values.shock).text, values.shock);
-  const study = studyFromTableFile(tableFile.bytes, tableFile.name, { ...tableDialect(values), ...(roles ? { roles } : {}) }, { keepBytes: values.project !== undefined });
+  const study = studyFromTableFile(tableFile.bytes, tableFile.name, { ...tableDialect(values), ...(roles ? { roles } : {}) }, { keepBytes });
   return { study, shock };
 }
 

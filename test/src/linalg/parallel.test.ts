@@ -5,7 +5,7 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { luFactor, luInverse, luSolveMany } from '../../../src/linalg/index.ts';
 import { luFactorReference, luInverseReference } from '../../../src/linalg/lu-reference.ts';
 import { splitJobCount, sharedKernel } from '../../../src/linalg/parallel.ts';
-import { withKeptFactors } from '../../../src/linalg/workspace.ts';
+import { bytesAtFactorHome, withKeptFactors } from '../../../src/linalg/workspace.ts';
 import type { LU } from '../../../src/linalg/index.ts';
 import { startParallelKernels, parallelKernelsReady, stopParallelKernels } from '../../../src/cli/index.ts';
 import { randomMatrix } from '../../support/random.ts';
@@ -28,12 +28,23 @@ describe('kernels with a helper thread', () => {
   });
   afterAll(async () => { await stopParallelKernels(); });
 
+  it('lends the factors\' future home for input read before them (the CLI reads a large table file there)', () => {
+    const bytes = bytesAtFactorHome(4096);
+    expect(bytes).not.toBeNull();
+    expect(bytes!.buffer).toBe(sharedKernel()!.memory.buffer);
+    expect(bytes!.byteOffset).toBe(0);
+    // Garbage where the factors will be kept (every double a NaN): the next test's factors must not see it.
+    bytes!.fill(0xff);
+  });
+
   it('splits large updates and gives bit-identical factors, inverse and solves', () => {
     const before = splitJobCount();
     const f = luFactor(a, N);
     const inv = luInverse(f);
     const many = luSolveMany(f, b, 9);
     kept = f;
+    // The home is taken now: nothing else may be read there.
+    expect(bytesAtFactorHome(16)).toBeNull();
     expect(splitJobCount()).toBeGreaterThan(before);
     expect(sharedKernel()).not.toBeNull();
     expect(Array.from(f.piv)).toEqual(Array.from(single.f.piv));

@@ -145,6 +145,24 @@ describe('readFileLimited', () => {
     expect(r.path).toBe(p);
     expect(r.ino).toBe(statSync(p).ino);
   });
+
+  it('reads into memory the caller gives (a shared one too), and into its own buffer when that is missing or short', () => {
+    const p = join(dir, 'table.csv');
+    const bytes = Buffer.from('a,b\n1,2\n');
+    writeFileSync(p, bytes);
+    const shared = new Uint8Array(new SharedArrayBuffer(64));
+    const asked: number[] = [];
+    const into = readFileLimited(p, { into: (n) => { asked.push(n); return shared; } });
+    expect(asked).toEqual([bytes.length + 1]);
+    expect(Buffer.compare(into.bytes, bytes)).toBe(0);
+    expect(into.bytes.buffer).toBe(shared.buffer);
+    expect(Buffer.compare(shared.subarray(0, bytes.length), bytes)).toBe(0);
+    for (const given of [null, new Uint8Array(bytes.length)]) {
+      const own = readFileLimited(p, { into: () => given });
+      expect(Buffer.compare(own.bytes, bytes)).toBe(0);
+      expect(own.bytes.buffer).not.toBe(given?.buffer);
+    }
+  });
 });
 
 describe('fileError', () => {
