@@ -25,6 +25,8 @@ export interface ModelDecision {
   verdictNote: string | null;
   perronRootClosed: number | null;
   perronRootClosedBounds: [number, number] | null;
+  /** The right vector of the iteration for ρ(Ā) (sums to 1), or null without closure. */
+  perronClosedRight: Float64Array | null;
   closedModel: ClosedModelDecision;
   availability: Availability;
 }
@@ -55,6 +57,11 @@ export interface DecisionOptions {
   perron?: PerronOptions;
   /** The table's structure when already known (modelStructure of a table with the same zeros and signs). */
   structure?: ModelStructure;
+  /**
+   * With `perron.decideAt`: a positive vector to try first for ρ(Ā), e.g. the closed Perron vector of a nearby table
+   * (perron.ts `hint`; the closed-model decision reads only the comparison it keeps the same).
+   */
+  closedHint?: Float64Array;
   /** Spectral radius of A from the full spectrum when it was computed (decides tables with negative flows), else null. */
   spectralRadius?: number | null;
 }
@@ -100,12 +107,14 @@ export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): Mod
 
   let perronRootClosed: number | null = null;
   let perronRootClosedBounds: [number, number] | null = null;
+  let perronClosedRight: Float64Array | null = null;
   if (closed) {
     // On Ā as A plus its border, never formed (closure.ts); bit for bit the iteration on the formed matrix.
     const parts = borderedOf(A, n, closed);
     const { blocks: _openBlocks, rightOnly: _right, ...perronOpts } = opts.perron ?? {};
-    const pc = perronRootBordered(negativeFlows ? borderedAbs(parts, absA) : parts, perronOpts, structure?.closedPeriod ?? undefined);
+    const pc = perronRootBordered(negativeFlows ? borderedAbs(parts, absA) : parts, { ...perronOpts, ...(opts.closedHint ? { hint: opts.closedHint } : {}) }, structure?.closedPeriod ?? undefined);
     perronRootClosed = pc.root;
+    perronClosedRight = pc.right;
     perronRootClosedBounds = [pc.lower, pc.upper];
   }
   const closedModel = decideClosedModel({
@@ -119,7 +128,7 @@ export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): Mod
       : 'the table is not productive (Perron root of A not below 1)',
     closed: closedModel.usable ? true : closedModel.reason!,
   };
-  return { negativeFlows, blocks, perron, hawkinsSimon: hs, productive, verdictNote, perronRootClosed, perronRootClosedBounds, closedModel, availability };
+  return { negativeFlows, blocks, perron, hawkinsSimon: hs, productive, verdictNote, perronRootClosed, perronRootClosedBounds, perronClosedRight, closedModel, availability };
 }
 
 /** Why a study's scenarios use no household closure when its table has a usable one. */

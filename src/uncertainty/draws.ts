@@ -159,6 +159,12 @@ export interface DrawPlan {
    * so the same decision).
    */
   structure: { of: ModelStructure; hc: Float64Array | null; hr: Float64Array | null };
+  /**
+   * The point estimate's Perron vector of Ā: each draw's closed-model decision tries it first (a drawn Ā is near the
+   * point estimate's, so one step from it usually certifies ρ(Ā) < 1, where three or more from 1 did; perron.ts `hint`
+   * says why the decision is the same).
+   */
+  closedHint: Float64Array | null;
 }
 
 /** Resolve the CVs against the table and make the point estimate's model decision once per thread. */
@@ -190,7 +196,15 @@ export function planDraws(setup: DrawSetup, ctx: DrawContext = {}): DrawPlan {
     tableAt: setup.settings.deltaRange && ctx.tableAt ? ctx.tableAt : null,
     A: pm.coef.A,
     structure: { of: structure, hc: pm.closed?.hc ?? null, hr: pm.closed?.hr ?? null },
+    closedHint: positive(base.perronClosedRight),
   };
+}
+
+/** v when every entry is positive (a start vector certifies an upper bound only then), else null. */
+function positive(v: Float64Array | null): Float64Array | null {
+  if (v === null) return null;
+  for (let i = 0; i < v.length; i++) if (!(v[i]! > 0)) return null;
+  return v;
 }
 
 function spectralRadiusFor(setup: DrawSetup, negativeFlows: boolean, A: Float64Array, n: number): number | null {
@@ -272,7 +286,10 @@ function evaluateModel(plan: DrawPlan, pm: PreparedModel, known: ModelStructure 
   const { setup, layout } = plan;
   const n = layout.n;
   const structure = known ?? modelStructure(pm);
-  const decision = decideModels(pm, { structure, spectralRadius: spectralRadiusFor(setup, structure.negativeFlows, pm.coef.A, n), perron: DRAW_PERRON });
+  const decision = decideModels(pm, {
+    structure, spectralRadius: spectralRadiusFor(setup, structure.negativeFlows, pm.coef.A, n), perron: DRAW_PERRON,
+    ...(plan.closedHint ? { closedHint: plan.closedHint } : {}),
+  });
   if (decision.availability.open !== true) return DRAW_STATUS.notProductive;
   if (plan.closed === true && decision.availability.closed !== true) return DRAW_STATUS.closedNotUsable;
   // The point estimate's models: the closed model exactly when the point estimate uses it.
