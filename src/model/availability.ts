@@ -8,7 +8,7 @@
 import { perronRoot, perronRootBordered, type PerronOptions, type PerronResult } from './perron.ts';
 import { borderedAbs, borderedOf } from './closure.ts';
 import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
-import { sectorBlocks, type SectorBlock } from './graph.ts';
+import { borderedPeriod, sectorBlocks, type SectorBlock } from './graph.ts';
 import { closedBorder, type PreparedModel } from './prepared.ts';
 import { decideClosedModel, rememberClosedModelDecision, type ClosedModelDecision } from './closed-model.ts';
 import type { Availability } from './multipliers.ts';
@@ -25,12 +25,43 @@ export interface ModelDecision {
   verdictNote: string | null;
   perronRootClosed: number | null;
   perronRootClosedBounds: [number, number] | null;
+  /** The right vector of the iteration for ρ(Ā) (sums to 1), or null without closure. */
+  perronClosedRight: Float64Array | null;
   closedModel: ClosedModelDecision;
   availability: Availability;
 }
 
+/**
+ * What the decision reads of a table besides its numbers: the signs of A and the sector graphs of A and Ā, which depend
+ * only on which coefficients (and household row and column entries) are zero and which are negative. A table with the
+ * same zeros and signs as one already decided has the same structure (the Monte Carlo draws: positive factors on the
+ * point estimate's table), so it may be passed in instead of found again.
+ */
+export interface ModelStructure {
+  /** A has negative entries. */
+  negativeFlows: boolean;
+  /** Blocks of A's sector graph (graph.ts). */
+  blocks: SectorBlock[];
+  /** The closed graph's period as borderedPeriod gives it (undefined: not strongly connected); null without closure. */
+  closedPeriod: { period: number | null | undefined } | null;
+}
+
+/** The structure of `pm`'s table (see ModelStructure). */
+export function modelStructure(pm: PreparedModel): ModelStructure {
+  const { n, A } = pm.coef;
+  const closedPeriod = pm.closed ? { period: borderedPeriod(borderedOf(A, n, pm.closed)) } : null;
+  return { negativeFlows: hasNegative(A), blocks: sectorBlocks(A, n), closedPeriod };
+}
+
 export interface DecisionOptions {
   perron?: PerronOptions;
+  /** The table's structure when already known (modelStructure of a table with the same zeros and signs). */
+  structure?: ModelStructure;
+  /**
+   * With `perron.decideAt`: a positive vector to try first for ρ(Ā), e.g. the closed Perron vector of a nearby table
+   * (perron.ts `hint`; the closed-model decision reads only the comparison it keeps the same).
+   */
+  closedHint?: Float64Array;
   /** Spectral radius of A from the full spectrum when it was computed (decides tables with negative flows), else null. */
   spectralRadius?: number | null;
 }
@@ -48,9 +79,10 @@ function hasNegative(a: Float64Array): boolean {
 export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): ModelDecision {
   const { closed, openLU } = pm;
   const { n, A } = pm.coef;
-  const negativeFlows = hasNegative(A);
+  const structure = opts.structure ?? null;
+  const negativeFlows = structure ? structure.negativeFlows : hasNegative(A);
   const absA = negativeFlows ? Float64Array.from(A, Math.abs) : A;
-  const blocks = sectorBlocks(A, n);
+  const blocks = structure ? structure.blocks : sectorBlocks(A, n);
   const perron = perronRoot(absA, n, { ...opts.perron, blocks });
   const hs = hawkinsSimon(A, n, openLU);
   const spectralRadius = opts.spectralRadius ?? null;
@@ -75,12 +107,14 @@ export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): Mod
 
   let perronRootClosed: number | null = null;
   let perronRootClosedBounds: [number, number] | null = null;
+  let perronClosedRight: Float64Array | null = null;
   if (closed) {
     // On Ā as A plus its border, never formed (closure.ts); bit for bit the iteration on the formed matrix.
     const parts = borderedOf(A, n, closed);
     const { blocks: _openBlocks, rightOnly: _right, ...perronOpts } = opts.perron ?? {};
-    const pc = perronRootBordered(negativeFlows ? borderedAbs(parts, absA) : parts, perronOpts);
+    const pc = perronRootBordered(negativeFlows ? borderedAbs(parts, absA) : parts, { ...perronOpts, ...(opts.closedHint ? { hint: opts.closedHint } : {}) }, structure?.closedPeriod ?? undefined);
     perronRootClosed = pc.root;
+    perronClosedRight = pc.right;
     perronRootClosedBounds = [pc.lower, pc.upper];
   }
   const closedModel = decideClosedModel({
@@ -94,7 +128,7 @@ export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): Mod
       : 'the table is not productive (Perron root of A not below 1)',
     closed: closedModel.usable ? true : closedModel.reason!,
   };
-  return { negativeFlows, blocks, perron, hawkinsSimon: hs, productive, verdictNote, perronRootClosed, perronRootClosedBounds, closedModel, availability };
+  return { negativeFlows, blocks, perron, hawkinsSimon: hs, productive, verdictNote, perronRootClosed, perronRootClosedBounds, perronClosedRight, closedModel, availability };
 }
 
 /** Why a study's scenarios use no household closure when its table has a usable one. */

@@ -189,9 +189,9 @@ function bordered(b: Bordered): Operator {
  * `vectorsOnly`: stop when the vectors settle (max change ≤ tol·max entry) instead of when the bounds meet — for the
  * whole of a reducible matrix, whose Perron vector may have zeros so its upper bound need not converge.
  */
-function iterate(op: Operator, shift: number, tol: number, maxIter: number, rightOnly = false, vectorsOnly = false, decideAt = Number.NaN): Iterated {
+function iterate(op: Operator, shift: number, tol: number, maxIter: number, rightOnly = false, vectorsOnly = false, decideAt = Number.NaN, start?: Float64Array): Iterated {
   const m = op.m;
-  let v = new Float64Array(m).fill(1);
+  let v = start ? Float64Array.from(start) : new Float64Array(m).fill(1);
   let w = new Float64Array(m).fill(1);
   const g = safety(m);
   let lower = 0;
@@ -332,21 +332,41 @@ export function perronRoot(a: Float64Array, n: number, opts: PerronOptions = {})
   return { root: (lower + upper) / 2, lower, upper, right, left, iterations, converged, blockBounds, blocks };
 }
 
+export interface BorderedPerronOptions extends Omit<PerronOptions, 'blocks' | 'rightOnly'> {
+  /**
+   * With `decideAt`, for callers that read only whether the lower bound reaches it (the closed-model decision): a
+   * positive vector (of length n + 1, e.g. the Perron vector of a nearby matrix) tried for one step first. When that
+   * step's certified upper bound is below `decideAt`, ρ(Ā) < decideAt, so no iteration (from any start) can certify a
+   * lower bound at or above it, and that step's bounds are the result; otherwise the iteration runs from 1 as without
+   * the hint. The lower bound's comparison is therefore always the plain iteration's.
+   */
+  hint?: Float64Array;
+}
+
+function withoutHint(opts: BorderedPerronOptions): Omit<PerronOptions, 'blocks' | 'rightOnly'> {
+  const { hint: _hint, ...rest } = opts;
+  return rest;
+}
+
 /**
  * ρ(Ā) of the household-closed matrix Ā = [A hc; hrᵀ corner] (non-negative), certified as `perronRoot` does, right
  * vector only. When the closed sector graph is strongly connected (households buy from and sell to the sectors, the
  * usual case) the iteration runs on the parts and Ā is never formed; otherwise Ā is formed and analysed block by block.
+ * `known`: borderedPeriod(b) when already found (of a matrix with the same zeros).
  */
-export function perronRootBordered(b: Bordered, opts: Omit<PerronOptions, 'blocks' | 'rightOnly'> = {}): PerronResult {
+export function perronRootBordered(b: Bordered, opts: BorderedPerronOptions = {}, known?: { period: number | null | undefined }): PerronResult {
   const m = b.n + 1;
-  const period = borderedPeriod(b);
-  if (period === undefined) return perronRoot(borderedMatrix(b.A, b.n, b.hc, b.hr, b.corner), m, { ...opts, rightOnly: true });
+  const period = known ? known.period : borderedPeriod(b);
+  if (period === undefined) return perronRoot(borderedMatrix(b.A, b.n, b.hc, b.hr, b.corner), m, { ...withoutHint(opts), rightOnly: true });
   const tol = opts.tolerance ?? 1e-12;
   const blocks: SectorBlock[] = [{ sectors: Array.from({ length: m }, (_, i) => i), cyclic: period !== null, period }];
   if (period === null) {
     return { root: 0, lower: 0, upper: 0, right: new Float64Array(m), left: new Float64Array(m), iterations: 0, converged: true, blockBounds: [[0, 0]], blocks };
   }
-  const r = iterate(bordered(b), period === 1 ? 0 : 1, tol, Math.min(opts.maxIterations ?? defaultCap(m), PERRON_MAX_STEPS), true, false, opts.decideAt);
+  const shift = period === 1 ? 0 : 1;
+  const hinted = opts.hint && opts.decideAt !== undefined && opts.hint.length === m ? iterate(bordered(b), shift, tol, 1, true, false, opts.decideAt, opts.hint) : null;
+  const r = hinted && hinted.upper < opts.decideAt! ? hinted
+    : iterate(bordered(b), shift, tol, Math.min(opts.maxIterations ?? defaultCap(m), PERRON_MAX_STEPS), true, false, opts.decideAt);
   const upper = r.upper < r.lower ? r.lower : r.upper;
   return { root: (r.lower + upper) / 2, lower: r.lower, upper, right: r.right, left: r.left, iterations: r.iterations, converged: r.converged, blockBounds: [[r.lower, r.upper]], blocks };
 }

@@ -102,10 +102,18 @@ function solvableBorder(pm: PreparedModel): ClosedBorder {
 
 /** x̄ = (I − Ā)⁻¹ f̄ for f̄ of length n+1 (the last entry is exogenous household income). Throws when not closed or singular. */
 export function solveClosed(pm: PreparedModel, fbar: Float64Array): Float64Array {
+  return solveClosedFrom(pm, fbar, null);
+}
+
+/**
+ * solveClosed(pm, f̄) when the open solve of its first n entries, (I − A)⁻¹ f, is already at hand (`openSolution`, from
+ * solveOpen; null: solve it here): the same numbers without a second solve.
+ */
+export function solveClosedFrom(pm: PreparedModel, fbar: Float64Array, openSolution: Float64Array | null): Float64Array {
   const { u, w, s } = solvableBorder(pm);
   const n = pm.coef.n;
   const f = fbar.subarray(0, n);
-  const x0 = luSolve(pm.openLU, f);
+  const x0 = openSolution ?? luSolve(pm.openLU, f);
   const y = (fbar[n]! + dot(w, f, n)) / s;
   const out = new Float64Array(n + 1);
   for (let i = 0; i < n; i++) out[i] = x0[i]! + u[i]! * y;

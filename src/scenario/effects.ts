@@ -10,7 +10,7 @@
  * its open-model effect is zero).
  */
 import { InputError } from '../diagnostics/index.ts';
-import { solveClosed, solveOpen, valueAddedPerUnit, type PreparedModel } from '../model/index.ts';
+import { solveClosedFrom, solveOpen, valueAddedPerUnit, type PreparedModel } from '../model/index.ts';
 import type { Availability } from '../model/index.ts';
 import { resolveShock, type ExpandedLine } from './lines.ts';
 import { checkShock, shockNotes } from './shock-checks.ts';
@@ -87,6 +87,12 @@ function outsideSum(rows: readonly OutsideRow[], v: Variable): number {
   return s;
 }
 
+/** The first n entries of p and q are equal. */
+function sameEntries(p: Float64Array, q: Float64Array, n: number): boolean {
+  for (let i = 0; i < n; i++) if (!Object.is(p[i], q[i])) return false;
+  return true;
+}
+
 /** The effects of one phase's lines. `inputs` holds what the lines may refer to (mixes, activities, margins, prices). */
 export function runPhase(pm: PreparedModel, set: LineSet, models: ScenarioModels, inputs: ShockInputs = NO_SHOCK_INPUTS, opts: PhaseRunOptions = {}): ScenarioResult {
   return runPhaseExpanded(pm, set, models, inputs, opts).result;
@@ -106,7 +112,10 @@ export function runPhaseExpanded(pm: PreparedModel, set: LineSet, models: Scenar
   const demand = Float64Array.from(shock.df);
   for (let i = 0; i < n; i++) demand[i] = demand[i]! + shock.dfIndirect[i]!;
 
-  const open = solveMixed((b) => solveOpen(pm, b), n, demand, shock.fixed, shock.fixedOutput);
+  // The closed solves below make the same open solves, in the same order (the demand, then a unit vector per fixed
+  // sector): each reuses the open one when its right-hand side is the same.
+  const openSolves: { b: Float64Array; x: Float64Array }[] = [];
+  const open = solveMixed((b) => { const x = solveOpen(pm, b); openSolves.push({ b, x }); return x; }, n, demand, shock.fixed, shock.fixedOutput);
   let closedOutput: Float64Array | null = null;
   let closedHouseholdIncome: number | null = null;
   let closedDemand: Float64Array | null = null;
@@ -115,7 +124,11 @@ export function runPhaseExpanded(pm: PreparedModel, set: LineSet, models: Scenar
     const fbar = new Float64Array(m);
     fbar.set(demand);
     fbar[n] = shock.householdIncome;
-    const closed = solveMixed((b) => solveClosed(pm, b), m, fbar, shock.fixed, shock.fixedOutput);
+    let call = 0;
+    const closed = solveMixed((b) => {
+      const known = openSolves[call++];
+      return solveClosedFrom(pm, b, known && sameEntries(known.b, b, n) ? known.x : null);
+    }, m, fbar, shock.fixed, shock.fixedOutput);
     closedOutput = closed.x.slice(0, n);
     closedHouseholdIncome = closed.x[n]!;
     closedDemand = closed.fEffective;

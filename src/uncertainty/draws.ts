@@ -14,7 +14,10 @@
  */
 import { isInputError } from '../diagnostics/index.ts';
 import { releaseLU } from '../linalg/index.ts';
-import { coefficients, computeMultipliers, decideModels, modelsForClosure, prepareModel, spectrum, type Availability, type Multipliers, type PreparedModel } from '../model/index.ts';
+import {
+  coefficients, computeMultipliers, decideModels, modelStructure, modelsForClosure, prepareModel, spectrum,
+  type Availability, type ModelStructure, type Multipliers, type PreparedModel,
+} from '../model/index.ts';
 import { runPhase, VARIABLES, type LineSet, type ScenarioResult, type ShockInputs, type Variable } from '../scenario/index.ts';
 import type { IOTable } from '../table/index.ts';
 import { sigmaPlan, type SigmaPlan } from './cv.ts';
@@ -149,6 +152,19 @@ export interface DrawPlan {
   tableAt: ((delta: number) => IOTable) | null;
   /** The point estimate's intermediate coefficients (each draw multiplies them by its factors). */
   A: Float64Array;
+  /**
+   * The point estimate's signs and sector graphs (decideModels), and the household row and column they were found
+   * with: a draw whose coefficients have the same zeros and signs (positive factors on these A) and whose household
+   * row and column have the same zeros uses them instead of searching its graphs again (the same blocks and periods,
+   * so the same decision).
+   */
+  structure: { of: ModelStructure; hc: Float64Array | null; hr: Float64Array | null };
+  /**
+   * The point estimate's Perron vector of Ā: each draw's closed-model decision tries it first (a drawn Ā is near the
+   * point estimate's, so one step from it usually certifies ρ(Ā) < 1, where three or more from 1 did; perron.ts `hint`
+   * says why the decision is the same).
+   */
+  closedHint: Float64Array | null;
 }
 
 /** Resolve the CVs against the table and make the point estimate's model decision once per thread. */
@@ -169,7 +185,8 @@ const DRAW_PERRON = { decideAt: 1 };
 
 export function planDraws(setup: DrawSetup, ctx: DrawContext = {}): DrawPlan {
   const pm = modelOf(setup.table, setup.residentShare);
-  const base = decideModels(pm, { spectralRadius: spectralRadiusFor(setup, pm.coef.A, pm.coef.n) });
+  const structure = modelStructure(pm);
+  const base = decideModels(pm, { structure, spectralRadius: spectralRadiusFor(setup, structure.negativeFlows, pm.coef.A, pm.coef.n) });
   return {
     setup,
     layout: layoutOf(setup),
@@ -178,14 +195,21 @@ export function planDraws(setup: DrawSetup, ctx: DrawContext = {}): DrawPlan {
     shareGroups: setup.scenarios.map(localShareGroups),
     tableAt: setup.settings.deltaRange && ctx.tableAt ? ctx.tableAt : null,
     A: pm.coef.A,
+    structure: { of: structure, hc: pm.closed?.hc ?? null, hr: pm.closed?.hr ?? null },
+    closedHint: positive(base.perronClosedRight),
   };
 }
 
-function spectralRadiusFor(setup: DrawSetup, A: Float64Array, n: number): number | null {
-  if (!setup.spectrum) return null;
-  let negative = false;
-  for (let k = 0; k < A.length; k++) if (A[k]! < 0) { negative = true; break; }
-  if (!negative) return null; // only tables with negative flows need it for the verdict
+/** v when every entry is positive (a start vector certifies an upper bound only then), else null. */
+function positive(v: Float64Array | null): Float64Array | null {
+  if (v === null) return null;
+  for (let i = 0; i < v.length; i++) if (!(v[i]! > 0)) return null;
+  return v;
+}
+
+function spectralRadiusFor(setup: DrawSetup, negativeFlows: boolean, A: Float64Array, n: number): number | null {
+  // Only tables with negative flows need it for the verdict.
+  if (!setup.spectrum || !negativeFlows) return null;
   const modes = spectrum(A, n);
   return modes.length ? modes[0]!.modulus : null;
 }
@@ -231,23 +255,41 @@ function drawShares(s: LineSet, groups: ShareGroups, range: number, rng: Stream)
   return { ...s, lines };
 }
 
+function sameZeros(p: Float64Array | null, q: Float64Array | null): boolean {
+  if (p === null || q === null) return p === q;
+  if (p.length !== q.length) return false;
+  for (let i = 0; i < p.length; i++) if ((p[i] === 0) !== (q[i] === 0)) return false;
+  return true;
+}
+
+/** The plan's structure when `pm` (whose A has the plan's zeros and signs) has the plan's household zeros too, else null. */
+function knownStructure(plan: DrawPlan, pm: PreparedModel): ModelStructure | null {
+  const { of, hc, hr } = plan.structure;
+  return sameZeros(pm.closed?.hc ?? null, hc) && sameZeros(pm.closed?.hr ?? null, hr) ? of : null;
+}
+
 /**
  * One evaluation of the study's quantities on `table` (perturbed or not), written at `out[base…]`: the status says
- * whether it counts. `shares` is the local-share stream (null: the shares as typed).
+ * whether it counts. `shares` is the local-share stream (null: the shares as typed). `zerosKept`: A has the zeros and
+ * signs of the plan's A.
  */
-function evaluate(plan: DrawPlan, table: IOTable, A: Float64Array | undefined, shares: Stream | null, out: Float64Array, base: number): DrawStatus {
+function evaluate(plan: DrawPlan, table: IOTable, A: Float64Array | undefined, zerosKept: boolean, shares: Stream | null, out: Float64Array, base: number): DrawStatus {
   const pm = modelOf(table, plan.setup.residentShare, A);
   try {
-    return evaluateModel(plan, pm, shares, out, base);
+    return evaluateModel(plan, pm, zerosKept ? knownStructure(plan, pm) : null, shares, out, base);
   } finally {
     releaseLU(pm.openLU); // nothing of the draw's model is kept: the next draw factors in the same storage
   }
 }
 
-function evaluateModel(plan: DrawPlan, pm: PreparedModel, shares: Stream | null, out: Float64Array, base: number): DrawStatus {
+function evaluateModel(plan: DrawPlan, pm: PreparedModel, known: ModelStructure | null, shares: Stream | null, out: Float64Array, base: number): DrawStatus {
   const { setup, layout } = plan;
   const n = layout.n;
-  const decision = decideModels(pm, { spectralRadius: spectralRadiusFor(setup, pm.coef.A, n), perron: DRAW_PERRON });
+  const structure = known ?? modelStructure(pm);
+  const decision = decideModels(pm, {
+    structure, spectralRadius: spectralRadiusFor(setup, structure.negativeFlows, pm.coef.A, n), perron: DRAW_PERRON,
+    ...(plan.closedHint ? { closedHint: plan.closedHint } : {}),
+  });
   if (decision.availability.open !== true) return DRAW_STATUS.notProductive;
   if (plan.closed === true && decision.availability.closed !== true) return DRAW_STATUS.closedNotUsable;
   // The point estimate's models: the closed model exactly when the point estimate uses it.
@@ -274,7 +316,7 @@ function evaluateModel(plan: DrawPlan, pm: PreparedModel, shares: Stream | null,
 /** The point estimate through the same evaluation (no perturbation, δ and local shares as estimated and typed). */
 export function pointEstimate(plan: DrawPlan): { values: Float64Array; status: DrawStatus } {
   const values = new Float64Array(plan.layout.size);
-  return { values, status: evaluate(plan, plan.setup.table, plan.A, null, values, 0) };
+  return { values, status: evaluate(plan, plan.setup.table, plan.A, true, null, values, 0) };
 }
 
 /** Draws from ≤ k < to. Draw k depends only on (seed, k): any split of the draws over threads gives the same numbers. */
@@ -291,15 +333,20 @@ export function runDraws(plan: DrawPlan, from: number, to: number): DrawChunk {
     const k = from + c;
     let table = setup.table;
     let A = plan.A;
+    let zerosKept = true;
     if (plan.tableAt && deltaRange) {
       const d = deltaRange[0] + (deltaRange[1] - deltaRange[0]) * new Stream(seed, k, PURPOSE.delta).uniform();
       delta[c] = d;
       table = plan.tableAt(d);
       A = coefficients(table).A;
+      zerosKept = false; // another table: its own structure
     }
     const drawn = perturbCoefficients(table, A, plan.sigma, new Stream(seed, k, PURPOSE.coefficients), buffer);
-    if (drawn) ({ table, A } = drawn);
-    status[c] = evaluate(plan, table, A, new Stream(seed, k, PURPOSE.localShares), values, c * layout.size);
+    if (drawn) {
+      ({ table, A } = drawn);
+      zerosKept &&= drawn.zerosKept;
+    }
+    status[c] = evaluate(plan, table, A, zerosKept, new Stream(seed, k, PURPOSE.localShares), values, c * layout.size);
   }
   return { from, to, values, status, delta };
 }

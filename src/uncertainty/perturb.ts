@@ -44,30 +44,39 @@ function perturbRows(rows: LabelledVector[], sigmas: (number | Float64Array)[], 
 /**
  * The draw's intermediate coefficients written into `out`: a_ij·f_ij with a factor drawn for every non-zero flow z_ij in
  * row-major order, as perturbTable draws them (a_ij = z_ij/x_j with x held fixed, so perturbing the coefficient is
- * perturbing the flow; only the last bit of rounding differs from dividing a perturbed flow).
+ * perturbing the flow; only the last bit of rounding differs from dividing a perturbed flow). Returns whether `out` is
+ * zero exactly where A is (a factor is positive, so then every entry also keeps its sign): false only when a product
+ * underflowed to zero or a flow of zero has a non-zero coefficient.
  */
-function perturbCoefficientsInto(Z: Float64Array, A: Float64Array, sigma: number | Float64Array, rng: Stream, out: Float64Array): void {
+function perturbCoefficientsInto(Z: Float64Array, A: Float64Array, sigma: number | Float64Array, rng: Stream, out: Float64Array): boolean {
   const uniform = typeof sigma === 'number';
   const s0 = uniform ? sigma : 0;
   const shift0 = -0.5 * s0 * s0;
+  let kept = true;
   for (let i = 0; i < Z.length; i++) {
-    if (Z[i] === 0) { out[i] = 0; continue; }
-    if (uniform) out[i] = A[i]! * Math.exp(shift0 + s0 * rng.normal());
+    const a = A[i]!;
+    if (Z[i] === 0) { out[i] = 0; if (a !== 0) kept = false; continue; }
+    let x: number;
+    if (uniform) x = a * Math.exp(shift0 + s0 * rng.normal());
     else {
       const s = sigma[i]!;
-      out[i] = A[i]! * Math.exp(s * rng.normal() - 0.5 * s * s);
+      x = a * Math.exp(s * rng.normal() - 0.5 * s * s);
     }
+    out[i] = x;
+    if (x === 0 && a !== 0) kept = false;
   }
+  return kept;
 }
 
 /**
  * One draw's table and coefficients without forming the perturbed flows: `A` (the unperturbed table's coefficients)
  * times the factors, written into `out`; the labour-income and household rows perturbed as perturbTable does, from
- * the same stream after the coefficients. Returns null when nothing is perturbed (the caller uses the table as it is).
+ * the same stream after the coefficients. `zerosKept`: `out` has A's zeros and signs (perturbCoefficientsInto).
+ * Returns null when nothing is perturbed (the caller uses the table as it is).
  */
-export function perturbCoefficients(table: IOTable, A: Float64Array, plan: SigmaPlan, rng: Stream, out: Float64Array): { table: IOTable; A: Float64Array } | null {
+export function perturbCoefficients(table: IOTable, A: Float64Array, plan: SigmaPlan, rng: Stream, out: Float64Array): { table: IOTable; A: Float64Array; zerosKept: boolean } | null {
   if (!plan.perturbed) return null;
-  perturbCoefficientsInto(table.Z, A, plan.z, rng, out);
+  const zerosKept = perturbCoefficientsInto(table.Z, A, plan.z, rng, out);
   return {
     table: {
       ...table,
@@ -75,6 +84,7 @@ export function perturbCoefficients(table: IOTable, A: Float64Array, plan: Sigma
       householdConsumption: perturbRows(table.householdConsumption, plan.household, rng),
     },
     A: out,
+    zerosKept,
   };
 }
 

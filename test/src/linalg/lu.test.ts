@@ -52,7 +52,8 @@ describe(`kernel mode ${mode}`, () => {
         expect(relDiff(luSolveTransposed(f, b), luSolveTransposedReference(g, b))).toBeLessThan(1e-10);
         // Several transposed solves in one pass: each vector bit for bit what its own solve gives (a zero vector and
         // one with zeros in it take the solve's skip of zero entries).
-        const cs = [b, randomMatrix(1, n, 31 + n), new Float64Array(n), Float64Array.from(b, (v, i) => (i % 3 === 0 ? 0 : v))];
+        // Six vectors: four solved together, two alone.
+        const cs = [b, randomMatrix(1, n, 31 + n), new Float64Array(n), Float64Array.from(b, (v, i) => (i % 3 === 0 ? 0 : v)), randomMatrix(1, n, 41 + n), Float64Array.from(b, (v) => -v)];
         const many = luSolveTransposedMany(f, cs);
         expect(many).toHaveLength(cs.length);
         many.forEach((y, r) => expect(Array.from(y)).toEqual(Array.from(luSolveTransposed(f, cs[r]!))));

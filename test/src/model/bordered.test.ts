@@ -72,6 +72,35 @@ describe('bordered closed matrix', () => {
     }
   });
 
+  it('a hint decides ρ(Ā) < 1 in one step when it can, and the lower bound reaches 1 exactly when it does without one', () => {
+    // Collatz–Wielandt (Horn & Johnson 2013, Cor 8.1.29): any positive vector certifies an upper bound, so a hinted
+    // step with upper < 1 proves ρ(Ā) < 1 and no certified lower bound can reach 1 (the closed-model decision reads
+    // only that); otherwise the plain iteration runs, bit for bit.
+    let hintedOne = 0, plainSteps = 0, fellBack = 0;
+    for (let seed = 1; seed <= 60; seed++) {
+      const n = 2 + (seed % 17);
+      // Scaled so that some seeds have ρ(Ā) above 1 (the hint cannot settle those).
+      const b = randomParts(n, 2000 + seed, [0, 0.3, 0.6][seed % 3]!);
+      if (seed % 4 === 0) for (let k = 0; k < b.A.length; k++) b.A[k] = b.A[k]! * 1.8;
+      const near = perronRootBordered({ ...b, A: b.A.map((v) => v * 1.01) }).right; // the Perron vector of a nearby matrix
+      const plain = perronRootBordered(b, { decideAt: 1 });
+      const hinted = perronRootBordered(b, { decideAt: 1, hint: near });
+      expect(hinted.lower >= 1).toBe(plain.lower >= 1);
+      if (hinted.iterations === 1 && hinted.upper < 1) {
+        hintedOne++;
+        plainSteps += plain.iterations;
+      } else {
+        fellBack++;
+        expect(hinted.lower).toBe(plain.lower);
+        expect(hinted.upper).toBe(plain.upper);
+        expect(hinted.iterations).toBe(plain.iterations);
+      }
+    }
+    expect(hintedOne).toBeGreaterThan(10);
+    expect(plainSteps).toBeGreaterThan(hintedOne); // the plain iteration needed more steps for those
+    expect(fellBack).toBeGreaterThan(3);
+  });
+
   it('a periodic closed graph (households ⇄ one sector ⇄ another) gets the same certified root', () => {
     // Arcs follow the entries (row i, column j ≠ 0: i → j): a_01 = 0.5 (0 → 1), Ā's column entry for sector 1 = 0.3
     // (1 → households), its row entry for sector 0 = 0.6 (households → 0): one cycle 0 → 1 → h → 0 of length 3.
