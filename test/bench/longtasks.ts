@@ -1,6 +1,6 @@
 /**
  * Long main-thread tasks in the app while it imports and analyses a large table: the app as the bench runs it
- * (browser.ts: the production build on Vite's preview server, Debian's Chromium, a page recording long tasks from its
+ * (browser.ts: the production build served by test/e2e/built-renderer.ts, Debian's Chromium, a page recording long tasks from its
  * first script), the file given to the import screen's file input, accepted, then the multiplier table shown.
  * A long task is one that kept the main thread busy for more than 50 ms (the Long Tasks API's definition).
  */

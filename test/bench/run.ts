@@ -223,7 +223,7 @@ for (const c of [...clis, ...scenarios, ...(large ? [large] : [])]) {
 }
 if ('skipped' in app) console.log(`App long tasks: ${app.skipped}.`);
 else {
-  console.log(`App at n=${app.n} (Chromium, production build on Vite's preview server): file chosen to multiplier table on screen ${fmt(app.totalMs)}; ${app.tasks.length} long task(s) (> 50 ms) on the main thread, ${app.over100} over 100 ms, longest ${fmt(app.maxMs)}.`);
+  console.log(`App at n=${app.n} (Chromium, production build, built-renderer.ts): file chosen to multiplier table on screen ${fmt(app.totalMs)}; ${app.tasks.length} long task(s) (> 50 ms) on the main thread, ${app.over100} over 100 ms, longest ${fmt(app.maxMs)}.`);
   for (const t of app.tasks) console.log(`  long task at +${fmt(t.startMs)}: ${fmt(t.durationMs)} (${t.phase})`);
 }
 
