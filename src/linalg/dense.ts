@@ -20,13 +20,22 @@ export function identityMinusIntoMax(a: Float64Array, n: number, out: Float64Arr
   let best = 0;
   for (let i = 0; i < n; i++) {
     const row = i * n;
-    for (let j = 0; j < n; j++) {
-      const k = row + j;
-      const v = j === i ? -a[k]! + 1 : -a[k]!;
-      out[k] = v;
-      const m = Math.abs(v);
-      if (m > best) best = m;
-    }
+    best = negatedMax(a, out, row, row + i, best);
+    const d = -a[row + i]! + 1;
+    out[row + i] = d;
+    if (Math.abs(d) > best) best = Math.abs(d);
+    best = negatedMax(a, out, row + i + 1, row + n, best);
+  }
+  return best;
+}
+
+/** out[k] ← −a[k] for from ≤ k < to; returns the larger of `best` and every |out[k]| (NaN skipped, as `>` skips it). */
+function negatedMax(a: Float64Array, out: Float64Array, from: number, to: number, best: number): number {
+  for (let k = from; k < to; k++) {
+    const v = -a[k]!;
+    out[k] = v;
+    const m = Math.abs(v);
+    if (m > best) best = m;
   }
   return best;
 }
