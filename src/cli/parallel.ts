@@ -5,12 +5,25 @@
  */
 import { Worker } from 'node:worker_threads';
 import { availableParallelism } from 'node:os';
-import { attachHelpers, createParallelKernel, detachHelpers, readyHelpers, CONTROL_LAYOUT } from '../linalg/index.ts';
+import { attachHelpers, createParallelKernel, detachHelpers, readyHelpers, CONTROL_LAYOUT, type ParallelKernel } from '../linalg/index.ts';
 
 /** Where the helpers' first kept factorisation will be, lent to input that dies before it (src/linalg/workspace.ts). */
 export { bytesAtFactorHome } from '../linalg/index.ts';
 
 let workers: Worker[] = [];
+/** The helpers' kernel made ahead of them (reserveParallelKernel), for startParallelKernels to take. */
+let reserved: ParallelKernel | null = null;
+
+/**
+ * The kernel and shared memory the helpers will run on, made before they start (null when none would start, or they
+ * run already): a caller can read input into that memory (bytesAtFactorHome) before the helpers' start-up competes
+ * with the read for the process's memory map.
+ */
+export function reserveParallelKernel(helpers = availableParallelism() - 1): ParallelKernel | null {
+  if (workers.length > 0 || helpers < 1) return null;
+  reserved ??= createParallelKernel();
+  return reserved;
+}
 
 /**
  * Start `helpers` helper threads (default: one fewer than the machine's cores). Returns the number started (0 when
@@ -18,7 +31,8 @@ let workers: Worker[] = [];
  */
 export function startParallelKernels(helpers = availableParallelism() - 1): number {
   if (workers.length > 0 || helpers < 1) return workers.length;
-  const pk = createParallelKernel();
+  const pk = reserved ?? createParallelKernel();
+  reserved = null;
   if (pk === null) return 0;
   const url = new URL('./parallel-worker.mjs', import.meta.url);
   for (let index = 0; index < helpers; index++) {

@@ -83,15 +83,15 @@ export function factorStorage(elements: number): FactorStorage | null {
 }
 
 /**
- * `bytes` bytes at the start of the helpers' shared memory, where the first kept factorisation will be placed
- * (factorStorage), for input that is dead before any kernel runs: the CLI reads a large table file there, so the
- * factors later reuse pages that reading the file already touched instead of faulting in fresh ones (21 MB at 2,000
- * sectors; README "Performance"). The caller must drop the view before the first workspace or factorisation, which
- * overwrite it. Null without helpers, once a factorisation is kept there, or without memory to grow.
+ * `bytes` bytes at the start of the helpers' shared memory (`shared`, the kernel they run or will run on), where the
+ * first kept factorisation will be placed (factorStorage), for input that is dead before any kernel runs: the CLI
+ * reads a large table file there, so the factors later reuse pages that reading the file already touched instead of
+ * faulting in fresh ones (21 MB at 2,000 sectors; README "Performance"). The caller must drop the view before the
+ * first workspace or factorisation, which overwrite it. Null once a factorisation is kept there, or without memory to
+ * grow.
  */
-export function bytesAtFactorHome(bytes: number): Uint8Array | null {
-  const shared = sharedKernel();
-  if (shared === null || busy || pinnedEnd(shared) > 0 || grown(shared, bytes) === null) return null;
+export function bytesAtFactorHome(shared: WasmKernel, bytes: number): Uint8Array | null {
+  if (busy || pinnedEnd(shared) > 0 || grown(shared, bytes) === null) return null;
   return new Uint8Array(shared.memory.buffer, 0, bytes);
 }
 

@@ -139,15 +139,44 @@ function denseStronglyConnected(a: Float64Array, n: number): Int32Array | null {
     for (let v = 0; v < n; v++) if (level[v] === -1 && a[row + v] !== 0) { level[v] = level[u]! + 1; queue[tail++] = v; }
   }
   if (tail < n) return null;
+  return everyRowReaches0(a, n) ? level : null;
+}
+
+/** Sweeps over the rows before the column search of everyRowReaches0 takes over. */
+const ROW_SWEEPS = 2;
+
+/**
+ * Does every sector reach sector 0 along a_uv ≠ 0? First by sweeps over the rows (u reaches 0 when a_uv ≠ 0 for a v
+ * already known to): the matrix is read row by row, and a dense table is settled in the first sweep after a few
+ * entries per row. What the sweeps leave open is settled by a breadth-first search backward from every sector known to
+ * reach 0, which reads the matrix by columns (at 2,000 sectors a column walk alone, 4 million strided reads, took
+ * about 0.1 s). Either way the answer is the same set of sectors.
+ */
+function everyRowReaches0(a: Float64Array, n: number): boolean {
   const seen = new Uint8Array(n);
   seen[0] = 1;
-  queue[0] = 0;
-  head = 0; tail = 1;
+  let count = 1;
+  for (let sweep = 0; sweep < ROW_SWEEPS && count < n; sweep++) {
+    const before = count;
+    for (let u = 1; u < n; u++) {
+      if (seen[u]) continue;
+      const row = u * n;
+      for (let v = 0; v < n; v++) {
+        if (seen[v] && a[row + v] !== 0) { seen[u] = 1; count++; break; }
+      }
+    }
+    if (count === before) break;
+  }
+  if (count === n) return true;
+  const queue = new Int32Array(n);
+  let tail = 0;
+  for (let v = 0; v < n; v++) if (seen[v]) queue[tail++] = v;
+  let head = 0;
   while (head < tail) {
     const v = queue[head++]!;
     for (let u = 0; u < n; u++) if (!seen[u] && a[u * n + v] !== 0) { seen[u] = 1; queue[tail++] = u; }
   }
-  return tail < n ? null : level;
+  return tail === n;
 }
 
 /** Period of a strongly connected dense matrix from its forward levels (gcd over all edges, stopping at 1). */

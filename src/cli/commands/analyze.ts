@@ -10,7 +10,7 @@ import {
 import { bandsOf, multiplierBandsSummary, uncertaintySettingsOf, UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand, type RunContext } from '../command.ts';
-import { bytesAtFactorHome, parallelKernelsReady, startParallelKernels, stopParallelKernels } from '../parallel.ts';
+import { bytesAtFactorHome, parallelKernelsReady, reserveParallelKernel, startParallelKernels, stopParallelKernels } from '../parallel.ts';
 import { collectImportGarbage } from '../memory.ts';
 
 /**
@@ -67,23 +67,23 @@ export function summary(ps: PreparedStudy): string {
 const EARLY_HELPER_BYTES = 4 << 20;
 
 /**
- * Start the helper threads as soon as the size of a large table file is known, before it is parsed: their start-up (a
- * thread, the kernel's instantiation) then overlaps the reading and parsing on the other core, and `withHelperThreads`
- * finds them ready. The command's end stops them (main.ts) if nothing did before.
+ * Start the helper threads as soon as a large table file has been read, before it is parsed: their start-up (a thread,
+ * the kernel's instantiation) then overlaps the parsing on the other core, and `withHelperThreads` finds them ready.
+ * The command's end stops them (main.ts) if nothing did before.
  */
 export function startHelpersFor(tableBytes: number): void {
   if (tableBytes >= EARLY_HELPER_BYTES) startParallelKernels();
 }
 
 /**
- * Where to read a table file whose bytes the run does not keep (`into` of RunContext.input): a large one starts the
- * helpers and is read where its factors will be kept (`bytesAtFactorHome`), so the factorisation reuses the pages the
- * file's bytes touched instead of faulting in fresh ones; the bytes are dead by then (the study drops them after the
- * import). Anything else gets a buffer of its own.
+ * Where to read a table file whose bytes the run does not keep (`into` of RunContext.input): a large one is read into
+ * the memory its helpers will share (made now, the helpers started after the read), where its factors will be kept
+ * (`bytesAtFactorHome`), so the factorisation reuses the pages the file's bytes touched instead of faulting in fresh
+ * ones; the bytes are dead by then (the study drops them after the import). Anything else gets a buffer of its own.
  */
 export function unkeptTableBuffer(bytes: number): Uint8Array | null {
-  startHelpersFor(bytes);
-  return bytes >= EARLY_HELPER_BYTES ? bytesAtFactorHome(bytes) : null;
+  const pk = bytes >= EARLY_HELPER_BYTES ? reserveParallelKernel() : null;
+  return pk === null ? null : bytesAtFactorHome(pk.kernel, bytes);
 }
 
 /**
@@ -123,6 +123,7 @@ export async function prepareAnd<T>(study: Study, opts: PrepareOptions, use: (ps
  */
 function tableStudy(ctx: RunContext, path: string, settings: ImportSettings): Study {
   const file = ctx.input(path, { into: unkeptTableBuffer });
+  startHelpersFor(file.bytes.length);
   return studyFromTableFile(file.bytes, file.name, settings, { keepBytes: false });
 }
 

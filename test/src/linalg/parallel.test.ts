@@ -29,7 +29,7 @@ describe('kernels with a helper thread', () => {
   afterAll(async () => { await stopParallelKernels(); });
 
   it('lends the factors\' future home for input read before them (the CLI reads a large table file there)', () => {
-    const bytes = bytesAtFactorHome(4096);
+    const bytes = bytesAtFactorHome(sharedKernel()!, 4096);
     expect(bytes).not.toBeNull();
     expect(bytes!.buffer).toBe(sharedKernel()!.memory.buffer);
     expect(bytes!.byteOffset).toBe(0);
@@ -44,7 +44,7 @@ describe('kernels with a helper thread', () => {
     const many = luSolveMany(f, b, 9);
     kept = f;
     // The home is taken now: nothing else may be read there.
-    expect(bytesAtFactorHome(16)).toBeNull();
+    expect(bytesAtFactorHome(sharedKernel()!, 16)).toBeNull();
     expect(splitJobCount()).toBeGreaterThan(before);
     expect(sharedKernel()).not.toBeNull();
     expect(Array.from(f.piv)).toEqual(Array.from(single.f.piv));

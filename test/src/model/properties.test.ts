@@ -44,6 +44,24 @@ function scaledTo(rows: number[][], t: number): number[][] | null {
 }
 
 describe('theorems (fast-check)', () => {
+  it('the blocks of the sector graph are its strongly connected components (by definition: mutual reachability, here by Warshall\'s transitive closure)', () => {
+    // Sparse patterns of up to 12 sectors (mostly zeros, so the matrix is often reducible and the dense shortcut's
+    // sweeps leave work to its column search), and full ones.
+    const pattern = fc.integer({ min: 1, max: 12 }).chain((n) => fc.tuple(fc.constant(n), fc.array(fc.oneof(fc.constant(0), fc.constant(0), fc.constant(0), fc.constant(0.5)), { minLength: n * n, maxLength: n * n })));
+    fc.assert(fc.property(pattern, ([n, flat]) => {
+      const reach = flat.map((v) => v !== 0);
+      for (let k = 0; k < n; k++) for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (reach[i * n + k] && reach[k * n + j]) reach[i * n + j] = true;
+      const blockOf = new Int32Array(n).fill(-1);
+      sectorBlocks(Float64Array.from(flat), n).forEach((b, k) => { for (const i of b.sectors) blockOf[i] = k; });
+      for (let i = 0; i < n; i++) {
+        for (let j = 0; j < n; j++) {
+          const mutual = i === j || (reach[i * n + j]! && reach[j * n + i]!);
+          expect(blockOf[i] === blockOf[j]).toBe(mutual);
+        }
+      }
+    }), { numRuns: 300 });
+  });
+
   it('Hawkins–Simon ⇔ ρ(A) < 1 for non-negative A (Hawkins & Simon, Econometrica 1949)', () => {
     fc.assert(fc.property(nonNegative, fc.double({ min: 0.3, max: 1.7, noNaN: true }), (raw, t) => {
       const a = scaledTo(raw, t);
