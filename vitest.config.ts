@@ -1,4 +1,5 @@
 import { defineConfig } from 'vitest/config';
+import { BaseSequencer, type TestSpecification } from 'vitest/node';
 import { fileURLToPath } from 'node:url';
 
 const root = fileURLToPath(new URL('.', import.meta.url));
@@ -12,6 +13,18 @@ const SHELL_ISOLATED = [
   'test/renderer/client.test.ts', 'test/renderer/recompute.test.ts', 'test/renderer/bridge/browser.test.ts',
   'test/renderer/bridge/recovery-slots.test.ts',
 ];
+
+/**
+ * Vitest's own order (projects by name, then larger or longer files first) with the e2e files last: the e2e server's
+ * renderer is built while the engine and shell files run (test/e2e/built-renderer.ts), instead of before any file.
+ */
+class E2eLast extends BaseSequencer {
+  override async sort(files: TestSpecification[]): Promise<TestSpecification[]> {
+    const sorted = await super.sort(files);
+    const e2e = (f: TestSpecification) => f.project.name === 'e2e';
+    return [...sorted.filter((f) => !e2e(f)), ...sorted.filter(e2e)];
+  }
+}
 
 /**
  * Four projects (`npm test` runs all; `--project NAME` one):
@@ -31,6 +44,7 @@ export default defineConfig({
   test: {
     root,
     maxWorkers: 2,
+    sequence: { sequencer: E2eLast },
     projects: [
       {
         test: {

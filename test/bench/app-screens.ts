@@ -1,6 +1,6 @@
 /**
  * The app at a large table, as a planner uses it: Debian's Chromium (playwright-core) against the renderer built for
- * production (the real renderer config, as the desktop build and the e2e harness serve it) by Vite's preview server, a
+ * production (the real renderer config, as the desktop build and the e2e harness serve it; test/e2e/built-renderer.ts), a
  * table of n sectors chosen on the Import screen, accepted, then every screen visited, a sector typed into a scenario
  * line's picker, a filter typed into the multiplier table, and a scenario amount changed.
  *
@@ -17,8 +17,6 @@ import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
 import { inventedFile, startBenchApp, tableInUse } from './browser.ts';
 import { CHROMIUM } from '../e2e/harness.ts';
-
-/** The e2e harness's flags (test/e2e/harness.ts), repeated here: the bench runs outside vitest, without its setup. */
 
 export interface Step {
   /** What was done. */

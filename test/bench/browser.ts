@@ -32,6 +32,7 @@ export interface BenchApp {
 export async function startBenchApp(opts: { minify?: boolean } = {}): Promise<BenchApp | null> {
   if (!existsSync(CHROMIUM)) return null;
   const app = await serveBuiltRenderer(opts);
+  await app.ready;
   const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
   return {
     url: app.url,

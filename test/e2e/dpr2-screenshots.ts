@@ -14,6 +14,7 @@ import { CHROMIUM, CHROMIUM_ARGS, SCREENSHOTS, goTo } from './harness.ts';
 const SCREENS = ['overview', 'import', 'table', 'structure', 'multipliers', 'scenarios', 'export', 'regional', 'supply-use', 'guide'];
 
 const app = await serveBuiltRenderer();
+await app.ready;
 const browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
 const problems: string[] = [];
 try {

@@ -60,11 +60,15 @@ export interface Session {
 }
 
 let workerBrowser: Promise<Browser> | null = null;
+let builtOk: Promise<void> | null = null;
 
 export async function startSession(): Promise<Session> {
   requireChromium();
   const shared = inject('e2e');
   if (!shared) throw new Error('e2e: the shared server was not started (run the e2e project of vitest.config.ts).');
+  // The server answers once the renderer is built (built-renderer.ts); a failed build is said here, not as a timeout.
+  builtOk ??= fetch(shared.url).then(async (r) => { if (!r.ok) throw new Error(`e2e: ${await r.text()}`); });
+  await builtOk;
   // Closed by Playwright when the worker exits.
   workerBrowser ??= chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
   const browser = await workerBrowser;
