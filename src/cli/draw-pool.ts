@@ -28,28 +28,45 @@ export interface ThreadedBands {
 }
 
 /**
- * Every draw of `run`, on this thread and `helpers` helper threads (default: one per further core). `callerDraws: false`
- * leaves every chunk to the helpers (tests: proves a helper's chunks give the same bands), unless none delivers.
+ * `count` helper threads (default: one per further core), started before the run is planned so that loading the
+ * engine into them (about 0.2 s) overlaps this thread's point estimate; finishBandsThreaded gives them their work.
  */
-export async function finishBandsThreaded(run: BandsRun, helpers = availableParallelism() - 1, opts: { callerDraws?: boolean } = {}): Promise<ThreadedBands> {
+export function startDrawHelpers(count = availableParallelism() - 1): Worker[] {
+  const workers: Worker[] = [];
+  for (let i = 0; i < count; i++) {
+    try {
+      workers.push(new Worker(new URL('./draw-worker.mjs', import.meta.url)));
+    } catch {
+      break;
+    }
+  }
+  return workers;
+}
+
+/** Helpers started for a run that will not use them. */
+export async function stopDrawHelpers(workers: readonly Worker[]): Promise<void> {
+  await Promise.all(workers.map((w) => w.terminate()));
+}
+
+/**
+ * Every draw of `run`, on this thread and helper threads: `helpers` started ones (startDrawHelpers, which this stops),
+ * or a number to start (default: one per further core). `callerDraws: false` leaves every chunk to the helpers (tests:
+ * proves a helper's chunks give the same bands), unless none delivers.
+ */
+export async function finishBandsThreaded(run: BandsRun, helpers: number | Worker[] = availableParallelism() - 1, opts: { callerDraws?: boolean } = {}): Promise<ThreadedBands> {
   const setup = run.setup;
-  if (setup === null || helpers < 1 || run.total <= CHUNK) {
+  const started = typeof helpers === 'number' ? null : helpers;
+  if (setup === null || (started ? started.length : helpers as number) < 1 || run.total <= CHUNK) {
+    if (started) await stopDrawHelpers(started);
     for (let from = 0; from < run.total; from += CHUNK) run.step(from, Math.min(run.total, from + CHUNK));
     return { bands: run.finish(), byHelpers: 0 };
   }
   const job: DrawJob = { counter: new SharedArrayBuffer(4), total: run.total, size: CHUNK };
   const delivered = new Set<number>();
   let byHelpers = 0;
-  const workers: Worker[] = [];
+  const workers: Worker[] = started ?? startDrawHelpers(helpers as number);
   const settled: Promise<void>[] = [];
-  for (let i = 0; i < helpers; i++) {
-    let w: Worker;
-    try {
-      w = new Worker(new URL('./draw-worker.mjs', import.meta.url));
-    } catch {
-      break;
-    }
-    workers.push(w);
+  for (const w of workers) {
     settled.push(new Promise<void>((resolve) => {
       w.on('message', (m: { chunk?: DrawChunk; done?: boolean }) => {
         if (m.chunk) { run.add(m.chunk); delivered.add(m.chunk.from); byHelpers += m.chunk.to - m.chunk.from; }

@@ -12,6 +12,34 @@ export function identityMinus(a: Float64Array, n: number): Float64Array {
   return identityMinusInto(a, n, new Float64Array(n * n));
 }
 
+/**
+ * out ← I − A as identityMinusInto does, returning the largest |entry| of I − A (NaN skipped): a fill for luFactorFrom
+ * that saves it a pass over the matrix.
+ */
+export function identityMinusIntoMax(a: Float64Array, n: number, out: Float64Array): number {
+  let best = 0;
+  for (let i = 0; i < n; i++) {
+    const row = i * n;
+    best = negatedMax(a, out, row, row + i, best);
+    const d = -a[row + i]! + 1;
+    out[row + i] = d;
+    if (Math.abs(d) > best) best = Math.abs(d);
+    best = negatedMax(a, out, row + i + 1, row + n, best);
+  }
+  return best;
+}
+
+/** out[k] ← −a[k] for from ≤ k < to; returns the larger of `best` and every |out[k]| (NaN skipped, as `>` skips it). */
+function negatedMax(a: Float64Array, out: Float64Array, from: number, to: number, best: number): number {
+  for (let k = from; k < to; k++) {
+    const v = -a[k]!;
+    out[k] = v;
+    const m = Math.abs(v);
+    if (m > best) best = m;
+  }
+  return best;
+}
+
 /** out ← I − A (n×n; `out` may be a factorisation's storage, see luFactorFrom). Returns `out`. */
 export function identityMinusInto(a: Float64Array, n: number, out: Float64Array): Float64Array {
   for (let k = 0; k < n * n; k++) out[k] = -a[k]!;

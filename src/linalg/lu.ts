@@ -54,17 +54,18 @@ export function luFactor(a: Float64Array, n: number): LU {
 
 /**
  * Factor the n×n matrix that `fill` writes into the (zero-filled) array it is given, row-major — so a caller forms its
- * matrix (I − A, say) straight where it is factored, with no n×n copy of its own. Large factors are computed in storage
+ * matrix (I − A, say) straight where it is factored, with no n×n copy of its own; a fill that returns a number returns
+ * the largest |entry| it wrote (NaN skipped), which is otherwise found by a pass of its own. Large factors are computed in storage
  * that they keep (workspace.ts `factorStorage`); small ones in a workspace, copied out.
  */
-export function luFactorFrom(n: number, fill: (w: Float64Array) => void): LU {
+export function luFactorFrom(n: number, fill: (w: Float64Array) => void | number): LU {
   const piv = new Int32Array(n);
   for (let i = 0; i < n; i++) piv[i] = i;
   let swaps = 0;
   let maxAbs = 0;
   const factor = (w: Float64Array): void => {
-    fill(w);
-    maxAbs = maxAbsOf(w, n * n);
+    const largest = fill(w);
+    maxAbs = typeof largest === 'number' ? largest : maxAbsOf(w, n * n);
     swaps = factorColumns(w, n, 0, n, piv);
   };
   const own = factorStorage(n * n);

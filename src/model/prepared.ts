@@ -17,7 +17,7 @@
 import type { IOTable } from '../table/index.ts';
 import { coefficients, type Coefficients } from './coefficients.ts';
 import { closeHouseholds, householdCorner, type ClosedCoefficients } from './closure.ts';
-import { identityMinusInto, luFactorFrom, luSolve, luSolveTransposed, luSolveTransposedMany, type LU } from '../linalg/index.ts';
+import { identityMinusIntoMax, luFactorFrom, luSolve, luSolveTransposed, luSolveTransposedMany, type LU } from '../linalg/index.ts';
 
 /** The bordering of I − Ā on the open factorisation (see the file comment). */
 export interface ClosedBorder {
@@ -62,7 +62,7 @@ export function prepareModel(table: IOTable, coef: Coefficients = coefficients(t
   const closed = closeHouseholds(coef, opts.residentShare);
   const n = coef.n;
   // I − A is formed where it is factored (no n×n copy of its own).
-  const openLU = luFactorFrom(n, (w) => identityMinusInto(coef.A, n, w));
+  const openLU = luFactorFrom(n, (w) => identityMinusIntoMax(coef.A, n, w));
   return { table, coef, closed, openLU, border: closed ? makeBorder(closed, openLU) : null };
 }
 

@@ -66,49 +66,110 @@ const ZIG_Q = new Float64Array(128);
   for (let i = 0; i < 128; i++) ZIG_Q[i] = ZIG_X[i + 1]! / ZIG_X[i]!;
 }
 
+/**
+ * Positions of xoroshiro128+'s four state words in a Stream's state, as pure-rand's fromState([s01, s00, s11, s10])
+ * holds them, and of the last step's output.
+ */
+const S01 = 0, S00 = 1, S11 = 2, S10 = 3, OUT = 4;
+
 export class Stream {
-  // xoroshiro128+ state as pure-rand's fromState([s01, s00, s11, s10]) holds it.
-  private s01: number;
-  private s00: number;
-  private s11: number;
-  private s10: number;
+  /**
+   * The four 32-bit state words and the last output in a typed array, not in fields or return values: a 32-bit value
+   * outside V8's small-integer range (31 bits) becomes a new heap number when it is returned from a call V8 did not
+   * inline, or stored in a field a bundler declared (esbuild's CLI and app bundles keep the declarations, which start
+   * as undefined) — megabytes of garbage per draw, two steps per deviate.
+   */
+  private readonly s = new Int32Array(5);
 
   /** The stream of `draw` (0-based) and `purpose` under `seed` (an unsigned 32-bit integer). */
   constructor(seed: number, draw: number, purpose: Purpose) {
     const st = streamState(seed, draw, purpose);
-    this.s01 = st[0]!; this.s00 = st[1]!; this.s11 = st[2]!; this.s10 = st[3]!;
-    for (let i = 0; i < WARM_UP; i++) this.next();
+    this.s.set(st);
+    for (let i = 0; i < WARM_UP; i++) this.step();
+  }
+
+  /** The generator's step: the state advanced, its 32-bit output (signed) at s[OUT]. */
+  private step(): void {
+    const s = this.s;
+    const s00 = s[S00]!, s01 = s[S01]!, s10 = s[S10]!, s11 = s[S11]!;
+    s[OUT] = (s00 + s10) | 0;
+    const a0 = s10 ^ s00;
+    const a1 = s11 ^ s01;
+    s[S00] = (s00 << 24) ^ (s01 >>> 8) ^ a0 ^ (a0 << 16);
+    s[S01] = (s01 << 24) ^ (s00 >>> 8) ^ a1 ^ ((a1 << 16) | (a0 >>> 16));
+    s[S10] = (a1 << 5) ^ (a0 >>> 27);
+    s[S11] = (a0 << 5) ^ (a1 >>> 27);
   }
 
   /** One 32-bit output (signed), the generator's step. */
   next(): number {
-    const s00 = this.s00, s01 = this.s01;
-    const out = (s00 + this.s10) | 0;
-    const a0 = this.s10 ^ s00;
-    const a1 = this.s11 ^ s01;
-    this.s00 = (s00 << 24) ^ (s01 >>> 8) ^ a0 ^ (a0 << 16);
-    this.s01 = (s01 << 24) ^ (s00 >>> 8) ^ a1 ^ ((a1 << 16) | (a0 >>> 16));
-    this.s10 = (a1 << 5) ^ (a0 >>> 27);
-    this.s11 = (a0 << 5) ^ (a1 >>> 27);
-    return out;
+    this.step();
+    return this.s[OUT]!;
   }
 
   /** Uniform on [0, 1), 53 random bits (26 from one step, 27 from the next). */
   uniform(): number {
-    const hi = this.next() & 0x3ffffff;
-    const lo = this.next() & 0x7ffffff;
+    this.step();
+    const hi = this.s[OUT]! & 0x3ffffff;
+    this.step();
+    const lo = this.s[OUT]! & 0x7ffffff;
     return hi * SCALE26 + lo * SCALE53;
   }
 
   /** Standard normal deviate (ziggurat; see the file comment). */
   normal(): number {
-    for (;;) {
-      const a = this.next();
-      const b = this.next();
-      // The value from 26 + 27 low bits of the two steps (as uniform()), the strip from their 6 + 1 top bits.
-      const u = 2 * ((a & 0x3ffffff) * SCALE26 + (b & 0x7ffffff) * SCALE53) - 1;
+    this.step();
+    const a = this.s[OUT]!;
+    this.step();
+    const b = this.s[OUT]!;
+    // The value from 26 + 27 low bits of the two steps (as uniform()), the strip from their 6 + 1 top bits.
+    const u = 2 * ((a & 0x3ffffff) * SCALE26 + (b & 0x7ffffff) * SCALE53) - 1;
+    const i = ((a >>> 26) << 1) | (b >>> 31);
+    if (Math.abs(u) < ZIG_Q[i]!) return u * ZIG_X[i]!;
+    return this.afterMiss(u, i);
+  }
+
+  /**
+   * out[0 … count) ← the next `count` deviates, exactly as `count` calls of normal() give them (random.test.ts), in one
+   * loop with the state in local variables and the tables in constants of the call: the draws' perturbation needs a
+   * quarter of a million deviates per draw at 500 sectors. The generator's step is written out here as in step().
+   * Why not normal() in a loop: a deviate returned from a call V8 did not inline, or merged with one, is a new heap
+   * number (4 MB of garbage per draw in the CLI's bundle), and the bundle's module-level tables are reloaded per use.
+   */
+  normals(out: Float64Array, count: number): void {
+    const st = this.s;
+    const X = ZIG_X, Q = ZIG_Q, s26 = SCALE26, s53 = SCALE53;
+    let s00 = st[S00]!, s01 = st[S01]!, s10 = st[S10]!, s11 = st[S11]!;
+    for (let k = 0; k < count; k++) {
+      // Two steps (as step()): outputs a, then b.
+      const a = (s00 + s10) | 0;
+      let a0 = s10 ^ s00, a1 = s11 ^ s01;
+      let n00 = (s00 << 24) ^ (s01 >>> 8) ^ a0 ^ (a0 << 16);
+      let n01 = (s01 << 24) ^ (s00 >>> 8) ^ a1 ^ ((a1 << 16) | (a0 >>> 16));
+      s10 = (a1 << 5) ^ (a0 >>> 27);
+      s11 = (a0 << 5) ^ (a1 >>> 27);
+      s00 = n00; s01 = n01;
+      const b = (s00 + s10) | 0;
+      a0 = s10 ^ s00; a1 = s11 ^ s01;
+      n00 = (s00 << 24) ^ (s01 >>> 8) ^ a0 ^ (a0 << 16);
+      n01 = (s01 << 24) ^ (s00 >>> 8) ^ a1 ^ ((a1 << 16) | (a0 >>> 16));
+      s10 = (a1 << 5) ^ (a0 >>> 27);
+      s11 = (a0 << 5) ^ (a1 >>> 27);
+      s00 = n00; s01 = n01;
+      const u = 2 * ((a & 0x3ffffff) * s26 + (b & 0x7ffffff) * s53) - 1;
       const i = ((a >>> 26) << 1) | (b >>> 31);
-      if (Math.abs(u) < ZIG_Q[i]!) return u * ZIG_X[i]!;
+      if (Math.abs(u) < Q[i]!) { out[k] = u * X[i]!; continue; }
+      // Rarely (about 1 in 100): the rest of normal() on the stream's own state.
+      st[S00] = s00; st[S01] = s01; st[S10] = s10; st[S11] = s11;
+      out[k] = this.afterMiss(u, i);
+      s00 = st[S00]!; s01 = st[S01]!; s10 = st[S10]!; s11 = st[S11]!;
+    }
+    st[S00] = s00; st[S01] = s01; st[S10] = s10; st[S11] = s11;
+  }
+
+  /** The rest of normal() when its pair (u, strip i) fell outside the strip's rectangle: the tail or wedge test, then new pairs. */
+  private afterMiss(u: number, i: number): number {
+    for (;;) {
       if (i === 0) return this.tail(u < 0);
       // The wedge between the strip's rectangle and the curve: accept where a uniform height lies under the curve.
       const x = u * ZIG_X[i]!;
@@ -116,6 +177,13 @@ export class Stream {
       const f0 = Math.exp(-0.5 * (x0 * x0 - x * x));
       const f1 = Math.exp(-0.5 * (x1 * x1 - x * x));
       if (f1 + this.uniform() * (f0 - f1) < 1) return x;
+      this.step();
+      const a = this.s[OUT]!;
+      this.step();
+      const b = this.s[OUT]!;
+      u = 2 * ((a & 0x3ffffff) * SCALE26 + (b & 0x7ffffff) * SCALE53) - 1;
+      i = ((a >>> 26) << 1) | (b >>> 31);
+      if (Math.abs(u) < ZIG_Q[i]!) return u * ZIG_X[i]!;
     }
   }
 

@@ -6,15 +6,25 @@
 import {
   beginStudyBands, cvProblem, defaultUncertaintySettings, deltaRangeProblem, flqOriginOf, DEFAULT_FLQ_DELTA, DEFAULT_MARGIN_STEP, drawsProblem, parseCvCsv, seedProblem, shareRangeProblem,
   visibleText, DEFAULT_CV, DEFAULT_SEED, DEFAULT_SHARE_STEP,
-  type BandsRequest, type FlqOrigin, type PreparedStudy, type IOTable, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
+  type BandsRequest, type BandsRun, type FlqOrigin, type PreparedStudy, type IOTable, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
 } from '../../study/index.ts';
 import type { RunContext } from '../command.ts';
-import { drawThreadsWorthIt, finishBandsThreaded } from '../draw-pool.ts';
+import { drawThreadsWorthIt, finishBandsThreaded, startDrawHelpers, stopDrawHelpers } from '../draw-pool.ts';
 
-/** The bands of a request, the draws shared with helper threads when the run is large enough to gain from them. */
+/**
+ * The bands of a request, the draws shared with helper threads when the run is large enough to gain from them (started
+ * first, so they load while this thread computes the point estimate).
+ */
 export async function bandsOf(ps: PreparedStudy, req: BandsRequest, origin: FlqOrigin | null = null): Promise<UncertaintyResult> {
-  const run = beginStudyBands(ps, req, origin);
-  return (await finishBandsThreaded(run, drawThreadsWorthIt(ps.study.table.n, req.settings.draws) ? undefined : 0)).bands;
+  const helpers = drawThreadsWorthIt(ps.study.table.n, req.settings.draws) ? startDrawHelpers() : [];
+  let run: BandsRun;
+  try {
+    run = beginStudyBands(ps, req, origin);
+  } catch (e) {
+    await stopDrawHelpers(helpers);
+    throw e;
+  }
+  return (await finishBandsThreaded(run, helpers)).bands;
 }
 
 export const UNCERTAINTY_OPTIONS = {

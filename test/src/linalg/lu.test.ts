@@ -5,7 +5,7 @@ import { inv, det, matrix, multiply } from 'mathjs';
 import { Matrix, LuDecomposition, inverse as mlInverse } from 'ml-matrix';
 import {
   luFactor, luInverse, luDeterminant, luSolve, luSolveMany, luSolveTransposed, luSolveTransposedMany, matVec, vecMat, matMul, LU_BLOCK, eliminationPivots,
-  scaledResidual, RESIDUAL_THRESHOLD,
+  scaledResidual, RESIDUAL_THRESHOLD, identityMinus, identityMinusIntoMax, luFactorFrom,
 } from '../../../src/linalg/index.ts';
 import {
   luFactorReference, luInverseReference, luSolveManyReference, luSolveReference, luSolveTransposedReference,
@@ -165,6 +165,23 @@ describe('dense products against mathjs', () => {
       expect(relDiff(vecMat(w, b, k, m), vm)).toBeLessThan(1e-13);
     });
   }
+});
+
+describe('I − A written where it is factored', () => {
+  it('identityMinusIntoMax writes I − A and returns its largest |entry|; the factors are those of luFactor', () => {
+    const n = 37;
+    const a = randomMatrix(n, n, 4242);
+    a[5 * n + 5] = 3; // a diagonal entry whose |1 − a| is the largest
+    const out = new Float64Array(n * n);
+    const largest = identityMinusIntoMax(a, n, out);
+    const want = identityMinus(a, n);
+    expect(Array.from(out)).toEqual(Array.from(want));
+    expect(largest).toBe(Math.max(...Array.from(want, Math.abs)));
+    const f = luFactorFrom(n, (w) => identityMinusIntoMax(a, n, w));
+    const g = luFactor(want, n);
+    expect(Array.from(f.lu)).toEqual(Array.from(g.lu));
+    expect(f.singular).toBe(g.singular);
+  });
 });
 
 describe('eliminationPivots (elimination without pivoting, for Hawkins–Simon)', () => {
