@@ -9,12 +9,14 @@ export function identity(n: number): Float64Array {
 
 /** I − A for a square n×n matrix. */
 export function identityMinus(a: Float64Array, n: number): Float64Array {
-  return identityMinusInto(a, n, new Float64Array(n * n));
+  const out = new Float64Array(n * n);
+  identityMinusIntoMax(a, n, out);
+  return out;
 }
 
 /**
- * out ← I − A as identityMinusInto does, returning the largest |entry| of I − A (NaN skipped): a fill for luFactorFrom
- * that saves it a pass over the matrix.
+ * out ← I − A (n×n; `out` may be a factorisation's storage), returning the largest |entry| of I − A (NaN skipped): a
+ * fill for luFactorFrom that saves it a pass over the matrix.
  */
 export function identityMinusIntoMax(a: Float64Array, n: number, out: Float64Array): number {
   let best = 0;
@@ -38,13 +40,6 @@ function negatedMax(a: Float64Array, out: Float64Array, from: number, to: number
     if (m > best) best = m;
   }
   return best;
-}
-
-/** out ← I − A (n×n; `out` may be a factorisation's storage, see luFactorFrom). Returns `out`. */
-export function identityMinusInto(a: Float64Array, n: number, out: Float64Array): Float64Array {
-  for (let k = 0; k < n * n; k++) out[k] = -a[k]!;
-  for (let i = 0; i < n; i++) out[i * n + i] = out[i * n + i]! + 1;
-  return out;
 }
 
 /** y = A·v for A of n rows and m columns. */
