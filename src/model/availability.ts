@@ -5,7 +5,7 @@
  * (analysis.ts) makes it once per table and words it; the uncertainty draws (src/uncertainty) make it again for every
  * perturbed table through this same function, so a draw uses a model exactly when the analysis of that table would.
  */
-import { perronRoot, perronRootBordered, type PerronOptions, type PerronResult } from './perron.ts';
+import { perronRoot, perronRootsOpenClosed, type PerronOptions, type PerronResult } from './perron.ts';
 import { borderedAbs, borderedOf } from './closure.ts';
 import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
 import { borderedPeriod, sectorBlocks, type SectorBlock } from './graph.ts';
@@ -83,7 +83,14 @@ export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): Mod
   const negativeFlows = structure ? structure.negativeFlows : hasNegative(A);
   const absA = negativeFlows ? Float64Array.from(A, Math.abs) : A;
   const blocks = structure ? structure.blocks : sectorBlocks(A, n);
-  const perron = perronRoot(absA, n, { ...opts.perron, blocks });
+  // On Ā as A plus its border, never formed (closure.ts); bit for bit the iteration on the formed matrix. The two
+  // Perron roots share their passes over A (perronRootsOpenClosed).
+  const { blocks: _openBlocks, rightOnly: _right, ...perronOpts } = opts.perron ?? {};
+  const parts = closed ? borderedOf(A, n, closed) : null;
+  const roots = parts
+    ? perronRootsOpenClosed(absA, n, { ...opts.perron, blocks }, negativeFlows ? borderedAbs(parts, absA) : parts, { ...perronOpts, ...(opts.closedHint ? { hint: opts.closedHint } : {}) }, structure?.closedPeriod ?? undefined)
+    : { open: perronRoot(absA, n, { ...opts.perron, blocks }), closed: null };
+  const perron = roots.open;
   const hs = hawkinsSimon(A, n, openLU);
   const spectralRadius = opts.spectralRadius ?? null;
 
@@ -108,11 +115,8 @@ export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): Mod
   let perronRootClosed: number | null = null;
   let perronRootClosedBounds: [number, number] | null = null;
   let perronClosedRight: Float64Array | null = null;
-  if (closed) {
-    // On Ā as A plus its border, never formed (closure.ts); bit for bit the iteration on the formed matrix.
-    const parts = borderedOf(A, n, closed);
-    const { blocks: _openBlocks, rightOnly: _right, ...perronOpts } = opts.perron ?? {};
-    const pc = perronRootBordered(negativeFlows ? borderedAbs(parts, absA) : parts, { ...perronOpts, ...(opts.closedHint ? { hint: opts.closedHint } : {}) }, structure?.closedPeriod ?? undefined);
+  if (roots.closed) {
+    const pc = roots.closed;
     perronRootClosed = pc.root;
     perronClosedRight = pc.right;
     perronRootClosedBounds = [pc.lower, pc.upper];

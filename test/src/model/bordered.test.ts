@@ -4,7 +4,7 @@
 import { describe, it, expect } from 'vitest';
 import { borderedMatrix, closeHouseholds, householdCorner, type Bordered } from '../../../src/model/closure.ts';
 import { borderedPeriod, sectorBlocks } from '../../../src/model/graph.ts';
-import { perronRoot, perronRootBordered } from '../../../src/model/perron.ts';
+import { perronRoot, perronRootBordered, perronRootsOpenClosed } from '../../../src/model/perron.ts';
 import { coefficients } from '../../../src/model/coefficients.ts';
 import { seeded } from '../../support/random.ts';
 import { randomEconomy } from './tables.ts';
@@ -70,6 +70,31 @@ describe('bordered closed matrix', () => {
       expect(parts.converged).toBe(formed.converged);
       expect(Array.from(parts.right)).toEqual(Array.from(formed.right));
     }
+  });
+
+  it('ρ(A) and ρ(Ā) iterated together (one pass over A per step) equal the two iterations run alone, bit for bit', () => {
+    let fused = 0;
+    for (let seed = 1; seed <= 120; seed++) {
+      const n = 1 + (seed % 23);
+      const b = randomParts(n, 2000 + seed, [0, 0.3, 0.7, 0.9][seed % 4]!, seed % 6 === 0 ? 0.05 : 0);
+      // options as the callers pass them: defaults; a low iteration cap on one side (the other runs on alone);
+      // the draws' decision at 1
+      const opts = [{}, { maxIterations: 3 }, { decideAt: 1 }][seed % 3]!;
+      const closedOpts = [{}, { maxIterations: 7 }, { decideAt: 1 }][(seed >> 1) % 3]!;
+      const both = perronRootsOpenClosed(b.A, n, opts, b, closedOpts);
+      const open = perronRoot(b.A, n, opts);
+      const closed = perronRootBordered(b, closedOpts);
+      for (const [got, want] of [[both.open, open], [both.closed, closed]] as const) {
+        expect([got.lower, got.upper, got.root, got.iterations, got.converged]).toEqual([want.lower, want.upper, want.root, want.iterations, want.converged]);
+        expect(Array.from(got.right)).toEqual(Array.from(want.right));
+        expect(Array.from(got.left)).toEqual(Array.from(want.left));
+        expect(got.blockBounds).toEqual(want.blockBounds);
+        expect(got.blocks).toEqual(want.blocks);
+      }
+      const blocks = sectorBlocks(b.A, n);
+      if (n > 1 && blocks.length === 1 && blocks[0]!.cyclic && borderedPeriod(b) != null) fused++;
+    }
+    expect(fused).toBeGreaterThan(20); // the shared pass ran, not only the fallback
   });
 
   it('a hint decides ρ(Ā) < 1 in one step when it can, and the lower bound reaches 1 exactly when it does without one', () => {
