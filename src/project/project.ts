@@ -10,7 +10,7 @@
  * The save itself (temporary file, then rename) is the caller's: `writeFileAtomic` of src/node-io (the CLI and the desktop shell both use it).
  */
 import { InputError, type Warning } from '../diagnostics/index.ts';
-import { importTable, type ImportOptions } from '../table/index.ts';
+import { importTableBytes, type ImportOptions } from '../table/index.ts';
 import {
   checkActivity, checkActivitySectors, checkMarginSectors, checkMixSectors, mixShares, mixesOfTable,
   type Activity, type Commuting, type Margins, type PriceIndex, type Scenario, type SpendingMix,
@@ -71,7 +71,6 @@ export interface Project {
   settings: ProjectSettings;
 }
 
-const utf8 = new TextDecoder('utf-8');
 const strictUtf8 = new TextDecoder('utf-8', { fatal: true });
 
 /** Source information for a file's bytes; with `keep`, the bytes themselves travel with the study. */
@@ -81,7 +80,7 @@ export function sourceInfo(fileName: string, bytes: Uint8Array, keep?: { import:
 
 /** Import a table from the source's own bytes and settings (the one way a kept source becomes a table). */
 export function importSource(source: SourceInfo & { content: Uint8Array }): IOTable {
-  return importTable(utf8.decode(source.content), { fileName: source.fileName, ...source.import });
+  return importTableBytes(source.content, { fileName: source.fileName, ...source.import });
 }
 
 export function defaultSettings(): ProjectSettings {

@@ -38,7 +38,7 @@ export const DELIMITER_NAMES: Readonly<Record<Delimiter, string>> = { ',': 'comm
 
 /** The first lines sampled to guess the delimiter, and the decimal-mark scan's sample of cells shown in messages. */
 const SAMPLE_LINES = 50;
-const SAMPLE_CHARS = 1 << 20;
+export const SAMPLE_CHARS = 1 << 20;
 
 /**
  * An Excel "sep=X" first line (optionally quoted, optionally padded with delimiters). Returns the delimiter it names

@@ -6,11 +6,12 @@
  */
 import { formatLocated, InputError, isInputError, type Location, type Warning } from '../diagnostics/index.ts';
 import type { ColumnRole, IOTable, Layout, RoleMap, RowRole } from './types.ts';
-import { buildGrid } from './grid.ts';
+import { buildGrid, ByteGrid } from './grid.ts';
+import { plainHead, type PlainBytes } from './bytes.ts';
 import { contentRows, readMatrix, type ReadOptions } from './matrix.ts';
 import { longHeader, readLong } from './long.ts';
 import { finishTable, looksLikeCoefficients, scaleCoefficients, type BalanceReport } from './finish.ts';
-import type { Delimiter } from './text.ts';
+import { checkTableSize, type Delimiter } from './text.ts';
 import { delimiterHint, openTableText, type Dialect } from './dialect.ts';
 import type { DecimalMark } from './numbers.ts';
 import type { LabelRole, RawTable } from './structure.ts';
@@ -76,14 +77,18 @@ function baseName(fileName: string): string {
   return f.replace(/\.[^.]*$/, '') || f;
 }
 
-function run(text: string, opts: ImportOptions, p: Progress): IOTable {
+/**
+ * The import of `text`, or of `bytes.bytes` when given (a plain file, `text` then its head: see importTableBytes):
+ * the same steps, the grid made over the bytes instead of the text.
+ */
+function run(text: string, opts: ImportOptions, p: Progress, bytes?: PlainBytes): IOTable {
   const file = opts.fileName;
   const d = openTableText(text, opts, file);
   p.dialect = d.dialect;
   const delimiter = (p.delimiter = d.dialect.delimiter);
   const decimalMark = (p.decimalMark = d.dialect.decimalMark);
   if (d.guessed) p.warnings.push(d.guessed);
-  const grid = buildGrid(d.text, delimiter, file);
+  const grid = bytes ? new ByteGrid(bytes.bytes, delimiter) : buildGrid(d.text, delimiter, file);
   const rows = contentRows(grid);
   p.cells = firstCells(grid, rows);
   if (rows.length === 0) throw new InputError('empty', 'the file has no cells', { file });
@@ -107,7 +112,8 @@ function run(text: string, opts: ImportOptions, p: Progress): IOTable {
   } catch (e) {
     // A row with the wrong number of fields is often a wrong delimiter guess: say what was assumed and how to force it.
     if (isInputError(e) && e.code === 'ragged-row') {
-      const sample = `${lineAt(d.text, grid.line(rows[0]!))}\n${lineAt(d.text, e.location.line ?? 0)}`;
+      const whole = bytes ? bytes.text() : d.text;
+      const sample = `${lineAt(whole, grid.line(rows[0]!))}\n${lineAt(whole, e.location.line ?? 0)}`;
       throw new InputError(e.code, e.message + delimiterHint(p.dialect, sample, true), e.location, e.hint);
     }
     throw e;
@@ -161,6 +167,28 @@ function firstCells(grid: Grid, rows: number[]): string[][] {
 /** Import a table or throw an InputError with a located message. */
 export function importTable(text: string, opts: ImportOptions): IOTable {
   return run(text, opts, emptyProgress());
+}
+
+const utf8 = new TextDecoder('utf-8');
+
+/**
+ * `importTable` of the file's bytes read as UTF-8 text: the same table, warnings and refusals. A file of plain ASCII
+ * without quotes (nearly every large numeric export; bytes.ts `plainHead`) is read from its bytes instead of its
+ * decoded text, which at 2,000 sectors is 21 MB of fresh memory written and read once (README "Performance"): its
+ * dialect is found in its head, which holds every character the dialect rules look at, and its grid is a ByteGrid.
+ * Anything else, or a head that does not settle the dialect as the whole text would, is decoded and imported as text.
+ */
+export function importTableBytes(bytes: Uint8Array, opts: ImportOptions): IOTable {
+  const head = plainHead(bytes);
+  if (head !== null) {
+    checkTableSize(bytes.length, opts.fileName);
+    const d = openTableText(head, opts, opts.fileName);
+    // A mark guessed for want of a deciding number in the head might be decided by one further on: read as text.
+    if (d.text === head && d.dialect.decimalMarkFrom !== 'guessed') {
+      return run(head, opts, emptyProgress(), { bytes, text: () => utf8.decode(bytes) });
+    }
+  }
+  return importTable(utf8.decode(bytes), opts);
 }
 
 export interface Refusal {

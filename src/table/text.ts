@@ -31,7 +31,7 @@ export function lineColumnAt(text: string, offset: number): { line: number; colu
   return { line, column: offset - lineStart + 1 };
 }
 
-const SAMPLE = 64 * 1024;
+export const SAMPLE = 64 * 1024;
 
 /**
  * Binary content: any NUL character, or more than 1 % control characters (other than tab, line ends and form feed)
