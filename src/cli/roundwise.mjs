@@ -29,7 +29,9 @@ const installed = here.split(sep).includes('node_modules');
  */
 function sourceFiles() {
   try {
-    return readFileSync(join(dirname(bundle), 'sources.txt'), 'utf8').split('\n').filter((p) => p !== '').map((p) => join(src, p));
+    // Joined by hand: the list holds normalised relative paths (bundle.mjs), and path.join's normalising, run
+    // interpreted this early, took 2–8 ms for the 166 paths (against 0.1 ms).
+    return readFileSync(join(dirname(bundle), 'sources.txt'), 'utf8').split('\n').filter((p) => p !== '').map((p) => `${src}${sep}${p}`);
   } catch {
     return readdirSync(src, { recursive: true }).map((entry) => join(src, String(entry))).filter((p) => /\.(ts|mjs|json)$/.test(p));
   }
