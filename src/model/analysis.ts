@@ -248,7 +248,7 @@ export function analyzePrepared(pm: PreparedModel, opts: AnalysisOptions = {}): 
   const spectralRadius = modes && modes.length ? modes[0]!.modulus : null;
 
   // The one verdict, and the closed-model decision (availability.ts); scenarios on this prepared table read the same.
-  const decision = decideModels(pm, { ...(opts.perron ? { perron: opts.perron } : {}), spectralRadius });
+  const decision = decideModels(pm, { ...(opts.perron ? { perron: opts.perron } : {}), spectralRadius, powersOfOnes: true });
   const { negativeFlows, blocks, perron, productive, verdictNote, perronRootClosed, perronRootClosedBounds, closedModel } = decision;
   const hs = decision.hawkinsSimon;
   const irreducible = blocks.length === 1 && (n === 1 ? blocks[0]!.cyclic : true);

@@ -6,6 +6,7 @@
  * perturbed table through this same function, so a draw uses a model exactly when the analysis of that table would.
  */
 import { perronRoot, perronRootsOpenClosed, type PerronOptions, type PerronResult } from './perron.ts';
+import { POWERS_OF_ONES, rememberPowersOfOnes } from './powers.ts';
 import { borderedAbs, borderedOf } from './closure.ts';
 import { hawkinsSimon, type HawkinsSimon } from './hawkins.ts';
 import { borderedPeriod, sectorBlocks, type SectorBlock } from './graph.ts';
@@ -64,6 +65,11 @@ export interface DecisionOptions {
   closedHint?: Float64Array;
   /** Spectral radius of A from the full spectrum when it was computed (decides tables with negative flows), else null. */
   spectralRadius?: number | null;
+  /**
+   * Form A·1, A²·1, … on the Perron iterations' passes over A and remember them for the unit spending rounds
+   * (powers.ts): the analysis asks, the draws do not.
+   */
+  powersOfOnes?: boolean;
 }
 
 function fmt(x: number): string {
@@ -87,9 +93,12 @@ export function decideModels(pm: PreparedModel, opts: DecisionOptions = {}): Mod
   // Perron roots share their passes over A (perronRootsOpenClosed).
   const { blocks: _openBlocks, rightOnly: _right, ...perronOpts } = opts.perron ?? {};
   const parts = closed ? borderedOf(A, n, closed) : null;
+  // The products ride only on passes over A itself (not |A|).
+  const chain = opts.powersOfOnes && !negativeFlows ? { start: new Float64Array(n).fill(1), max: POWERS_OF_ONES } : undefined;
   const roots = parts
-    ? perronRootsOpenClosed(absA, n, { ...opts.perron, blocks }, negativeFlows ? borderedAbs(parts, absA) : parts, { ...perronOpts, ...(opts.closedHint ? { hint: opts.closedHint } : {}) }, structure?.closedPeriod ?? undefined)
-    : { open: perronRoot(absA, n, { ...opts.perron, blocks }), closed: null };
+    ? perronRootsOpenClosed(absA, n, { ...opts.perron, blocks }, negativeFlows ? borderedAbs(parts, absA) : parts, { ...perronOpts, ...(opts.closedHint ? { hint: opts.closedHint } : {}) }, structure?.closedPeriod ?? undefined, chain)
+    : { open: perronRoot(absA, n, { ...opts.perron, blocks }), closed: null, chain: [] };
+  rememberPowersOfOnes(A, roots.chain);
   const perron = roots.open;
   const hs = hawkinsSimon(A, n, openLU);
   const spectralRadius = opts.spectralRadius ?? null;

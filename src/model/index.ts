@@ -9,6 +9,7 @@ export * from './hawkins.ts';
 export * from './multipliers.ts';
 export * from './perron.ts';
 export * from './plausibility.ts';
+export * from './powers.ts';
 export * from './prepared.ts';
 export * from './rounds.ts';
 export * from './spectrum.ts';

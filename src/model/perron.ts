@@ -167,6 +167,77 @@ function productsWithRight(b: Float64Array, m: number, v: Float64Array, w: Float
   }
 }
 
+/**
+ * `productsWithRight(b, m, v, w, av, wa, u, au)` and `rightProduct(b, m, p, ap)` in the same one pass over b, each sum
+ * in its own order as there (so the same bits). `p` rides along: a chain of products p, b·p, b²·p, … that a caller
+ * wants anyway (perronRootsOpenClosed `chain`) costs no pass of its own over b.
+ */
+function productsWithRights(b: Float64Array, m: number, v: Float64Array, w: Float64Array, av: Float64Array, wa: Float64Array, u: Float64Array, au: Float64Array, p: Float64Array, ap: Float64Array): void {
+  wa.fill(0);
+  let i = 0;
+  for (; i + 3 < m; i += 4) {
+    const r0 = i * m, r1 = r0 + m, r2 = r1 + m, r3 = r2 + m;
+    const w0 = w[i]!, w1 = w[i + 1]!, w2 = w[i + 2]!, w3 = w[i + 3]!;
+    let s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+    let t0 = 0, t1 = 0, t2 = 0, t3 = 0;
+    let q0 = 0, q1 = 0, q2 = 0, q3 = 0;
+    for (let j = 0; j < m; j++) {
+      const vj = v[j]!, uj = u[j]!, pj = p[j]!;
+      const b0 = b[r0 + j]!, b1 = b[r1 + j]!, b2 = b[r2 + j]!, b3 = b[r3 + j]!;
+      s0 += b0 * vj; s1 += b1 * vj; s2 += b2 * vj; s3 += b3 * vj;
+      t0 += b0 * uj; t1 += b1 * uj; t2 += b2 * uj; t3 += b3 * uj;
+      q0 += b0 * pj; q1 += b1 * pj; q2 += b2 * pj; q3 += b3 * pj;
+      wa[j] = wa[j]! + (w0 * b0 + w1 * b1 + w2 * b2 + w3 * b3);
+    }
+    av[i] = s0; av[i + 1] = s1; av[i + 2] = s2; av[i + 3] = s3;
+    au[i] = t0; au[i + 1] = t1; au[i + 2] = t2; au[i + 3] = t3;
+    ap[i] = q0; ap[i + 1] = q1; ap[i + 2] = q2; ap[i + 3] = q3;
+  }
+  for (; i < m; i++) {
+    const row = i * m, wi = w[i]!;
+    let s0 = 0, t0 = 0, q0 = 0;
+    for (let j = 0; j < m; j++) {
+      const bij = b[row + j]!;
+      s0 += bij * v[j]!;
+      t0 += bij * u[j]!;
+      q0 += bij * p[j]!;
+      wa[j] = wa[j]! + wi * bij;
+    }
+    av[i] = s0;
+    au[i] = t0;
+    ap[i] = q0;
+  }
+}
+
+/** `rightProduct(b, m, u, au)` and `rightProduct(b, m, p, ap)` in one pass over b (the same bits; `u`, `au` as above). */
+function rightProducts2(b: Float64Array, m: number, u: Float64Array, au: Float64Array, p: Float64Array, ap: Float64Array): void {
+  let i = 0;
+  for (; i + 3 < m; i += 4) {
+    const r0 = i * m, r1 = r0 + m, r2 = r1 + m, r3 = r2 + m;
+    let t0 = 0, t1 = 0, t2 = 0, t3 = 0;
+    let q0 = 0, q1 = 0, q2 = 0, q3 = 0;
+    for (let j = 0; j < m; j++) {
+      const uj = u[j]!, pj = p[j]!;
+      const b0 = b[r0 + j]!, b1 = b[r1 + j]!, b2 = b[r2 + j]!, b3 = b[r3 + j]!;
+      t0 += b0 * uj; t1 += b1 * uj; t2 += b2 * uj; t3 += b3 * uj;
+      q0 += b0 * pj; q1 += b1 * pj; q2 += b2 * pj; q3 += b3 * pj;
+    }
+    au[i] = t0; au[i + 1] = t1; au[i + 2] = t2; au[i + 3] = t3;
+    ap[i] = q0; ap[i + 1] = q1; ap[i + 2] = q2; ap[i + 3] = q3;
+  }
+  for (; i < m; i++) {
+    const row = i * m;
+    let t0 = 0, q0 = 0;
+    for (let j = 0; j < m; j++) {
+      const bij = b[row + j]!;
+      t0 += bij * u[j]!;
+      q0 += bij * p[j]!;
+    }
+    au[i] = t0;
+    ap[i] = q0;
+  }
+}
+
 /** No caller may ask for more power-iteration steps than this (a cap on `maxIterations`, so every run ends). */
 export const PERRON_MAX_STEPS = 100_000;
 
@@ -468,28 +539,55 @@ function oneBlockResult(r: Iterated, blocks: SectorBlock[]): PerronResult {
   return { root: (lower + upper) / 2, lower, upper, right: r.right, left: r.left, iterations: r.iterations, converged: r.converged, blockBounds: [[r.lower, r.upper]], blocks };
 }
 
+/** A chain of products to compute on the iterations' passes over A: A·start, A²·start, …, at most `max` of them. */
+export interface ProductChain {
+  start: Float64Array;
+  max: number;
+}
+
 /**
  * `perronRoot(a, n, opts)` and `perronRootBordered(b, closedOpts, known)` for the household-closed matrix of the same
  * A (b.A === a), with the same results bit for bit. When A is one cyclic block and Ā's graph is strongly connected
  * (the usual table), the two power iterations share each pass over A while both run (`productsWithRight`; at 2,000
  * sectors a pass reads 32 MB), then the one still going runs alone; otherwise the two functions are called in turn.
+ * `chain`: products A^k·start (k = 1, 2, …) formed on those shared passes, and on the closed iteration's passes after
+ * the open one has stopped, each as dense.ts `matVec` forms it (the same sums in the same order: the same bits); as
+ * many as those passes give, up to `chain.max`, and none when the iterations do not share their passes.
  */
 export function perronRootsOpenClosed(
-  a: Float64Array, n: number, opts: PerronOptions, b: Bordered, closedOpts: BorderedPerronOptions = {}, known?: { period: number | null | undefined },
-): { open: PerronResult; closed: PerronResult } {
+  a: Float64Array, n: number, opts: PerronOptions, b: Bordered, closedOpts: BorderedPerronOptions = {}, known?: { period: number | null | undefined }, chain?: ProductChain,
+): { open: PerronResult; closed: PerronResult; chain: Float64Array[] } {
   const blocks = opts.blocks ?? (n === 0 ? [] : sectorBlocks(a, n));
   const period = known ? known.period : borderedPeriod(b);
   const hinted = closedOpts.hint !== undefined && closedOpts.decideAt !== undefined && closedOpts.hint.length === n + 1;
   const blk = blocks[0];
   if (b.A !== a || b.n !== n || n < 2 || blocks.length !== 1 || !blk!.cyclic || blk!.sectors.length !== n || opts.rightOnly || period === undefined || period === null || hinted) {
-    return { open: perronRoot(a, n, { ...opts, blocks }), closed: perronRootBordered(b, closedOpts, { period }) };
+    return { open: perronRoot(a, n, { ...opts, blocks }), closed: perronRootBordered(b, closedOpts, { period }), chain: [] };
   }
+  const products: Float64Array[] = [];
+  let p = chain && chain.max > 0 && chain.start.length === n ? chain.start : null;
+  const next = (): Float64Array => {
+    const ap = new Float64Array(n);
+    products.push(ap);
+    return ap;
+  };
   const so = startIteration(dense(a, n), blk!.period === 1 ? 0 : 1, opts.tolerance ?? 1e-12, Math.min(opts.maxIterations ?? defaultCap(n), PERRON_MAX_STEPS), false, false, opts.decideAt);
   const sc = startIteration(bordered(b), period === 1 ? 0 : 1, closedOpts.tolerance ?? 1e-12, Math.min(closedOpts.maxIterations ?? defaultCap(n + 1), PERRON_MAX_STEPS), true, false, closedOpts.decideAt);
   while (!so.done && !sc.done) {
-    productsWithRight(a, n, so.v, so.w, so.av, so.wa, sc.v, sc.av);
+    if (p) {
+      const ap = next();
+      productsWithRights(a, n, so.v, so.w, so.av, so.wa, sc.v, sc.av, p, ap);
+      p = products.length < chain!.max ? ap : null;
+    } else productsWithRight(a, n, so.v, so.w, so.av, so.wa, sc.v, sc.av);
     addBorder(b, sc.v, sc.av);
     advance(so);
+    advance(sc);
+  }
+  while (p && !sc.done) {
+    const ap = next();
+    rightProducts2(a, n, sc.v, sc.av, p, ap);
+    p = products.length < chain!.max ? ap : null;
+    addBorder(b, sc.v, sc.av);
     advance(sc);
   }
   for (const s of [so, sc]) {
@@ -499,5 +597,5 @@ export function perronRootsOpenClosed(
     }
   }
   const closedBlocks: SectorBlock[] = [{ sectors: Array.from({ length: n + 1 }, (_, i) => i), cyclic: true, period }];
-  return { open: oneBlockResult(finish(so), blocks), closed: borderedResult(finish(sc), closedBlocks) };
+  return { open: oneBlockResult(finish(so), blocks), closed: borderedResult(finish(sc), closedBlocks), chain: products };
 }

@@ -21,6 +21,8 @@ export interface RoundsOptions {
   maxRounds?: number;
   /** ρ(A) when already known (viability check), reported beside the ratios. */
   perronRoot?: number;
+  /** A·f, A²·f, … as far as already formed (each as matVec forms it: the same bits); later rounds are formed here. */
+  products?: readonly Float64Array[];
 }
 
 export interface RoundsResult {
@@ -69,9 +71,10 @@ export function spendingRounds(pm: PreparedModel, f: Float64Array, x: Float64Arr
   const ratio: (number | null)[] = [];
   const cum = new Float64Array(n);
   let r: Float64Array = Float64Array.from(f);
+  const known = opts.products ?? [];
   let remainder = xNorm;
   for (let k = 0; k < maxRounds; k++) {
-    if (k > 0) r = matVec(A, n, n, r);
+    if (k > 0) r = k <= known.length && known[k - 1]!.length === n ? known[k - 1]!.slice() : matVec(A, n, n, r);
     rounds.push(r);
     let tot = 0;
     let inc = 0;

@@ -6,6 +6,7 @@ import { borderedMatrix, closeHouseholds, householdCorner, type Bordered } from 
 import { borderedPeriod, sectorBlocks } from '../../../src/model/graph.ts';
 import { perronRoot, perronRootBordered, perronRootsOpenClosed } from '../../../src/model/perron.ts';
 import { coefficients } from '../../../src/model/coefficients.ts';
+import { matVec } from '../../../src/linalg/index.ts';
 import { seeded } from '../../support/random.ts';
 import { randomEconomy } from './tables.ts';
 
@@ -95,6 +96,36 @@ describe('bordered closed matrix', () => {
       if (n > 1 && blocks.length === 1 && blocks[0]!.cyclic && borderedPeriod(b) != null) fused++;
     }
     expect(fused).toBeGreaterThan(20); // the shared pass ran, not only the fallback
+  });
+
+  it('a chain riding on the shared passes gives A^k·start as matVec forms it, bit for bit, and leaves both roots unchanged', () => {
+    // The chain's sums must be matVec's (dense.ts) in the same order, so the unit spending rounds read from it
+    // (powers.ts) are the ones formed product by product.
+    let rode = 0;
+    for (let seed = 1; seed <= 80; seed++) {
+      const n = 1 + (seed % 23);
+      const b = randomParts(n, 3000 + seed, [0, 0.3, 0.7][seed % 3]!);
+      const start = Float64Array.from({ length: n }, (_, i) => 1 + ((i * 7 + seed) % 5) / 3);
+      const max = [64, 3, 1][seed % 3]!;
+      const plain = perronRootsOpenClosed(b.A, n, {}, b);
+      const withChain = perronRootsOpenClosed(b.A, n, {}, b, {}, undefined, { start, max });
+      for (const [got, want] of [[withChain.open, plain.open], [withChain.closed, plain.closed]] as const) {
+        expect([got.lower, got.upper, got.iterations]).toEqual([want.lower, want.upper, want.iterations]);
+        expect(Array.from(got.right)).toEqual(Array.from(want.right));
+        expect(Array.from(got.left)).toEqual(Array.from(want.left));
+      }
+      expect(plain.chain).toEqual([]);
+      const fused = n > 1 && sectorBlocks(b.A, n).length === 1 && sectorBlocks(b.A, n)[0]!.cyclic && borderedPeriod(b) != null;
+      // as many as the closed iteration's passes (it shares them, then runs on alone), up to max; none unfused
+      expect(withChain.chain.length).toBe(fused ? Math.min(max, withChain.closed.iterations) : 0);
+      let v: Float64Array = start;
+      for (const p of withChain.chain) {
+        v = matVec(b.A, n, n, v);
+        expect(Array.from(p)).toEqual(Array.from(v));
+      }
+      if (withChain.chain.length > 1) rode++;
+    }
+    expect(rode).toBeGreaterThan(15);
   });
 
   it('a hint decides ρ(Ā) < 1 in one step when it can, and the lower bound reaches 1 exactly when it does without one', () => {

@@ -2,6 +2,7 @@ import { describe, it, expect } from 'vitest';
 import * as math from 'mathjs';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { prepareModel } from '../../../src/model/index.ts';
+import { matVec } from '../../../src/linalg/index.ts';
 import { spendingRounds } from '../../../src/scenario/index.ts';
 import { runScenario } from '../../support/scenario.ts';
 import { county4 } from './tables.ts';
@@ -19,6 +20,17 @@ describe('spending rounds', () => {
   const rounds = spendingRounds(pm, r.effectiveDemand, r.openOutput);
   const n = 4;
   const A = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => t.Z[i * n + j]! / t.x[j]!));
+
+  it('rounds given as already formed products are the same rounds; products of the wrong length are formed again', () => {
+    const known: Float64Array[] = [];
+    let v: Float64Array = r.effectiveDemand;
+    for (let k = 0; k < 3; k++) known.push((v = matVec(pm.coef.A, n, n, v)));
+    const given = spendingRounds(pm, r.effectiveDemand, r.openOutput, { products: known });
+    expect(given).toEqual(rounds);
+    const wrong = spendingRounds(pm, r.effectiveDemand, r.openOutput, { products: [new Float64Array(0), new Float64Array(n + 1)] });
+    expect(wrong).toEqual(rounds);
+    expect(given.rounds[1]).not.toBe(known[0]); // a copy: the result never shares the remembered products
+  });
 
   it('round 0 is the shock and round k+1 = A·round k (mathjs)', () => {
     expect(Array.from(rounds.rounds[0]!)).toEqual(Array.from(r.effectiveDemand));
