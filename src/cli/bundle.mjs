@@ -1,19 +1,22 @@
 // Bundles the batch CLI into dist/cli/ (run by `npm install` through the `prepare` script, or `npm run build:cli`).
 // Why: loading the TypeScript sources through tsx costs about 0.3 s at every start; the bundle starts in about 0.1 s,
-// which is most of a county-sized job. The launcher (roundwise.mjs) uses the bundle only while it is newer than
+// which is most of a county-sized job. The CLI is one CommonJS file, main.cjs, with V8's code cache of a typical run
+// beside it (main.cjs.cache, made last by train-code-cache.mjs; code-cache.mjs loads both); the draw helper threads'
+// engine is an ES module, draw-engine.mjs. The launcher (roundwise.mjs) uses the bundle only while it is newer than
 // every source file it was built from (listed in dist/cli/sources.txt, so the launcher stats those files instead of
 // walking src/), and falls back to tsx otherwise, so a stale or missing bundle is never run.
-// Never fails an install: on any error it says so in one line and the launcher keeps using tsx.
+// Never fails an install: on any error it says so in one line and the launcher keeps using tsx (without a code
+// cache, the bundle is compiled as usual).
+import { spawnSync } from 'node:child_process';
 import { copyFileSync, mkdirSync, rmSync, writeFileSync } from 'node:fs';
 import { dirname, join, relative, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { cacheFileOf, IMPORT_META_URL } from './code-cache.mjs';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const out = join(here, '..', '..', 'dist', 'cli');
 
-// The PDF and XLSX libraries are imported on first use (src/deliverables), so they go into chunks of their own that
-// only a run writing a brief or a workbook loads; fontkit's brotli decoder (WOFF2 only; the brief embeds TrueType)
-// is replaced by a stub. Old chunks are removed first, as their names carry content hashes.
+// fontkit's brotli decoder (WOFF2 only; the brief embeds TrueType) is replaced by a stub.
 const noWoff2 = {
   name: 'no-woff2',
   setup(b) {
@@ -40,33 +43,75 @@ const onDemand = {
   },
 };
 
+// The libraries of the brief and the workbook, imported on first use (src/deliverables): built as CommonJS files of
+// their own beside main.cjs, which `require`s one when first asked for it (its dynamic imports become requires), so
+// a run that writes neither never reads them. Inlined they doubled main.cjs and its code cache (a 500-sector analyze
+// 55 ms slower).
+const LAZY_LIBRARIES = [
+  { importPath: '@cantoo/pdf-lib', file: 'pdf-lib.cjs' },
+  { importPath: '@cantoo/fontkit', file: 'fontkit.cjs' },
+  { importPath: 'write-excel-file/universal', file: 'write-excel-file.cjs' },
+];
+const lazyLibraries = {
+  name: 'lazy-libraries',
+  setup(b) {
+    for (const l of LAZY_LIBRARIES) {
+      b.onResolve({ filter: new RegExp(`^${l.importPath.replace(/[.\/]/g, (c) => `\\${c}`)}$`) }, (args) => (args.kind === 'dynamic-import' ? { path: l.file, namespace: 'lazy-library' } : undefined));
+    }
+    // The import becomes an ES module that re-exports the file's exports, default included: outside a "type": "module"
+    // package, so esbuild's interop reads the file's ES-module marker as the ES build of the library meant it.
+    b.onLoad({ filter: /.*/, namespace: 'lazy-library' }, (args) => ({ contents: `export * from './${args.path}';\nexport { default } from './${args.path}';\n`, loader: 'js', resolveDir: here }));
+    b.onResolve({ filter: /\.cjs$/, namespace: 'lazy-library' }, (args) => ({ path: args.path, external: true }));
+  },
+};
+
+// What the code cache is made from (train-code-cache.mjs): commands on the invented sample data that go through the
+// import, the analysis, a scenario with paths and the JSON, i.e. what a typical run compiles.
+const sample = (f) => join(here, '..', '..', 'sample-data', f);
+const TRAINING = [
+  ['analyze', sample('fernhollow-county.csv'), '--json'],
+  ['scenario', sample('fernhollow-county.csv'), '--shock', sample('fernhollow-food-plant.csv'), '--paths', 'Farming', '--json'],
+];
+
 try {
   const { build } = await import('esbuild');
-  rmSync(join(out, 'chunks'), { recursive: true, force: true });
+  // Old outputs first: chunk names carry content hashes, and a cache must never outlive its bundle.
+  for (const old of ['chunks', 'main.mjs', 'main.cjs', cacheFileOf('main.cjs')]) rmSync(join(out, old), { recursive: true, force: true });
   mkdirSync(out, { recursive: true });
-  const result = await build({
-    entryPoints: [join(here, 'main.ts'), join(here, 'draw-engine.ts')],
+  const common = { bundle: true, platform: 'node', target: 'node20', logLevel: 'warning', metafile: true };
+  // The CLI: one CommonJS file, so that it can be run as a script with V8's code cache (code-cache.mjs).
+  const cli = await build({
+    ...common,
+    entryPoints: [join(here, 'main.ts')],
+    outfile: join(out, 'main.cjs'),
+    format: 'cjs',
+    define: { 'import.meta.url': IMPORT_META_URL },
+    supported: { 'dynamic-import': false },
+    plugins: [noWoff2, onDemand, lazyLibraries],
+  });
+  // The draw helper threads' engine (draw-worker.mjs imports it), an ES module as before.
+  const drawEngine = await build({
+    ...common,
+    entryPoints: [join(here, 'draw-engine.ts')],
     outdir: out,
     outExtension: { '.js': '.mjs' },
     entryNames: '[name]',
     chunkNames: 'chunks/[name]-[hash]',
     splitting: true,
-    bundle: true,
-    platform: 'node',
     format: 'esm',
-    target: 'node20',
-    logLevel: 'warning',
     plugins: [noWoff2, onDemand],
-    metafile: true,
   });
   const libraryInputs = [];
   for (const d of ON_DEMAND) {
-    const [holder] = Object.entries(result.metafile.outputs).find(([, o]) => Object.keys(o.inputs).some((i) => i.endsWith(d.standIn))) ?? [];
-    if (holder === undefined) throw new Error(`${d.standIn} is in no output`);
-    const lib = await build({
-      entryPoints: [d.entry], outfile: join(dirname(resolve(holder)), d.file),
-      bundle: true, platform: 'node', format: 'cjs', target: 'node20', logLevel: 'warning', metafile: true,
-    });
+    const holders = [cli, drawEngine].flatMap((r) => Object.entries(r.metafile.outputs).filter(([, o]) => Object.keys(o.inputs).some((i) => i.endsWith(d.standIn))).map(([f]) => f));
+    if (holders.length === 0) throw new Error(`${d.standIn} is in no output`);
+    for (const holder of new Set(holders.map((h) => dirname(resolve(h))))) {
+      const lib = await build({ ...common, entryPoints: [d.entry], outfile: join(holder, d.file), format: 'cjs' });
+      libraryInputs.push(...Object.keys(lib.metafile.inputs));
+    }
+  }
+  for (const l of LAZY_LIBRARIES) {
+    const lib = await build({ ...common, entryPoints: [l.importPath], outfile: join(out, l.file), format: 'cjs', conditions: ['import'], mainFields: ['module', 'main'], plugins: [noWoff2] });
     libraryInputs.push(...Object.keys(lib.metafile.inputs));
   }
   copyFileSync(join(here, 'parallel-worker.mjs'), join(out, 'parallel-worker.mjs'));
@@ -74,11 +119,14 @@ try {
   // The sources the bundle was built from, relative to src/ (esbuild's inputs are relative to the working folder).
   // A new source file matters only once an existing one imports it, and that edit makes the importer newer.
   const srcDir = join(here, '..');
-  const sources = [...Object.keys(result.metafile.inputs), ...libraryInputs]
+  const sources = [...Object.keys(cli.metafile.inputs), ...Object.keys(drawEngine.metafile.inputs), ...libraryInputs]
     .map((input) => relative(srcDir, resolve(input)))
     .filter((p) => !p.startsWith('..') && !p.includes(':'));
-  sources.push(relative(srcDir, join(here, 'parallel-worker.mjs')), relative(srcDir, join(here, 'draw-worker.mjs')), relative(srcDir, join(here, 'roundwise.mjs')));
+  for (const f of ['parallel-worker.mjs', 'draw-worker.mjs', 'roundwise.mjs', 'code-cache.mjs', 'v8-flags.mjs']) sources.push(relative(srcDir, join(here, f)));
   writeFileSync(join(out, 'sources.txt'), [...new Set(sources)].sort().join('\n') + '\n');
+  // The code cache last, from the finished bundle; without it the launcher compiles the bundle as usual.
+  const trained = spawnSync(process.execPath, [join(here, 'train-code-cache.mjs'), join(out, 'main.cjs'), JSON.stringify(TRAINING)], { stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8', timeout: 120_000 });
+  if (trained.status !== 0) console.warn(`roundwise: CLI code cache not made (${(trained.stderr ?? '').trim().split('\n').pop() || trained.error?.message || `status ${trained.status}`}); the CLI runs without it`);
 } catch (e) {
   console.warn(`roundwise: CLI bundle not built (${e instanceof Error ? e.message.split('\n')[0] : e}); the CLI runs from source through tsx`);
 }

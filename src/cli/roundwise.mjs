@@ -5,24 +5,15 @@
 // bundle it ships.
 import { existsSync, readFileSync, readdirSync, statSync } from 'node:fs';
 import { dirname, join, sep } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
-import { setFlagsFromString } from 'node:v8';
+import { fileURLToPath } from 'node:url';
+import { loadBundle } from './code-cache.mjs';
+import { setCliFlags } from './v8-flags.mjs';
 
-// On-stack replacement (a long-running loop switched to optimised code while it runs) compiles on the running thread
-// instead of queueing for V8's background compiler thread. A run is mostly one-shot loops over n² numbers; queued,
-// they ran interpreted until a core was free to compile them (most of a 500-sector run on a loaded 2-core machine).
-// Same numbers either way (JavaScript arithmetic is exact IEEE 754 in every tier). README "Performance" has the measurement.
-setFlagsFromString('--no-concurrent-osr');
-// The young generation stays at its first size instead of doubling towards 16 MB as a run allocates: each new page of
-// it is a page fault the first time (about 4 ms per MB on the development machine), and a run's short-lived objects
-// are few, so more scavenges of a small space cost less than the faults. Read by V8 whenever the space would grow, so
-// it applies though set after start-up. Paired runs: a 500-sector `analyze` about 25 ms faster, 1,300 faults fewer;
-// at 2,000 sectors and for the draws no change (README "Performance", sixth CLI round).
-setFlagsFromString('--semi-space-growth-factor=1');
+setCliFlags();
 
 const here = dirname(fileURLToPath(import.meta.url));
 const src = join(here, '..');
-const bundle = join(src, '..', 'dist', 'cli', 'main.mjs');
+const bundle = join(src, '..', 'dist', 'cli', 'main.cjs');
 
 // An installed package (unpacked under node_modules) ships sources and bundle from one build, but npm gives unpacked
 // files the time of unpacking, so their modification times say nothing there.
@@ -61,12 +52,13 @@ function bundleIsFresh() {
 
 let main;
 if (process.env.ROUNDWISE_FROM_SOURCE !== '1' && bundleIsFresh()) {
-  ({ main } = await import(pathToFileURL(bundle).href));
+  // Through its code cache when there is a good one (code-cache.mjs).
+  ({ main } = loadBundle(bundle).exports);
 } else {
   // tsx is a development dependency: a checkout has it, an installed package runs the bundle it ships.
   const tsx = await import('tsx/esm/api').catch(() => null);
   if (!tsx) {
-    const why = existsSync(bundle) ? 'the CLI bundle is older than the sources' : 'the CLI bundle (dist/cli/main.mjs) is missing';
+    const why = existsSync(bundle) ? 'the CLI bundle is older than the sources' : 'the CLI bundle (dist/cli/main.cjs) is missing';
     process.stderr.write(process.env.ROUNDWISE_FROM_SOURCE === '1'
       ? 'roundwise: ROUNDWISE_FROM_SOURCE=1 needs tsx (a development dependency), which is not installed: unset it, or run `npm install` in the source folder\n'
       : `roundwise: ${why}, and tsx (a development dependency) is not installed to run the sources: run \`npm install\` in the source folder (it builds the bundle), or \`npm run build:cli\`\n`);

@@ -3,14 +3,24 @@
 // (common practice, no source: the reference is the project's own source run through tsx).
 import { describe, it, expect, beforeAll } from 'vitest';
 import { execFileSync, spawnSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
 import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, utimesSync, writeFileSync, cpSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { runCli } from '../../support/cli.ts';
 
 const root = fileURLToPath(new URL('../../..', import.meta.url));
 const bin = 'src/cli/roundwise.mjs';
+
+/** An installed package's CLI under `pkg`: the whole bundle folder (main.cjs, its code cache, the workers, the
+ * libraries loaded on first use) and the launcher's own files. */
+function installedCopy(pkg: string): void {
+  mkdirSync(join(pkg, 'src', 'cli'), { recursive: true });
+  mkdirSync(join(pkg, 'dist', 'cli'), { recursive: true });
+  cpSync(join(root, 'dist', 'cli'), join(pkg, 'dist', 'cli'), { recursive: true });
+  for (const f of ['roundwise.mjs', 'code-cache.mjs', 'v8-flags.mjs']) copyFileSync(join(root, 'src', 'cli', f), join(pkg, 'src', 'cli', f));
+}
 
 function run(env: Record<string, string>, ...args: string[]) {
   return spawnSync(process.execPath, [bin, ...args], { cwd: root, env: { ...process.env, ...env }, encoding: 'utf8' });
@@ -20,9 +30,10 @@ describe('roundwise launcher', () => {
   beforeAll(() => { execFileSync(process.execPath, ['src/cli/bundle.mjs'], { cwd: root }); }, 60_000);
 
   it('builds the bundle', () => {
-    expect(existsSync(`${root}/dist/cli/main.mjs`)).toBe(true);
+    expect(existsSync(`${root}/dist/cli/main.cjs`)).toBe(true);
     expect(existsSync(`${root}/dist/cli/parallel-worker.mjs`)).toBe(true);
-    expect(statSync(`${root}/dist/cli/main.mjs`).size).toBeGreaterThan(10_000);
+    expect(statSync(`${root}/dist/cli/main.cjs`).size).toBeGreaterThan(10_000);
+    expect(statSync(`${root}/dist/cli/main.cjs.cache`).size).toBeGreaterThan(10_000);
   });
 
   it('bundle and sources print the same analysis and the same refusal', async () => {
@@ -50,7 +61,7 @@ describe('roundwise launcher', () => {
       expect(listed).toContain('cli/main.ts');
       expect(listed).toContain('linalg/lu.ts');
       const now = Date.now() / 1000;
-      utimesSync(join(dir, 'dist', 'cli', 'main.mjs'), now, now);
+      utimesSync(join(dir, 'dist', 'cli', 'main.cjs'), now, now);
       const launch = () => spawnSync(process.execPath, [join(dir, bin), '--help'], { cwd: dir, encoding: 'utf8' });
       const stale = 'roundwise: the CLI bundle is older than the sources, and tsx (a development dependency) is not installed to run the sources: run `npm install` in the source folder (it builds the bundle), or `npm run build:cli`\n';
       for (const p of listed) utimesSync(join(dir, 'src', p), now - 60, now - 60);
@@ -78,9 +89,7 @@ describe('roundwise launcher', () => {
       const pkg = join(dir, 'node_modules', 'roundwise');
       mkdirSync(join(pkg, 'src', 'cli'), { recursive: true });
       mkdirSync(join(pkg, 'dist', 'cli'), { recursive: true });
-      // The whole bundle folder: main.mjs, the worker and the chunks loaded on first use (the brief's and the workbook's libraries).
-      cpSync(join(root, 'dist', 'cli'), join(pkg, 'dist', 'cli'), { recursive: true });
-      copyFileSync(join(root, bin), join(pkg, bin));
+      installedCopy(pkg);
       writeFileSync(join(pkg, 'src', 'cli', 'main.ts'), '// unpacked after the bundle\n');
       const later = new Date(Date.now() + 60_000);
       utimesSync(join(pkg, 'src', 'cli', 'main.ts'), later, later);
@@ -90,11 +99,63 @@ describe('roundwise launcher', () => {
       expect(ok.status).toBe(0);
       expect(ok.stdout).toBe(run({}, 'analyze', 'sample-data/fernhollow-county.csv', '--json').stdout);
       // Without the bundle, and without tsx to run the sources: one line saying what to do, exit 1.
-      rmSync(join(pkg, 'dist', 'cli', 'main.mjs'));
+      rmSync(join(pkg, 'dist', 'cli', 'main.cjs'));
       const missing = launch();
       expect(missing.status).toBe(1);
       expect(missing.stdout).toBe('');
-      expect(missing.stderr).toBe('roundwise: the CLI bundle (dist/cli/main.mjs) is missing, and tsx (a development dependency) is not installed to run the sources: run `npm install` in the source folder (it builds the bundle), or `npm run build:cli`\n');
+      expect(missing.stderr).toBe('roundwise: the CLI bundle (dist/cli/main.cjs) is missing, and tsx (a development dependency) is not installed to run the sources: run `npm install` in the source folder (it builds the bundle), or `npm run build:cli`\n');
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  }, 60_000);
+  it('runs the same with a good, missing, stale, damaged or refused code cache (only the time differs)', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'rw-cache-'));
+    try {
+      const pkg = join(dir, 'node_modules', 'roundwise');
+      installedCopy(pkg);
+      const bundle = join(pkg, 'dist', 'cli', 'main.cjs');
+      const cache = `${bundle}.cache`;
+      const good = readFileSync(cache);
+      const args = ['analyze', join(root, 'sample-data', 'fernhollow-county.csv'), '--json'];
+      const launch = (flags: string[] = []) => spawnSync(process.execPath, [...flags, join(pkg, bin), ...args], { cwd: dir, encoding: 'utf8' });
+      // How the launcher's loader fares with the cache as it is now (code-cache.mjs: used, rejected by V8, or none).
+      const probe = (flags: string[] = []) => spawnSync(process.execPath, [...flags, '--input-type=module', '-e',
+        `import { loadBundle } from ${JSON.stringify(pathToFileURL(join(pkg, 'src', 'cli', 'code-cache.mjs')).href)};
+         import { setCliFlags } from ${JSON.stringify(pathToFileURL(join(pkg, 'src', 'cli', 'v8-flags.mjs')).href)};
+         setCliFlags(); process.stdout.write(loadBundle(${JSON.stringify(bundle)}).cache);`], { encoding: 'utf8' }).stdout;
+      const want = run({}, ...args).stdout;
+      const same = (flags: string[] = []) => {
+        const r = launch(flags);
+        expect(r.stderr).toBe('');
+        expect(r.status).toBe(0);
+        expect(r.stdout).toBe(want);
+      };
+      expect(probe()).toBe('used');
+      same();
+      // Other V8 flags than the cache was made under: V8 refuses it.
+      expect(probe(['--stack-size=900'])).toBe('rejected');
+      same(['--stack-size=900']);
+      // Damaged: a byte of the data flipped, or cut short; another build's (the bundle changed since); not there.
+      const flipped = Buffer.from(good);
+      flipped[flipped.length - 100] = flipped[flipped.length - 100]! ^ 0xff;
+      for (const [bytes, status] of [[flipped, 'none'], [good.subarray(0, good.length >> 1), 'none'], [good.subarray(0, 20), 'none']] as const) {
+        writeFileSync(cache, bytes);
+        expect(probe()).toBe(status);
+        same();
+      }
+      // Garbage with a header that matches it: not V8's format, refused by V8 itself.
+      const garbage = Buffer.alloc(4096, 7);
+      const head = good.subarray(0, good.indexOf(10) + 1);
+      writeFileSync(cache, Buffer.concat([head, good.subarray(head.length, head.length + 32), createHash('sha256').update(garbage).digest(), garbage]));
+      expect(probe()).toBe('rejected');
+      same();
+      writeFileSync(cache, good);
+      writeFileSync(bundle, Buffer.concat([readFileSync(bundle), Buffer.from('\n// another build\n')]));
+      expect(probe()).toBe('none');
+      same();
+      rmSync(cache);
+      expect(probe()).toBe('none');
+      same();
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
