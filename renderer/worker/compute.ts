@@ -4,7 +4,7 @@
  * screen's choices to the study, and hands results to views.ts for shaping. Runs under Node in test/renderer too.
  */
 import {
-  buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, projectFileOf, readyLines, REPORTS,
+  buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, previewTableBytes, projectFileOf, readyLines, REPORTS,
   reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
   studyFromImportedTable, studyFromTableFile, utf8Bytes, sha256HexPortable, usePlatformSha256, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
   type BriefDocument, type BriefFonts, type IOTable, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
@@ -174,28 +174,19 @@ function previewTable(src: TextSource): PreviewView {
 }
 
 /**
- * The last picked file the worker read: its text (for previews), its bytes and their SHA-256. A file is previewed,
- * perhaps with other roles, then imported: it is read and hashed once. The hash is the platform's (Web Crypto), started
- * as soon as the file is read, so it is ready by the time "Use this table" is pressed.
+ * The last picked file the worker read: its bytes, as the file holds them, and their SHA-256. A file is previewed,
+ * perhaps with other roles, then imported: it is read and hashed once. The bytes are what the study keeps and
+ * fingerprints (the CLI's rule: the SHA-256 of the file itself, byte order mark and all); the table is read from
+ * them as UTF-8 text by the engine, which decodes only what it cannot read from the bytes themselves. The hash is the
+ * platform's (Web Crypto), started as soon as the file is read, so it is ready by the time "Use this table" is pressed.
  */
-let lastFile: { id: string; text: string; bytes: Uint8Array; sha256: Promise<string> } | null = null;
+let lastFile: { id: string; bytes: Uint8Array; sha256: Promise<string> } | null = null;
 
 async function readFile(src: FileSource): Promise<NonNullable<typeof lastFile>> {
   if (lastFile?.id === src.id) return lastFile;
   lastFile = null;
-  const raw = new Uint8Array(await src.file.arrayBuffer());
-  let text: string;
-  let bytes: Uint8Array;
-  try {
-    // Valid UTF-8: the text is what the window's Blob.text() gave (a leading byte order mark dropped), and the bytes
-    // after that mark are exactly the text's UTF-8, so they need not be encoded again.
-    text = new TextDecoder('utf-8', { fatal: true }).decode(raw);
-    bytes = raw[0] === 0xef && raw[1] === 0xbb && raw[2] === 0xbf ? raw.subarray(3) : raw;
-  } catch {
-    text = new TextDecoder('utf-8').decode(raw); // malformed sequences become U+FFFD, as Blob.text() reads them
-    bytes = utf8Bytes(text);
-  }
-  lastFile = { id: src.id, text, bytes, sha256: platformSha256(bytes) };
+  const bytes = new Uint8Array(await src.file.arrayBuffer());
+  lastFile = { id: src.id, bytes, sha256: platformSha256(bytes) };
   return lastFile;
 }
 
@@ -209,8 +200,7 @@ async function platformSha256(bytes: Uint8Array): Promise<string> {
 
 /**
  * The table the last preview of a picked file read, and the settings it was read under: "Use this table" right after
- * takes it instead of reading 20 MB again. Not kept for a text starting with U+FEFF after the byte order mark (the
- * import drops a leading U+FEFF of the bytes, the preview of the text does not).
+ * takes it instead of reading 20 MB again (the preview reads the bytes as the import does: previewTableBytes).
  */
 interface PreviewRead { id: string; settings: string; table: IOTable }
 let lastPreview: PreviewRead | null = null;
@@ -219,8 +209,8 @@ const settingsKey = (src: TableSource) => JSON.stringify([src.fileName, importSe
 async function previewFile(src: FileSource): Promise<PreviewView> {
   const f = await readFile(src);
   dropPreview({});
-  const p = readPreview(f.text, src);
-  if (p.table && f.text.charCodeAt(0) !== 0xfeff) {
+  const p = previewTableBytes(f.bytes, { fileName: src.fileName, ...importSettings(src) });
+  if (p.table) {
     const preview: PreviewRead = { id: src.id, settings: settingsKey(src), table: p.table };
     lastPreview = preview;
     const from = state;

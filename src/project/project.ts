@@ -71,7 +71,9 @@ export interface Project {
   settings: ProjectSettings;
 }
 
-const strictUtf8 = new TextDecoder('utf-8', { fatal: true });
+// ignoreBOM: a leading byte order mark stays in the text (U+FEFF, encoded back to the same three bytes), so the stored
+// source keeps the file's bytes and its SHA-256.
+const strictUtf8 = new TextDecoder('utf-8', { fatal: true, ignoreBOM: true });
 
 /** Source information for a file's bytes; with `keep`, the bytes themselves travel with the study. */
 export function sourceInfo(fileName: string, bytes: Uint8Array, keep?: { import: ImportSettings }): SourceInfo {

@@ -22,7 +22,7 @@ export { estimateCountyTable, flqOriginOf, type CountyEstimate, type EstimateReq
 // What the front ends need besides the study itself (they import engine code only through this file).
 export type Closure = import('./study.ts').StudySettings['closure'];
 export { formatLocated, isInputError, InputError, type Location, type Warning } from '../diagnostics/index.ts';
-export { previewTable, matchKey, ROW_ROLES, COLUMN_ROLES, type IOTable, type TablePreview, type RoleMap, type Delimiter, type DecimalMark } from '../table/index.ts';
+export { previewTable, previewTableBytes, matchKey, ROW_ROLES, COLUMN_ROLES, type IOTable, type TablePreview, type RoleMap, type Delimiter, type DecimalMark } from '../table/index.ts';
 export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../table/index.ts';
 export { luInverse } from '../linalg/index.ts';
 export type { ModeKind } from '../model/index.ts';

@@ -183,16 +183,21 @@ const utf8 = new TextDecoder('utf-8');
  * Anything else, or a head that does not settle the dialect as the whole text would, is decoded and imported as text.
  */
 export function importTableBytes(bytes: Uint8Array, opts: ImportOptions): IOTable {
+  return runBytes(bytes, opts, emptyProgress());
+}
+
+/** `run` of the file's bytes read as UTF-8 text, from the bytes themselves where they are plain (importTableBytes). */
+function runBytes(bytes: Uint8Array, opts: ImportOptions, p: Progress): IOTable {
   const head = plainHead(bytes);
   if (head !== null) {
     checkTableSize(bytes.length, opts.fileName);
     const d = openTableText(head, opts, opts.fileName);
     // A mark guessed for want of a deciding number in the head might be decided by one further on: read as text.
     if (d.text === head && d.dialect.decimalMarkFrom !== 'guessed') {
-      return run(head, opts, emptyProgress(), { bytes, text: () => utf8.decode(bytes) }, d);
+      return run(head, opts, p, { bytes, text: () => utf8.decode(bytes) }, d);
     }
   }
-  return importTable(utf8.decode(bytes), opts);
+  return run(utf8.decode(bytes), opts, p);
 }
 
 export interface Refusal {
@@ -233,9 +238,21 @@ export interface TablePreview {
 
 /** The import as a preview: what was detected and suggested, the balance report, and the refusal if any. Never throws. */
 export function previewTable(text: string, opts: ImportOptions): TablePreview {
+  return previewOf((p) => run(text, opts, p), opts);
+}
+
+/**
+ * `previewTable` of a file's bytes read as UTF-8 text: what `importTableBytes` reads from them (the same table,
+ * warnings and refusal), so a front end that previews a file, then imports it, reads it one way.
+ */
+export function previewTableBytes(bytes: Uint8Array, opts: ImportOptions): TablePreview {
+  return previewOf((p) => runBytes(bytes, opts, p), opts);
+}
+
+function previewOf(read: (p: Progress) => IOTable, opts: ImportOptions): TablePreview {
   const p = emptyProgress();
   try {
-    const table = run(text, opts, p);
+    const table = read(p);
     return { ok: true, ...p, warnings: table.warnings, refusal: null, table };
   } catch (e) {
     const err = isInputError(e)

@@ -2,7 +2,8 @@
  * Screens as a planner reads them, in real Chromium: the Multipliers table shows every row of a 16-sector table
  * without scrolling, keeps the Sector heading over its pinned column when scrolled sideways, and shows jobs per
  * million dollars (or per the table's unit) with the unit named; Structure above 400 sectors says plainly why there
- * is no eigenvalue chart and what stands in for it; importing another table ends the opened project's name.
+ * is no eigenvalue chart and what stands in for it; a large table's rows are drawn a paint after its heading (two short
+ * main-thread tasks, not one long one) and filtered; importing another table ends the opened project's name.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeFileSync } from 'node:fs';
@@ -181,6 +182,28 @@ describe.skipIf(skipBrowser)('screens', () => {
     expect(await page.locator('text=unit circle |λ| = 1').count()).toBe(0);
     expect(await page.locator('body').innerText()).not.toMatch(/full spectrum skipped/);
     await shot('structure-450-sectors');
+  });
+
+  it('draws a large table\'s heading first and its rows a paint later, then every row the filter finds', async () => {
+    // Needs the 450-sector table of the test above. At the end of the task that mounts the Multipliers screen (seen by
+    // a MutationObserver, whose callback runs before the next task) the table has its heading and no rows.
+    await page.evaluate(() => {
+      const w = window as unknown as { __rowsAtMount?: number };
+      const mo = new MutationObserver(() => {
+        const t = document.querySelector('[data-testid="multiplier-table"]');
+        if (!t) return;
+        w.__rowsAtMount = t.querySelectorAll('tbody tr:not(.pad)').length;
+        mo.disconnect();
+      });
+      mo.observe(document.body, { childList: true, subtree: true });
+    });
+    await go('multipliers');
+    const table = page.getByTestId('multiplier-table');
+    await poll(() => table.locator('tbody tr:not(.pad)').count()).toBeGreaterThan(10);
+    expect(await page.evaluate(() => (window as unknown as { __rowsAtMount?: number }).__rowsAtMount)).toBe(0);
+    expect(await table.locator('thead th').first().textContent()).toMatch(/Sector/);
+    await table.getByRole('searchbox').fill('Sector 449');
+    await poll(() => table.locator('tbody th').allTextContents()).toEqual(['Sector 449']);
   });
 
   it('shows no console errors', () => {

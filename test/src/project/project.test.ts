@@ -191,6 +191,16 @@ describe('project files that keep the source file', () => {
     expect(Array.from(loaded.source!.content!)).toEqual(Array.from(latin1));
     expect(loaded.table.warnings.some((w) => w.code === 'source-changed')).toBe(false);
   });
+  it('keeps a UTF-8 byte order mark (a spreadsheet\'s "CSV UTF-8"), so the SHA-256 still matches and no change is claimed', () => {
+    const bom = Uint8Array.from([0xef, 0xbb, 0xbf, ...bytes]);
+    const source = sourceInfo('county.csv', bom, { import: {} });
+    const p = createProject(importSource(source as typeof source & { content: Uint8Array }), { source });
+    const loaded = parseProject(serializeProject(p), 'study.json');
+    expect(Array.from(loaded.source!.content!)).toEqual(Array.from(bom));
+    expect(loaded.source!.sha256).toBe(source.sha256);
+    expect(loaded.table.warnings.some((w) => w.code === 'source-changed')).toBe(false);
+    expect(Array.from(loaded.table.Z)).toEqual(Array.from(p.table.Z));
+  });
   it('says so when the stored table no longer matches its recorded SHA-256', () => {
     const doc = JSON.parse(serializeProject(kept()));
     doc.source.content.data = doc.source.content.data.replace('120', '121');

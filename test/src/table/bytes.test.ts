@@ -5,16 +5,20 @@ import { describe, it, expect } from 'vitest';
 import { readdirSync, readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import fc from 'fast-check';
-import { importTable, importTableBytes, type ImportOptions } from '../../../src/table/index.ts';
+import { importTable, importTableBytes, previewTable, previewTableBytes, type ImportOptions } from '../../../src/table/index.ts';
 import { plainHead } from '../../../src/table/bytes.ts';
 import { gridTable, encoding, toText, refusalOf } from '../hardening/gen.ts';
 import { seeded } from '../../support/random.ts';
 
 const utf8 = new TextDecoder('utf-8');
 
-/** Both imports of `bytes`: the same table (every field) or the same refusal. */
+/**
+ * Both imports of `bytes`: the same table (every field) or the same refusal; and both previews the same (what was
+ * detected before a refusal, the first cells as parsed, the balance), as the app previews a file, then imports it.
+ */
 function expectSameImport(bytes: Uint8Array, opts: ImportOptions): void {
   const text = utf8.decode(bytes);
+  expect(previewTableBytes(bytes, opts)).toEqual(previewTable(text, opts));
   const want = refusalOf(() => importTable(text, opts), opts.fileName);
   const got = refusalOf(() => importTableBytes(bytes, opts), opts.fileName);
   if (want !== null || got !== null) {
