@@ -67,6 +67,23 @@ export function contractionRate(a: Float64Array, n: number, v: Float64Array): nu
   return beta * (1 + g / (1 - g));
 }
 
+/**
+ * Σ_j |a_ij|·v_j of row i for three vectors at once, in registers: the sums of contractionRates's loop, term by term
+ * in the same order (zeros skipped as there), so the same bits; the analysis passes three vectors (seriesVerdict), and
+ * the general loop's sums kept in an array took 45 ms over a 2,000-sector A against about 15 ms.
+ */
+function absRowSums3(a: Float64Array, row: number, n: number, v0: Float64Array, v1: Float64Array, v2: Float64Array, out: Float64Array): void {
+  let s0 = 0, s1 = 0, s2 = 0;
+  for (let j = 0; j < n; j++) {
+    const aij = Math.abs(a[row + j]!);
+    if (aij === 0) continue;
+    s0 = s0 + aij * v0[j]!;
+    s1 = s1 + aij * v1[j]!;
+    s2 = s2 + aij * v2[j]!;
+  }
+  out[0] = s0; out[1] = s1; out[2] = s2;
+}
+
 /** β for several weight vectors in one pass over A (null for a vector that is not strictly positive). */
 export function contractionRates(a: Float64Array, n: number, vs: Float64Array[]): (number | null)[] {
   const k = vs.length;
@@ -74,12 +91,15 @@ export function contractionRates(a: Float64Array, n: number, vs: Float64Array[])
   const beta = new Float64Array(k);
   const sums = new Float64Array(k);
   for (let i = 0; i < n; i++) {
-    sums.fill(0);
     const row = i * n;
-    for (let j = 0; j < n; j++) {
-      const aij = Math.abs(a[row + j]!);
-      if (aij === 0) continue;
-      for (let c = 0; c < k; c++) sums[c] = sums[c]! + aij * vs[c]![j]!;
+    if (k === 3) absRowSums3(a, row, n, vs[0]!, vs[1]!, vs[2]!, sums);
+    else {
+      sums.fill(0);
+      for (let j = 0; j < n; j++) {
+        const aij = Math.abs(a[row + j]!);
+        if (aij === 0) continue;
+        for (let c = 0; c < k; c++) sums[c] = sums[c]! + aij * vs[c]![j]!;
+      }
     }
     for (let c = 0; c < k; c++) {
       if (!ok[c]) continue;

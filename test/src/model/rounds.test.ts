@@ -1,7 +1,8 @@
 // The power-series certificate: rigorous, minimal, and honest about divergence.
 import { describe, it, expect } from 'vitest';
 import { inv } from 'mathjs';
-import { certificate, MAX_ROUNDS, roundByRound, roundsFor, seriesVerdict } from '../../../src/model/rounds.ts';
+import { certificate, contractionRate, contractionRates, MAX_ROUNDS, roundByRound, roundsFor, seriesVerdict } from '../../../src/model/rounds.ts';
+import { seeded } from '../../support/random.ts';
 
 const flat = (a: number[][]) => Float64Array.from(a.flat());
 
@@ -72,5 +73,16 @@ describe('power series', () => {
     const withPerron = seriesVerdict(flat([[0, 4], [0.01, 0]]), 2, { perron: Float64Array.of(20, 1) }, 1e-6, 0.2);
     expect(withPerron.converges).toBe(true);
     if (withPerron.converges) expect(withPerron.certificate.beta).toBeCloseTo(0.2, 12);
+  });
+  it('contractionRates gives each vector the rate contractionRate gives it alone, bit for bit (three vectors in registers, or any number)', () => {
+    const r = seeded(77);
+    for (let t = 0; t < 40; t++) {
+      const n = 1 + (t % 13);
+      const a = Float64Array.from({ length: n * n }, () => (r() < 0.3 ? 0 : (r() - 0.2) / n));
+      const k = 1 + (t % 4);
+      const vs = Array.from({ length: k }, (_, c) => Float64Array.from({ length: n }, () => (c === 1 && t % 5 === 0 ? r() - 0.5 : 0.1 + r())));
+      const rates = contractionRates(a, n, vs);
+      vs.forEach((v, c) => expect(rates[c]).toBe(contractionRate(a, n, v)));
+    }
   });
 });
