@@ -162,6 +162,7 @@ export class ByteGrid implements Grid {
   private readonly starts: Int32Array;
   private readonly stops: Int32Array;
   private readonly widths: Int32Array;
+  private readonly words: ByteWords;
   private readonly cachedRow = new Int32Array(CACHED_ROWS).fill(-1);
   private readonly cachedBounds: Int32Array[] = [];
   private nextSlot = 0;
@@ -186,6 +187,7 @@ export class ByteGrid implements Grid {
       start = e + 1;
     }
     this.widths = new Int32Array(rows).fill(-1);
+    this.words = byteWords(bytes);
   }
   get rowCount(): number {
     return this.starts.length;
@@ -194,7 +196,7 @@ export class ByteGrid implements Grid {
     let w = this.widths[r]!;
     if (w < 0) {
       const stop = this.stops[r]!;
-      w = 1 + countByte(this.bytes, this.delimiterCode, this.starts[r]!, stop);
+      w = 1 + countByte(this.bytes, this.words, this.delimiterCode, this.starts[r]!, stop);
       this.widths[r] = w;
     }
     return w;
@@ -254,13 +256,39 @@ export class ByteGrid implements Grid {
 
 const asciiText = new TextDecoder('utf-8');
 
+/** `bytes` as whole aligned 32-bit words where it has them: word w holds bytes[4w − lead, 4w − lead + 4). */
+export interface ByteWords {
+  words: Uint32Array;
+  /** Bytes before the first whole word (0–3). */
+  lead: number;
+}
+
+export function byteWords(bytes: Uint8Array): ByteWords {
+  const lead = (4 - (bytes.byteOffset & 3)) & 3;
+  const count = Math.max(0, (bytes.length - lead) >> 2);
+  return { words: count > 0 ? new Uint32Array(bytes.buffer, bytes.byteOffset + lead, count) : new Uint32Array(0), lead };
+}
+
 /**
- * How many bytes in bytes[from, to) equal `code`: a loop, not indexOf (a typed array's indexOf is a call into the
- * runtime, and a record of 2,000 fields took 2,000 of them).
+ * How many bytes in bytes[from, to) equal `code`: four at a time in whole words (a byte b of w ^ (code·0x01010101)
+ * is zero exactly when ((b & 0x7f) + 0x7f | b) has its high bit clear; the usual exact zero-byte test, Warren,
+ * Hacker's Delight 2nd ed. 2013, §6-1, recalled from memory), the ends byte by byte. Not indexOf: a typed array's
+ * indexOf is a call into the runtime, and a record of 2,000 fields took 2,000 of them. Byte by byte it took 45–58 ms
+ * over a 2,000-sector file.
  */
-function countByte(bytes: Uint8Array, code: number, from: number, to: number): number {
+export function countByte(bytes: Uint8Array, bw: ByteWords, code: number, from: number, to: number): number {
   let k = 0;
-  for (let p = from; p < to; p++) if (bytes[p] === code) k++;
+  let p = from;
+  for (; p < to && ((p - bw.lead) & 3) !== 0; p++) if (bytes[p] === code) k++;
+  const words = bw.words;
+  const pattern = Math.imul(code, 0x01010101);
+  const wEnd = Math.min(words.length, (to - bw.lead) >> 2);
+  for (let w = (p - bw.lead) >> 2; w < wEnd; w++, p += 4) {
+    const x = words[w]! ^ pattern;
+    const zeros = ~((((x & 0x7f7f7f7f) + 0x7f7f7f7f) | x) | 0x7f7f7f7f);
+    k += Math.imul(zeros >>> 7, 0x01010101) >>> 24;
+  }
+  for (; p < to; p++) if (bytes[p] === code) k++;
   return k;
 }
 

@@ -1,7 +1,8 @@
 // The quote-free fast grid must give the same records and fields as papaparse (RFC 4180 reader from the registry).
 import { describe, it, expect } from 'vitest';
 import fc from 'fast-check';
-import { buildGrid, recordStartLines, type Grid } from '../../../src/table/grid.ts';
+import { buildGrid, byteWords, countByte, recordStartLines, type Grid } from '../../../src/table/grid.ts';
+import { seeded } from '../../support/random.ts';
 import { scanPlain, scanPlainFields } from '../../../src/table/numbers.ts';
 import type { Delimiter } from '../../../src/table/text.ts';
 
@@ -96,5 +97,28 @@ describe('grid', () => {
   });
   it('an unclosed quote is refused with its line', () => {
     expect(() => buildGrid('a,b\nc,"d\n', ',', 't.csv')).toThrow(/quoted cell is not closed/);
+  });
+  it('countByte counts a byte four at a time exactly as a byte loop does, at every alignment and length', () => {
+    const r = seeded(41);
+    const buffer = new ArrayBuffer(300);
+    const all = new Uint8Array(buffer);
+    // Mostly the counted byte and its neighbours (one bit apart, 0x80 and 0x00, which trip a loose zero-byte test).
+    const pool = [44, 44, 45, 43, 108, 0, 0x80, 0xac, 0xff, 48, 10];
+    for (let i = 0; i < all.length; i++) all[i] = pool[Math.floor(r() * pool.length)]!;
+    for (let offset = 0; offset < 5; offset++) {
+      for (const length of [0, 1, 2, 3, 5, 8, 64, 200]) {
+        const bytes = new Uint8Array(buffer, offset, length);
+        const bw = byteWords(bytes);
+        for (let from = 0; from <= Math.min(length, 9); from++) {
+          for (const to of [from, from + 1, from + 3, from + 4, from + 7, length].filter((t) => t <= length)) {
+            for (const code of [44, 0, 0x80, 0xff]) {
+              let want = 0;
+              for (let p = from; p < to; p++) if (bytes[p] === code) want++;
+              expect(countByte(bytes, bw, code, from, to)).toBe(want);
+            }
+          }
+        }
+      }
+    }
   });
 });
