@@ -85,6 +85,10 @@ try {
     entryPoints: [join(here, 'main.ts')],
     outfile: join(out, 'main.cjs'),
     format: 'cjs',
+    // ASCII without comments or indentation (names kept): a third less to read, and a one-byte string for V8
+    // (code-cache.mjs decodes it as Latin-1 when it is ASCII).
+    charset: 'ascii',
+    minifyWhitespace: true,
     define: { 'import.meta.url': IMPORT_META_URL },
     supported: { 'dynamic-import': false },
     plugins: [noWoff2, onDemand, lazyLibraries],

@@ -5,6 +5,7 @@
 // as a vm.Script. The cache is used only when it is whole and was made from these very bytes (SHA-256 of both in its
 // header: V8's own check compares only the source's length), and V8 itself refuses one made by another V8 or under
 // other flags; in every other case the bundle is compiled as if there were none. Same bundle, same run either way.
+import { isAscii } from 'node:buffer';
 import { createHash } from 'node:crypto';
 import { readFileSync, renameSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
@@ -50,7 +51,8 @@ export function loadBundle(bundle, { useCache = true } = {}) {
   const digest = sha256(bytes);
   const cachedData = useCache ? cachedDataFor(bundle, digest) : undefined;
   // The module wrapper on the bundle's first line, so line numbers in stack traces are the file's.
-  const source = `(function (exports, require, module, __filename, __dirname, ${IMPORT_META_URL}) {${bytes.toString('utf8')}\n})`;
+  // ASCII (bundle.mjs makes it so) is its own Latin-1 text, decoded without UTF-8's checks into a one-byte string.
+  const source = `(function (exports, require, module, __filename, __dirname, ${IMPORT_META_URL}) {${bytes.toString(isAscii(bytes) ? 'latin1' : 'utf8')}\n})`;
   const script = new Script(source, { filename: bundle, ...(cachedData ? { cachedData } : {}) });
   const module = { exports: {} };
   script.runInThisContext()(module.exports, createRequire(bundle), module, bundle, dirname(bundle), pathToFileURL(bundle).href);

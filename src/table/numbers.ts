@@ -242,7 +242,8 @@ export interface ParsedNumber {
 }
 
 const SPACES = /^[\s\u00a0\u202f]+|[\s\u00a0\u202f]+$/g;
-const NOT_FINITE = /^[+-]?(nan|inf|infinity|∞)$/i;
+// ∞ written as an escape: the CLI bundle is kept ASCII (src/cli/bundle.mjs).
+const NOT_FINITE = /^[+-]?(nan|inf|infinity|\u221e)$/i;
 
 /** Group separators allowed with each decimal mark (the other mark, spaces, apostrophe). */
 function groupPattern(decimal: DecimalMark): RegExp {
