@@ -67,4 +67,13 @@ if (process.env.ROUNDWISE_FROM_SOURCE !== '1' && bundleIsFresh()) {
   tsx.register();
   ({ main } = await import('./main.ts'));
 }
-process.exitCode = await main(process.argv.slice(2));
+const code = await main(process.argv.slice(2));
+process.exitCode = code;
+// Out as soon as stdout and stderr have taken everything written (their callbacks): Node's own way out, once the event
+// loop is empty, also tears the heap and the environment down first, about 11 ms of a 500-sector run (paired runs,
+// README "Performance", sixth CLI round). Everything a command writes to files is written before main returns. A
+// stream that failed (a closed pipe, a full disk) is left to end the run as Node ends it, with its error, as before.
+let streams = 2;
+const flushed = (err) => { if (err) streams = -1; else if (--streams === 0) process.exit(code); };
+process.stdout.write('', flushed);
+process.stderr.write('', flushed);

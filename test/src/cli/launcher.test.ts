@@ -4,7 +4,7 @@
 import { describe, it, expect, beforeAll } from 'vitest';
 import { execFileSync, spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, utimesSync, writeFileSync, cpSync } from 'node:fs';
+import { closeSync, copyFileSync, existsSync, openSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync, utimesSync, writeFileSync, cpSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -159,6 +159,19 @@ describe('roundwise launcher', () => {
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
+  }, 60_000);
+  it.runIf(existsSync('/dev/full'))('ends with the commands\' status, and never as a success when its output could not be written', () => {
+    // The launcher leaves as soon as stdout and stderr have flushed; a stream that failed must still fail the run.
+    const args = [bin, 'analyze', 'sample-data/fernhollow-county.csv', '--json'];
+    const full = openSync('/dev/full', 'w');
+    try {
+      const r = spawnSync(process.execPath, args, { cwd: root, stdio: ['ignore', full, 'pipe'], encoding: 'utf8' });
+      expect(r.status).not.toBe(0);
+    } finally {
+      closeSync(full);
+    }
+    expect(run({}, 'analyze', 'sample-data/fernhollow-county.csv', '--json').status).toBe(0);
+    expect(run({}, 'analyze', 'no-such-table.csv').status).toBe(2);
   }, 60_000);
 });
 
