@@ -9,6 +9,7 @@ import type { CommandSpec } from './command.ts';
 import { usePlatformSha256 } from '../project/index.ts';
 import { CommandRun, nodeSha256 } from './context.ts';
 import { stopParallelKernels } from './parallel.ts';
+import { errnoCode, fsReason } from '../node-io/index.ts';
 import { processIO, type CliIO } from './io.ts';
 import { writeOutputs } from './output.ts';
 import { commandHelp, mainHelp, parseCommandArgs, wantsHelp } from './parse.ts';
@@ -27,6 +28,18 @@ export function usage(): string {
 }
 
 const EXIT = { ok: 0, usage: 1, refused: 2, internal: 70 } as const;
+
+/**
+ * What the launcher does when standard output or error cannot take what a run writes (their 'error' event): a reader
+ * that closed the pipe (`roundwise … --json | head`) has what it wanted, so the run ends quietly with its own status;
+ * any other failure (a full disk behind `> file`) is said in one line, in the one table's words (src/node-io), and
+ * ends the run as a refused write does. Never Node's unhandled 'error' event with its stack trace.
+ */
+export function outputStreamFailed(err: unknown, stream: 'standard output' | 'standard error', argv: readonly string[], status: number): { message: string | null; code: number } {
+  if (errnoCode(err) === 'EPIPE') return { message: null, code: status };
+  const command = COMMANDS.find((c) => c.name === argv[0]);
+  return { message: `roundwise${command ? ` ${command.name}` : ''}: ${stream}: cannot write: ${fsReason(err)}\n`, code: EXIT.refused };
+}
 
 function commandList(): string {
   return `usage: roundwise <command> [options]; the commands are ${COMMANDS.map((c) => c.name).join(', ')} ('roundwise --help' lists their options)`;

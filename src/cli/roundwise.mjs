@@ -51,9 +51,10 @@ function bundleIsFresh() {
 }
 
 let main;
+let outputStreamFailed;
 if (process.env.ROUNDWISE_FROM_SOURCE !== '1' && bundleIsFresh()) {
   // Through its code cache when there is a good one (code-cache.mjs).
-  ({ main } = loadBundle(bundle).exports);
+  ({ main, outputStreamFailed } = loadBundle(bundle).exports);
 } else {
   // tsx is a development dependency: a checkout has it, an installed package runs the bundle it ships.
   const tsx = await import('tsx/esm/api').catch(() => null);
@@ -65,7 +66,15 @@ if (process.env.ROUNDWISE_FROM_SOURCE !== '1' && bundleIsFresh()) {
     process.exit(1);
   }
   tsx.register();
-  ({ main } = await import('./main.ts'));
+  ({ main, outputStreamFailed } = await import('./main.ts'));
+}
+// A closed pipe or a full disk behind stdout or stderr: a line or a quiet end, never a stack trace (main.ts).
+for (const [stream, name] of [[process.stdout, 'standard output'], [process.stderr, 'standard error']]) {
+  stream.on('error', (err) => {
+    const { message, code: status } = outputStreamFailed(err, name, process.argv.slice(2), process.exitCode ?? 0);
+    if (message && stream !== process.stderr) process.stderr.write(message);
+    process.exit(status);
+  });
 }
 const code = await main(process.argv.slice(2));
 process.exitCode = code;

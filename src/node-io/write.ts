@@ -11,7 +11,7 @@
  * A target that is one of the run's input files is refused before anything is written.
  */
 import { randomBytes } from 'node:crypto';
-import { closeSync, fchmodSync, fsyncSync, lstatSync, mkdirSync, openSync, readdirSync, readlinkSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, fchmodSync, fsyncSync, lstatSync, mkdirSync, openSync, readdirSync, readlinkSync, renameSync, statSync, unlinkSync, writeSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
 import { InputError } from '../diagnostics/index.ts';
 import { errnoCode, fileError } from './errors.ts';
@@ -88,6 +88,25 @@ function openTemp(dir: string, target: string, mode: number): { tmp: string; fd:
   }
 }
 
+/**
+ * The folder and any missing parents, one level at a time. Node's own `recursive: true` loops for ever where mkdir
+ * answers ENOENT although the parent exists (a folder asked for under /proc): a hang instead of a message.
+ */
+function makeFolders(dir: string): void {
+  const missing: string[] = [];
+  for (let d = dir; !existsSync(d); d = dirname(d)) {
+    missing.push(d);
+    if (dirname(d) === d) break;
+  }
+  for (const d of missing.reverse()) {
+    try {
+      mkdirSync(d);
+    } catch (err) {
+      if (errnoCode(err) !== 'EEXIST') throw err; // made meanwhile by another run: as good
+    }
+  }
+}
+
 /** Write `data` to `path` atomically (see the module comment). Failures are located InputErrors ('write-failed'). */
 export function writeFileAtomic(path: string, data: string | Uint8Array, opts: AtomicWriteOptions = {}): void {
   const target = resolveWriteTarget(path);
@@ -95,7 +114,7 @@ export function writeFileAtomic(path: string, data: string | Uint8Array, opts: A
   const dir = dirname(target);
   let tmp: string | undefined;
   try {
-    mkdirSync(dir, { recursive: true });
+    makeFolders(dir);
     let mode: number | undefined;
     try {
       const st = statSync(target);

@@ -166,10 +166,17 @@ describe('roundwise launcher', () => {
     const full = openSync('/dev/full', 'w');
     try {
       const r = spawnSync(process.execPath, args, { cwd: root, stdio: ['ignore', full, 'pipe'], encoding: 'utf8' });
-      expect(r.status).not.toBe(0);
+      // As a refused write: exit 2 and one line in the one error table's words, no stack trace.
+      expect(r.status).toBe(2);
+      expect(r.stderr).toBe('roundwise analyze: standard output: cannot write: the disk is full\n');
     } finally {
       closeSync(full);
     }
+    // A reader that stops early (`… | head`) closes the pipe: the run ends quietly with its own status.
+    // (`true` has exited before the run writes: its write meets a closed pipe, EPIPE. stderr and the status go to
+    // bash's own stdout, fd 3.)
+    const piped = spawnSync('bash', ['-c', 'exec 3>&1; "$0" "$@" 2>&3 | true; echo "status ${PIPESTATUS[0]}"', process.execPath, ...args], { cwd: root, encoding: 'utf8' });
+    expect(piped.stdout).toBe('status 0\n');
     expect(run({}, 'analyze', 'sample-data/fernhollow-county.csv', '--json').status).toBe(0);
     expect(run({}, 'analyze', 'no-such-table.csv').status).toBe(2);
   }, 60_000);

@@ -5,7 +5,7 @@
 // fstat(2); the one-limit rule is the project's own (common practice, no source).
 import { afterEach, beforeEach, describe, expect, it } from 'vitest';
 import { chmodSync, existsSync, linkSync, lchownSync, lstatSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, readlinkSync, rmSync, statSync, symlinkSync, writeFileSync } from 'node:fs';
-import { execFileSync } from 'node:child_process';
+import { execFileSync, spawnSync } from 'node:child_process';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileError, readFileLimited, writeFileAtomic, type FileIdentity } from '../../../src/node-io/index.ts';
@@ -100,6 +100,23 @@ describe('writeFileAtomic', () => {
     expect(readFileSync(input, 'utf8')).toBe('the input table');
     writeFileAtomic(join(dir, 'other.csv'), 'report', { inputs });
     expect(readFileSync(join(dir, 'other.csv'), 'utf8')).toBe('report');
+  });
+
+  it('makes missing folders, several levels deep', () => {
+    writeFileAtomic(join(dir, 'a', 'b', 'c', 'report.csv'), 'report');
+    expect(readFileSync(join(dir, 'a', 'b', 'c', 'report.csv'), 'utf8')).toBe('report');
+  });
+
+  // Node's mkdirSync(…, { recursive: true }) loops for ever there (mkdir answers ENOENT under an existing /proc); run
+  // in a child process with a time limit, so a regression fails this test instead of hanging the suite.
+  it.skipIf(!existsSync('/proc/self'))('refuses a folder that cannot be made under /proc in one line, without hanging', () => {
+    const cli = join(process.cwd(), 'src', 'cli', 'roundwise.mjs');
+    const table = join(process.cwd(), 'sample-data', 'fernhollow-county.csv');
+    const r = spawnSync(process.execPath, [cli, 'analyze', table, '--out', '/proc/roundwise-no-such-folder/reports'], { encoding: 'utf8', timeout: 25_000 });
+    expect(r.signal).toBeNull();
+    expect(r.status).toBe(2);
+    expect(r.stderr.trim().split('\n')).toHaveLength(1);
+    expect(r.stderr).toMatch(/\/proc\/roundwise-no-such-folder\/reports\/\S+\.csv: cannot write: /);
   });
 
   it('does not replace a FIFO or a device (and does not block on it)', () => {
