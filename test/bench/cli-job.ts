@@ -4,14 +4,14 @@
  * Runs are paired (ours and numpy's one after the other, the order alternating), so a change in the machine's load
  * hits both sides of a pair; each pair gives a ratio, reported as min/median/max. numpy runs under the Python
  * interpreter itself (`sys.executable`, not a launcher shim such as pyenv's) with OPENBLAS_CORETYPE and
- * OPENBLAS_L2_SIZE removed from its environment only. The two outputs are compared number by number, so the race is
+ * OPENBLAS_L2_SIZE removed from its environment only, ours without NODE_EXTRA_CA_CERTS (numpy.ts). The two outputs are compared number by number, so the race is
  * between equal answers (EQUAL_TOLERANCE).
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { loadavg } from 'node:os';
 import { join } from 'node:path';
-import { childEnv } from './numpy.ts';
+import { childEnv, oursEnv } from './numpy.ts';
 import { median } from './timing.ts';
 
 /** Largest relative difference accepted between our numbers and numpy's (both are backward stable; see compare). */
@@ -127,7 +127,7 @@ export function pairedJob(job: PairedJob['job'], n: number, ours: string[], nump
     const order = r % 2 === 0 ? ['ours', 'numpy'] : ['numpy', 'ours'];
     for (const who of order) {
       if (who === 'ours') {
-        const o = runOnce(process.execPath, ours, process.env);
+        const o = runOnce(process.execPath, ours, oursEnv());
         if ('error' in o) return fail(o.error);
         mine.push(o);
       } else if (python && numpy) {

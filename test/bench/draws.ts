@@ -16,7 +16,7 @@ import { writeTableCsv } from '../../src/table/index.ts';
 import { prepareStudy, studyBands, studyOfTable, defaultUncertaintySettings, type Scenario } from '../../src/study/index.ts';
 import { linesOf, onePhase } from '../support/scenario.ts';
 import { inventedTable } from './table.ts';
-import { childEnv } from './numpy.ts';
+import { childEnv, oursEnv } from './numpy.ts';
 
 export interface DrawsBench {
   n: number;
@@ -88,7 +88,7 @@ export function benchDraws(n: number, draws: number, outDir: string, withNumpy: 
     writeFileSync(csv, writeTableCsv(table));
     writeFileSync(shock, `sector,amount,kind,local_share\n${linesOf(scenario).map((l) => `${l.sector},${l.amount},${l.kind},${l.localShare}`).join('\n')}\n`);
     const t0 = performance.now();
-    const r = spawnSync(process.execPath, [join('src', 'cli', 'roundwise.mjs'), 'scenario', csv, '--shock', shock, '--draws', String(cliDraws), '--json'], { encoding: 'utf8', maxBuffer: 1 << 28 });
+    const r = spawnSync(process.execPath, [join('src', 'cli', 'roundwise.mjs'), 'scenario', csv, '--shock', shock, '--draws', String(cliDraws), '--json'], { encoding: 'utf8', maxBuffer: 1 << 28, env: oursEnv() });
     if (r.status === 0) cli = { draws: cliDraws, wallMs: performance.now() - t0 };
   }
   return {

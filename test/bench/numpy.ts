@@ -20,10 +20,22 @@ med = ts[m] if len(ts) % 2 else (ts[m - 1] + ts[m]) / 2
 print(json.dumps({"medianMs": med, "minMs": ts[0], "runs": runs, "allMs": ts, "numpy": np.__version__}))
 `;
 
+/**
+ * Each side of a paired run without the variables this machine sets that slow that side only: numpy's without
+ * OPENBLAS_CORETYPE and OPENBLAS_L2_SIZE (they slow a current numpy here), ours without NODE_EXTRA_CA_CERTS (the
+ * machine points it at the whole system certificate bundle, 220 kB that Node parses at every start: 30–40 ms of a
+ * 500-sector run, for a CLI that opens no connection). run.ts says so beside the results.
+ */
 export function childEnv(): NodeJS.ProcessEnv {
   const env = { ...process.env };
   delete env['OPENBLAS_CORETYPE'];
   delete env['OPENBLAS_L2_SIZE'];
+  return env;
+}
+
+export function oursEnv(): NodeJS.ProcessEnv {
+  const env = { ...process.env };
+  delete env['NODE_EXTRA_CA_CERTS'];
   return env;
 }
 
