@@ -81,7 +81,7 @@ process.exitCode = code;
 // Out as soon as stdout and stderr have taken everything written (their callbacks): Node's own way out, once the event
 // loop is empty, also tears the heap and the environment down first, about 11 ms of a 500-sector run (paired runs,
 // README "Performance", sixth CLI round). Everything a command writes to files is written before main returns. A
-// stream that failed (a closed pipe, a full disk) is left to end the run as Node ends it, with its error, as before.
+// stream that failed (a closed pipe, a full disk) never calls back here: its 'error' handler above ends the run.
 let streams = 2;
 const flushed = (err) => { if (err) streams = -1; else if (--streams === 0) process.exit(code); };
 process.stdout.write('', flushed);
