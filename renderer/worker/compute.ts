@@ -163,14 +163,14 @@ function loadTable(src: TextSource): Loaded {
   return load(studyOfBytes(utf8Bytes(src.text), src));
 }
 
-/** The engine's preview of a table file's text under the source's settings. */
-function readPreview(text: string, src: TableSource): ReturnType<typeof enginePreview> {
-  return enginePreview(text, { fileName: src.fileName, ...importSettings(src) });
+/** The engine's import options for a table source: its file name (located messages) and the screen's settings. */
+function importOptions(src: TableSource): ImportSettings & { fileName: string } {
+  return { fileName: src.fileName, ...importSettings(src) };
 }
 
 function previewTable(src: TextSource): PreviewView {
   dropPreview({});
-  return previewView(readPreview(src.text, src), src);
+  return previewView(enginePreview(src.text, importOptions(src)), src);
 }
 
 /**
@@ -209,7 +209,7 @@ const settingsKey = (src: TableSource) => JSON.stringify([src.fileName, importSe
 async function previewFile(src: FileSource): Promise<PreviewView> {
   const f = await readFile(src);
   dropPreview({});
-  const p = previewTableBytes(f.bytes, { fileName: src.fileName, ...importSettings(src) });
+  const p = previewTableBytes(f.bytes, importOptions(src));
   if (p.table) {
     const preview: PreviewRead = { id: src.id, settings: settingsKey(src), table: p.table };
     lastPreview = preview;
