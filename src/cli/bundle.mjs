@@ -126,7 +126,7 @@ try {
   const sources = [...Object.keys(cli.metafile.inputs), ...Object.keys(drawEngine.metafile.inputs), ...libraryInputs]
     .map((input) => relative(srcDir, resolve(input)))
     .filter((p) => !p.startsWith('..') && !p.includes(':'));
-  for (const f of ['parallel-worker.mjs', 'draw-worker.mjs', 'roundwise.mjs', 'code-cache.mjs', 'v8-flags.mjs']) sources.push(relative(srcDir, join(here, f)));
+  for (const f of ['parallel-worker.mjs', 'draw-worker.mjs', 'roundwise.mjs', 'freshness.mjs', 'code-cache.mjs', 'v8-flags.mjs']) sources.push(relative(srcDir, join(here, f)));
   writeFileSync(join(out, 'sources.txt'), [...new Set(sources)].sort().join('\n') + '\n');
   // The code cache last, from the finished bundle; without it the launcher compiles the bundle as usual.
   const trained = spawnSync(process.execPath, [join(here, 'train-code-cache.mjs'), join(out, 'main.cjs'), JSON.stringify(TRAINING)], { stdio: ['ignore', 'ignore', 'pipe'], encoding: 'utf8', timeout: 120_000 });

@@ -3,10 +3,11 @@
 // is newer than every source file it was built from; otherwise loads the TypeScript sources through tsx (a development
 // dependency, present in a checkout), so an edit is never shadowed by an old bundle. An installed package runs the
 // bundle it ships.
-import { existsSync, readFileSync, readdirSync, statSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import { dirname, join, sep } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { loadBundle } from './code-cache.mjs';
+import { bundleIsFresh } from './freshness.mjs';
 import { setCliFlags } from './v8-flags.mjs';
 
 setCliFlags();
@@ -15,44 +16,12 @@ const here = dirname(fileURLToPath(import.meta.url));
 const src = join(here, '..');
 const bundle = join(src, '..', 'dist', 'cli', 'main.cjs');
 
-// An installed package (unpacked under node_modules) ships sources and bundle from one build, but npm gives unpacked
-// files the time of unpacking, so their modification times say nothing there.
+// An installed package: unpacked under node_modules (freshness.mjs).
 const installed = here.split(sep).includes('node_modules');
-
-/**
- * The source files to compare with the bundle: those it was built from (dist/cli/sources.txt, written by bundle.mjs;
- * a new file counts once an existing one imports it, which makes that one newer), or every file under src/ when the
- * list is missing. Statting the list costs a few milliseconds; walking src/ cost a tenth of a second at every start.
- */
-function sourceFiles() {
-  try {
-    // Joined by hand: the list holds normalised relative paths (bundle.mjs), and path.join's normalising, run
-    // interpreted this early, took 2–8 ms for the 166 paths (against 0.1 ms).
-    return readFileSync(join(dirname(bundle), 'sources.txt'), 'utf8').split('\n').filter((p) => p !== '').map((p) => `${src}${sep}${p}`);
-  } catch {
-    return readdirSync(src, { recursive: true }).map((entry) => join(src, String(entry))).filter((p) => /\.(ts|mjs|json)$/.test(p));
-  }
-}
-
-function bundleIsFresh() {
-  let built;
-  try {
-    built = statSync(bundle).mtimeMs;
-  } catch {
-    return false;
-  }
-  if (installed) return true;
-  for (const path of sourceFiles()) {
-    // A listed file that is gone was deleted after the build: its importers changed, so the bundle is stale.
-    const st = statSync(path, { throwIfNoEntry: false });
-    if (st === undefined || st.mtimeMs > built) return false;
-  }
-  return true;
-}
 
 let main;
 let outputStreamFailed;
-if (process.env.ROUNDWISE_FROM_SOURCE !== '1' && bundleIsFresh()) {
+if (process.env.ROUNDWISE_FROM_SOURCE !== '1' && bundleIsFresh(bundle, src, installed)) {
   // Through its code cache when there is a good one (code-cache.mjs).
   ({ main, outputStreamFailed } = loadBundle(bundle).exports);
 } else {
