@@ -74,6 +74,10 @@ export async function startSession(): Promise<Session> {
   const browser = await workerBrowser;
   const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, acceptDownloads: true, locale: 'en-US' });
   const page = await context.newPage();
+  // File choosers are intercepted from the start: Playwright turns interception on when the first 'filechooser'
+  // listener is added, without waiting for it, so a `waitForEvent('filechooser')` just before a key press could lose
+  // the race and let Chromium open its own dialog (seen once in app.test.ts's Ctrl+O, on a loaded machine).
+  page.on('filechooser', () => {});
   const errors: string[] = [];
   page.on('console', (m) => { if (m.type() === 'error') errors.push(`console: ${m.text()}`); });
   page.on('pageerror', (e) => errors.push(`page: ${e.message}`));
