@@ -5,14 +5,9 @@
  * (src/uncertainty/draws.ts), so the bands are bit-identical whoever computes which chunk, and with one thread or
  * several. A helper that fails or never starts costs only time: every chunk no helper delivered is computed here.
  */
-import { createRequire } from 'node:module';
 import { availableParallelism } from 'node:os';
 import type { Worker } from 'node:worker_threads';
-
-// node:worker_threads on first use: a run without helper threads (every table under 4 MiB) never loads it (3 ms of
-// a 500-sector run's start-up).
-const require = createRequire(import.meta.url);
-const threads = (): typeof import('node:worker_threads') => require('node:worker_threads') as typeof import('node:worker_threads');
+import { startWorker } from './worker-threads.ts';
 import type { BandsRun, DrawChunk, UncertaintyResult } from '../study/index.ts';
 import { claimChunks, type DrawJob } from './draw-claim.ts';
 
@@ -41,7 +36,7 @@ export function startDrawHelpers(count = availableParallelism() - 1): Worker[] {
   const workers: Worker[] = [];
   for (let i = 0; i < count; i++) {
     try {
-      workers.push(new (threads().Worker)(new URL('./draw-worker.mjs', import.meta.url)));
+      workers.push(startWorker(new URL('./draw-worker.mjs', import.meta.url)));
     } catch {
       break;
     }

@@ -3,14 +3,9 @@
  * and attaches them to src/linalg (protocol in src/linalg/parallel.ts). Without it, or if it fails, the kernels run
  * single-threaded exactly as before.
  */
-import { createRequire } from 'node:module';
 import { availableParallelism } from 'node:os';
 import type { Worker } from 'node:worker_threads';
-
-// node:worker_threads on first use: a run without helper threads (every table under 4 MiB) never loads it (3 ms of
-// a 500-sector run's start-up).
-const require = createRequire(import.meta.url);
-const threads = (): typeof import('node:worker_threads') => require('node:worker_threads') as typeof import('node:worker_threads');
+import { startWorker } from './worker-threads.ts';
 import { attachHelpers, createParallelKernel, detachHelpers, readyHelpers, CONTROL_LAYOUT, type ParallelKernel } from '../linalg/index.ts';
 
 /** Where the helpers' first kept factorisation will be, lent to input that dies before it (src/linalg/workspace.ts). */
@@ -42,7 +37,7 @@ export function startParallelKernels(helpers = availableParallelism() - 1): numb
   if (pk === null) return 0;
   const url = new URL('./parallel-worker.mjs', import.meta.url);
   for (let index = 0; index < helpers; index++) {
-    const w = new (threads().Worker)(url, {
+    const w = startWorker(url, {
       workerData: { module: pk.kernel.module, memory: pk.kernel.memory, control: pk.control.buffer, index, layout: CONTROL_LAYOUT },
     });
     w.unref();
