@@ -4,8 +4,8 @@
  * Runs are paired (ours and numpy's one after the other, the order alternating), so a change in the machine's load
  * hits both sides of a pair; each pair gives a ratio, reported as min/median/max. numpy runs under the Python
  * interpreter itself (`sys.executable`, not a launcher shim such as pyenv's) with OPENBLAS_CORETYPE and
- * OPENBLAS_L2_SIZE removed from its environment only, ours without NODE_EXTRA_CA_CERTS (numpy.ts). The two outputs are compared number by number, so the race is
- * between equal answers (EQUAL_TOLERANCE).
+ * OPENBLAS_L2_SIZE removed from its environment only, ours without NODE_EXTRA_CA_CERTS (numpy.ts). The two outputs
+ * are compared number by number, so the race is between equal answers (EQUAL_TOLERANCE).
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';

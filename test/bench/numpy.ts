@@ -26,18 +26,15 @@ print(json.dumps({"medianMs": med, "minMs": ts[0], "runs": runs, "allMs": ts, "n
  * machine points it at the whole system certificate bundle, 220 kB that Node parses at every start: 30–40 ms of a
  * 500-sector run, for a CLI that opens no connection). run.ts says so beside the results.
  */
-export function childEnv(): NodeJS.ProcessEnv {
+function envWithout(...names: string[]): NodeJS.ProcessEnv {
   const env = { ...process.env };
-  delete env['OPENBLAS_CORETYPE'];
-  delete env['OPENBLAS_L2_SIZE'];
+  for (const name of names) delete env[name];
   return env;
 }
 
-export function oursEnv(): NodeJS.ProcessEnv {
-  const env = { ...process.env };
-  delete env['NODE_EXTRA_CA_CERTS'];
-  return env;
-}
+export const childEnv = (): NodeJS.ProcessEnv => envWithout('OPENBLAS_CORETYPE', 'OPENBLAS_L2_SIZE');
+
+export const oursEnv = (): NodeJS.ProcessEnv => envWithout('NODE_EXTRA_CA_CERTS');
 
 export function numpyAvailable(): string | null {
   const r = spawnSync('python3', ['-c', 'import numpy; print(numpy.__version__)'], { encoding: 'utf8', env: childEnv() });
