@@ -54,8 +54,9 @@ class E2eLast extends BaseSequencer {
  *   worker thread of its own.
  * - e2e: real Chromium against the built renderer (Vite build + preview server, started once in
  *   test/e2e/global-setup.ts). Files are not isolated (`isolate: false`): a worker loads Playwright and the engine
- *   once, and launches one Chromium that serves every file it runs (test/e2e/harness.ts); each file has its own
- *   browser context, and no test leaves module state behind.
+ *   once, and launches one Chromium that serves every file it runs (test/e2e/harness.ts); each file starts from the
+ *   worker's one page, reset (blank, storage emptied, the previous file's listeners and scripts removed), and no test
+ *   leaves module state behind.
  */
 export default defineConfig({
   test: {

@@ -1,17 +1,17 @@
 /**
  * End-to-end harness: every e2e file shares one server of the built renderer (the real renderer config), started once
  * by global-setup.ts. Each test worker launches one Debian Chromium (playwright-core, over a pipe) on its first
- * session and keeps it for every file it runs (the e2e project does not isolate files), and each file gets a browser
- * context of its own. Launching in the worker rather than sharing one browser server saves the relay through the
- * main process (every message, screenshot and picked file crossed a compressed WebSocket and a pipe), and lets
- * Playwright hand picked files to Chromium by path. When CI is set and no Chromium is found the suite fails;
- * elsewhere it skips with a message saying why.
+ * session and keeps it for every file it runs (the e2e project does not isolate files), with one browser context and
+ * one page that each file starts from, reset to a blank page with empty storage (see resetPage). Launching in the
+ * worker rather than sharing one browser server saves the relay through the main process (every message, screenshot
+ * and picked file crossed a compressed WebSocket and a pipe), and lets Playwright hand picked files to Chromium by
+ * path. When CI is set and no Chromium is found the suite fails; elsewhere it skips with a message saying why.
  */
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { join } from 'node:path';
 import { inject } from 'vitest';
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type Dialog, type Disposable, type Page } from 'playwright-core';
 
 declare module 'vitest' {
   export interface ProvidedContext {
@@ -32,6 +32,10 @@ export const CHROMIUM_ARGS = [
   '--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run',
   '--disable-features=WebUIOmniboxPopup,WebUIOmniboxAimPopup,WebUIOmniboxFullPopup',
 ];
+/** The size every e2e page has (the app's smallest supported window). */
+const VIEWPORT = { width: 1280, height: 800 };
+/** Playwright's own default timeout for actions and navigation. */
+const PLAYWRIGHT_TIMEOUT = 30_000;
 export const SCREENSHOTS = join(REPO, 'test-output', 'screenshots');
 export const DOWNLOADS = join(REPO, 'test-output', 'downloads');
 
@@ -51,8 +55,9 @@ export interface Session {
   /** The shared server's address. */
   url: string;
   browser: Browser;
-  /** This file's own browser context (storage, downloads, pages). */
+  /** The worker's browser context (storage, downloads, pages), emptied when a file's session starts. */
   context: BrowserContext;
+  /** The worker's page, blank when the session starts. */
   page: Page;
   /** Console errors and uncaught page errors seen so far. */
   errors: string[];
@@ -60,7 +65,74 @@ export interface Session {
 }
 
 let workerBrowser: Promise<Browser> | null = null;
+let workerPage: Promise<WorkerPage> | null = null;
 let builtOk: Promise<void> | null = null;
+
+/** The worker's one page, and what a file may have added to it that the next file must not inherit. */
+interface WorkerPage {
+  context: BrowserContext;
+  page: Page;
+  /** The harness's own listeners, kept from file to file; every other listener belongs to a file. */
+  keep: Set<unknown>;
+  /** Init scripts the files added (page.addInitScript is wrapped to record them). */
+  scripts: Disposable[];
+}
+
+async function newWorkerPage(browser: Browser): Promise<WorkerPage> {
+  const context = await browser.newContext({ viewport: VIEWPORT, acceptDownloads: true, locale: 'en-US' });
+  const page = await context.newPage();
+  // File choosers are intercepted from the start: Playwright turns interception on when the first 'filechooser'
+  // listener is added, without waiting for it, so a `waitForEvent('filechooser')` just before a key press could lose
+  // the race and let Chromium open its own dialog (seen once in app.test.ts's Ctrl+O, on a loaded machine). The
+  // listener stays for the worker's life, so interception is never turned off and on again.
+  const intercept = () => {};
+  page.on('filechooser', intercept);
+  const scripts: Disposable[] = [];
+  const addInitScript = page.addInitScript.bind(page);
+  page.addInitScript = (async (...args: Parameters<Page['addInitScript']>) => {
+    const script = await addInitScript(...args);
+    scripts.push(script);
+    return script;
+  }) as Page['addInitScript'];
+  return { context, page, keep: new Set([intercept]), scripts };
+}
+
+/**
+ * The worker's page as a new context would give it, without the cost of one: a new context and page start a renderer
+ * process and a page (about 1.3 core-seconds with the app loaded), where loading the app again into the same page
+ * costs about half (0.69 against 1.34 core-s of Chromium per file, measured 2026-12-03). What a file can leave behind is undone here: other pages,
+ * its listeners, init scripts, routes, emulated media, viewport and timeouts, and the origin's storage (the
+ * crash-recovery copies in IndexedDB, localStorage), which is cleared after the app has left the page, so a copy the
+ * app writes as it goes is cleared too.
+ */
+async function resetPage(w: WorkerPage, url: string): Promise<void> {
+  const { context, page } = w;
+  await Promise.all(context.pages().filter((p) => p !== page).map((p) => p.close({ runBeforeUnload: false })));
+  // Page is an event emitter at run time; its typings leave out the listing methods.
+  const emitter = page as unknown as Pick<NodeJS.EventEmitter, 'eventNames' | 'listeners'>;
+  for (const type of emitter.eventNames()) {
+    for (const listener of emitter.listeners(type)) if (!w.keep.has(listener)) page.off(type as 'close', listener as () => void);
+  }
+  await Promise.all(w.scripts.splice(0).map((script) => script.dispose()));
+  await page.unrouteAll({ behavior: 'ignoreErrors' });
+  await context.unrouteAll({ behavior: 'ignoreErrors' });
+  await page.emulateMedia({ media: null });
+  await page.setViewportSize(VIEWPORT);
+  page.setDefaultTimeout(PLAYWRIGHT_TIMEOUT);
+  page.setDefaultNavigationTimeout(PLAYWRIGHT_TIMEOUT);
+  if (page.url() !== 'about:blank') {
+    // The app asks before leaving with unsaved work; the next file starts anew whatever the last one left.
+    const leave = (d: Dialog) => void (d.type() === 'beforeunload' ? d.accept() : d.dismiss());
+    page.on('dialog', leave);
+    await page.goto('about:blank');
+    page.off('dialog', leave);
+  }
+  const cdp = await context.newCDPSession(page);
+  await cdp.send('Storage.clearDataForOrigin', { origin: new URL(url).origin, storageTypes: 'all' });
+  await cdp.detach();
+  await context.clearCookies();
+  await context.clearPermissions();
+}
 
 export async function startSession(): Promise<Session> {
   requireChromium();
@@ -72,19 +144,19 @@ export async function startSession(): Promise<Session> {
   // Closed by Playwright when the worker exits.
   workerBrowser ??= chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
   const browser = await workerBrowser;
-  const context = await browser.newContext({ viewport: { width: 1280, height: 800 }, acceptDownloads: true, locale: 'en-US' });
-  const page = await context.newPage();
-  // File choosers are intercepted from the start: Playwright turns interception on when the first 'filechooser'
-  // listener is added, without waiting for it, so a `waitForEvent('filechooser')` just before a key press could lose
-  // the race and let Chromium open its own dialog (seen once in app.test.ts's Ctrl+O, on a loaded machine).
-  page.on('filechooser', () => {});
+  workerPage ??= newWorkerPage(browser);
+  const w = await workerPage;
+  await resetPage(w, shared.url);
+  const { context, page } = w;
   const errors: string[] = [];
   page.on('console', (m) => { if (m.type() === 'error') errors.push(`console: ${m.text()}`); });
   page.on('pageerror', (e) => errors.push(`page: ${e.message}`));
   return {
     url: shared.url, browser, context, page, errors,
     async close() {
-      await context.close().catch(() => {});
+      // The app leaves the page at once (no timers or copies running into the next file); the rest of the reset
+      // happens when the next session starts, so a file that failed before closing leaves nothing behind either.
+      await resetPage(w, shared.url).catch(() => {});
     },
   };
 }

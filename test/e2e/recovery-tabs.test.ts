@@ -1,7 +1,7 @@
 /**
  * Crash recovery in real Chromium, the harder cases: work a save would refuse (a scenario line the new table lacks)
  * is still copied; two open tabs never offer or delete each other's copies; a 6 MB project (over the localStorage
- * quota) is copied. Each test starts from an empty store in this file's own browser context.
+ * quota) is copied. Each test starts from an empty store (the worker's browser context, emptied when a file starts).
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { writeFileSync } from 'node:fs';
