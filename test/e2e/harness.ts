@@ -100,10 +100,10 @@ async function newWorkerPage(browser: Browser): Promise<WorkerPage> {
 /**
  * The worker's page as a new context would give it, without the cost of one: a new context and page start a renderer
  * process and a page (about 1.3 core-seconds with the app loaded), where loading the app again into the same page
- * costs about half (0.69 against 1.34 core-s of Chromium per file, measured 2026-12-03). What a file can leave behind is undone here: other pages,
- * its listeners, init scripts, routes, emulated media, viewport and timeouts, and the origin's storage (the
- * crash-recovery copies in IndexedDB, localStorage), which is cleared after the app has left the page, so a copy the
- * app writes as it goes is cleared too.
+ * costs about half (0.69 against 1.34 core-s of Chromium per file, measured 2026-12-03). What a file can leave behind
+ * is undone here: other pages, its listeners, init scripts, routes, emulated media, viewport and timeouts, and the
+ * origin's storage (the crash-recovery copies in IndexedDB, localStorage), which is cleared after the app has left
+ * the page, so a copy the app writes as it goes is cleared too.
  */
 async function resetPage(w: WorkerPage, url: string): Promise<void> {
   const { context, page } = w;
@@ -144,6 +144,12 @@ export async function startSession(): Promise<Session> {
   // Closed by Playwright when the worker exits.
   workerBrowser ??= chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
   const browser = await workerBrowser;
+  // A file that closed the worker's page leaves the next one a new context and page.
+  const last = await workerPage;
+  if (last?.page.isClosed()) {
+    await last.context.close().catch(() => {});
+    workerPage = null;
+  }
   workerPage ??= newWorkerPage(browser);
   const w = await workerPage;
   await resetPage(w, shared.url);
@@ -154,8 +160,8 @@ export async function startSession(): Promise<Session> {
   return {
     url: shared.url, browser, context, page, errors,
     async close() {
-      // The app leaves the page at once (no timers or copies running into the next file); the rest of the reset
-      // happens when the next session starts, so a file that failed before closing leaves nothing behind either.
+      // Reset at once, so the app leaves the page (no timers or copies running into the next file); the next session
+      // resets again, so a file that failed before closing leaves nothing behind either.
       await resetPage(w, shared.url).catch(() => {});
     },
   };
