@@ -34,6 +34,8 @@ export const CHROMIUM_ARGS = [
 ];
 /** The size every e2e page has (the app's smallest supported window). */
 const VIEWPORT = { width: 1280, height: 800 };
+/** The browser context every e2e page lives in: the smallest supported window, downloads kept, English (US). */
+export const CONTEXT_OPTIONS = { viewport: VIEWPORT, acceptDownloads: true, locale: 'en-US' };
 /** Playwright's own default timeout for actions and navigation. */
 const PLAYWRIGHT_TIMEOUT = 30_000;
 export const SCREENSHOTS = join(REPO, 'test-output', 'screenshots');
@@ -79,7 +81,7 @@ interface WorkerPage {
 }
 
 async function newWorkerPage(browser: Browser): Promise<WorkerPage> {
-  const context = await browser.newContext({ viewport: VIEWPORT, acceptDownloads: true, locale: 'en-US' });
+  const context = await browser.newContext(CONTEXT_OPTIONS);
   const page = await context.newPage();
   // File choosers are intercepted from the start: Playwright turns interception on when the first 'filechooser'
   // listener is added, without waiting for it, so a `waitForEvent('filechooser')` just before a key press could lose
