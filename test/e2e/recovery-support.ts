@@ -8,8 +8,11 @@ import { REPO, type Session } from './harness.ts';
 
 export const TEST_CSV = join(REPO, 'test', 'fixtures', 'e2e', 'ridgeline-test.csv');
 
-/** A new page of the session's context with the app loaded on the sample county. */
-export async function openPage(s: Session, init?: () => void): Promise<Page> {
+/** Where pages are opened: a browser context, the app's address, and the list its console errors go to. */
+export type PageHome = Pick<Session, 'context' | 'url' | 'errors'>;
+
+/** A new page of the context with the app loaded on the sample county. */
+export async function openPage(s: PageHome, init?: () => void): Promise<Page> {
   const page = await s.context.newPage();
   page.on('console', (m) => { if (m.type() === 'error') s.errors.push(`console: ${m.text()}`); });
   page.on('pageerror', (e) => s.errors.push(`page: ${e.message}`));

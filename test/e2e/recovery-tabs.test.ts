@@ -8,17 +8,17 @@ import { afterAll, beforeAll, describe, it } from 'vitest';
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { CONTEXT_OPTIONS, REPO, skipBrowser, startSession, type Session } from './harness.ts';
-import { addScenario, clearCopies, copies, importTable, kill, openPage, scenarioNames, tableName, TEST_CSV } from './recovery-support.ts';
+import { addScenario, clearCopies, copies, importTable, kill, openPage, scenarioNames, tableName, TEST_CSV, type PageHome } from './recovery-support.ts';
 import { sparseTableCsv } from '../support/random-tables.ts';
 
 let shared: Session;
 
-/** A session of the test's own: a new browser context of the worker's browser, with its own console errors. */
-async function ownSession(run: (s: Session) => Promise<void>): Promise<string[]> {
+/** A browser context of the test's own (its own store of copies), with its own console errors, which it returns. */
+async function ownSession(run: (s: PageHome) => Promise<void>): Promise<string[]> {
   const context = await shared.browser.newContext(CONTEXT_OPTIONS);
   const errors: string[] = [];
   try {
-    await run({ ...shared, context, errors });
+    await run({ context, url: shared.url, errors });
   } finally {
     await context.close();
   }
