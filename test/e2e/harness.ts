@@ -136,6 +136,12 @@ async function resetPage(w: WorkerPage, url: string): Promise<void> {
   await context.clearPermissions();
 }
 
+/** Console errors and uncaught page errors of `page`, added to `errors` as they come. */
+export function recordErrors(page: Page, errors: string[]): void {
+  page.on('console', (m) => { if (m.type() === 'error') errors.push(`console: ${m.text()}`); });
+  page.on('pageerror', (e) => errors.push(`page: ${e.message}`));
+}
+
 export async function startSession(): Promise<Session> {
   requireChromium();
   const shared = inject('e2e');
@@ -157,8 +163,7 @@ export async function startSession(): Promise<Session> {
   await resetPage(w, shared.url);
   const { context, page } = w;
   const errors: string[] = [];
-  page.on('console', (m) => { if (m.type() === 'error') errors.push(`console: ${m.text()}`); });
-  page.on('pageerror', (e) => errors.push(`page: ${e.message}`));
+  recordErrors(page, errors);
   return {
     url: shared.url, browser, context, page, errors,
     async close() {

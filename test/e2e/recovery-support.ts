@@ -4,7 +4,7 @@
  */
 import { join } from 'node:path';
 import type { Page } from 'playwright-core';
-import { REPO, type Session } from './harness.ts';
+import { recordErrors, REPO, type Session } from './harness.ts';
 
 export const TEST_CSV = join(REPO, 'test', 'fixtures', 'e2e', 'ridgeline-test.csv');
 
@@ -14,8 +14,7 @@ export type PageHome = Pick<Session, 'context' | 'url' | 'errors'>;
 /** A new page of the context with the app loaded on the sample county. */
 export async function openPage(s: PageHome, init?: () => void): Promise<Page> {
   const page = await s.context.newPage();
-  page.on('console', (m) => { if (m.type() === 'error') s.errors.push(`console: ${m.text()}`); });
-  page.on('pageerror', (e) => s.errors.push(`page: ${e.message}`));
+  recordErrors(page, s.errors);
   if (init) await page.addInitScript(init);
   await page.goto(s.url);
   await page.getByTestId('verdict').waitFor({ timeout: 150_000 });
