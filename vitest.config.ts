@@ -48,8 +48,8 @@ class E2eLast extends BaseSequencer {
  *   (`isolate: false`): loading the engine once instead of once per file is most of the saving, and one project
  *   instead of an engine and a shell one saved about 11 core-seconds (two fewer worker start-ups, the engine loaded
  *   once per worker instead of twice). Safe because these files leave no module or global state behind (kernel mode
- *   and helper threads are restored in afterAll; nothing is mocked), except the engine worker's study (module state
- *   of renderer/worker/compute.ts), which test/renderer/worker-reset.ts resets before each file.
+ *   and helper threads are restored in afterAll; nothing is mocked), except the engine worker's study and last picked
+ *   file (module state of renderer/worker/), which test/renderer/worker-reset.ts resets before each file.
  * - shell-isolated: the rest of test/main and test/renderer (SHELL_ISOLATED), a module graph per file, each in a
  *   worker thread of its own.
  * - e2e: real Chromium against the built renderer (Vite build + preview server, started once in

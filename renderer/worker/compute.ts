@@ -1,269 +1,24 @@
 /**
- * The worker's side of the app: one prepared study (src/study) and the operations the screens call on it. Every
- * number comes from the study layer, the same functions the CLI uses; this file only keeps the state, applies the
- * screen's choices to the study, and hands results to views.ts for shaping. Runs under Node in test/renderer too.
+ * The worker's side of the app: one prepared study (src/study, kept by study-state.ts) and the operations the screens
+ * call on it. Every number comes from the study layer, the same functions the CLI uses; the worker's modules only keep
+ * the state, apply the screen's choices to the study, and hand results to views.ts for shaping. This file holds the
+ * scenario and export operations and gathers every module's into one `api`. Runs under Node in test/renderer too.
  */
 import {
-  buildReport, InputError, luInverse, prepareStudy, previewTable as enginePreview, previewTableBytes, projectFileOf, readyLines, REPORTS,
-  reportUnavailable, restudy, runStudyScenario, SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE, spreadMix, studyFromProjectFile,
-  studyFromImportedTable, studyFromTableFile, utf8Bytes, sha256HexPortable, usePlatformSha256, withTable, filesOnly, checkStudyInputs, mixesOfTable, writeMixCsv, parseShockCsv, SAMPLE_SHOCK_CSV, SAMPLE_SHOCK_FILE_NAME, parseActivityCsv, parseCommutingCsv, parseMarginsCsv, mixesFromFile, parsePriceIndexCsv, scenarioSlug, studyBrief, studyBriefDocument, studyWorkbook,
-  type BriefDocument, type BriefFonts, type IOTable, type Paper, type ImportSettings, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix, type Study,
+  buildReport, filesOnly, InputError, luInverse, parseShockCsv, readyLines, REPORTS, reportUnavailable, runStudyScenario, SAMPLE_SHOCK_CSV,
+  SAMPLE_SHOCK_FILE_NAME, scenarioSlug, spreadMix, studyBrief, studyBriefDocument, studyWorkbook,
+  type BriefDocument, type BriefFonts, type Paper, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix,
 } from '../../src/study/index.ts';
-import type { AnalysisView, FileSource, GridView, PathsView, PreviewView, ScenarioDraft, ScenarioView, StudyChoices, StudyContent, StudyContentView, StudyInputKind, StudyInputsView, TableInfo, TableSource, TextSource } from './protocol.ts';
-import { analysisView, gridMargins, pathsView, previewView, scenarioView, tableInfo } from './views.ts';
+import type { GridView, PathsView, ScenarioDraft, ScenarioView, StudyChoices } from './protocol.ts';
+import { gridMargins, pathsView, scenarioView } from './views.ts';
 import { regionalApi } from './regional.ts';
 import { howSureMemory, uncertaintyApi } from './uncertainty.ts';
 import { supplyUseApi } from './supply-use.ts';
-import { bridgeApi, bridgeOf } from './bridges.ts';
-import type { RegionalFile } from './regional.ts';
-
-export const SAMPLE_FILE = SAMPLE_FILE_NAME;
-
-let state: PreparedStudy | null = null;
-
-function current(): PreparedStudy {
-  if (!state) throw new Error('no table is loaded');
-  return state;
-}
-
-function importSettings(src: TableSource): ImportSettings {
-  return {
-    ...(src.roles ? { roles: src.roles } : {}), ...(src.layout ? { layout: src.layout as ImportSettings['layout'] } : {}), ...(src.name ? { name: src.name } : {}),
-    ...(src.delimiter ? { delimiter: src.delimiter } : {}), ...(src.decimalMark ? { decimalMark: src.decimalMark } : {}),
-  };
-}
-
-/**
- * The study as the screens have it now: the loaded table with the screen's scenarios and choices. A new commuting share
- * means a new household row, so a new factorisation: kept as the worker's state, so it is made once per change.
- */
-function studyAt(choices: StudyChoices, scenarios: Scenario[] = []): PreparedStudy {
-  const ps = current();
-  const s = ps.study.settings;
-  const next = restudy(ps, {
-    ...ps.study,
-    scenarios: scenarios.map(readyLines),
-    settings: {
-      ...s, closure: choices.closure, paths: { ...s.paths, destination: choices.destination },
-      ...(choices.discountRate !== undefined ? { discountRate: choices.discountRate } : {}),
-    },
-    ...(choices.commutingShare !== undefined ? { commuting: { ...ps.study.commuting, overall: choices.commutingShare } } : {}),
-    ...(choices.tableYear !== undefined ? { prices: { ...ps.study.prices, tableYear: choices.tableYear } } : {}),
-  });
-  if (next.pm !== ps.pm) state = next;
-  return next;
-}
-
-/** The study's input files in words, for the Scenarios screen. */
-function studyInputsView(study: Study): StudyInputsView {
-  const names = (list: { name: string }[], one: string, many: string) => (list.length ? `${list.length} ${list.length === 1 ? one : many}: ${list.map((x) => x.name).join(', ')}` : null);
-  const m = study.margins;
-  const idx = study.prices.index;
-  const years = idx ? idx.points.map((p) => p.year).sort((a, b) => a - b) : [];
-  return {
-    mix: names(study.mixes, 'mix', 'mixes'),
-    activity: names(study.activities, 'activity', 'activities'),
-    margins: m ? `${m.rows.length} sector${m.rows.length === 1 ? '' : 's'} with margins; retail earned by ${m.sectors.retail ?? '—'}, wholesale by ${m.sectors.wholesale ?? '—'}, transport by ${m.sectors.transport ?? '—'}` : null,
-    'price-index': years.length ? `${years.length} year${years.length === 1 ? '' : 's'}, ${years[0]}–${years.at(-1)}` : null,
-    commuting: study.commuting.sectors.length ? `${study.commuting.sectors.length} sector${study.commuting.sectors.length === 1 ? '' : 's'} listed` : null,
-  };
-}
-
-/** File origins say where a file's rows were; content the app keeps (and edits, and undoes) has none. */
-const ORIGIN_KEYS = new Set(['origin', 'itemOrigins', 'sectorOrigin']);
-function withoutOrigins<T>(x: T): T {
-  return JSON.parse(JSON.stringify(x, (k, v: unknown) => (ORIGIN_KEYS.has(k) ? undefined : v))) as T;
-}
-
-function contentOf(study: Study): StudyContent {
-  return withoutOrigins({ mixes: study.mixes, activities: study.activities, margins: study.margins, priceIndex: study.prices.index, commuting: study.commuting.sectors });
-}
-
-/** Keep the study with new content, checked by the study layer as a save would be (located refusals; nothing kept then). */
-function useContent(study: Study): StudyContentView {
-  checkStudyInputs(study);
-  state = restudy(current(), study);
-  return { table: tableInfo(study, study.source?.fileName ?? study.table.name), inputs: studyInputsView(study), content: contentOf(study) };
-}
-
-/**
- * Read one of the study's input files (replacing the one before; spending mixes and activities of the same name are
- * replaced, others kept), or remove it (`text` null). Checked against the table like a save would (located refusals).
- * A mix file may name codes of an outside classification, read through `bridge` (`code,sector[,share]`).
- */
-function setStudyInput(args: { kind: StudyInputKind; text: string | null; fileName: string; bridge?: RegionalFile | null }): StudyContentView {
-  const study: Study = { ...current().study };
-  const { kind, text, fileName } = args;
-  const keep = <T extends { name: string }>(old: T[], add: T[]) => [...old.filter((x) => !add.some((y) => y.name === x.name)), ...add];
-  if (kind === 'mix') study.mixes = text === null ? [] : keep(study.mixes, mixesFromFile(text, fileName, args.bridge ? bridgeOf(args.bridge, study.table.sectors) : null));
-  else if (kind === 'activity') study.activities = text === null ? [] : keep(study.activities, parseActivityCsv(text, fileName));
-  else if (kind === 'margins') study.margins = text === null ? null : parseMarginsCsv(text, fileName);
-  else if (kind === 'price-index') study.prices = { ...study.prices, index: text === null ? null : parsePriceIndexCsv(text, fileName) };
-  else study.commuting = { ...study.commuting, sectors: text === null ? [] : parseCommutingCsv(text, fileName) };
-  return useContent(study);
-}
-
-/** The study's content as the app's editors (or undo) leave it: every part replaced, then checked as a whole. */
-function setStudyContent(c: StudyContent): StudyContentView {
-  const study = current().study;
-  return useContent({
-    ...study, mixes: c.mixes, activities: c.activities, margins: c.margins,
-    prices: { ...study.prices, index: c.priceIndex }, commuting: { ...study.commuting, sectors: c.commuting },
-  });
-}
-
-/** Spending mixes as a mix file (writeMixCsv: mix,sector,share; `names` null: the study's own), for the app's export. */
-function mixFile(args: { names: string[] | null }): { name: string; text: string } {
-  const { study } = current();
-  const all = [...study.mixes, ...mixesOfTable(study.table)];
-  const mixes = args.names === null ? study.mixes : args.names.map((n) => {
-    const m = all.find((x) => x.name === n);
-    if (!m) throw new InputError('unknown-mix', `the study has no spending mix '${n}'`, { rowLabel: n });
-    return m;
-  });
-  if (mixes.length === 0) throw new InputError('empty', 'the study has no spending mixes of its own to export');
-  return { name: `${scenarioSlug(mixes.length === 1 ? mixes[0]!.name : `${study.name || study.table.name} mixes`)}.csv`, text: writeMixCsv(mixes) };
-}
-
-interface Loaded { table: TableInfo; analysis: AnalysisView; starter: ScenarioDraft; content: StudyContent }
-
-/** The study prepared (factorisation, analysis) and what the screens get of it, without making it the worker's state. */
-function prepared(study: Study): { ps: PreparedStudy; views: Loaded } {
-  const ps = prepareStudy(study);
-  return { ps, views: { table: tableInfo(study, study.source?.fileName ?? study.table.name), analysis: analysisView(ps), starter: starter(study), content: contentOf(study) } };
-}
-
-function load(study: Study): Loaded {
-  const { ps, views } = prepared(study);
-  state = ps;
-  dropPreview({}); // what was read or prepared ahead for a preview belongs to the state before
-  return views;
-}
-
-function starter(study: Study): ScenarioDraft {
-  const s = study.table.sectors;
-  const food = s.find((x) => /food/i.test(x));
-  return {
-    name: food ? 'New food plant' : 'Example scenario',
-    phases: [{ name: food ? 'Operating' : 'Phase 1', timing: food ? 'annual' : 'once', lines: [{ sector: food ?? s[0] ?? '', amount: 1000, kind: 'final-demand', localShare: 1 }] }],
-  };
-}
-
-/**
- * Import the table file's bytes under the source's settings and make it the study (keeping the study's other inputs);
- * `table`: what the preview of the same bytes and settings read, taken instead of reading them again.
- */
-function studyOfBytes(bytes: Uint8Array, src: TableSource, table: IOTable | null = null): Study {
-  const study = table ? studyFromImportedTable(bytes, src.fileName, importSettings(src), table) : studyFromTableFile(bytes, src.fileName, importSettings(src));
-  if (src.derivedFrom?.length) study.source = { ...study.source!, derivedFrom: src.derivedFrom.map((o) => ({ ...o })) };
-  return state ? withTable(state.study, study) : study;
-}
-
-function loadTable(src: TextSource): Loaded {
-  return load(studyOfBytes(utf8Bytes(src.text), src));
-}
-
-/** The engine's import options for a table source: its file name (located messages) and the screen's settings. */
-function importOptions(src: TableSource): ImportSettings & { fileName: string } {
-  return { fileName: src.fileName, ...importSettings(src) };
-}
-
-function previewTable(src: TextSource): PreviewView {
-  dropPreview({});
-  return previewView(enginePreview(src.text, importOptions(src)), src);
-}
-
-/**
- * The last picked file the worker read: its bytes, as the file holds them, and their SHA-256. A file is previewed,
- * perhaps with other roles, then imported: it is read and hashed once. The bytes are what the study keeps and
- * fingerprints (the CLI's rule: the SHA-256 of the file itself, byte order mark and all); the table is read from
- * them as UTF-8 text by the engine, which decodes only what it cannot read from the bytes themselves. The hash is the
- * platform's (Web Crypto), started as soon as the file is read, so it is ready by the time "Use this table" is pressed.
- */
-let lastFile: { id: string; bytes: Uint8Array; sha256: Promise<string> } | null = null;
-
-async function readFile(src: FileSource): Promise<NonNullable<typeof lastFile>> {
-  if (lastFile?.id === src.id) return lastFile;
-  lastFile = null;
-  const bytes = new Uint8Array(await src.file.arrayBuffer());
-  lastFile = { id: src.id, bytes, sha256: platformSha256(bytes) };
-  return lastFile;
-}
-
-/** Hex SHA-256 by Web Crypto (native, off this thread), or the engine's own code where Web Crypto is missing. */
-async function platformSha256(bytes: Uint8Array): Promise<string> {
-  const subtle = globalThis.crypto?.subtle;
-  if (!subtle) return sha256HexPortable(bytes);
-  const digest = new Uint8Array(await subtle.digest('SHA-256', bytes as Uint8Array<ArrayBuffer>));
-  return Array.from(digest, (b) => b.toString(16).padStart(2, '0')).join('');
-}
-
-/**
- * The table the last preview of a picked file read, and the settings it was read under: "Use this table" right after
- * takes it instead of reading 20 MB again (the preview reads the bytes as the import does: previewTableBytes).
- */
-interface PreviewRead { id: string; settings: string; table: IOTable }
-let lastPreview: PreviewRead | null = null;
-const settingsKey = (src: TableSource) => JSON.stringify([src.fileName, importSettings(src)]);
-
-async function previewFile(src: FileSource): Promise<PreviewView> {
-  const f = await readFile(src);
-  dropPreview({});
-  const p = previewTableBytes(f.bytes, importOptions(src));
-  if (p.table) {
-    const preview: PreviewRead = { id: src.id, settings: settingsKey(src), table: p.table };
-    lastPreview = preview;
-    const from = state;
-    setTimeout(() => { void prepareAhead(src, preview, from).catch(() => undefined); }, 0); // after this answer is sent
-  }
-  return previewView(p, src);
-}
-
-/**
- * The study of the last previewed file, prepared while the planner reads the preview (its factorisation and analysis
- * are most of "Use this table" at 2,000 sectors), with the worker's state it was made from: loadFile takes it when
- * that preview is the one accepted and the state is unchanged; anything else discards it. A refusal is left to
- * loadFile to report.
- */
-let ahead: { preview: PreviewRead; from: PreparedStudy | null; ps: PreparedStudy; views: Loaded } | null = null;
-
-async function prepareAhead(src: FileSource, preview: PreviewRead, from: PreparedStudy | null): Promise<void> {
-  const f = await readFile(src);
-  const hex = await f.sha256;
-  if (lastPreview !== preview || state !== from) return; // another preview, or another table, came first
-  const r = withSha256(f.bytes, hex, () => prepared(studyOfBytes(f.bytes, src, preview.table)));
-  if (lastPreview === preview && state === from) ahead = { preview, from, ...r };
-}
-
-/** The preview is gone (discarded, or another file previewed): so is what was read or prepared for it. */
-function dropPreview(_: Record<string, never>): void {
-  lastPreview = null;
-  ahead = null;
-}
-
-/** Run `fn` with the study fingerprinting `bytes` by the hash already made; anything else is hashed as usual. */
-function withSha256<T>(bytes: Uint8Array, hex: string, fn: () => T): T {
-  usePlatformSha256((d) => (d === bytes ? hex : sha256HexPortable(d)));
-  try {
-    return fn();
-  } finally {
-    usePlatformSha256(null);
-  }
-}
-
-async function loadFile(src: FileSource): Promise<Loaded> {
-  const f = await readFile(src);
-  const hex = await f.sha256;
-  const settings = settingsKey(src);
-  const done = ahead?.preview.id === src.id && ahead.preview.settings === settings && ahead.from === state ? ahead : null;
-  const table = lastPreview?.id === src.id && lastPreview.settings === settings ? lastPreview.table : null;
-  dropPreview({});
-  if (done) {
-    state = done.ps;
-    return done.views;
-  }
-  return withSha256(f.bytes, hex, () => load(studyOfBytes(f.bytes, src, table)));
-}
+import { bridgeApi } from './bridges.ts';
+import { studyContentApi } from './study-content.ts';
+import { forgetFiles, tableLoadingApi } from './table-loading.ts';
+import { projectsApi } from './projects.ts';
+import { current, keepStudy, studyAt } from './study-state.ts';
 
 /**
  * The lines numbered as on screen (within their phase), so a refusal says "line 2 (row 'Transprot'): …" even after
@@ -339,64 +94,6 @@ async function workbook(args: { scenario?: ScenarioDraft; scenarios: ScenarioDra
   return { name, xlsx: await studyWorkbook(ps, o, { date: args.date ?? new Date().toISOString() }, howSure.of(ps, args.scenario ?? null)) };
 }
 
-function saveProject(args: { name: string; scenarios: ScenarioDraft[]; choices: StudyChoices; active: number }): string {
-  const { study } = studyAt(args.choices, args.scenarios);
-  return projectFileOf({ ...study, name: args.name, settings: { ...study.settings, activeScenario: args.scenarios[args.active]?.name ?? null } });
-}
-
-/**
- * The table, its source and the settings as a project with no scenarios, for the crash-recovery copy: no save-time
- * checks, so a scenario line that no longer matches the table can never stop the copy. The scenarios travel beside
- * it as the UI holds them (renderer/state/recovery-copy.ts).
- */
-function recoveryBase(args: { name: string; choices: StudyChoices }): string {
-  const { study } = studyAt(args.choices);
-  return projectFileOf({ ...study, name: args.name, scenarios: [] });
-}
-
-/**
- * The same project text as a JSON string literal in a Blob: what the crash-recovery copy embeds. Escaped and encoded
- * here, so the window's main thread never holds the 20 MB text of a 2,000-sector table (a Blob crosses by reference).
- */
-function recoveryBaseJson(args: { name: string; choices: StudyChoices }): Blob {
-  return new Blob([JSON.stringify(recoveryBase(args))], { type: 'application/json' });
-}
-
-function openProject(args: { text: string; fileName: string }): Loaded & { scenarios: ScenarioDraft[]; choices: StudyChoices; active: number; name: string; source: TableSource | null; inputs: StudyInputsView } {
-  const study = studyFromProjectFile(args.text, args.fileName);
-  const loaded = load(study);
-  const active = Math.max(0, study.scenarios.findIndex((s) => s.name === study.settings.activeScenario));
-  return {
-    ...loaded, scenarios: study.scenarios, active, name: study.name,
-    choices: {
-      closure: study.settings.closure, destination: study.settings.paths.destination, discountRate: study.settings.discountRate,
-      commutingShare: study.commuting.overall, tableYear: study.prices.tableYear,
-    },
-    inputs: studyInputsView(study),
-    source: sourceOf(study),
-  };
-}
-
-/**
- * The table's source as the Import screen edits it, when the study keeps the file's bytes (so "Change roles" works
- * after a project is opened too). The bytes are decoded as the importer reads them (UTF-8, byte order mark kept).
- */
-function sourceOf(study: Study): TableSource | null {
-  const src = study.source;
-  if (!src?.content) return null;
-  const imp = src.import ?? {};
-  return {
-    text: new TextDecoder('utf-8', { ignoreBOM: true }).decode(src.content),
-    fileName: src.fileName,
-    ...(imp.roles ? { roles: imp.roles } : {}),
-    ...(imp.layout ? { layout: imp.layout } : {}),
-    ...(imp.name ? { name: imp.name } : {}),
-    ...(imp.delimiter ? { delimiter: imp.delimiter } : {}),
-    ...(imp.decimalMark ? { decimalMark: imp.decimalMark } : {}),
-    ...(src.derivedFrom?.length ? { derivedFrom: src.derivedFrom.map((o) => ({ ...o })) } : {}),
-  };
-}
-
 /**
  * The bundled two-phase example (building the plant once, operating it yearly) as a scenario of the screen, or null
  * when the table in use lacks a sector it names (it is written for the sample county). Lines lose their file line.
@@ -417,37 +114,23 @@ function spread(args: { mix: SpendingMix; amount: number; localShare: number }):
  * (vitest.config.ts) and call it before each file, so no file sees another's table.
  */
 export function resetWorker(): void {
-  state = null;
-  lastFile = null;
-  dropPreview({});
+  keepStudy(null);
+  forgetFiles();
 }
 
 export const api = {
-  loadSample(_: Record<string, never>): Loaded & { source: TableSource; note: string } {
-    const source: TextSource = { text: SAMPLE_CSV, fileName: SAMPLE_FILE, name: 'Fernhollow County (invented sample)' };
-    return { ...loadTable(source), source, note: SAMPLE_NOTE };
-  },
-  previewTable,
-  previewFile,
-  loadTable,
-  loadFile,
-  dropPreview,
+  ...tableLoadingApi,
   runScenario,
   spread,
   exampleScenario,
-  setStudyInput,
-  setStudyContent,
-  mixFile,
+  ...studyContentApi,
   paths,
   grid,
   reports,
   report,
   brief,
   workbook,
-  saveProject,
-  recoveryBase,
-  recoveryBaseJson,
-  openProject,
+  ...projectsApi,
   ...regionalApi,
   ...uncertaintyApi(studyAt, howSure),
   ...supplyUseApi,

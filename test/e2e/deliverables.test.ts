@@ -18,7 +18,7 @@ import { fonts, pdfWords, poppler, readWorkbook } from '../support/deliverables.
 let s: Session;
 let page: Page;
 
-/** The scenario the app starts with on the sample (renderer/worker/compute.ts `starter`). */
+/** The scenario the app starts with on the sample (renderer/worker/table-loading.ts `starter`). */
 const STARTER: Scenario = { name: 'New food plant', phases: [{ name: 'Operating', timing: 'annual', lines: [{ sector: 'Food processing', amount: 1000, kind: 'final-demand', localShare: 1 }] }] };
 
 function sampleOutcome() {
