@@ -7,3 +7,12 @@
 export function rel(a: number, b: number, floor = 1, size = Math.abs(b)): number {
   return Math.abs(a - b) / Math.max(floor, size);
 }
+
+/**
+ * Relative difference of two computations of one number where neither is the reference (two front ends, say):
+ * |a − b| / max(|a|, |b|), and 0 when both are 0.
+ */
+export function relBetween(a: number, b: number): number {
+  const size = Math.max(Math.abs(a), Math.abs(b));
+  return size === 0 ? 0 : Math.abs(a - b) / size;
+}

@@ -12,6 +12,7 @@ import {
   parseShockCsv, prepareStudy, runStudyScenario, studyBrief, studyFromTableFile, studyWorkbook, type ScenarioOutcome, type PreparedStudy,
 } from '../../../src/study/index.ts';
 import { fonts, pdfWords, readWorkbook, SAMPLE_TABLE } from '../../support/deliverables.ts';
+import { relBetween } from '../../support/compare.ts';
 
 const RATE = 0.035;
 const YEARS = 20;
@@ -38,7 +39,6 @@ function study(): { ps: PreparedStudy; o: ScenarioOutcome } {
 const { ps, o } = study();
 const [build, fit, operate] = o.phases.map((p) => p.result.totals);
 const annuity = (1 - (1 + RATE) ** -YEARS) / RATE;
-const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(Math.abs(a), Math.abs(b));
 
 describe('the brief of a study of several phases', async () => {
   const text = pdfWords(await studyBrief(ps, o, { date: '2026-12-02T09:00:00Z', paper: 'a4', fonts }));
@@ -110,17 +110,17 @@ describe('the workbook of a study of several phases', async () => {
     const label = 'All one-time phases (Building the plant, Fitting out), added';
     const sum = row(label, 'output');
     expect(sum[TIMING!]).toBe('one-time');
-    expect(rel(sum[TOTAL!] as number, build!.output!.total + fit!.output!.total)).toBeLessThan(1e-12);
+    expect(relBetween(sum[TOTAL!] as number, build!.output!.total + fit!.output!.total)).toBeLessThan(1e-12);
     expect(rows.some((r) => String(r[P!]).startsWith('All annual phases'))).toBe(false);
   });
 
   it('gives the annual phase\'s cumulative total and present value, and none for one-time phases', () => {
     const out = row('Operating the plant', 'output');
-    expect(rel(out[CUM!] as number, YEARS * operate!.output!.total)).toBeLessThan(1e-12);
-    expect(rel(out[PV!] as number, annuity * operate!.output!.total)).toBeLessThan(1e-12);
+    expect(relBetween(out[CUM!] as number, YEARS * operate!.output!.total)).toBeLessThan(1e-12);
+    expect(relBetween(out[PV!] as number, annuity * operate!.output!.total)).toBeLessThan(1e-12);
     expect(out[RATE_COL!]).toBe(RATE);
     const job = row('Operating the plant', 'employment');
-    expect(rel(job[CUM!] as number, YEARS * operate!.employment!.total)).toBeLessThan(1e-12);
+    expect(relBetween(job[CUM!] as number, YEARS * operate!.employment!.total)).toBeLessThan(1e-12);
     expect(job[PV!]).toBeNull(); // no present value of head counts
     expect(row('Building the plant', 'output')[CUM!]).toBeNull();
     expect(row('Building the plant', 'output')[PV!]).toBeNull();

@@ -18,18 +18,18 @@ import {
 import { api } from '../../../renderer/worker/compute.ts';
 import { tableFromParts } from '../../support/io-table.ts';
 import { runCli } from '../../support/cli.ts';
+import { relBetween } from '../../support/compare.ts';
 import { linesOf, onePhase } from '../../support/scenario.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-front-ends-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-const rel = (a: number, b: number) => Math.abs(a - b) / Math.max(1e-300, Math.abs(a), Math.abs(b));
 function same(a: ArrayLike<number | null>, b: ArrayLike<number | null>, what: string): void {
   expect(a.length, what).toBe(b.length);
   for (let i = 0; i < a.length; i++) {
     const x = a[i]!, y = b[i]!;
     if (x === null || y === null) expect(x, `${what}[${i}]`).toBe(y);
-    else if (x !== y) expect(rel(x, y), `${what}[${i}]: ${x} vs ${y}`).toBeLessThanOrEqual(1e-12);
+    else if (x !== y) expect(relBetween(x, y), `${what}[${i}]: ${x} vs ${y}`).toBeLessThanOrEqual(1e-12);
   }
 }
 
@@ -113,7 +113,7 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
         const j = r.sectors.indexOf(dest);
         // The path identity: every elementary path to the destination adds up to its total in the effects shown.
         expect(o.paths!.model).toBe(r.closure === 'household' ? 'closed' : 'open');
-        expect(rel(o.paths!.destinationTotal, r.effects.output.total[j]!)).toBeLessThanOrEqual(1e-12);
+        expect(relBetween(o.paths!.destinationTotal, r.effects.output.total[j]!)).toBeLessThanOrEqual(1e-12);
 
         // The CLI: --json and --out.
         const out = join(dir, `${run}-out`);
@@ -129,7 +129,7 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
           }
         }
         same(json.rounds.output, o.rounds.roundTotals, 'cli json rounds');
-        expect(rel(json.paths.destinationTotal, o.paths!.destinationTotal)).toBeLessThanOrEqual(1e-12);
+        expect(relBetween(json.paths.destinationTotal, o.paths!.destinationTotal)).toBeLessThanOrEqual(1e-12);
         const impact = csvRows(readFileSync(join(out, 'plant-impact.csv'), 'utf8'));
         same(column(impact, 'output total (thousand dollars)'), Array.from(r.effects.output.total), 'cli --out impact total');
         same(column(impact, 'employment direct (jobs)'), Array.from(r.effects.employment!.direct), 'cli --out jobs direct');
@@ -146,7 +146,7 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
         expect(view.effects.output!.totals.induced).toBe(r.totals.output.induced);
         const pv = api.paths({ scenario, choices });
         expect(pv.destination).toBe(dest);
-        expect(rel(pv.total, view.effects.output!.total[j]!)).toBeLessThanOrEqual(1e-12);
+        expect(relBetween(pv.total, view.effects.output!.total[j]!)).toBeLessThanOrEqual(1e-12);
         const exported = api.report({ kind: 'scenario-impact', scenario, scenarios: [scenario], choices });
         same(column(csvRows(exported[0]!.content), 'output total (thousand dollars)'), Array.from(r.effects.output.total), 'worker export impact');
         // The CLI writes the byte-order mark the app's export adds when it saves (csvFileText).
