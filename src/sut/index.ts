@@ -7,7 +7,7 @@
 export * from './types.ts';
 export { readSupplyUse, supplyUseRoles, SUT_DEFAULT_TOLERANCE, type SutFile, type ReadSutOptions, type SutLabelRole, type SutRoles } from './read.ts';
 export { parseSutRoleMap, suggestSupplyRole, namesTotal } from './roles.ts';
-export { transform, ASSUMPTION_NAMES, SUT_CONDITION_LIMIT, type SymmetricFlows } from './transform.ts';
+export { transform, ASSUMPTION_NAMES, type SymmetricFlows } from './transform.ts';
 export { findNegatives, negativesNote, zeroAndBalance, type NegativesReport, type NegativeCell } from './negatives.ts';
 export { deriveSymmetric, type DerivedTable, type DeriveOptions } from './symmetric.ts';
 export { SUPPLY_SAMPLE_CSV, USE_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_FILE_NAME, SUT_SAMPLE_NOTE } from './sample.ts';

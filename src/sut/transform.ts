@@ -27,6 +27,7 @@
  */
 import { InputError, type Warning } from '../diagnostics/index.ts';
 import { conditionEstimate1, luFactor, luSolveMany, matMul, matVec, vecMat, type LU } from '../linalg/index.ts';
+import { CONDITION_LIMIT } from '../model/index.ts';
 import type { Assumption, IndustryRow, ProductColumn, SupplyUse, TableBy } from './types.ts';
 import { ASSUMPTION_BY } from './types.ts';
 
@@ -47,9 +48,6 @@ export interface SymmetricFlows {
   condition: number | null;
   warnings: Warning[];
 }
-
-/** Above this condition estimate the inverse may have lost most of its digits (as for I − A in src/model). */
-export const SUT_CONDITION_LIMIT = 1e12;
 
 /** Full names of the four assumptions, as the notes and reports say them. */
 export const ASSUMPTION_NAMES: Readonly<Record<Assumption, string>> = {
@@ -88,7 +86,7 @@ function factor(m: Float64Array, n: number, s: SupplyUse, what: string): { lu: L
 }
 
 function conditionWarning(condition: number, s: SupplyUse, what: string): Warning[] {
-  if (!(condition > SUT_CONDITION_LIMIT)) return [];
+  if (!(condition > CONDITION_LIMIT)) return []; // the limit of I − A's estimate: the same loss of digits
   return [{ code: 'sut-ill-conditioned', message: `the ${what} is ill-conditioned (condition number about ${condition.toExponential(1)}): the derived flows may have lost most of their digits`, location: { file: s.supplyFile } }];
 }
 

@@ -50,7 +50,7 @@ function overTimeLines(p: PhaseOutcome, moneyUnit: string): string[] {
   return lines;
 }
 
-function phaseLines(ps: PreparedStudy, o: ScenarioOutcome, p: PhaseOutcome): string[] {
+function phaseLines(o: ScenarioOutcome, p: PhaseOutcome): string[] {
   const r = p.result;
   const unit = visibleText(r.moneyUnit);
   const lines: string[] = [];
@@ -67,7 +67,6 @@ function phaseLines(ps: PreparedStudy, o: ScenarioOutcome, p: PhaseOutcome): str
     for (const x of pa.paths) lines.push(`${fmt(x.contribution).padStart(12)}${(x.share === null ? 'n/a' : `${(x.share * 100).toFixed(1)} %`).padStart(9)}  ${x.labels.map((l) => visibleText(l)).join(' > ')}`);
   }
   if (o.phases.length > 1) for (const note of r.notes) lines.push(visibleText(note));
-  void ps;
   return lines;
 }
 
@@ -75,7 +74,7 @@ function timingSumLines(o: ScenarioOutcome, moneyUnit: string): string[] {
   const lines: string[] = [];
   for (const t of o.byTiming) {
     const what = t.timing === 'once' ? 'All one-time phases, added' : 'All annual phases, one year of each, added';
-    const parts = (['output', 'valueAdded', 'income', 'employment', 'taxes', 'fte'] as Variable[]).flatMap((v) => {
+    const parts = VARIABLES.flatMap((v) => {
       const x = t.gross[v] as EffectTotals | null | undefined;
       return x ? [`${VARIABLE_NAMES[v]} ${fmt(x.total)} ${unitOf(v, visibleText(moneyUnit))}`] : [];
     });
@@ -91,7 +90,7 @@ function summary(ps: PreparedStudy, o: ScenarioOutcome): string {
   const r = o.phases[0]!.result;
   const lines = [`Scenario '${visibleText(o.scenario.name)}' — ${modelTypeOf(r, o.model)}; money in ${visibleText(r.moneyUnit)}, employment in jobs.`];
   if (o.phases.length === 1) lines.push(`${o.phases[0]!.phase.timing === 'annual' ? 'Annual: one year\'s effects' : 'One-time effects'}.`, '');
-  for (const p of o.phases) lines.push(...phaseLines(ps, o, p));
+  for (const p of o.phases) lines.push(...phaseLines(o, p));
   lines.push(...timingSumLines(o, r.moneyUnit));
   if (ps.verdict.productive !== true) lines.push('', ps.verdict.say);
   lines.push('');
