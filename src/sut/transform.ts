@@ -26,7 +26,7 @@
  * row and column identities of the pair carry over (tested as properties).
  */
 import { InputError, type Warning } from '../diagnostics/index.ts';
-import { conditionEstimate1, luFactor, luSolveMany, matMul, matVec, vecMat, type LU } from '../linalg/index.ts';
+import { conditionEstimate1, luFactor, luSolveMany, matMul, matVec, norm1, vecMat, type LU } from '../linalg/index.ts';
 import { CONDITION_LIMIT } from '../model/index.ts';
 import type { Assumption, IndustryRow, ProductColumn, SupplyUse, TableBy } from './types.ts';
 import { ASSUMPTION_BY } from './types.ts';
@@ -76,13 +76,7 @@ function factor(m: Float64Array, n: number, s: SupplyUse, what: string): { lu: L
       { file: s.supplyFile },
     );
   }
-  let norm = 0;
-  for (let j = 0; j < n; j++) {
-    let c = 0;
-    for (let i = 0; i < n; i++) c += Math.abs(m[i * n + j]!);
-    norm = Math.max(norm, c);
-  }
-  return { lu, condition: conditionEstimate1(lu, norm) };
+  return { lu, condition: conditionEstimate1(lu, norm1(m, n)) };
 }
 
 function conditionWarning(condition: number, s: SupplyUse, what: string): Warning[] {
