@@ -141,3 +141,39 @@ describe('the 2×2 pair worked by hand', () => {
     }
   });
 });
+
+describe('a make table close to singular', () => {
+  // Industry A makes (90, 45) of products a and b, industry B (60, 30 + δ): the same mix but for δ, so C = Vᵀ·ĝ⁻¹ is
+  // close to singular. Its 1-norm condition number is worked exactly for a 2×2 matrix (κ₁(C) = ‖C‖₁·‖C⁻¹‖₁, C⁻¹ its
+  // adjugate over its determinant), and the warning must follow it across the model's limit of 1e12 (our threshold,
+  // the same as for I − A; common practice, no source for the figure).
+  function pair(delta: number) {
+    const b = 30 + delta;
+    const supply = ['million crowns,Industry A,Industry B', 'Product a,90,60', `Product b,45,${b}`].join('\n');
+    const use = [
+      'million crowns,Industry A,Industry B,Households', 'Product a,20,10,120', `Product b,5,15,${25 + b}`,
+      'Compensation of employees,70,40,', `Other value added,40,${25 + delta},`,
+    ].join('\n');
+    return readSupplyUse({ text: supply, fileName: 'supply.csv' }, { text: use, fileName: 'use.csv' });
+  }
+  function kappa1(delta: number): number {
+    const gA = 135, gB = 90 + delta;
+    const [c11, c12, c21, c22] = [90 / gA, 60 / gB, 45 / gA, (30 + delta) / gB];
+    const det = c11 * c22 - c12 * c21;
+    const norm = (a: number, b: number, c: number, d: number) => Math.max(Math.abs(a) + Math.abs(c), Math.abs(b) + Math.abs(d));
+    return norm(c11, c12, c21, c22) * norm(c22 / det, -c12 / det, -c21 / det, c11 / det);
+  }
+
+  it('warns that the derived flows may have lost their digits exactly when κ₁(C) is above the limit', () => {
+    for (const delta of [1e-6, 1e-8, 1e-10, 1e-12]) {
+      const d = deriveSymmetric(pair(delta), { assumption: 'industry-sales' });
+      const ill = d.warnings.filter((w) => w.code === 'sut-ill-conditioned');
+      expect(d.warnings.filter((w) => w.code !== 'sut-ill-conditioned'), `δ = ${delta}`).toEqual([]);
+      expect(ill.length, `δ = ${delta}, κ₁ = ${kappa1(delta)}`).toBe(kappa1(delta) > 1e12 ? 1 : 0);
+      if (ill.length) expect(ill[0]!.message).toMatch(/product-mix matrix .* is ill-conditioned \(condition number about \d\.\de\+\d+\)/);
+    }
+    // Both sides of the limit are reached, so the test can tell a warning that never comes from one that always does.
+    expect(kappa1(1e-6)).toBeLessThan(1e12);
+    expect(kappa1(1e-12)).toBeGreaterThan(1e12);
+  });
+});
