@@ -2,14 +2,15 @@
  * `roundwise balance MATRIX.csv --rows ROWS.csv --columns COLS.csv`: RAS scales a non-negative labelled matrix (or,
  * with --table, a whole table's intermediate flows) to given row and column totals (src/regional/ras.ts).
  */
-import { InputError, CAUTIONS, reportFiles, aboutText, type ReportFile, importTable, writeTableCsv, balanceTable, parseLabelledMatrix, parseTotals, ras, RAS_DEFAULT_MAX_ITERATIONS, RAS_DEFAULT_TOLERANCE, type RasResult, type LabelledMatrix } from '../../study/index.ts';
+import { CAUTIONS, reportFiles, aboutText, type ReportFile, importTable, writeTableCsv, balanceTable, parseLabelledMatrix, parseTotals, ras, RAS_DEFAULT_MAX_ITERATIONS, RAS_DEFAULT_TOLERANCE, type RasResult, type LabelledMatrix } from '../../study/index.ts';
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand } from '../command.ts';
 import { num } from '../terminal.ts';
 
 function report(res: RasResult): string[] {
   return [
-    `RAS ${res.converged ? 'converged' : 'did not converge'} after ${res.iterations} iteration${res.iterations === 1 ? '' : 's'} (tolerance ${res.tolerance}, cap ${res.maxIterations}).`,
+    // ras() refuses (RasConvergenceError) rather than return an unconverged matrix, so a report is always of convergence.
+    `RAS converged after ${res.iterations} iteration${res.iterations === 1 ? '' : 's'} (tolerance ${res.tolerance}, cap ${res.maxIterations}).`,
     `Largest relative gap: rows ${num(res.rowGap, 3)}, columns ${num(res.columnGap, 3)}.`,
     'Zeros of the start matrix are kept; the result is diag(r)·A·diag(s).',
   ];
@@ -79,14 +80,6 @@ export const balance = defineCommand({
       const u = parseTotals(ctx.input(values.rows).text, values.rows, m.rowLabels, 'row');
       const v = parseTotals(ctx.input(values.columns).text, values.columns, m.columnLabels, 'column');
       res = ras(m.values, m.rows, m.columns, u, v, { ...rasOpts, rowLabels: m.rowLabels, columnLabels: m.columnLabels });
-    }
-    if (!res.converged) {
-      throw new InputError(
-        'ras-not-converged',
-        `RAS did not converge within ${res.maxIterations} iterations (largest relative gap ${num(Math.max(res.rowGap, res.columnGap), 3)} > ${res.tolerance}); ` +
-          'nothing was written. Raise --max-iterations or loosen --tolerance; slow convergence means the totals force some cells toward zero',
-        { file: input },
-      );
     }
     const meta = {
       title: 'Matrix balanced by RAS',

@@ -81,6 +81,19 @@ describe('an output never replaces an input file', () => {
   });
 });
 
+describe('RAS that does not converge within the cap', () => {
+  // One refusal policy: ras() throws RasConvergenceError (src/regional/ras.ts) and the command adds none of its own.
+  // The start matrix is far from the totals, so one iteration cannot meet a 1e-10 gap.
+  it('balance --max-iterations 1: refused (exit 2) in one line naming the matrix file, nothing written', async () => {
+    const matrix = 'test/fixtures/regional/flows.csv';
+    const r = await run('balance', matrix, '--rows', 'test/fixtures/regional/flow-rows.csv', '--columns', 'test/fixtures/regional/flow-columns.csv', '--max-iterations', '1', '--out', dir);
+    expect(r.code, r.err).toBe(2);
+    expect(r.err).toMatch(new RegExp(`^roundwise balance: ${matrix.replace(/[./]/g, '\\$&')}: RAS did not converge within 1 iterations \\(largest relative gap [0-9.e+-]+ > 1e-10\\); [^\\n]+\\n$`));
+    expect(r.out).toBe('');
+    expect(readdirSync(dir)).toEqual([]);
+  });
+});
+
 describe('reports left by an earlier run', () => {
   it('are listed (stderr and JSON staleFiles), not deleted; files that are not Roundwise reports are left out', async () => {
     const out = join(dir, 'reports');
