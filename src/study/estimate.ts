@@ -50,6 +50,8 @@ export interface CountyEstimate {
   csv: string;
   fileName: string;
   about: string;
+  /** The model line of `about` (method, FLQ δ, optional steps), for reports written beside the table. */
+  model: string;
   /** Notes of every step, in order (the aggregation-bias note last when sectors were grouped). */
   notes: string[];
   /** The finished table judged as any study's table: the same analysis and verdict. */
@@ -59,8 +61,11 @@ export interface CountyEstimate {
 const utf8 = new TextDecoder('utf-8');
 const text = (f: EstimateFile) => utf8.decode(f.bytes);
 
+/** A path's last part: a sidecar names the file, not the folder a front end read it from. */
+const baseName = (fileName: string) => fileName.replace(/^.*[\\/]/, '');
+
 function slugOf(fileName: string): string {
-  const base = fileName.replace(/^.*[\\/]/, '').replace(/\.[^.]*$/, '').replace(/[-_ ]?employment$/i, '');
+  const base = baseName(fileName).replace(/\.[^.]*$/, '').replace(/[-_ ]?employment$/i, '');
   return base.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '') || 'county';
 }
 
@@ -138,17 +143,18 @@ export function estimateCountyTable(req: EstimateRequest, date = new Date().toIS
   const steps = `${req.method}${req.balance ? '-ras' : ''}${req.groups ? '-grouped' : ''}`;
   const judged = prepareStudy(studyOfTable(table), { spectrum: false });
   const warnings = [...regional.warnings, ...(balance?.warnings ?? [])].map((w) => w.message);
+  const model = `county table estimated from a larger one (${req.method.toUpperCase()} location quotients${req.method === 'flq' ? `, δ = ${delta}` : ''}${req.balance ? ', balanced by RAS' : ''}${req.groups ? ', sectors grouped' : ''})`;
   const about = aboutText({
     title: 'County input–output table estimated from a larger table',
     tableName: table.name,
-    sourceFile: req.national.fileName,
+    sourceFile: baseName(req.national.fileName),
     sourceHash: sha256Hex(req.national.bytes),
-    modelType: `county table estimated from a larger one (${req.method.toUpperCase()} location quotients${req.method === 'flq' ? `, δ = ${delta}` : ''}${req.balance ? ', balanced by RAS' : ''}${req.groups ? ', sectors grouped' : ''})`,
+    modelType: model,
     date,
     moneyUnit: table.moneyUnit,
     notes: [...notes, ...warnings, `Verdict on the estimate: ${judged.verdict.say}`],
   });
-  return { national: inputs.national, regional, balance, grouping, table, csv, fileName: `${slugOf(req.employment.fileName)}-${steps}-estimate.csv`, about, notes, judged };
+  return { national: inputs.national, regional, balance, grouping, table, csv, fileName: `${slugOf(req.employment.fileName)}-${steps}-estimate.csv`, about, model, notes, judged };
 }
 
 /** Where a study's table came from, when the user says it is an FLQ estimate: the estimate's inputs and its δ. */

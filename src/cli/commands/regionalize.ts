@@ -3,7 +3,7 @@
  * national one with location quotients (src/regional).
  */
 import {
-  CAUTIONS, aboutText, estimateCountyTable, reportFiles, LQ_METHODS, type LqMethod, type RegionalResult, type ReportMeta, type ReportFile, type Verdict, DEFAULT_FLQ_DELTA,
+  CAUTIONS, estimateCountyTable, type CountyEstimate, reportFiles, LQ_METHODS, type LqMethod, type RegionalResult, type ReportMeta, type ReportFile, type Verdict, DEFAULT_FLQ_DELTA,
 } from '../../study/index.ts';
 import { TABLE_DIALECT_OPTIONS, tableDialect } from './table-dialect.ts';
 import { defineCommand } from '../command.ts';
@@ -32,11 +32,14 @@ export function regionalJson(res: RegionalResult) {
   };
 }
 
-function outputFiles(res: RegionalResult, csv: string, verdict: Verdict, meta: Omit<ReportMeta, 'title'>): ReportFile[] {
+// The table's sidecar is the study layer's (CountyEstimate.about), the same text the app exports with the table; the
+// CLI keeps only its documented file names.
+function outputFiles(est: CountyEstimate, meta: Omit<ReportMeta, 'title'>): ReportFile[] {
+  const res = est.regional;
   const n = res.sectors.length;
   const unit = res.table.moneyUnit || 'money';
   const notes = [...res.notes, ...res.warnings.map((w) => w.message)];
-  const tableAbout = { name: 'regional-table.about.txt', content: aboutText({ ...meta, title: 'Regional input-output table (estimated)', notes: [...notes, `Verdict on the estimate: ${verdict.say}`] }) };
+  const tableAbout = { name: 'regional-table.about.txt', content: est.about };
   const lq = reportFiles('location-quotients', { ...meta, title: 'Location quotients and import leakage by sector', notes }, [
     ['Sector', 'County jobs', 'National jobs', 'SLQ', 'Absent', `County output (${unit})`, 'Import leakage per unit of output', `Import leakage (${unit})`],
     ...res.sectors.map((s, i) => [s, res.regionalJobs[i]!, res.nationalJobs[i]!, res.slq[i]!, res.absent.includes(s) ? 'yes' : 'no', res.output[i]!, res.leakage[i]!, res.leakageValue[i]!]),
@@ -45,7 +48,7 @@ function outputFiles(res: RegionalResult, csv: string, verdict: Verdict, meta: O
     ['Selling sector \\ buying sector', ...res.sectors],
     ...res.sectors.map((s, i) => [s, ...Array.from(res.coefficients.subarray(i * n, (i + 1) * n))]),
   ]);
-  return [{ name: 'regional-table.csv', content: csv }, tableAbout, ...lq, ...coef];
+  return [{ name: 'regional-table.csv', content: est.csv }, tableAbout, ...lq, ...coef];
 }
 
 function summary(res: RegionalResult, verdict: Verdict): string {
@@ -102,14 +105,14 @@ export const regionalize = defineCommand({
       tableName: res.table.name,
       sourceFile: file.name,
       sourceHash: file.sha256,
-      modelType: `regional table estimated from a national one (${method.toUpperCase()} location quotients)`,
+      modelType: est.model,
       date: ctx.date,
       moneyUnit: res.table.moneyUnit,
     };
     return {
       summary: () => summary(res, verdict),
       json: () => ({ ...regionalJson(res), verdict }),
-      reports: outputFiles(res, est.csv, verdict, meta),
+      reports: outputFiles(est, meta),
     };
   },
 });

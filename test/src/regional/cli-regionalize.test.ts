@@ -6,6 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { importTable } from '../../../src/table/index.ts';
 import { coefficients } from '../../../src/model/index.ts';
+import { estimateCountyTable } from '../../../src/study/index.ts';
 import { expectClose } from './build-table.ts';
 import { runCli } from '../../support/cli.ts';
 
@@ -57,6 +58,25 @@ describe('roundwise regionalize', () => {
     expectClose(back.imports[1]!.values, j.importLeakageValue, 1e-12);
     expectClose(back.employment!, [20, 10, 70]);
     expect(readFileSync(join(out, 'location-quotients.about.txt'), 'utf8')).toMatch(/CILQ[\s\S]*Cautions/);
+  });
+
+  it('the table\'s sidecar is the study layer\'s estimate about (the app exports the same), naming FLQ δ', async () => {
+    const out = join(dir, 'flq-about');
+    const r = await cli('regionalize', f('three-nation.csv'), '--employment', f('three-employment.csv'), '--method', 'flq', '--delta', '0.27', '--out', out);
+    expect(r.code, r.err).toBe(0);
+    const written = readFileSync(join(out, 'regional-table.about.txt'), 'utf8');
+    const date = /^Produced: (.*)$/m.exec(written)![1]!;
+    const study = estimateCountyTable({
+      national: { bytes: readFileSync(f('three-nation.csv')), fileName: 'three-nation.csv' },
+      employment: { bytes: readFileSync(f('three-employment.csv')), fileName: f('three-employment.csv') },
+      method: 'flq',
+      delta: 0.27,
+    }, date);
+    expect(written).toBe(study.about);
+    expect(written).toMatch(/^Model: .*FLQ location quotients, δ = 0\.27\)\r$/m);
+    expect(written).toMatch(/^Source file: three-nation\.csv\r$/m);
+    // The reports beside it carry the same model line.
+    expect(readFileSync(join(out, 'location-quotients.about.txt'), 'utf8')).toContain(`Model: ${study.model}\r\n`);
   });
 
   it('a table with an absent sector still reads back; the importer drops the empty sector with a note', async () => {
