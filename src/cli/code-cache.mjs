@@ -6,8 +6,8 @@
 // header: V8's own check compares only the source's length), and V8 itself refuses one made by another V8 or under
 // other flags; in every other case the bundle is compiled as if there were none. Same bundle, same run either way.
 import { isAscii } from 'node:buffer';
-import { createHash } from 'node:crypto';
-import { readFileSync, renameSync, writeFileSync } from 'node:fs';
+import { createHash, randomBytes } from 'node:crypto';
+import { closeSync, fsyncSync, openSync, readFileSync, renameSync, unlinkSync, writeSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -42,9 +42,42 @@ function cachedDataFor(bundle, digest) {
 }
 
 /**
+ * Writes the cache file atomically, by the steps of the project's one atomic writer (src/node-io/write.ts): a temp
+ * file with a random name in the same folder, created exclusively ('wx': never follows a link planted at that name),
+ * written whole and flushed, renamed over the target, then the folder flushed so the rename survives a power cut.
+ * This file cannot import that writer: it is plain JavaScript run before the bundle is loaded, also in an installed
+ * package, which has no TypeScript loader. On any failure the temp file is removed and the error passed on (bundle.mjs
+ * then warns and the CLI runs without a cache; a reader never sees a partial file either way).
+ */
+function writeCacheAtomic(file, data) {
+  const tmp = `${file}.${randomBytes(8).toString('hex')}.tmp`;
+  let fd;
+  try {
+    fd = openSync(tmp, 'wx', 0o644);
+    let off = 0;
+    while (off < data.length) off += writeSync(fd, data, off, data.length - off);
+    fsyncSync(fd);
+    closeSync(fd);
+    fd = undefined;
+    renameSync(tmp, file);
+  } catch (err) {
+    if (fd !== undefined) closeSync(fd);
+    try { unlinkSync(tmp); } catch { /* never made, or already gone */ }
+    throw err;
+  }
+  if (process.platform === 'win32') return; // folders cannot be opened for fsync on Windows; NTFS journals the rename
+  try {
+    const dir = openSync(dirname(file), 'r');
+    try { fsyncSync(dir); } finally { closeSync(dir); }
+  } catch {
+    // some file systems refuse fsync on a folder; the rename has happened either way
+  }
+}
+
+/**
  * Runs the bundle's top level and returns its exports, with `cache`: 'used', 'rejected' (by V8) or 'none' (no
  * usable file, or `useCache` false), and `saveCache()`, which writes the cache of everything compiled so far
- * (atomically: a reader sees the old file or the new one).
+ * (atomically: a reader sees the old file or the new one; writeCacheAtomic).
  */
 export function loadBundle(bundle, { useCache = true } = {}) {
   const bytes = readFileSync(bundle);
@@ -61,10 +94,7 @@ export function loadBundle(bundle, { useCache = true } = {}) {
     cache: cachedData === undefined ? 'none' : script.cachedDataRejected ? 'rejected' : 'used',
     saveCache() {
       const data = script.createCachedData();
-      const file = cacheFileOf(bundle);
-      const tmp = `${file}.${process.pid}.tmp`;
-      writeFileSync(tmp, Buffer.concat([MAGIC, digest, sha256(data), data]));
-      renameSync(tmp, file);
+      writeCacheAtomic(cacheFileOf(bundle), Buffer.concat([MAGIC, digest, sha256(data), data]));
     },
   };
 }
