@@ -29,10 +29,12 @@ if (process.env.ROUNDWISE_FROM_SOURCE !== '1' && bundleIsFresh(bundle, src, inst
   const tsx = await import('tsx/esm/api').catch(() => null);
   if (!tsx) {
     const why = existsSync(bundle) ? 'the CLI bundle is older than the sources' : 'the CLI bundle (dist/cli/main.cjs) is missing';
+    // Not a usage error (exit 1) nor refused input (2): the installation is broken, so the internal-error code of
+    // main.ts (EXIT.internal, 70), in one line saying how to mend it.
     process.stderr.write(process.env.ROUNDWISE_FROM_SOURCE === '1'
-      ? 'roundwise: ROUNDWISE_FROM_SOURCE=1 needs tsx (a development dependency), which is not installed: unset it, or run `npm install` in the source folder\n'
-      : `roundwise: ${why}, and tsx (a development dependency) is not installed to run the sources: run \`npm install\` in the source folder (it builds the bundle), or \`npm run build:cli\`\n`);
-    process.exit(1);
+      ? 'roundwise: internal error: ROUNDWISE_FROM_SOURCE=1 needs tsx (a development dependency), which is not installed: unset it, or run `npm install` in the source folder\n'
+      : `roundwise: internal error: ${why} and tsx is not installed to run the sources: rebuild it with \`npm run build:cli\` in the source folder\n`);
+    process.exit(70);
   }
   tsx.register();
   ({ main, outputStreamFailed } = await import('./main.ts'));

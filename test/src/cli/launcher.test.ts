@@ -80,7 +80,7 @@ describe('roundwise launcher', () => {
       const now = Date.now() / 1000;
       utimesSync(join(dir, 'dist', 'cli', 'main.cjs'), now, now);
       const launch = () => spawnSync(process.execPath, [join(dir, bin), '--help'], { cwd: dir, encoding: 'utf8' });
-      const stale = 'roundwise: the CLI bundle is older than the sources, and tsx (a development dependency) is not installed to run the sources: run `npm install` in the source folder (it builds the bundle), or `npm run build:cli`\n';
+      const stale = 'roundwise: internal error: the CLI bundle is older than the sources and tsx is not installed to run the sources: rebuild it with `npm run build:cli` in the source folder\n';
       for (const p of listed) utimesSync(join(dir, 'src', p), now - 60, now - 60);
       expect(launch().status).toBe(0);
       // A file the bundle was not built from (not imported by any of its sources) does not make it stale.
@@ -89,11 +89,11 @@ describe('roundwise launcher', () => {
       expect(launch().status).toBe(0);
       // An edited source does, and so does a deleted one.
       utimesSync(join(dir, 'src', 'linalg', 'lu.ts'), now + 60, now + 60);
-      expect(launch()).toMatchObject({ status: 1, stderr: stale });
+      expect(launch()).toMatchObject({ status: 70, stderr: stale });
       utimesSync(join(dir, 'src', 'linalg', 'lu.ts'), now - 60, now - 60);
       expect(launch().status).toBe(0);
       rmSync(join(dir, 'src', 'model', 'rounds.ts'));
-      expect(launch()).toMatchObject({ status: 1, stderr: stale });
+      expect(launch()).toMatchObject({ status: 70, stderr: stale });
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
@@ -115,12 +115,13 @@ describe('roundwise launcher', () => {
       expect(ok.stderr).toBe('');
       expect(ok.status).toBe(0);
       expect(ok.stdout).toBe(sampleAnalysis().stdout);
-      // Without the bundle, and without tsx to run the sources: one line saying what to do, exit 1.
+      // Without the bundle, and without tsx to run the sources: one line saying how to rebuild, and the internal-error
+      // status of main.ts (70; exit 1 is a usage error, README "Exit status").
       rmSync(join(pkg, 'dist', 'cli', 'main.cjs'));
       const missing = launch();
-      expect(missing.status).toBe(1);
+      expect(missing.status).toBe(70);
       expect(missing.stdout).toBe('');
-      expect(missing.stderr).toBe('roundwise: the CLI bundle (dist/cli/main.cjs) is missing, and tsx (a development dependency) is not installed to run the sources: run `npm install` in the source folder (it builds the bundle), or `npm run build:cli`\n');
+      expect(missing.stderr).toBe('roundwise: internal error: the CLI bundle (dist/cli/main.cjs) is missing and tsx is not installed to run the sources: rebuild it with `npm run build:cli` in the source folder\n');
     } finally {
       rmSync(dir, { recursive: true, force: true });
     }
