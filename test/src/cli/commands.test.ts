@@ -1,5 +1,5 @@
 // The declarative CLI: every command is one spec behind one parser, so help texts, usage errors and exit codes are
-// the same for all five. Exit codes as README "Command line" states them: 0 done, 1 usage error, 2 refused input.
+// the same for all six. Exit codes as README "Command line" states them: 0 done, 1 usage error, 2 refused input.
 // (The rules are the project's own: common practice, no source.)
 import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { mkdtempSync, rmSync } from 'node:fs';
