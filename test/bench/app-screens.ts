@@ -134,7 +134,7 @@ export async function appScreens(file: string, n: number): Promise<AppRun | { sk
   }
 }
 
-/** The issue's targets for the app at 2,000 sectors, each with what this run measured and whether it was met. */
+/** The app's targets at 2,000 sectors (README "Performance"), each with what this run measured and whether it was met. */
 export function appTargets(r: AppRun): { target: string; measured: string; met: boolean }[] {
   const f = (ms: number): string => (ms >= 1000 ? `${(ms / 1000).toFixed(2)} s` : `${Math.round(ms)} ms`);
   const ready = r.steps.find((s) => s.step.startsWith('"Use this table"'));

@@ -5,18 +5,15 @@ import { describe, it, expect, beforeAll, afterAll } from 'vitest';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { COMMANDS, main } from '../../../src/cli/main.ts';
+import { COMMANDS } from '../../../src/cli/main.ts';
 import { usageLine } from '../../../src/cli/parse.ts';
+import { runCli } from '../../support/cli.ts';
 
 let dir: string;
 beforeAll(() => { dir = mkdtempSync(join(tmpdir(), 'rw-commands-')); });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-async function run(...args: string[]) {
-  let out = '', err = '';
-  const code = await main(args, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
+const run = (...args: string[]) => runCli(args);
 
 /** Valid arguments for each command (on the invented sample data), so one change at a time can be tested. */
 const VALID: Record<string, string[]> = {

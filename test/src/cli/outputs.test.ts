@@ -8,18 +8,14 @@ import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createHash } from 'node:crypto';
-import { main } from '../../../src/cli/main.ts';
+import { runCli } from '../../support/cli.ts';
 import { sha256Hex } from '../../../src/project/index.ts';
 
 let dir: string;
 beforeEach(() => { dir = mkdtempSync(join(tmpdir(), 'rw-outputs-')); });
 afterEach(() => rmSync(dir, { recursive: true, force: true }));
 
-async function run(...args: string[]) {
-  let out = '', err = '';
-  const code = await main(args, { stdout: (s) => { out += s; }, stderr: (s) => { err += s; } });
-  return { code, out, err };
-}
+const run = (...args: string[]) => runCli(args);
 
 /** Names and contents of every file in `d`, to show a refused run changed nothing. */
 function snapshot(d: string): Record<string, string> {
