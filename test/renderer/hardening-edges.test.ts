@@ -12,7 +12,7 @@ import type { ReportKind } from '../../src/study/index.ts';
 import { InputError } from '../../src/diagnostics/index.ts';
 import { EDGE_TABLES } from '../src/hardening/edge-tables.ts';
 import { formulaTableCsv, unsafeCells } from '../src/hardening/csv-safety.ts';
-import { nonFinite, nonFiniteText } from '../src/hardening/gen.ts';
+import { nonFinite, nonFiniteText } from '../support/fuzz-tables.ts';
 
 const CORPUS = fileURLToPath(new URL('../fixtures/hardening/corpus/', import.meta.url));
 

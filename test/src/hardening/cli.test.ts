@@ -10,7 +10,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
 import { ACCEPTED, BASE } from '../../fixtures/hardening/make-corpus.ts';
-import { encoding, expectCliRefusal, gridTable, nonFiniteText, toText } from './gen.ts';
+import { encoding, expectCliRefusal, gridTable, nonFiniteText, toText } from '../../support/fuzz-tables.ts';
 import { runCli } from '../../support/cli.ts';
 import { FORMULA_LABELS, formulaTableCsv, unsafeCells } from './csv-safety.ts';
 

@@ -15,7 +15,7 @@ import { linesOf, runScenario } from '../../support/scenario.ts';
 import { prepareModel } from '../../../src/model/index.ts';
 import { parseProject, serializeProject } from '../../../src/project/index.ts';
 import { ACCEPTED, BASE, NO_JOBS_TABLE, projects, SHOCKS, TABLES } from '../../fixtures/hardening/make-corpus.ts';
-import { expectSameTable, expectWellFormedRefusal } from './gen.ts';
+import { expectSameTable, expectWellFormedRefusal } from '../../support/fuzz-tables.ts';
 
 const DIR = fileURLToPath(new URL('../../fixtures/hardening/corpus/', import.meta.url));
 const read = (name: string) => readFileSync(join(DIR, name), 'utf8');

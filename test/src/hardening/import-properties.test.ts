@@ -8,7 +8,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { importTable, previewTable } from '../../../src/table/index.ts';
 import { coefficients } from '../../../src/model/index.ts';
-import { CLEAN, encoding, expectFiniteTable, expectSameTable, gridTable, refusalOf, toText, type GridTable } from './gen.ts';
+import { CLEAN, encoding, expectFiniteTable, expectSameTable, gridTable, refusalOf, toText, type GridTable } from '../../support/fuzz-tables.ts';
 
 const FILE = 'county.csv';
 const RUNS = { numRuns: 120 };

@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { importTable, MAX_TABLE_BYTES } from '../../../src/table/index.ts';
-import { refusalOf } from './gen.ts';
+import { refusalOf } from '../../support/fuzz-tables.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-large-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -59,7 +59,7 @@ describe('large inputs', () => {
 describe('the CLI and a file over the limit', () => {
   it('a 1 GiB table is refused by its size before it is read (scenario and analyze): exit 2, memory does not grow by the file', async () => {
     const { runCli } = await import('../../support/cli.ts');
-    const { expectCliRefusal } = await import('./gen.ts');
+    const { expectCliRefusal } = await import('../../support/fuzz-tables.ts');
     const { truncateSync } = await import('node:fs');
     const table = join(dir, 'sparse.csv');
     writeFileSync(table, '');

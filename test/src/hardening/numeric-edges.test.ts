@@ -17,7 +17,7 @@ import { analysisJson } from '../../../src/report/index.ts';
 import { prepareStudy, runStudyScenario, studyOfTable } from '../../../src/study/index.ts';
 import { importTable } from '../../../src/table/index.ts';
 import { EDGE_TABLES } from './edge-tables.ts';
-import { expectCliRefusal, nonFinite, nonFiniteText } from './gen.ts';
+import { expectCliRefusal, nonFinite, nonFiniteText } from '../../support/fuzz-tables.ts';
 import { runCli } from '../../support/cli.ts';
 
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-edges-'));

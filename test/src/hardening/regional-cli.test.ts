@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
-import { nonFiniteText } from './gen.ts';
+import { nonFiniteText } from '../../support/fuzz-tables.ts';
 import { runCli } from '../../support/cli.ts';
 
 const FIX = fileURLToPath(new URL('../../fixtures/regional/', import.meta.url));

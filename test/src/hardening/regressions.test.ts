@@ -6,7 +6,7 @@ import { linesOf } from '../../support/scenario.ts';
 import { formatLocated, InputError } from '../../../src/diagnostics/index.ts';
 import { importTable } from '../../../src/table/index.ts';
 import { parseShockCsv } from '../../../src/scenario/index.ts';
-import { refusalOf } from './gen.ts';
+import { refusalOf } from '../../support/fuzz-tables.ts';
 
 describe('found by the property tests', () => {
   it('a label holding a carriage return (LF file) still gives a one-line message', () => {

@@ -6,7 +6,7 @@ import fc from 'fast-check';
 import { InputError } from '../../../src/diagnostics/index.ts';
 import { ASSUMPTIONS, symmetricFromSupplyUse, utf8Bytes } from '../../../src/study/index.ts';
 import { randomPair } from '../../support/sut-pairs.ts';
-import { expectWellFormedRefusal, nonFinite, nonFiniteText } from './gen.ts';
+import { expectWellFormedRefusal, nonFinite, nonFiniteText } from '../../support/fuzz-tables.ts';
 
 const EDIT_CHARS = [',', ';', '\n', '"', '-', 'x', '0', '9', '.', '\u0000', ' ', 'e', '\t'];
 

@@ -4,7 +4,7 @@ import Papa from 'papaparse';
 import { analyzeTable, analyzePrepared } from '../../../src/model/analysis.ts';
 import { prepareModel, solveOpen } from '../../../src/model/prepared.ts';
 import { analysisJson, analysisReports } from '../../../src/report/index.ts';
-import { randomEconomy, tableFromA } from './tables.ts';
+import { randomEconomy, tableFromA } from '../../support/coefficient-tables.ts';
 
 describe('Analysis', () => {
   it('survives structured clone (the UI worker boundary) unchanged', () => {

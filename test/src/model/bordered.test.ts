@@ -8,7 +8,7 @@ import { perronRoot, perronRootBordered, perronRootsOpenClosed } from '../../../
 import { coefficients } from '../../../src/model/coefficients.ts';
 import { matVec } from '../../../src/linalg/index.ts';
 import { seeded } from '../../support/random.ts';
-import { randomEconomy } from './tables.ts';
+import { randomEconomy } from '../../support/coefficient-tables.ts';
 
 /** Seeded random parts: non-negative, with a share `zeros` of entries (A and both borders) set to zero. */
 function randomParts(n: number, seed: number, zeros: number, corner = 0): Bordered {

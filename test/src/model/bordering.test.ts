@@ -6,7 +6,7 @@ import { analyzeTable } from '../../../src/model/analysis.ts';
 import {
   closedBorder, prepareModel, solveClosed, solveClosedTransposed, solveClosedTransposedFrom, solveOpen, solveOpenTransposed, solveOpenTransposedMany,
 } from '../../../src/model/prepared.ts';
-import { randomEconomy, tableFromA, toRows } from './tables.ts';
+import { randomEconomy, tableFromA, toRows } from '../../support/coefficient-tables.ts';
 import { seeded } from '../../support/random.ts';
 import { rel } from '../../support/compare.ts';
 

@@ -8,7 +8,7 @@ import { closedModelDecision, decideClosedModel, schurRoundingBound } from '../.
 import { closedBorder, prepareModel } from '../../../src/model/prepared.ts';
 import { onePhase, runScenario } from '../../support/scenario.ts';
 import { prepareStudy, runStudyScenario, studyOfTable } from '../../../src/study/index.ts';
-import { makeTable } from './tables.ts';
+import { makeTable } from '../../support/coefficient-tables.ts';
 import { seeded } from '../../support/random.ts';
 
 /**

@@ -2,7 +2,7 @@
 // and the table is left without flows that could be read by mistake.
 import { describe, it, expect } from 'vitest';
 import { coefficients, coefficientsOverFlows } from '../../../src/model/coefficients.ts';
-import { randomEconomy } from './tables.ts';
+import { randomEconomy } from '../../support/coefficient-tables.ts';
 
 describe('coefficientsOverFlows', () => {
   for (const n of [1, 7, 40]) {

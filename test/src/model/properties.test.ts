@@ -9,7 +9,7 @@ import { hawkinsSimon } from '../../../src/model/hawkins.ts';
 import { perronRoot } from '../../../src/model/perron.ts';
 import { sectorBlocks } from '../../../src/model/graph.ts';
 import { roundByRound } from '../../../src/model/rounds.ts';
-import { randomEconomy, tableFromA } from './tables.ts';
+import { randomEconomy, tableFromA } from '../../support/coefficient-tables.ts';
 
 function evdRadius(rows: number[][]): number {
   const evd = new EigenvalueDecomposition(new Matrix(rows));

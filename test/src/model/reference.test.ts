@@ -5,7 +5,7 @@ import { analyzeTable } from '../../../src/model/analysis.ts';
 import { perronRoot } from '../../../src/model/perron.ts';
 import { spectrum } from '../../../src/model/spectrum.ts';
 import { hawkinsSimon } from '../../../src/model/hawkins.ts';
-import { randomEconomy, toRows } from './tables.ts';
+import { randomEconomy, toRows } from '../../support/coefficient-tables.ts';
 import { seeded } from '../../support/random.ts';
 import { rel } from '../../support/compare.ts';
 

@@ -6,7 +6,7 @@
 import { describe, it, expect } from 'vitest';
 import { analyzeTable } from '../../../src/model/analysis.ts';
 import { prepareModel, solveOpen } from '../../../src/model/prepared.ts';
-import { makeTable } from './tables.ts';
+import { makeTable } from '../../support/coefficient-tables.ts';
 
 const table = makeTable({
   Z: [[150, 500], [200, 100]],

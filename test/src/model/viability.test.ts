@@ -5,7 +5,7 @@ import { sectorBlocks, stronglyConnected, sectorGraph } from '../../../src/model
 import { perronRoot } from '../../../src/model/perron.ts';
 import { hawkinsSimon } from '../../../src/model/hawkins.ts';
 import { classifyMode, spectrum } from '../../../src/model/spectrum.ts';
-import { tableFromA } from './tables.ts';
+import { tableFromA } from '../../support/coefficient-tables.ts';
 
 const flat = (a: number[][]) => Float64Array.from(a.flat());
 

@@ -8,7 +8,7 @@ import {
 import type { ScenarioLine, ScenarioResult } from '../../../src/scenario/index.ts';
 import { runScenario } from '../../support/scenario.ts';
 import { writeTableCsv } from '../../../src/table/index.ts';
-import { county4 } from '../scenario/tables.ts';
+import { county4 } from '../../support/example-tables.ts';
 import { projectResults } from '../../support/project.ts';
 import { importTable } from '../../../src/table/index.ts';
 import { analyzeTable, prepareModel } from '../../../src/model/index.ts';

@@ -10,7 +10,7 @@ import {
 } from '../../../src/report/scenario.ts';
 import { CAUTIONS } from '../../../src/report/cautions.ts';
 import type { ReportFile } from '../../../src/report/document.ts';
-import { county4 } from '../scenario/tables.ts';
+import { county4 } from '../../support/example-tables.ts';
 
 const ctx = { tableName: 'Invented county (demo)', sourceFile: 'county.csv', sourceHash: 'ab'.repeat(32), date: '2026-12-01T20:00:00Z' };
 

@@ -2,7 +2,7 @@ import { describe, it, expect } from 'vitest';
 import * as math from 'mathjs';
 import { prepareModel, type PreparedModel } from '../../../src/model/index.ts';
 import { runScenario } from '../../support/scenario.ts';
-import { county4, millerBlair2 } from './tables.ts';
+import { county4, millerBlair2 } from '../../support/example-tables.ts';
 import { rel } from '../../support/compare.ts';
 
 describe('Type I effects: Miller & Blair 2009 §2.3 two-sector example (recalled from memory)', () => {

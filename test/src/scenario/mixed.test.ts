@@ -5,7 +5,7 @@ import * as math from 'mathjs';
 import { prepareModel } from '../../../src/model/index.ts';
 import { runScenario } from '../../support/scenario.ts';
 import type { IOTable } from '../../../src/table/index.ts';
-import { county4 } from './tables.ts';
+import { county4 } from '../../support/example-tables.ts';
 import { rel } from '../../support/compare.ts';
 
 function fullMatrix(t: IOTable, closed: boolean): number[][] {

@@ -4,7 +4,7 @@ import { describe, it, expect } from 'vitest';
 import * as math from 'mathjs';
 import { prepareModel } from '../../../src/model/index.ts';
 import { structuralPaths } from '../../../src/scenario/index.ts';
-import { county4, makeTable } from './tables.ts';
+import { county4, makeTable } from '../../support/example-tables.ts';
 
 function denseTable() {
   // Invented 5-sector table with every flow positive, so there are many elementary paths (65 from one pole to another).

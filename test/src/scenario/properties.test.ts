@@ -7,7 +7,7 @@ import * as math from 'mathjs';
 import { prepareModel } from '../../../src/model/index.ts';
 import { type ScenarioLine } from '../../../src/scenario/index.ts';
 import { runScenario } from '../../support/scenario.ts';
-import { makeTable } from './tables.ts';
+import { makeTable } from '../../support/example-tables.ts';
 import { rel } from '../../support/compare.ts';
 
 const n = 4;

@@ -4,7 +4,7 @@ import { formatLocated } from '../../../src/diagnostics/index.ts';
 import { prepareModel } from '../../../src/model/index.ts';
 import { compareScenarios, parseShockCsv, spreadMix, type Scenario } from '../../../src/scenario/index.ts';
 import { entriesOf, linesOf, onePhase, runScenario, shockOf } from '../../support/scenario.ts';
-import { county4 } from './tables.ts';
+import { county4 } from '../../support/example-tables.ts';
 import { refusal } from '../../support/refusal.ts';
 
 const pm = prepareModel(county4());

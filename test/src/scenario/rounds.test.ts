@@ -5,7 +5,7 @@ import { prepareModel } from '../../../src/model/index.ts';
 import { matVec } from '../../../src/linalg/index.ts';
 import { spendingRounds } from '../../../src/scenario/index.ts';
 import { runScenario } from '../../support/scenario.ts';
-import { county4 } from './tables.ts';
+import { county4 } from '../../support/example-tables.ts';
 
 describe('spending rounds', () => {
   const t = county4();

@@ -10,7 +10,7 @@ import { prepareModel } from '../../../src/model/index.ts';
 import { parseShockCsv } from '../../../src/scenario/index.ts';
 import { runScenario } from '../../support/scenario.ts';
 import { importTable } from '../../../src/table/index.ts';
-import { expectCliRefusal, nonFiniteText } from '../hardening/gen.ts';
+import { expectCliRefusal, nonFiniteText } from '../../support/fuzz-tables.ts';
 import { runCli } from '../../support/cli.ts';
 import { refusal } from '../../support/refusal.ts';
 

@@ -9,7 +9,7 @@ import {
   type Activity, type Margins, type ScenarioLine, type ShockInputs,
 } from '../../../src/scenario/index.ts';
 import { prepareStudy, runStudyScenario, studyOfTable } from '../../../src/study/index.ts';
-import { makeTable, county4 } from './tables.ts';
+import { makeTable, county4 } from '../../support/example-tables.ts';
 import { refusal } from '../../support/refusal.ts';
 import { onePhase, runScenario } from '../../support/scenario.ts';
 

@@ -7,7 +7,7 @@ import { fileURLToPath } from 'node:url';
 import fc from 'fast-check';
 import { importTable, importTableBytes, previewTable, previewTableBytes, type ImportOptions } from '../../../src/table/index.ts';
 import { plainHead } from '../../../src/table/bytes.ts';
-import { gridTable, encoding, toText, refusalOf } from '../hardening/gen.ts';
+import { gridTable, encoding, toText, refusalOf } from '../../support/fuzz-tables.ts';
 import { seeded } from '../../support/random.ts';
 
 const utf8 = new TextDecoder('utf-8');

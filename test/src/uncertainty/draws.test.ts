@@ -9,7 +9,7 @@ import {
   defaultSettings, planDraws, runDraws, runUncertainty, sigmaOf, startRun, DRAW_STATUS, PURPOSE, Stream,
   type DrawSetup, type UncertaintySettings,
 } from '../../../src/uncertainty/index.ts';
-import { makeTable } from '../model/tables.ts';
+import { makeTable } from '../../support/coefficient-tables.ts';
 import { EMPLOYMENT_SAMPLE_CSV, NATIONAL_SAMPLE_CSV, parseEmploymentCsv, regionalizeTable } from '../../../src/regional/index.ts';
 
 const sample = importTable(SAMPLE_CSV, { fileName: 'sample.csv' });

@@ -1,9 +1,9 @@
 /**
- * IOTables built in code for the scenario tests. The Miller & Blair two-sector table is their §2.3 example
+ * Two example IOTables built in code, for the scenario, report and project tests. The Miller & Blair two-sector table is their §2.3 example
  * (Input–Output Analysis, 2nd ed. 2009; recalled from memory). `county4` is invented (demo data, not a reference).
  */
-import type { IOTable } from '../../../src/table/index.ts';
-import { tableFromParts, type TableParts } from '../../support/io-table.ts';
+import type { IOTable } from '../../src/table/index.ts';
+import { tableFromParts, type TableParts } from './io-table.ts';
 
 export type TableSpec = Omit<TableParts, 'households'> & { sectors: string[]; household?: number[] };
 

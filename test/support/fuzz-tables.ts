@@ -1,13 +1,13 @@
 /**
- * Generators and checks shared by the hardening tests: random valid flow tables as a grid of cell texts, the ways
+ * Generators and checks shared by the hardening tests (and the table, scenario and renderer tests that fuzz input): random valid flow tables as a grid of cell texts, the ways
  * to write the same grid as CSV (delimiters, decimal comma, quotes, BOM, line ends), and the checks every refusal
  * must pass (an InputError with a location and a one-line message; no other exception).
  * The tables are invented test data, not references.
  */
 import fc from 'fast-check';
 import { expect } from 'vitest';
-import { InputError, formatLocated } from '../../../src/diagnostics/index.ts';
-import type { IOTable } from '../../../src/table/index.ts';
+import { InputError, formatLocated } from '../../src/diagnostics/index.ts';
+import type { IOTable } from '../../src/table/index.ts';
 
 /** Invented sector names that no role suggestion recognises. */
 export const SECTOR_POOL = [

@@ -1,7 +1,8 @@
-// IOTables built in code for the model tests (values are either from a named source or seeded random, never a reference).
-import type { IOTable } from '../../../src/table/index.ts';
-import { tableFromParts, type TableParts } from '../../support/io-table.ts';
-import { randomEconomyParts } from '../../support/random-tables.ts';
+// IOTables built in code from their parts or their coefficient matrix, and seeded random economies, for the model,
+// scenario and uncertainty tests (values are either from a named source or seeded random, never a reference).
+import type { IOTable } from '../../src/table/index.ts';
+import { tableFromParts, type TableParts } from './io-table.ts';
+import { randomEconomyParts } from './random-tables.ts';
 
 export type { TableParts };
 
