@@ -15,6 +15,26 @@ const SHELL_ISOLATED = [
 ];
 
 /**
+ * Files under test/src that need more than the engine (src/ but src/cli and src/node-io), left out by
+ * `npm run test:engine` (`--mode engine`): they run the CLI (in process through test/support/cli.ts, or its launcher,
+ * bundle, helper threads or output writer), the file I/O of src/node-io, the app's worker or shell code, outside
+ * programs (poppler's readers of the deliverables' PDFs, test/support/deliverables.ts; child processes killed mid-write),
+ * or ESLint over the whole tree. `npm test` runs them all.
+ */
+const NEEDS_MORE_THAN_THE_ENGINE = [
+  'test/src/architecture.test.ts',
+  'test/src/cli/**',
+  'test/src/node-io/**',
+  'test/src/deliverables/brief.test.ts', 'test/src/deliverables/how-sure.test.ts', 'test/src/deliverables/phases.test.ts', 'test/src/deliverables/workbook.test.ts',
+  'test/src/study/front-ends.test.ts',
+  'test/src/linalg/parallel.test.ts', 'test/src/linalg/parallel-draws.test.ts',
+  'test/src/hardening/atomic-save.test.ts', 'test/src/hardening/cli.test.ts', 'test/src/hardening/large.test.ts',
+  'test/src/hardening/no-network.test.ts', 'test/src/hardening/numeric-edges.test.ts', 'test/src/hardening/regional-cli.test.ts',
+  'test/src/regional/balance-table.test.ts', 'test/src/regional/cli-*.test.ts', 'test/src/regional/plausibility.test.ts',
+  'test/src/scenario/cli.test.ts', 'test/src/scenario/shock-checks.test.ts',
+];
+
+/**
  * The e2e files whose time is mostly waiting: crash-recovery copies are written 1.5 s after an edit, and these files
  * wait for one again and again. Run side by side they left a core idle for about 25 s; each is paired with a file
  * that keeps its core busy instead (see E2eLast).
@@ -58,7 +78,7 @@ class E2eLast extends BaseSequencer {
  *   worker's one page, reset (blank, storage emptied, the previous file's listeners and scripts removed), and no test
  *   leaves module state behind.
  */
-export default defineConfig({
+export default defineConfig(({ mode }) => ({
   test: {
     root,
     maxWorkers: 2,
@@ -69,7 +89,7 @@ export default defineConfig({
           name: 'unit',
           root,
           include: ['test/src/**/*.test.ts', 'test/main/**/*.test.ts', 'test/renderer/**/*.test.ts'],
-          exclude: SHELL_ISOLATED,
+          exclude: mode === 'engine' ? [...SHELL_ISOLATED, ...NEEDS_MORE_THAN_THE_ENGINE] : SHELL_ISOLATED,
           setupFiles: ['test/renderer/worker-reset.ts'],
           environment: 'node',
           testTimeout: 30_000,
@@ -103,4 +123,4 @@ export default defineConfig({
       },
     ],
   },
-});
+}));
