@@ -213,7 +213,6 @@ export const scenario = defineCommand({
       ...(values['margin-step'] !== undefined ? { marginStep: values['margin-step'] } : {}),
       flq: flq ? { origin: flq.origin, range: flq.range } : null,
     }) : null;
-    const names = { output: 'output', valueAdded: 'value added', income: 'labour income', employment: 'employment' };
     const files = await deliverableFiles(ps, outcome, values, ctx, { bands, sensitivity: sens });
     if (values.project !== undefined) {
       refuseToOverwriteForeign(values.project);
@@ -221,7 +220,7 @@ export const scenario = defineCommand({
     }
     return {
       summary: () => summary(ps, outcome)
-        + (bands ? bands.scenarios.map((b) => `${scenarioBandsSummary(bands, b, names).join('\n')}\n`).join('') : '')
+        + (bands ? bands.scenarios.map((b) => `${scenarioBandsSummary(bands, b).join('\n')}\n`).join('') : '')
         + (sens ? sens.map((x) => `${sensitivitySummary(x, study.table.moneyUnit).join('\n')}\n`).join('') : ''),
       json: () => ({
         ...scenarioJson(ps, outcome),
