@@ -3,7 +3,7 @@
  * scenarios may use. Every result of the study (multipliers, scenarios, rounds, paths, reports) is computed from
  * this, so the CLI and the app cannot assemble the pipeline differently.
  */
-import { analyzePrepared, coefficients, coefficientsOverFlows, modelsForClosure, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
+import { analyzePrepared, coefficients, coefficientsOverFlows, formLeontief, modelsForClosure, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
 import { residentShares } from '../scenario/index.ts';
 import { verdictOf, type Verdict } from '../report/index.ts';
 import type { Study } from './study.ts';
@@ -62,3 +62,14 @@ function sameCommuting(a: Study['commuting'], b: Study['commuting']): boolean {
 function finish(study: Study, pm: PreparedModel, analysis: Analysis): PreparedStudy {
   return { study, pm, analysis, verdict: verdictOf(analysis), models: modelsForClosure(analysis.availability, study.settings.closure) };
 }
+
+/**
+ * The study's explicit Leontief inverse L = (I − A)⁻¹ with its accuracy ratio: the analysis' when it formed one, else
+ * formed now (formLeontief). The Leontief-inverse report and the app's grid both take it from here, so the screen and
+ * the export show the same numbers. Only for a productive table (the caller checks `models.open`).
+ */
+export function studyLeontief(ps: PreparedStudy): { L: Float64Array; residual: number | null } {
+  const an = ps.analysis;
+  return an.leontief ? { L: an.leontief, residual: an.checks.inverseResidual } : formLeontief(ps.pm);
+}
+

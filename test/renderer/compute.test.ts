@@ -352,6 +352,18 @@ describe('grid margins around the matrix (Table screen)', () => {
     sums.forEach((v, j) => expect(v).toBeCloseTo(ref.multipliers.output.typeI[j]!, 12));
   });
 
+  it('Leontief inverse: the grid shows the numbers the Leontief-inverse report exports, bit for bit', () => {
+    api.loadSample({});
+    const g = api.grid({ which: 'L' });
+    const files = api.report({ kind: 'leontief-inverse', scenarios: [], choices: ON });
+    const rows = Papa.parse<string[]>(files[0]!.content.trim(), { skipEmptyLines: true }).data;
+    expect(rows[0]!.slice(1, ref.n + 1)).toEqual(ref.sectors);
+    for (let i = 0; i < ref.n; i++) {
+      expect(rows[i + 1]![0]).toBe(ref.sectors[i]);
+      for (let j = 0; j < ref.n; j++) expect(Number(rows[i + 1]![j + 1])).toBe(g.values[i * ref.n + j]);
+    }
+  });
+
   it('flows: final demand and total output to the right, value added, imports, total output and jobs below, as the table has them', () => {
     api.loadSample({});
     const g = api.grid({ which: 'Z' });
