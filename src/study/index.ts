@@ -6,7 +6,7 @@ export {
   studyFromTableFile, studyFromImportedTable, studyFromProjectFile, studyOfTable, projectFileOf, withTable, scenarioNamed, checkStudyInputs,
   type Study, type StudySettings, type StudySource, type ImportSettings, type StudyPrices,
 } from './study.ts';
-export { prepareStudy, restudy, studyLeontief, CLOSURE_OFF, type PreparedStudy, type PrepareOptions } from './prepare.ts';
+export { prepareStudy, restudy, studyLeontief, studyCoefficientRows, CLOSURE_OFF, type PreparedStudy, type PrepareOptions } from './prepare.ts';
 export {
   runStudyScenario, readyLines, lineReady, defaultDestination, tracePaths, compareStudyScenarios, shockInputsOf, tableYearOf, studyModelNotes,
   type ScenarioOutcome, type PhaseOutcome, type TimingTotal, type OutcomeOptions,
