@@ -5,12 +5,13 @@
  * CLI's --draws and --sensitivity use, so the same seed gives the same bands in both. Views are plain and finite.
  */
 import {
-  beginStudyBands, checkUncertaintySettings, defaultUncertaintySettings, flqOriginOf, MEASURES, readyLines, studySensitivity, utf8Bytes, VARIABLES,
-  type BandsRun, type HowSure, type IOTable, type PointBand, type PreparedStudy, type UncertaintyResult,
+  beginStudyBands, checkUncertaintySettings, defaultUncertaintySettings, flqOriginOf, MEASURES, readyLines, studySensitivity, unitOf, utf8Bytes, VARIABLE_NAMES, VARIABLES,
+  type BandsRun, type HowSure, type IOTable, type PointBand, type PreparedStudy, type UncertaintyResult, type Variable,
 } from '../../src/study/index.ts';
 import type { BandColumns, BandSettings, BandView, BandsView, FlqInputs, ScenarioDraft, SensitivityView, StudyChoices } from './protocol.ts';
 
-const VARIABLE_LABELS: Record<string, string> = { output: 'Output', valueAdded: 'Value added', income: 'Labour income', employment: 'Employment', taxes: 'Taxes' };
+/** A variable as the reports name it (VARIABLE_NAMES), capitalised to head a row. */
+const variableLabel = (v: Variable) => VARIABLE_NAMES[v].charAt(0).toUpperCase() + VARIABLE_NAMES[v].slice(1);
 
 function band(b: PointBand | null): BandView | null {
   return b ? { point: b.point, p5: b.p5, p50: b.p50, p95: b.p95, mean: b.mean } : null;
@@ -42,7 +43,7 @@ export function bandsView(r: UncertaintyResult, target: BandsView['target'], mon
       const measure = MEASURES.find((x) => x.key === m.key)!;
       return { key: m.key, label: measure.label, unit: measure.unit(moneyUnit), values: columns(m.values) };
     }) : null,
-    totals: s ? VARIABLES.map((v) => ({ variable: v, label: VARIABLE_LABELS[v] ?? v, unit: v === 'employment' ? 'jobs' : moneyUnit, band: band(s.totals[v] ?? null) })) : null,
+    totals: s ? VARIABLES.map((v) => ({ variable: v, label: variableLabel(v), unit: unitOf(v, moneyUnit), band: band(s.totals[v] ?? null) })) : null,
     sectorOutput: s ? columns(s.bySector.output) : null,
     sectorJobs: s && s.bySector.employment ? columns(s.bySector.employment) : null,
     moneyUnit,

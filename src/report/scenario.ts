@@ -48,7 +48,7 @@ export function unitOf(v: Variable, moneyUnit: string): string {
 }
 
 /** The unit of a cumulative effect: money, job-years or FTE-years. */
-function cumulativeUnitOf(v: Variable, moneyUnit: string): string {
+export function cumulativeUnitOf(v: Variable, moneyUnit: string): string {
   return v === 'employment' ? 'job-years' : v === 'fte' ? 'FTE-years' : moneyUnit;
 }
 

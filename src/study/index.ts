@@ -27,7 +27,7 @@ export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../table/index.ts';
 export type { ModeKind } from '../model/index.ts';
 export {
   CAUTIONS, SCENARIO_CAUTIONS, MEASURES, measuresOf, measureValues, linkageClass, LINKAGE_CLASS_NAMES, aboutText, modelTypeOf, reachText,
-  timingText, unitOf, VARIABLE_NAMES,
+  timingText, unitOf, cumulativeUnitOf, VARIABLE_NAMES,
   type ReportFile, type Measure, type MeasureKey, type LinkageClass, type Verdict,
 } from '../report/index.ts';
 export {

@@ -3,7 +3,7 @@
  * --json `uncertainty` and `sensitivity` keys). The point estimate is the first number of every row: the bands sit
  * beside it and never replace it.
  */
-import { MEASURES, reportFiles, SCENARIO_CAUTIONS, CAUTIONS, VARIABLE_NAMES, type Cell, type ReportFile, type SourceOrigin } from '../report/index.ts';
+import { MEASURES, reportFiles, SCENARIO_CAUTIONS, CAUTIONS, unitOf, VARIABLE_NAMES, type Cell, type ReportFile, type SourceOrigin } from '../report/index.ts';
 import { VARIABLES, type Variable } from '../scenario/index.ts';
 import { PARTS } from './draws.ts';
 import type { PointBand, ScenarioBands, UncertaintyResult } from './bands.ts';
@@ -22,7 +22,6 @@ export interface BandReportContext {
 
 const BAND_HEADER = ['point estimate', 'p5', 'p50 (median)', 'p95', 'mean of draws'];
 const bandCells = (b: PointBand | null): Cell[] => (b ? [b.point, b.p5, b.p50, b.p95, b.mean] : [null, null, null, null, null]);
-const unitOf = (v: Variable, money: string) => (v === 'employment' ? 'jobs' : money);
 
 function meta(ctx: BandReportContext, title: string, notes: string[], cautions: readonly string[]) {
   return {

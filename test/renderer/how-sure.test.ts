@@ -9,7 +9,7 @@ import { api } from '../../renderer/worker/compute.ts';
 import { bandsView } from '../../renderer/worker/uncertainty.ts';
 import { buildRegional } from '../../renderer/worker/regional.ts';
 import { bandAt } from '../../renderer/charts/bands.ts';
-import { readWorkbook } from '../support/deliverables.ts';
+import { readWorkbook, sampleWithTaxesAndFte } from '../support/deliverables.ts';
 import { linesOf, onePhase } from '../support/scenario.ts';
 import { runCli } from '../support/cli.ts';
 import {
@@ -33,6 +33,21 @@ describe('How sure? worker operations', () => {
     const ref = studyBands(ps, { settings: defaultUncertaintySettings(settings), multipliers: false, scenarios: [onePhase(scenario.name, linesOf(scenario).slice(0, 1))] })!;
     expect(view).toEqual(bandsView(ref, 'scenario', ps.study.table.moneyUnit));
     expect(view.totals!.find((t) => t.variable === 'output')!.band!.point).toBe(api.runScenario({ scenario, choices }).phases[0]!.effects.output!.totals.total);
+  });
+
+  it('name each total and give its unit as the reports do, taxes and full-time equivalents included', () => {
+    api.loadTable({ text: sampleWithTaxesAndFte().text, fileName: 'taxes-fte.csv' });
+    try {
+      const start = api.bandsStart({ choices, settings, scenario });
+      api.bandsStep({ id: start.id, from: 0, to: 45 });
+      const rows = api.bandsFinish({ id: start.id }).totals!.filter((t) => t.band !== null).map((t) => [t.label, t.unit]);
+      expect(rows).toEqual([
+        ['Output', 'thousand dollars'], ['Value added', 'thousand dollars'], ['Labour income', 'thousand dollars'],
+        ['Employment', 'jobs'], ['Taxes less subsidies', 'thousand dollars'], ['Full-time equivalents', 'FTE'],
+      ]);
+    } finally {
+      api.loadSample({});
+    }
   });
 
   it('refuse steps of a run that a newer one replaced', () => {

@@ -25,6 +25,22 @@ export function sampleStudy(shockText = readFileSync(SAMPLE_SHOCK, 'utf8')): { p
   return { ps, o: runStudyScenario(ps, scenario, { paths: null }) };
 }
 
+/**
+ * The sample table with a taxes row and a full-time-equivalents row (invented): 12 % of each sector's other value added
+ * moved to "Taxes on production", and FTE at 86 % of jobs. Returns the CSV text and the FTE row's sector values.
+ */
+export function sampleWithTaxesAndFte(): { text: string; fte: number[] } {
+  const rows = readFileSync(SAMPLE_TABLE, 'utf8').trimEnd().split(/\r?\n/).map((l) => l.split(','));
+  const ova = rows.findIndex((r) => r[0] === 'Other value added');
+  const tax = ['Taxes on production', ...rows[ova]!.slice(1).map((v, k) => { const t = Math.round(Number(v) * 12) / 100; rows[ova]![k + 1] = String(Number(v) - t); return String(t); })];
+  rows.splice(ova + 1, 0, tax);
+  const jobs = rows.findIndex((r) => r[0] === 'Employment (jobs)');
+  const fteRow = ['Full-time equivalents', ...rows[jobs]!.slice(1).map((v) => String(Math.round(Number(v) * 0.86)))];
+  rows.splice(jobs + 1, 0, fteRow);
+  const sectors = rows[0]!.length - 1;
+  return { text: rows.map((r) => r.join(',')).join('\n'), fte: fteRow.slice(1, 1 + sectors).map(Number) };
+}
+
 /** Run a poppler tool on PDF bytes; throws when poppler-utils is missing (CI installs it, see .ci/run). */
 export function poppler(tool: 'pdftotext' | 'pdfinfo' | 'pdffonts', pdf: Uint8Array, args: string[] = []): string {
   const dir = mkdtempSync(join(tmpdir(), 'roundwise-pdf-'));

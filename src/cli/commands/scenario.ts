@@ -10,9 +10,9 @@ import { BRIEF_OPTIONS, deliverableFiles, XLSX_OPTION } from './deliverables.ts'
 import { readFileLimited } from '../../node-io/index.ts';
 import {
   CAUTIONS, checkStudyInputs, modelTypeOf, projectFileOf, reachText, runStudyScenario, scenarioJson, scenarioReportSet, studyFromProjectFile,
-  tableReport, studyFromTableFile, timingText, unitOf, VARIABLE_NAMES, VARIABLES, InputError, visibleText, parseShockCsv, mixesFromFile, parseActivityCsv,
+  tableReport, studyFromTableFile, timingText, unitOf, cumulativeUnitOf, VARIABLE_NAMES, VARIABLES, MONEY_VARIABLES, InputError, visibleText, parseShockCsv, mixesFromFile, parseActivityCsv,
   parseMarginsCsv, parsePriceIndexCsv, parseCommutingCsv, matchKey, readBridge, scenarioByBridge, ACTIVITY_HEADER, MARGINS_HEADER, MIX_HEADER, PRICE_INDEX_HEADER, SHOCK_HEADER,
-  type Closure, type EffectTotals, type Scenario, type Study, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult, type Variable,
+  type Closure, type EffectTotals, type Scenario, type Study, type PhaseOutcome, type PreparedStudy, type ScenarioOutcome, type ScenarioResult,
   bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand, type RunContext } from '../command.ts';
@@ -37,15 +37,16 @@ function totalsTable(r: ScenarioResult, title: string): string[] {
 function overTimeLines(p: PhaseOutcome, moneyUnit: string): string[] {
   const o = p.overTime;
   if (!o) return [];
-  const lines = [`Over ${o.years} years (years × one year, undiscounted): ${(['output', 'valueAdded', 'income', 'employment'] as Variable[]).flatMap((v) => {
+  const unit = visibleText(moneyUnit);
+  const lines = [`Over ${o.years} years (years × one year, undiscounted): ${VARIABLES.flatMap((v) => {
     const t = o.cumulative[v];
-    return t ? [`${VARIABLE_NAMES[v]} ${fmt(t.total)} ${v === 'employment' ? 'job-years' : visibleText(moneyUnit)}`] : [];
+    return t ? [`${VARIABLE_NAMES[v]} ${fmt(t.total)} ${cumulativeUnitOf(v, unit)}`] : [];
   }).join(', ')}.`];
   if (o.presentValue) {
-    lines.push(`Present value at ${o.rate} a year (ordinary annuity, factor ${fmt(o.annuityFactor)}): ${(['output', 'valueAdded', 'income'] as Variable[]).flatMap((v) => {
+    lines.push(`Present value at ${o.rate} a year (ordinary annuity, factor ${fmt(o.annuityFactor)}): ${MONEY_VARIABLES.flatMap((v) => {
       const t = o.presentValue![v];
       return t ? [`${VARIABLE_NAMES[v]} ${fmt(t.total)}`] : [];
-    }).join(', ')} ${visibleText(moneyUnit)}.`);
+    }).join(', ')} ${unit}.`);
   }
   return lines;
 }
@@ -213,7 +214,6 @@ export const scenario = defineCommand({
       ...(values['margin-step'] !== undefined ? { marginStep: values['margin-step'] } : {}),
       flq: flq ? { origin: flq.origin, range: flq.range } : null,
     }) : null;
-    const names = { output: 'output', valueAdded: 'value added', income: 'labour income', employment: 'employment' };
     const files = await deliverableFiles(ps, outcome, values, ctx, { bands, sensitivity: sens });
     if (values.project !== undefined) {
       refuseToOverwriteForeign(values.project);
@@ -221,7 +221,7 @@ export const scenario = defineCommand({
     }
     return {
       summary: () => summary(ps, outcome)
-        + (bands ? bands.scenarios.map((b) => `${scenarioBandsSummary(bands, b, names).join('\n')}\n`).join('') : '')
+        + (bands ? bands.scenarios.map((b) => `${scenarioBandsSummary(bands, b).join('\n')}\n`).join('') : '')
         + (sens ? sens.map((x) => `${sensitivitySummary(x, study.table.moneyUnit).join('\n')}\n`).join('') : ''),
       json: () => ({
         ...scenarioJson(ps, outcome),

@@ -5,10 +5,11 @@
  */
 import {
   beginStudyBands, cvProblem, defaultUncertaintySettings, deltaRangeProblem, flqOriginOf, DEFAULT_FLQ_DELTA, DEFAULT_MARGIN_STEP, drawsProblem, parseCvCsv, seedProblem, shareRangeProblem,
-  visibleText, DEFAULT_CV, DEFAULT_SEED, DEFAULT_SHARE_STEP,
+  visibleText, DEFAULT_CV, DEFAULT_SEED, DEFAULT_SHARE_STEP, VARIABLE_NAMES, VARIABLES,
   type BandsRequest, type BandsRun, type FlqOrigin, type PreparedStudy, type IOTable, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
 } from '../../study/index.ts';
 import type { RunContext } from '../command.ts';
+import { textTable } from '../terminal.ts';
 import { drawThreadsWorthIt, finishBandsThreaded, startDrawHelpers, stopDrawHelpers } from '../draw-pool.ts';
 
 /**
@@ -115,14 +116,14 @@ export function uncertaintySettingsOf(values: Values, ctx: RunContext): Uncertai
 
 const fmt = (v: number | null | undefined) => (v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
 
-/** Summary lines of a scenario's bands: each variable's total with its 5th–95th percentile range. */
-export function scenarioBandsSummary(r: UncertaintyResult, s: ScenarioBands, names: Record<string, string>): string[] {
+/** Summary lines of a scenario's bands: each variable's total with its 5th–95th percentile range, named as in reports. */
+export function scenarioBandsSummary(r: UncertaintyResult, s: ScenarioBands): string[] {
   const lines = ['', `How sure: Monte Carlo bands from ${r.draws} draws (seed ${r.settings.seed}, CV ${r.settings.cv}${r.settings.cvFile ? ` and ${visibleText(r.settings.cvFile)}` : ''}); ${r.accepted} accepted, ${r.rejected} left out.`];
-  lines.push(['', 'point', 'p5', 'p50', 'p95', 'mean'].map((c, k) => (k === 0 ? c.padEnd(14) : c.padStart(12))).join(''));
-  for (const [v, b] of Object.entries(s.totals)) {
-    if (!b) continue;
-    lines.push([names[v]!.padEnd(14), ...[b.point, b.p5, b.p50, b.p95, b.mean].map((x) => fmt(x).padStart(12))].join(''));
-  }
+  const rows = VARIABLES.flatMap((v) => {
+    const b = s.totals[v];
+    return b ? [[VARIABLE_NAMES[v], ...[b.point, b.p5, b.p50, b.p95, b.mean].map(fmt)]] : [];
+  });
+  lines.push(textTable(['', 'point', 'p5', 'p50', 'p95', 'mean'], rows));
   for (const n of r.notes.slice(2)) lines.push(visibleText(n));
   return lines;
 }

@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Papa from 'papaparse';
 import { runCli } from '../../support/cli.ts';
-import { readWorkbook } from '../../support/deliverables.ts';
+import { readWorkbook, sampleWithTaxesAndFte } from '../../support/deliverables.ts';
 
 const TABLE = 'sample-data/fernhollow-county.csv';
 const dir = mkdtempSync(join(tmpdir(), 'roundwise-unc-'));
@@ -59,6 +59,28 @@ describe('scenario --draws', () => {
     const about = readFileSync(join(out, 'fernhollow-food-plant-bands.about.txt'), 'utf8');
     expect(about).toMatch(/Monte Carlo bands from 40 draws \(seed 1\)/);
     expect(about).toMatch(/Estimates, not forecasts/);
+  });
+});
+
+describe('scenario --draws and --sensitivity on a table with taxes and full-time equivalents', () => {
+  it('bands every variable the scenario has, each named and in its own unit, in the summary and in --out', async () => {
+    const table = join(dir, 'taxes-fte.csv');
+    writeFileSync(table, sampleWithTaxesAndFte().text);
+    const out = join(dir, 'bands-taxes-fte');
+    const r = await runCli(['scenario', table, '--shock', SHOCK, '--draws', '20', '--sensitivity', '--out', out]);
+    expect(r.err).toBe('');
+    expect(r.code).toBe(0);
+    const bandsTable = r.out.slice(r.out.indexOf('How sure: Monte Carlo bands'));
+    for (const name of ['output', 'value added', 'labour income', 'employment', 'taxes less subsidies', 'full-time equivalents']) {
+      expect(bandsTable, name).toMatch(new RegExp(`^${name} +[-\\d.]+ +[-\\d.]+`, 'm'));
+    }
+    const csv = Papa.parse<string[]>(readFileSync(join(out, 'fernhollow-food-plant-bands.csv'), 'utf8').replace(/^\uFEFF/, ''), { skipEmptyLines: true }).data;
+    const unitOf = (variable: string) => new Set(csv.filter((row) => row[2] === variable).map((row) => row[4]));
+    expect(unitOf('full-time equivalents')).toEqual(new Set(['FTE']));
+    expect(unitOf('employment')).toEqual(new Set(['jobs']));
+    expect(unitOf('taxes less subsidies')).toEqual(new Set(['thousand dollars']));
+    const sens = Papa.parse<string[]>(readFileSync(join(out, 'fernhollow-food-plant-sensitivity.csv'), 'utf8').replace(/^\uFEFF/, ''), { skipEmptyLines: true }).data;
+    expect(sens[0]).toContain('full-time equivalents at low (FTE)');
   });
 });
 

@@ -6,8 +6,7 @@ import { describe, expect, it } from 'vitest';
 import {
   CAUTIONS, SCENARIO_CAUTIONS, scenarioJson, studyBrief, studyBriefDocument, VARIABLES, documentText, parseShockCsv, prepareStudy, runStudyScenario, studyFromTableFile,
 } from '../../../src/study/index.ts';
-import { readFileSync } from 'node:fs';
-import { fonts, pdfWords, poppler, SAMPLE_TABLE, sampleStudy } from '../../support/deliverables.ts';
+import { fonts, pdfWords, poppler, sampleStudy, sampleWithTaxesAndFte } from '../../support/deliverables.ts';
 
 const date = '2026-12-02T09:30:00.000Z';
 const { ps, o } = sampleStudy();
@@ -79,16 +78,9 @@ describe('characters the font lacks', () => {
 
 describe('a table with taxes and full-time equivalents', () => {
   it('adds FTE and taxes rows to each phase\'s headline, with their shares of the county', async () => {
-    // The sample with 12 % of other value added moved to a taxes row and FTE at 86 % of jobs (invented).
-    const rows = readFileSync(SAMPLE_TABLE, 'utf8').trimEnd().split(/\r?\n/).map((l) => l.split(','));
-    const ova = rows.findIndex((r) => r[0] === 'Other value added');
-    const tax = ['Taxes on production', ...rows[ova]!.slice(1).map((v, k) => { const t = Math.round(Number(v) * 12) / 100; rows[ova]![k + 1] = String(Number(v) - t); return String(t); })];
-    rows.splice(ova + 1, 0, tax);
-    const jobs = rows.findIndex((r) => r[0] === 'Employment (jobs)');
-    const fteRow = ['Full-time equivalents', ...rows[jobs]!.slice(1).map((v) => String(Math.round(Number(v) * 0.86)))];
-    rows.splice(jobs + 1, 0, fteRow);
+    const { text: csv, fte } = sampleWithTaxesAndFte();
     const scenario = parseShockCsv('sector,amount,note\nConstruction,100000,road\n', 'road.csv');
-    const study = studyFromTableFile(Buffer.from(rows.map((r) => r.join(',')).join('\n')), 'taxes.csv', {}, { scenarios: [scenario] });
+    const study = studyFromTableFile(Buffer.from(csv), 'taxes.csv', {}, { scenarios: [scenario] });
     const p = prepareStudy(study, { spectrum: false });
     const out = runStudyScenario(p, scenario, { paths: null });
     const text = pdfWords(await studyBrief(p, out, { date, paper: 'a4', fonts }));
@@ -97,7 +89,7 @@ describe('a table with taxes and full-time equivalents', () => {
     expect(text).toContain(`Full-time equivalents ${[f.direct, f.indirect, f.induced!, f.total].map((x) => en(Math.round(x))).join(' ')}`);
     const x = t.taxes!;
     expect(text).toContain(`Taxes less subsidies (thousand dollars) ${[x.direct, x.indirect, x.induced!, x.total].map(sig3).join(' ')}`);
-    const countyFte = fteRow.slice(1, 1 + p.study.table.n).reduce((a, v) => a + Number(v), 0);
+    const countyFte = fte.slice(0, p.study.table.n).reduce((a, v) => a + v, 0);
     expect(text).toContain(`${en(Math.round(f.total))} full-time equivalents (${((f.total / countyFte) * 100).toFixed(1)} % of county full-time equivalents)`);
   });
 });

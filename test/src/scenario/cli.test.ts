@@ -10,6 +10,7 @@ import Papa from 'papaparse';
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
 import { prepareStudy, runStudyScenario, studyFromProjectFile } from '../../../src/study/index.ts';
 import { runCli } from '../../support/cli.ts';
+import { sampleWithTaxesAndFte } from '../../support/deliverables.ts';
 
 const fx = (name: string) => fileURLToPath(new URL(`../../fixtures/scenario/${name}`, import.meta.url));
 
@@ -159,3 +160,26 @@ describe('roundwise scenario', () => {
     expect(out).toMatch(/Mills > Farms/);
   });
 });
+
+describe('roundwise scenario: an annual phase over years on a table with taxes and full-time equivalents', () => {
+  it('states every variable\'s cumulative effect in its own unit, and the present value of every money variable', async () => {
+    const own = mkdtempSync(join(tmpdir(), 'roundwise-taxes-fte-'));
+    const table = join(own, 'taxes-fte.csv');
+    writeFileSync(table, sampleWithTaxesAndFte().text);
+    const args = [table, '--shock', 'sample-data/fernhollow-food-plant.csv', '--discount-rate', '0.035'];
+    const text = await cli(...args);
+    expect(text.code, text.err).toBe(0);
+    const j = JSON.parse((await cli(...args, '--json')).out);
+    const annual = j.phases.find((p: { timing: string }) => p.timing === 'annual');
+    const fmt = (v: number) => (Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4)); // the summary's number format
+    const over = text.out.split('\n').find((l) => l.startsWith('Over 20 years'))!;
+    const units: Record<string, string> = { output: 'thousand dollars', valueAdded: 'thousand dollars', income: 'thousand dollars', employment: 'job-years', taxes: 'thousand dollars', fte: 'FTE-years' };
+    const names: Record<string, string> = { output: 'output', valueAdded: 'value added', income: 'labour income', employment: 'employment', taxes: 'taxes less subsidies', fte: 'full-time equivalents' };
+    for (const v of Object.keys(units)) expect(over, v).toContain(`${names[v]} ${fmt(annual.cumulative[v].total)} ${units[v]}`);
+    const pv = text.out.split('\n').find((l) => l.startsWith('Present value at 0.035'))!;
+    for (const v of ['output', 'valueAdded', 'income', 'taxes']) expect(pv, v).toContain(`${names[v]} ${fmt(annual.presentValue[v].total)}`);
+    expect(pv).not.toMatch(/employment|full-time/); // no present value of head counts
+    rmSync(own, { recursive: true, force: true });
+  });
+});
+
