@@ -13,7 +13,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import Papa from 'papaparse';
 import {
-  csvFileText, prepareStudy, runStudyScenario, studyFromTableFile, utf8Bytes, writeTableCsv, type Scenario, type ScenarioLine,
+  csvFileText, prepareStudy, runStudyScenario, studyFromTableFile, utf8Bytes, VARIABLES, writeTableCsv, type Scenario, type ScenarioLine,
 } from '../../../src/study/index.ts';
 import { api } from '../../../renderer/worker/compute.ts';
 import { tableFromParts } from '../../support/io-table.ts';
@@ -39,9 +39,11 @@ const tableArb = fc.integer({ min: 2, max: 6 }).chain((n) => fc.record({
   flows: fc.array(fc.double({ min: 0, max: 1, noNaN: true }), { minLength: n * n, maxLength: n * n }),
   x: fc.array(fc.integer({ min: 200, max: 9000 }), { minLength: n, maxLength: n }),
   hh: fc.array(fc.double({ min: 0.05, max: 0.4, noNaN: true }), { minLength: n, maxLength: n }),
+  taxesAndFte: fc.boolean(),
 }));
 
-function tableCsv(t: { n: number; flows: number[]; x: number[]; hh: number[] }): string {
+/** The table as CSV; with `taxesAndFte`, a tenth of other value added is a taxes row and FTE are 80 % of jobs. */
+function tableCsv(t: { n: number; flows: number[]; x: number[]; hh: number[]; taxesAndFte: boolean }): string {
   const { n, x } = t;
   const Z = Array.from({ length: n }, (_, i) => Array.from({ length: n }, (_, j) => Math.round((0.5 / n) * t.flows[i * n + j]! * x[j]! * 100) / 100));
   const inputs = x.map((_, j) => Z.reduce((s, r) => s + r[j]!, 0));
@@ -54,6 +56,12 @@ function tableCsv(t: { n: number; flows: number[]; x: number[]; hh: number[] }):
   const table = tableFromParts({ sectors: Array.from({ length: n }, (_, i) => `Sector ${i + 1}`), Z, x, labour, otherVA, imports, employment: x.map((v) => Math.round(v / 40)), households, otherFD }, {
     name: 'random county (invented)', labourLabel: 'Compensation of employees', otherFDLabel: 'Exports', moneyUnit: 'thousand dollars',
   });
+  if (t.taxesAndFte) {
+    const taxes = otherVA.map((v) => Math.round(v * 10) / 100);
+    table.otherValueAdded = [{ label: 'Other value added', values: Float64Array.from(otherVA, (v, j) => Math.round((v - taxes[j]!) * 100) / 100) }];
+    table.taxes = [{ label: 'Taxes on production', values: Float64Array.from(taxes) }];
+    table.fte = Float64Array.from(table.employment!, (e) => Math.round(e * 0.8));
+  }
   return writeTableCsv(table);
 }
 
@@ -121,7 +129,10 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
         expect(cli.code, cli.err).toBe(0);
         const json = JSON.parse(cli.out);
         expect(json.closure).toBe(r.closure);
-        for (const v of ['output', 'valueAdded', 'income', 'employment'] as const) {
+        // Every variable the table has (taxes and FTE with their rows), every part.
+        const vars = VARIABLES.filter((v) => r.effects[v] !== null);
+        expect(vars.includes('taxes') && vars.includes('fte')).toBe(t.taxesAndFte);
+        for (const v of vars) {
           for (const p of ['direct', 'indirect', 'induced', 'total'] as const) {
             const mine = r.effects[v]![p];
             if (mine === null) expect(json.effects[v][p]).toBeNull();
@@ -141,12 +152,21 @@ describe('the study layer, the CLI and the app worker give the same numbers', ()
         const choices = { closure, destination: dest };
         const view = api.runScenario({ scenario, choices }).phases[0]!;
         expect(view.closure).toBe(r.closure);
-        same(view.effects.output!.total, Array.from(r.effects.output.total), 'worker view output total');
-        same(view.effects.income!.indirect, Array.from(r.effects.income.indirect), 'worker view income indirect');
-        expect(view.effects.output!.totals.induced).toBe(r.totals.output.induced);
+        expect(VARIABLES.filter((v) => view.effects[v] !== null)).toEqual(vars);
+        for (const v of vars) {
+          const e = r.effects[v]!, shown = view.effects[v]!;
+          for (const p of ['direct', 'indirect', 'total'] as const) same(shown[p], Array.from(e[p]), `worker view ${v}.${p}`);
+          if (e.induced === null) expect(shown.induced, `worker view ${v}.induced`).toBeNull();
+          else same(shown.induced!, Array.from(e.induced), `worker view ${v}.induced`);
+          same([shown.totals.direct, shown.totals.indirect, shown.totals.induced, shown.totals.total],
+            [r.totals[v]!.direct, r.totals[v]!.indirect, r.totals[v]!.induced, r.totals[v]!.total], `worker view ${v} totals`);
+        }
+        same(view.rounds.map((x) => x.output), o.rounds.roundTotals.slice(0, view.rounds.length), 'worker view rounds');
         const pv = api.paths({ scenario, choices });
         expect(pv.destination).toBe(dest);
         expect(relBetween(pv.total, view.effects.output!.total[j]!)).toBeLessThanOrEqual(1e-12);
+        expect(pv.paths.map((p) => p.labels)).toEqual(o.paths!.paths.map((p) => p.labels));
+        same(pv.paths.map((p) => p.contribution), o.paths!.paths.map((p) => p.contribution), 'worker paths');
         const exported = api.report({ kind: 'scenario-impact', scenario, scenarios: [scenario], choices });
         same(column(csvRows(exported[0]!.content), 'output total (thousand dollars)'), Array.from(r.effects.output.total), 'worker export impact');
         // The CLI writes the byte-order mark the app's export adds when it saves (csvFileText).
