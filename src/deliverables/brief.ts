@@ -73,7 +73,7 @@ export interface BriefInput {
 
 type HeadlineVariable = 'employment' | 'fte' | 'income' | 'valueAdded' | 'output' | 'taxes';
 
-interface HeadlineRow {
+export interface HeadlineRow {
   v: HeadlineVariable;
   label: string;
   q: Quantity;
@@ -86,7 +86,8 @@ interface HeadlineRow {
 }
 
 /** The headline rows in the order a council reads them (jobs first); FTE and taxes only when the table has them. */
-const HEADLINE: readonly HeadlineRow[] = [
+/** The brief's variables in the order and words it uses everywhere (headline, tables, the How sure sentence). */
+export const HEADLINE: readonly HeadlineRow[] = [
   { v: 'employment', label: 'Jobs', q: 'jobs', noun: 'jobs', county: 'county jobs', sheet: 'jobs' },
   { v: 'fte', label: 'Full-time equivalents', q: 'jobs', noun: 'full-time equivalents', county: 'county full-time equivalents', sheet: 'full-time equivalents' },
   { v: 'income', label: 'Labour income', q: 'money', county: 'county labour income', sheet: 'labour income' },

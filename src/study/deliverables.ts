@@ -4,7 +4,7 @@
  * the same documents. The typesetting and the spreadsheet writing are src/deliverables'.
  */
 import {
-  briefDocument, briefPdf, councilNumber, headlineRows, workbookXlsx, type BaseEconomy, type BriefDocument, type BriefFonts, type BriefInput, type BriefPhase,
+  briefDocument, briefPdf, councilNumber, HEADLINE, headlineRows, workbookXlsx, type BaseEconomy, type BriefDocument, type BriefFonts, type BriefInput, type BriefPhase,
   type Paper, type WorkbookSheet,
 } from '../deliverables/index.ts';
 import { CAUTIONS, modelTypeOf, originLines, SCENARIO_CAUTIONS, timingText, type ReportFile } from '../report/index.ts';
@@ -28,10 +28,9 @@ export interface HowSure {
 export function bandSentences(r: UncertaintyResult, scenario: string): string[] {
   const s = r.scenarios.find((x) => x.scenario === scenario);
   if (!s) return [];
-  const names = { employment: ['jobs', 'jobs'], income: ['labour income', 'money'], valueAdded: ['value added', 'money'], output: ['output', 'money'] } as const;
-  const parts = (['employment', 'income', 'valueAdded', 'output'] as const).flatMap((v) => {
-    const b = s.totals[v];
-    return b ? [`${names[v][0]} ${councilNumber(b.point, names[v][1])} (${councilNumber(b.p5, names[v][1])} to ${councilNumber(b.p95, names[v][1])})`] : [];
+  const parts = HEADLINE.flatMap((h) => {
+    const b = s.totals[h.v];
+    return b ? [`${h.sheet} ${councilNumber(b.point, h.q)} (${councilNumber(b.p5, h.q)} to ${councilNumber(b.p95, h.q)})`] : [];
   });
   if (!parts.length) return [];
   return [`How sure: redrawing the table ${r.draws} times with independent errors of ${Math.round(r.settings.cv * 100)} % on every coefficient (seed ${r.settings.seed}; ${r.rejected} draws left out as unusable), the total effects and the range holding 90 % of the draws (5th to 95th percentile) are: ${parts.join('; ')}. The estimates themselves are the ones above; the ranges reflect only the errors assumed.`];

@@ -18,9 +18,11 @@ export const SAMPLE_SHOCK = join(import.meta.dirname, '..', 'fixtures', 'scenari
 
 export const fonts = readBriefFonts();
 
-export function sampleStudy(shockText = readFileSync(SAMPLE_SHOCK, 'utf8')): { ps: PreparedStudy; o: ScenarioOutcome } {
+/** The sample study (or, with `tableText`, the same shock on another table) prepared, and its scenario's outcome. */
+export function sampleStudy(shockText = readFileSync(SAMPLE_SHOCK, 'utf8'), tableText?: string): { ps: PreparedStudy; o: ScenarioOutcome } {
   const scenario = parseShockCsv(shockText, 'fernhollow-food-plant.csv');
-  const study = studyFromTableFile(readFileSync(SAMPLE_TABLE), 'fernhollow-county.csv', {}, { scenarios: [scenario] });
+  const table = tableText === undefined ? readFileSync(SAMPLE_TABLE) : Buffer.from(tableText);
+  const study = studyFromTableFile(table, tableText === undefined ? 'fernhollow-county.csv' : 'variant.csv', {}, { scenarios: [scenario] });
   const ps = prepareStudy(study, { spectrum: false });
   return { ps, o: runStudyScenario(ps, scenario, { paths: null }) };
 }

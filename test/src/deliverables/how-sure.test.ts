@@ -2,9 +2,9 @@
 // as the band reports (the workbook read back by SheetJS, the brief's content as text).
 import { describe, expect, it } from 'vitest';
 import {
-  defaultUncertaintySettings, documentText, studyBands, studyBriefDocument, studySensitivity, studyWorkbook,
+  councilNumber, defaultUncertaintySettings, documentText, studyBands, studyBriefDocument, studySensitivity, studyWorkbook,
 } from '../../../src/study/index.ts';
-import { readWorkbook, sampleStudy } from '../../support/deliverables.ts';
+import { readWorkbook, sampleStudy, sampleWithTaxesAndFte } from '../../support/deliverables.ts';
 
 const { ps, o } = sampleStudy();
 const date = '2026-12-02T05:30:00.000Z';
@@ -27,5 +27,16 @@ describe('deliverables with How sure?', () => {
     const text = documentText(studyBriefDocument(ps, o, date, { bands })).join('\n');
     expect(text).toMatch(/How sure: redrawing the table 60 times with independent errors of 10 % on every coefficient \(seed 9; 0 draws left out/);
     expect(documentText(studyBriefDocument(ps, o, date)).join('\n')).not.toMatch(/How sure/);
+  });
+
+  it('the brief\'s range sentence covers taxes and full-time equivalents when the table has them', () => {
+    const { ps: p2, o: o2 } = sampleStudy(undefined, sampleWithTaxesAndFte().text);
+    const b2 = studyBands(p2, { settings: defaultUncertaintySettings({ draws: 30, seed: 9 }), multipliers: false, scenarios: [o2.scenario] })!;
+    const text = documentText(studyBriefDocument(p2, o2, date, { bands: b2 })).join(' ').replace(/\s+/g, ' ');
+    const sentence = text.slice(text.indexOf('How sure: redrawing'));
+    const t = b2.scenarios[0]!.totals;
+    expect(sentence).toContain(`full-time equivalents ${councilNumber(t.fte!.point, 'jobs')} (${councilNumber(t.fte!.p5, 'jobs')} to ${councilNumber(t.fte!.p95, 'jobs')})`);
+    expect(sentence).toContain(`taxes less subsidies ${councilNumber(t.taxes!.point, 'money')} (`);
+    expect(sentence).toContain(`jobs ${councilNumber(t.employment!.point, 'jobs')} (`);
   });
 });
