@@ -5,7 +5,7 @@
  * scenario and export operations and gathers every module's into one `api`. Runs under Node in test/renderer too.
  */
 import {
-  buildReport, filesOnly, InputError, luInverse, parseShockCsv, readyLines, REPORTS, reportUnavailable, runStudyScenario, SAMPLE_SHOCK_CSV,
+  buildReport, filesOnly, InputError, parseShockCsv, readyLines, REPORTS, reportUnavailable, runStudyScenario, SAMPLE_SHOCK_CSV, studyLeontief,
   SAMPLE_SHOCK_FILE_NAME, scenarioSlug, spreadMix, studyBrief, studyBriefDocument, studyWorkbook,
   type BriefDocument, type BriefFonts, type Paper, type PreparedStudy, type ReportFile, type ReportKind, type Scenario, type ScenarioLine, type SpendingMix,
 } from '../../src/study/index.ts';
@@ -47,8 +47,8 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
   else if (args.which === 'A') values = Float64Array.from(pm.coef.A);
   else {
     if (models.open !== true) throw new InputError('not-productive', `the Leontief inverse is not shown: ${models.open}`);
-    // The explicit inverse only when the grid is asked for: the blocked inverse on the existing factorisation.
-    values = luInverse(pm.openLU);
+    // The study's explicit inverse, formed only when the grid is asked for: the one the Leontief-inverse report exports.
+    values = studyLeontief(ps).L;
   }
   let max = 0;
   for (let k = 0; k < values.length; k++) if (values[k]! > max) max = values[k]!;

@@ -4,7 +4,7 @@
  * number comes from the prepared study (src/study).
  */
 import {
-  formatLocated, linkageClass, matchKey, ROW_ROLES, COLUMN_ROLES, type TablePreview, MEASURES, measureValues, unitDemandRounds, shockInputsOf, VARIABLES,
+  formatLocated, linkageClass, matchKey, ROW_ROLES, COLUMN_ROLES, type TablePreview, MEASURES, measureValues, unitDemandRounds, shockInputsOf, studyCoefficientRows, VARIABLES,
   type ModeKind, type PreparedStudy, type ScenarioOutcome, type PhaseOutcome, type Study, type EffectSplit, type EffectTotals, type ScenarioMultiplier,
   type Variable, type PathAnalysis, type TotalsRecord,
 } from '../../src/study/index.ts';
@@ -266,8 +266,9 @@ function columnSums(values: Float64Array, n: number): Float64Array {
 /**
  * The rows and columns around the n×n block, as the table has them: for flows, each final-demand column, total final
  * demand and total output on the right, and below the intermediate inputs, each value-added, taxes and imports row,
- * total output, jobs and FTE; for coefficients the same rows per unit of output (the engine's coefficients); for the
- * Leontief inverse its column sums, the Type I output multipliers. Totals are plain sums of what is shown.
+ * total output, jobs and FTE; for coefficients the same rows per unit of output (the study's coefficient rows); for
+ * the Leontief inverse the analysis' Type I output multipliers (its column sums). Other totals are plain sums of what
+ * is shown.
  */
 export function gridMargins(ps: PreparedStudy, which: 'Z' | 'A' | 'L', values: Float64Array): { below: GridMargin[]; right: GridMargin[] } {
   const { table: t } = ps.study;
@@ -275,20 +276,21 @@ export function gridMargins(ps: PreparedStudy, which: 'Z' | 'A' | 'L', values: F
   const n = c.n;
   const unit = t.moneyUnit;
   if (which === 'L') {
-    return { below: [{ label: 'Column sum (Type I output multiplier)', values: columnSums(values, n), style: 'ratio', note: 'output in every sector per unit of final demand for the column’s sector' }], right: [] };
+    // The analysis' Type I output multipliers, the numbers the Multipliers screen and report show (null: not defined).
+    const typeI = Float64Array.from(ps.analysis.multipliers.output.typeI, (v) => v ?? Number.NaN);
+    return { below: [{ label: 'Column sum (Type I output multiplier)', values: typeI, style: 'ratio', note: 'output in every sector per unit of final demand for the column’s sector' }], right: [] };
   }
-  const rows = (list: LabelledVector[] | undefined, what: string) => (list ?? []).map((v) => ({ label: v.label, values: v.values, what }));
-  const vaRows = [...rows(t.labourIncome, 'labour income'), ...rows(t.otherValueAdded, 'other value added'), ...rows(t.taxes, 'taxes less subsidies'), ...rows(t.imports, 'imports')];
   if (which === 'A') {
-    const perOutput = (v: Float64Array) => Float64Array.from(v, (a, j) => (c.x[j]! !== 0 ? a / c.x[j]! : Number.NaN));
     const below: GridMargin[] = [
       { label: 'Column sum (intermediate inputs)', values: columnSums(values, n), style: 'ratio', note: `intermediate inputs per ${unit} of the column’s output` },
-      ...vaRows.map((r) => ({ label: r.label, values: perOutput(r.values), style: 'ratio' as const, note: `${r.what} per ${unit} of output` })),
+      ...studyCoefficientRows(ps).map((r) => ({ label: r.label, values: r.values, style: 'ratio' as const, note: `${r.what} per ${unit} of output` })),
     ];
     if (c.e) below.push({ label: `Jobs per ${unit} of output`, values: c.e, style: 'ratio', note: 'employment coefficient' });
     if (c.fte) below.push({ label: `FTE per ${unit} of output`, values: c.fte, style: 'ratio', note: 'full-time-equivalent coefficient' });
     return { below, right: [] };
   }
+  const rows = (list: LabelledVector[] | undefined, what: string) => (list ?? []).map((v) => ({ label: v.label, values: v.values, what }));
+  const vaRows = [...rows(t.labourIncome, 'labour income'), ...rows(t.otherValueAdded, 'other value added'), ...rows(t.taxes, 'taxes less subsidies'), ...rows(t.imports, 'imports')];
   const fd = [...rows(t.householdConsumption, 'household final demand'), ...rows(t.otherFinalDemand, 'final demand')];
   const totalFd = new Float64Array(n);
   for (const f of fd) for (let i = 0; i < n; i++) totalFd[i] = totalFd[i]! + f.values[i]!;

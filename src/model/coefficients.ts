@@ -46,6 +46,11 @@ function perUnit(v: Float64Array, x: Float64Array): Float64Array {
   return out;
 }
 
+/** Each row per unit of output, as `coefficients` divides (0 where output is 0): the rows one by one, not summed. */
+export function perUnitRows(rows: readonly LabelledVector[], x: Float64Array): LabelledVector[] {
+  return rows.map((v) => ({ ...v, values: perUnit(v.values, x) }));
+}
+
 /** A = Z·diag(x)⁻¹ into `A` (which may be Z itself: each entry depends only on its own flow); 0 where x is 0. */
 function flowsOverOutput(t: IOTable, A: Float64Array): Float64Array {
   const { n, Z, x } = t;

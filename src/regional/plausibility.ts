@@ -12,7 +12,7 @@
  *   to understate regional imports, the reason FLQ was proposed: Flegg, Webber & Elliott 1995, recalled from memory).
  */
 import type { Warning } from '../diagnostics/index.ts';
-import { coefficients, perronRoot, prepareModel, solveOpenTransposed } from '../model/index.ts';
+import { coefficients, decideModels, prepareModel, solveOpenTransposed } from '../model/index.ts';
 import type { IOTable } from '../table/index.ts';
 
 /** Plausible average Type I output multiplier of a county table (common practice, no source; see the file comment). */
@@ -33,14 +33,16 @@ export interface EstimateComparison {
   note: string;
 }
 
-/** Type I output multipliers (column sums of L), or null when the table is not certified productive. */
-function typeIOutput(t: IOTable): Float64Array | null {
+/**
+ * Type I output multipliers (column sums of L), or why there are none: the model layer's one verdict on the table
+ * (decideModels, as the analysis and the study's judgement of the estimate make it), never a test of its own.
+ */
+function typeIOutput(t: IOTable): { m: Float64Array | null; why: string | null } {
   const pm = prepareModel(t, coefficients(t));
-  if (pm.openLU.singular) return null;
-  const A = Float64Array.from(pm.coef.A, Math.abs);
-  if (!(perronRoot(A, t.n, { rightOnly: true }).upper < 1)) return null;
+  const open = decideModels(pm).availability.open;
+  if (open !== true) return { m: null, why: open };
   const m = solveOpenTransposed(pm, new Float64Array(t.n).fill(1));
-  return m.every(Number.isFinite) ? m : null;
+  return m.every(Number.isFinite) ? { m, why: null } : { m: null, why: 'the multipliers are beyond the range of numbers' };
 }
 
 function mean(v: Float64Array | null, present: boolean[]): number | null {
@@ -56,16 +58,18 @@ function fmt(x: number): string {
 
 /** Compare the estimate with its source table; `present[j]` is true for sectors with county jobs. */
 export function compareEstimate(national: IOTable, estimate: IOTable, present: boolean[]): { comparison: EstimateComparison; warning: Warning | null } {
-  const nat = mean(typeIOutput(national), present);
-  const est = mean(typeIOutput(estimate), present);
+  const natM = typeIOutput(national);
+  const estM = typeIOutput(estimate);
+  const nat = mean(natM.m, present);
+  const est = mean(estM.m, present);
   const range: [number, number] = [COUNTY_TYPE_I_RANGE[0], COUNTY_TYPE_I_RANGE[1]];
   const kept = nat !== null && est !== null && nat > 1 ? (est - 1) / (nat - 1) : null;
   const plausible = est === null ? null : est >= range[0] && est <= range[1];
   const sectors = present.filter(Boolean).length;
   const over = `over the ${sectors} sector${sectors === 1 ? '' : 's'} present in the county`;
   const note = est === null
-    ? `The estimate's Type I output multipliers are not defined (the estimated table is not productive), so it cannot be compared with the national table.`
-    : `Average Type I output multiplier ${over}: ${fmt(est)} in the estimate against ${nat === null ? 'none (the national table is not productive)' : fmt(nat)} in the national table${kept === null ? '' : ` (the estimate keeps ${Math.round(kept * 100)} % of the national indirect effect)`}; a plausible county average is ${fmt(range[0])}–${fmt(range[1])} (common practice, no source).`;
+    ? `The estimate's Type I output multipliers are not defined, so it cannot be compared with the national table: ${estM.why ?? 'no sector is present'}.`
+    : `Average Type I output multiplier ${over}: ${fmt(est)} in the estimate against ${nat === null ? `none in the national table, whose multipliers are not defined: ${natM.why ?? 'no sector is present'}` : `${fmt(nat)} in the national table`}${kept === null ? '' : ` (the estimate keeps ${Math.round(kept * 100)} % of the national indirect effect)`}; a plausible county average is ${fmt(range[0])}–${fmt(range[1])} (common practice, no source).`;
   let warning: Warning | null = null;
   if (est !== null && !plausible) {
     const low = est < range[0];

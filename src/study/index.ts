@@ -6,7 +6,7 @@ export {
   studyFromTableFile, studyFromImportedTable, studyFromProjectFile, studyOfTable, projectFileOf, withTable, scenarioNamed, checkStudyInputs,
   type Study, type StudySettings, type StudySource, type ImportSettings, type StudyPrices,
 } from './study.ts';
-export { prepareStudy, restudy, CLOSURE_OFF, type PreparedStudy, type PrepareOptions } from './prepare.ts';
+export { prepareStudy, restudy, studyLeontief, studyCoefficientRows, CLOSURE_OFF, type PreparedStudy, type PrepareOptions } from './prepare.ts';
 export {
   runStudyScenario, readyLines, lineReady, defaultDestination, tracePaths, compareStudyScenarios, shockInputsOf, tableYearOf, studyModelNotes,
   type ScenarioOutcome, type PhaseOutcome, type TimingTotal, type OutcomeOptions,
@@ -24,7 +24,6 @@ export type Closure = import('./study.ts').StudySettings['closure'];
 export { formatLocated, isInputError, InputError, type Location, type Warning } from '../diagnostics/index.ts';
 export { previewTable, previewTableBytes, matchKey, ROW_ROLES, COLUMN_ROLES, type IOTable, type TablePreview, type RoleMap, type Delimiter, type DecimalMark } from '../table/index.ts';
 export { SAMPLE_CSV, SAMPLE_FILE_NAME, SAMPLE_NOTE } from '../table/index.ts';
-export { luInverse } from '../linalg/index.ts';
 export type { ModeKind } from '../model/index.ts';
 export {
   CAUTIONS, SCENARIO_CAUTIONS, MEASURES, measuresOf, measureValues, linkageClass, LINKAGE_CLASS_NAMES, aboutText, modelTypeOf, reachText,

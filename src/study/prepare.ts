@@ -3,9 +3,10 @@
  * scenarios may use. Every result of the study (multipliers, scenarios, rounds, paths, reports) is computed from
  * this, so the CLI and the app cannot assemble the pipeline differently.
  */
-import { analyzePrepared, coefficients, coefficientsOverFlows, modelsForClosure, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
+import { analyzePrepared, coefficients, coefficientsOverFlows, formLeontief, modelsForClosure, perUnitRows, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
 import { residentShares } from '../scenario/index.ts';
 import { verdictOf, type Verdict } from '../report/index.ts';
+import type { IOTable } from '../table/index.ts';
 import type { Study } from './study.ts';
 
 export interface PreparedStudy {
@@ -61,4 +62,25 @@ function sameCommuting(a: Study['commuting'], b: Study['commuting']): boolean {
 
 function finish(study: Study, pm: PreparedModel, analysis: Analysis): PreparedStudy {
   return { study, pm, analysis, verdict: verdictOf(analysis), models: modelsForClosure(analysis.availability, study.settings.closure) };
+}
+
+/**
+ * The study's explicit Leontief inverse L = (I − A)⁻¹ with its accuracy ratio: the analysis' when it formed one, else
+ * formed now (formLeontief). The Leontief-inverse report and the app's grid both take it from here, so the screen and
+ * the export show the same numbers. Only for a productive table (the caller checks `models.open`).
+ */
+export function studyLeontief(ps: PreparedStudy): { L: Float64Array; residual: number | null } {
+  const an = ps.analysis;
+  return an.leontief ? { L: an.leontief, residual: an.checks.inverseResidual } : formLeontief(ps.pm);
+}
+
+/**
+ * The table's value-added, taxes and import rows per unit of output, each row as the table has it (the analysis sums
+ * rows of one kind), divided as the engine's coefficients are: the Table screen's coefficient grid shows these.
+ */
+export function studyCoefficientRows(ps: PreparedStudy): { label: string; what: string; values: Float64Array }[] {
+  const t = ps.study.table;
+  const x = ps.pm.coef.x;
+  const of = (rows: IOTable['labourIncome'] | undefined, what: string) => perUnitRows(rows ?? [], x).map((v) => ({ ...v, what }));
+  return [...of(t.labourIncome, 'labour income'), ...of(t.otherValueAdded, 'other value added'), ...of(t.taxes, 'taxes less subsidies'), ...of(t.imports, 'imports')];
 }

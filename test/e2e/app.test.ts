@@ -184,6 +184,8 @@ describe.skipIf(skipBrowser)('Roundwise in the browser', () => {
     await go('structure');
     await page.getByTestId('spectrum-table').waitFor();
     expect(await page.getByTestId('rounds99').textContent()).toMatch(/\d/);
+    // The Perron root is the long-run ratio of successive rounds, not a rate the first rounds keep.
+    expect(await page.getByTestId('spectrum-note').textContent()).toMatch(/The largest, the Perron root, is\s+the ratio of one round to the round before in the long run; the first rounds can shrink faster or slower/);
     await shot(page, '07-structure');
   });
 

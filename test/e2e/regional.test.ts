@@ -15,6 +15,7 @@ import { writeTableCsv } from '../../src/table/index.ts';
 import { analyzeTable } from '../../src/model/index.ts';
 import { prepareModel } from '../../src/model/index.ts';
 import { runScenario } from '../support/scenario.ts';
+import { prepareStudy, studyOfTable } from '../../src/study/index.ts';
 import { aggregateTable, balanceTable, flqLambda, parseEmploymentCsv, parseGroupMapping, regionalize } from '../../src/regional/index.ts';
 import { EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, GROUPS_SAMPLE_CSV, GROUPS_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME } from '../../src/regional/index.ts';
 
@@ -82,6 +83,8 @@ describe.skipIf(skipBrowser)('Start from a larger table, in the browser', () => 
     expect(await page.getByTestId('regional-absent-count').locator('.value').textContent()).toBe(String(expected.absent.length));
     const perron = analyzeTable(expected.table).viability.perronRoot;
     expect((await page.getByTestId('regional-perron').locator('.value').textContent())?.trim()).toBe(ratio(perron));
+    // The card words the verdict as the study does (one wording for every screen and file).
+    expect(await page.getByTestId('regional-perron').locator('.sub').textContent()).toBe(prepareStudy(studyOfTable(expected.table), { spectrum: false }).verdict.say);
     await shot(page, 'regional-01-estimate');
     await page.getByTestId('regional-coefficients').scrollIntoViewIfNeeded();
     // National a and regional r side by side, on one scale.

@@ -10,6 +10,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { money, openApp, rowCell, shot, skipBrowser, type Session } from './harness.ts';
 import { deriveSymmetric, readSupplyUse, SUPPLY_SAMPLE_CSV, SUPPLY_SAMPLE_FILE_NAME, USE_SAMPLE_CSV, USE_SAMPLE_FILE_NAME } from '../../src/sut/index.ts';
+import { prepareStudy, studyOfTable } from '../../src/study/index.ts';
 
 let s: Session;
 let page: Page;
@@ -44,6 +45,8 @@ describe.skipIf(skipBrowser)('Start from supply and use tables, in the browser',
       expect(await cell(t.sectors[j]!, 5)).toBe(money(fd(j)));
     }
     expect(await page.getByTestId('sut-negatives').textContent()).toMatch(/Negative flows\s*0\s*none/);
+    // The Perron root's card words the verdict as the study does (one wording for every screen and file).
+    expect(await page.getByTestId('sut-perron').locator('.sub').textContent()).toBe(prepareStudy(studyOfTable(t), { spectrum: false }).verdict.say);
     expect(await page.getByTestId('sut-notes').textContent()).toMatch(/Manual of Supply, Use and Input-Output Tables, 2008/);
     expect(await page.getByTestId('sut-accept').isEnabled()).toBe(true);
     await shot(page, 'supply-use-default');

@@ -10,8 +10,10 @@ import { isInputError } from '../../../src/diagnostics/index.ts';
 import { coefficients } from '../../../src/model/index.ts';
 import {
   balanceTable, COUNTY_TYPE_I_RANGE, EMPLOYMENT_SAMPLE_CSV, EMPLOYMENT_SAMPLE_FILE_NAME, NATIONAL_SAMPLE_CSV, NATIONAL_SAMPLE_FILE_NAME,
-  parseEmploymentCsv, RasConvergenceError, regionalize,
+  compareEstimate, parseEmploymentCsv, RasConvergenceError, regionalize,
 } from '../../../src/regional/index.ts';
+import { prepareStudy, studyOfTable } from '../../../src/study/index.ts';
+import { buildTable } from './build-table.ts';
 import { importTable, type IOTable } from '../../../src/table/index.ts';
 import { buildRegional } from '../../../renderer/worker/regional.ts';
 import { runCli } from '../../support/cli.ts';
@@ -46,6 +48,26 @@ describe('regional estimate plausibility', () => {
     expect(c.plausibleRange).toEqual([...COUNTY_TYPE_I_RANGE]);
     expect(res.notes).toContain(c.note);
     expect(c.note).toMatch(new RegExp(`^Average Type I output multiplier over the 16 sectors present in the county: ${mean(est).toFixed(2)} in the estimate against ${mean(nat).toFixed(2)} in the national table`));
+  });
+
+  it('an estimate is compared only when the study\'s verdict calls it productive, and the note gives the verdict\'s reason', () => {
+    // Invented 2×2 tables (value added and final demand left out: only A matters here). Column sums of A: 0.4 and 0.3
+    // (productive); 1.1 (not productive, Perron root 1.1); 1 with A = 0.5 everywhere (Perron root exactly 1, I − A
+    // singular). The reasons are the study's own (`models.open`), so one verdict and one wording decide both.
+    const two = (z: number[][]) => buildTable({ sectors: ['A', 'B'], Z: z, x: [100, 100] });
+    const productive = two([[10, 20], [30, 10]]);
+    for (const estimate of [productive, two([[60, 50], [50, 60]]), two([[50, 50], [50, 50]])]) {
+      const ps = prepareStudy(studyOfTable(estimate), { spectrum: false });
+      const { comparison: c } = compareEstimate(productive, estimate, [true, true]);
+      expect(c.estimateAverageTypeI === null).toBe(ps.verdict.productive !== true);
+      if (ps.models.open === true) {
+        const m = ps.analysis.multipliers.output.typeI as number[];
+        expect(c.estimateAverageTypeI).toBe((m[0]! + m[1]!) / 2);
+      } else {
+        expect(c.note).toBe(`The estimate's Type I output multipliers are not defined, so it cannot be compared with the national table: ${ps.models.open}.`);
+      }
+    }
+    expect(compareEstimate(two([[60, 50], [50, 60]]), productive, [true, true]).comparison.note).toMatch(/against none in the national table, whose multipliers are not defined: the table is not productive/);
   });
 
   it('FLQ on the sample county keeps a tenth of the national indirect effect (1.06 against 1.64): warned with the numbers; SLQ and CILQ are not', () => {
