@@ -99,16 +99,13 @@ export function leontiefRows(an: Analysis): Cell[][] | null {
   if (!L) return null;
   const { n, sectors } = an;
   const rows: Cell[][] = [['output of sector \\ per unit of final demand for', ...sectors]];
-  const sums = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const row: Cell[] = [sectors[i]!];
-    for (let j = 0; j < n; j++) {
-      row.push(L[i * n + j]!);
-      sums[j] = sums[j]! + L[i * n + j]!;
-    }
+    for (let j = 0; j < n; j++) row.push(L[i * n + j]!);
     rows.push(row);
   }
-  rows.push(['total (output multiplier)', ...Array.from(sums)]);
+  // The column sums are the Type I output multipliers: the analysis' own, as the multipliers report and the app show them.
+  rows.push(['total (output multiplier)', ...an.multipliers.output.typeI]);
   return rows;
 }
 

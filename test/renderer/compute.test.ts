@@ -369,6 +369,9 @@ describe('grid margins around the matrix (Table screen)', () => {
       expect(rows[i + 1]![0]).toBe(ref.sectors[i]);
       for (let j = 0; j < ref.n; j++) expect(Number(rows[i + 1]![j + 1])).toBe(g.values[i * ref.n + j]);
     }
+    // The report's total row and the grid's margin are both the analysis' Type I output multipliers.
+    expect(rows[ref.n + 1]![0]).toBe('total (output multiplier)');
+    expect(rows[ref.n + 1]!.slice(1, ref.n + 1).map(Number)).toEqual(row(g, 'Column sum (Type I output multiplier)'));
   });
 
   it('flows: final demand and total output to the right, value added, imports, total output and jobs below, as the table has them', () => {
