@@ -48,7 +48,7 @@ function grid(args: { which: 'Z' | 'A' | 'L' }): GridView {
   else {
     if (models.open !== true) throw new InputError('not-productive', `the Leontief inverse is not shown: ${models.open}`);
     // The study's explicit inverse, formed only when the grid is asked for: the one the Leontief-inverse report exports.
-    values = studyLeontief(ps).L;
+    values = studyLeontief(ps);
   }
   let max = 0;
   for (let k = 0; k < values.length; k++) if (values[k]! > max) max = values[k]!;

@@ -3,7 +3,7 @@
  * scenarios may use. Every result of the study (multipliers, scenarios, rounds, paths, reports) is computed from
  * this, so the CLI and the app cannot assemble the pipeline differently.
  */
-import { analyzePrepared, coefficients, coefficientsOverFlows, formLeontief, modelsForClosure, perUnitRows, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
+import { analyzePrepared, coefficients, coefficientsOverFlows, leontiefOf, modelsForClosure, perUnitRows, prepareModel, CLOSURE_OFF, type Analysis, type AnalysisOptions, type Availability, type PreparedModel } from '../model/index.ts';
 import { residentShares } from '../scenario/index.ts';
 import { verdictOf, type Verdict } from '../report/index.ts';
 import type { IOTable } from '../table/index.ts';
@@ -65,13 +65,13 @@ function finish(study: Study, pm: PreparedModel, analysis: Analysis): PreparedSt
 }
 
 /**
- * The study's explicit Leontief inverse L = (I − A)⁻¹ with its accuracy ratio: the analysis' when it formed one, else
- * formed now (formLeontief). The Leontief-inverse report and the app's grid both take it from here, so the screen and
- * the export show the same numbers. Only for a productive table (the caller checks `models.open`).
+ * The study's explicit Leontief inverse L = (I − A)⁻¹: the analysis' when it formed one, else formed now on the same
+ * factorisation (leontiefOf, which formLeontief uses too), so the app's grid and the exported report show the same
+ * numbers. Without the accuracy ratio: the report computes that (formLeontief), a screen has no use for it. Only for a
+ * productive table (the caller checks `models.open`).
  */
-export function studyLeontief(ps: PreparedStudy): { L: Float64Array; residual: number | null } {
-  const an = ps.analysis;
-  return an.leontief ? { L: an.leontief, residual: an.checks.inverseResidual } : formLeontief(ps.pm);
+export function studyLeontief(ps: PreparedStudy): Float64Array {
+  return ps.analysis.leontief ?? leontiefOf(ps.pm);
 }
 
 /**

@@ -4,12 +4,13 @@
  * file names, headers and sidecars.
  */
 import { InputError } from '../diagnostics/index.ts';
+import { formLeontief } from '../model/index.ts';
 import {
   analysisReport, comparisonReport, impactReport, inputsReport, pathReport, phaseSummaryReport, roundsReport, scenarioMultiplierReport,
   ANALYSIS_REPORT_KINDS, type AnalysisReportKind, type ReportFile, type ScenarioReportContext,
 } from '../report/index.ts';
 import type { Scenario } from '../scenario/index.ts';
-import { studyLeontief, type PreparedStudy } from './prepare.ts';
+import type { PreparedStudy } from './prepare.ts';
 import { sourceContext } from './source.ts';
 import { compareStudyScenarios, runStudyScenario, studyModelNotes, type PhaseOutcome, type ScenarioOutcome } from './scenarios.ts';
 
@@ -101,13 +102,13 @@ export function reportUnavailable(ps: PreparedStudy, kind: ReportKind): string |
   return null;
 }
 
-/** A table report; the Leontief inverse is the study's (studyLeontief) when the analysis did not form it. */
+/** A table report; the Leontief inverse is formed here, with its accuracy ratio, when the analysis did not form it. */
 export function tableReport(ps: PreparedStudy, kind: AnalysisReportKind, date: string): ReportFile[] {
   const why = reportUnavailable(ps, kind);
   if (why) throw new InputError('report-unavailable', `no ${kind} report: ${why}`);
   let an = ps.analysis;
   if (kind === 'leontief-inverse' && !an.leontief) {
-    const { L, residual } = studyLeontief(ps);
+    const { L, residual } = formLeontief(ps.pm);
     an = { ...an, leontief: L, checks: { ...an.checks, inverseResidual: residual } };
   }
   return analysisReport(an, kind, context(ps, date))!;
