@@ -31,6 +31,11 @@ export function num(v: number, digits = 6): string {
   return Math.abs(v) >= 1e6 || (v !== 0 && Math.abs(v) < 1e-3) ? v.toExponential(digits - 1) : String(Number(v.toPrecision(digits)));
 }
 
+/** A total in a scenario summary: whole units from 1,000 up, four significant digits below; n/a for none. */
+export function summaryNumber(v: number | null | undefined): string {
+  return v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4);
+}
+
 /** Fixed-width text table: first column left-aligned, the rest right-aligned; cells escaped before measuring. */
 export function textTable(header: string[], rows: string[][]): string {
   const safe = (r: string[]) => r.map((c) => visibleText(c));

@@ -16,11 +16,11 @@ import {
   bandReports, scenarioBandsJson, sensitivityJson, sensitivityReports, studySensitivity,
 } from '../../study/index.ts';
 import { defineCommand, type RunContext } from '../command.ts';
+import { summaryNumber } from '../terminal.ts';
 import { prepareAnd, startHelpersFor, unkeptTableBuffer } from './analyze.ts';
 import { collectImportGarbage } from '../memory.ts';
 import { bandsOf, flqOf, scenarioBandsSummary, sensitivitySummary, uncertaintySettingsOf, SCENARIO_UNCERTAINTY_OPTIONS } from './uncertainty-options.ts';
 
-const fmt = (v: number | null | undefined) => (v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
 
 function totalsTable(r: ScenarioResult, title: string): string[] {
   const lines = [title];
@@ -29,7 +29,7 @@ function totalsTable(r: ScenarioResult, title: string): string[] {
     const t = r.totals[v];
     const m = r.multipliers[v];
     if (!t || !m) continue;
-    lines.push([`${VARIABLE_NAMES[v]}`.padEnd(22), ...[t.direct, t.indirect, t.induced, t.total, m.typeI.value, m.typeII.value].map((x) => fmt(x).padStart(12))].join(''));
+    lines.push([`${VARIABLE_NAMES[v]}`.padEnd(22), ...[t.direct, t.indirect, t.induced, t.total, m.typeI.value, m.typeII.value].map((x) => summaryNumber(x).padStart(12))].join(''));
   }
   return lines;
 }
@@ -40,12 +40,12 @@ function overTimeLines(p: PhaseOutcome, moneyUnit: string): string[] {
   const unit = visibleText(moneyUnit);
   const lines = [`Over ${o.years} years (years × one year, undiscounted): ${VARIABLES.flatMap((v) => {
     const t = o.cumulative[v];
-    return t ? [`${VARIABLE_NAMES[v]} ${fmt(t.total)} ${cumulativeUnitOf(v, unit)}`] : [];
+    return t ? [`${VARIABLE_NAMES[v]} ${summaryNumber(t.total)} ${cumulativeUnitOf(v, unit)}`] : [];
   }).join(', ')}.`];
   if (o.presentValue) {
-    lines.push(`Present value at ${o.rate} a year (ordinary annuity, factor ${fmt(o.annuityFactor)}): ${MONEY_VARIABLES.flatMap((v) => {
+    lines.push(`Present value at ${o.rate} a year (ordinary annuity, factor ${summaryNumber(o.annuityFactor)}): ${MONEY_VARIABLES.flatMap((v) => {
       const t = o.presentValue![v];
-      return t ? [`${VARIABLE_NAMES[v]} ${fmt(t.total)}`] : [];
+      return t ? [`${VARIABLE_NAMES[v]} ${summaryNumber(t.total)}`] : [];
     }).join(', ')} ${unit}.`);
   }
   return lines;
@@ -58,14 +58,14 @@ function phaseLines(o: ScenarioOutcome, p: PhaseOutcome): string[] {
   if (o.phases.length > 1) lines.push('', `Phase '${visibleText(p.phase.name)}' (${timingText(p.phase)})${p.phase.timing === 'annual' ? ': one year\'s effects' : ''}`);
   lines.push(...totalsTable(r, p.net ? 'Gross:' : ''));
   if (p.net) lines.push(...totalsTable(p.net, 'Net of displacement and deadweight:'));
-  for (const row of r.outside) lines.push(`  of which outside the table's sectors: ${visibleText(row.label)} (direct ${fmt(row.direct.output)} ${unit} output, ${fmt(row.direct.income)} ${unit} labour income${row.direct.employment != null ? `, ${fmt(row.direct.employment)} jobs` : ''})`);
+  for (const row of r.outside) lines.push(`  of which outside the table's sectors: ${visibleText(row.label)} (direct ${summaryNumber(row.direct.output)} ${unit} output, ${summaryNumber(row.direct.income)} ${unit} labour income${row.direct.employment != null ? `, ${summaryNumber(row.direct.employment)} jobs` : ''})`);
   lines.push(...overTimeLines(p, r.moneyUnit));
   lines.push(`Spending rounds (round 0 is the initial demand), share of the open-model output total reached: ${p.rounds.reach.map((x) => reachText(p.rounds, x.target)).join(', ')}.`);
   const pa = p.paths;
   if (pa) {
-    lines.push(`Structural paths to '${visibleText(pa.destinationLabel)}' (${pa.model} model): output change there ${fmt(pa.destinationTotal)} ${unit}; the ${pa.paths.length} paths listed explain ${pa.explainedShare === null ? 'n/a' : `${(pa.explainedShare * 100).toFixed(1)} %`}${pa.truncated ? ' (search cut short)' : ''}.`);
+    lines.push(`Structural paths to '${visibleText(pa.destinationLabel)}' (${pa.model} model): output change there ${summaryNumber(pa.destinationTotal)} ${unit}; the ${pa.paths.length} paths listed explain ${pa.explainedShare === null ? 'n/a' : `${(pa.explainedShare * 100).toFixed(1)} %`}${pa.truncated ? ' (search cut short)' : ''}.`);
     lines.push(`${'carries'.padStart(12)}${'share'.padStart(9)}  path`);
-    for (const x of pa.paths) lines.push(`${fmt(x.contribution).padStart(12)}${(x.share === null ? 'n/a' : `${(x.share * 100).toFixed(1)} %`).padStart(9)}  ${x.labels.map((l) => visibleText(l)).join(' > ')}`);
+    for (const x of pa.paths) lines.push(`${summaryNumber(x.contribution).padStart(12)}${(x.share === null ? 'n/a' : `${(x.share * 100).toFixed(1)} %`).padStart(9)}  ${x.labels.map((l) => visibleText(l)).join(' > ')}`);
   }
   if (o.phases.length > 1) for (const note of r.notes) lines.push(visibleText(note));
   return lines;
@@ -77,7 +77,7 @@ function timingSumLines(o: ScenarioOutcome, moneyUnit: string): string[] {
     const what = t.timing === 'once' ? 'All one-time phases, added' : 'All annual phases, one year of each, added';
     const parts = VARIABLES.flatMap((v) => {
       const x = t.gross[v] as EffectTotals | null | undefined;
-      return x ? [`${VARIABLE_NAMES[v]} ${fmt(x.total)} ${unitOf(v, visibleText(moneyUnit))}`] : [];
+      return x ? [`${VARIABLE_NAMES[v]} ${summaryNumber(x.total)} ${unitOf(v, visibleText(moneyUnit))}`] : [];
     });
     lines.push('', `${what} (${t.phases.map((n) => `'${visibleText(n)}'`).join(', ')}; gross totals): ${parts.join(', ')}.`);
   }

@@ -9,7 +9,7 @@ import {
   type BandsRequest, type BandsRun, type FlqOrigin, type PreparedStudy, type IOTable, type ScenarioBands, type SensitivityResult, type UncertaintyResult, type UncertaintySettings,
 } from '../../study/index.ts';
 import type { RunContext } from '../command.ts';
-import { textTable } from '../terminal.ts';
+import { summaryNumber, textTable } from '../terminal.ts';
 import { drawThreadsWorthIt, finishBandsThreaded, startDrawHelpers, stopDrawHelpers } from '../draw-pool.ts';
 
 /**
@@ -114,14 +114,13 @@ export function uncertaintySettingsOf(values: Values, ctx: RunContext): Uncertai
   });
 }
 
-const fmt = (v: number | null | undefined) => (v === null || v === undefined ? 'n/a' : Math.abs(v) >= 1000 ? v.toFixed(0) : v.toPrecision(4));
 
 /** Summary lines of a scenario's bands: each variable's total with its 5th–95th percentile range, named as in reports. */
 export function scenarioBandsSummary(r: UncertaintyResult, s: ScenarioBands): string[] {
   const lines = ['', `How sure: Monte Carlo bands from ${r.draws} draws (seed ${r.settings.seed}, CV ${r.settings.cv}${r.settings.cvFile ? ` and ${visibleText(r.settings.cvFile)}` : ''}); ${r.accepted} accepted, ${r.rejected} left out.`];
   const rows = VARIABLES.flatMap((v) => {
     const b = s.totals[v];
-    return b ? [[VARIABLE_NAMES[v], ...[b.point, b.p5, b.p50, b.p95, b.mean].map(fmt)]] : [];
+    return b ? [[VARIABLE_NAMES[v], ...[b.point, b.p5, b.p50, b.p95, b.mean].map(summaryNumber)]] : [];
   });
   lines.push(textTable(['', 'point', 'p5', 'p50', 'p95', 'mean'], rows));
   for (const n of r.notes.slice(2)) lines.push(visibleText(n));
@@ -151,7 +150,7 @@ export function sensitivitySummary(s: SensitivityResult, moneyUnit: string): str
   const lines = ['', `Sensitivity of total output (${visibleText(moneyUnit)}), one assumption at a time, largest swing first:`];
   lines.push(`${'swing'.padStart(12)}${'at low'.padStart(14)}${'at high'.padStart(14)}  assumption (low → high)`);
   for (const it of s.items) {
-    lines.push(`${fmt(it.swing.output).padStart(12)}${fmt(it.low.totals.output).padStart(14)}${fmt(it.high.totals.output).padStart(14)}  ${visibleText(it.assumption)} (${visibleText(it.low.setting)} → ${visibleText(it.high.setting)}; as typed ${visibleText(it.base)})`);
+    lines.push(`${summaryNumber(it.swing.output).padStart(12)}${summaryNumber(it.low.totals.output).padStart(14)}${summaryNumber(it.high.totals.output).padStart(14)}  ${visibleText(it.assumption)} (${visibleText(it.low.setting)} → ${visibleText(it.high.setting)}; as typed ${visibleText(it.base)})`);
   }
   return lines;
 }
